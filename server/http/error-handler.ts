@@ -1,0 +1,69 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ZodError, type z } from 'zod';
+import type { FieldIssue } from '@shared/api/api-error';
+import { HttpError } from './http-error';
+
+/** zod issues → one field-level detail each, with dotted paths ('' for the whole body). */
+export function zodDetails(err: ZodError): FieldIssue[] {
+  const out: FieldIssue[] = [];
+  for (const issue of err.issues) {
+    const base = issue.path.map(String).join('.');
+    if (issue.code === 'unrecognized_keys') {
+      for (const key of (issue as z.core.$ZodIssueUnrecognizedKeys).keys) {
+        out.push({ path: base ? `${base}.${key}` : key, message: 'Unknown field' });
+      }
+    } else {
+      out.push({ path: base, message: issue.message });
+    }
+  }
+  return out;
+}
+
+interface BodyParserError {
+  type?: string;
+  status?: number;
+  expose?: boolean;
+}
+
+// Keep all four parameters: that is how Express recognises an error handler.
+export function errorHandler(): ErrorRequestHandler {
+  return (err: unknown, req, res, _next) => {
+    if (res.headersSent) {
+      req.log.error({ err }, 'error after headers were sent');
+      res.end();
+      return;
+    }
+    if (err instanceof ZodError) {
+      res.status(400).json({
+        error: { code: 'invalid_input', message: 'Some fields are not valid', details: zodDetails(err) },
+      });
+      return;
+    }
+    if (err instanceof HttpError) {
+      res.status(err.status).json({
+        error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) },
+      });
+      return;
+    }
+    const bp = err as BodyParserError;
+    if (bp.type === 'entity.parse.failed') {
+      res.status(400).json({ error: { code: 'malformed_json', message: 'The request body is not valid JSON' } });
+      return;
+    }
+    if (bp.type === 'entity.too.large') {
+      res.status(413).json({ error: { code: 'payload_too_large', message: 'The request body is too large' } });
+      return;
+    }
+    if (bp.expose && bp.status && bp.status >= 400 && bp.status < 500) {
+      res.status(bp.status).json({ error: { code: 'bad_request', message: 'The request could not be read' } });
+      return;
+    }
+    req.log.error({ err, path: req.path }, 'unhandled error');
+    res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on our side' } });
+  };
+}
+
+/** Unknown /api paths answer 404 in the error shape rather than falling through to the client. */
+export const apiNotFound: RequestHandler = (req, res) => {
+  res.status(404).json({ error: { code: 'not_found', message: `No such endpoint: ${req.method} ${req.path}` } });
+};

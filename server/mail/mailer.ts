@@ -1,0 +1,35 @@
+import nodemailer from 'nodemailer';
+import type { Config } from '../config';
+
+export interface OutgoingMail {
+  to: string;
+  subject: string;
+  text: string;
+  html: string;
+}
+
+export interface Mailer {
+  send(mail: OutgoingMail): Promise<void>;
+  close(): void;
+}
+
+/** SMTP through nodemailer: the local sink in development and tests, the real relay in production. */
+export function createMailer(config: Config): Mailer {
+  const { smtp } = config;
+  const transport = nodemailer.createTransport({
+    host: smtp.host,
+    port: smtp.port,
+    secure: smtp.secure,
+    ignoreTLS: !smtp.secure && config.env !== 'production',
+    auth: smtp.user ? { user: smtp.user, pass: smtp.password ?? '' } : undefined,
+    connectionTimeout: 10_000,
+  });
+  return {
+    async send(mail) {
+      await transport.sendMail({ from: config.mailFrom, ...mail });
+    },
+    close() {
+      transport.close();
+    },
+  };
+}

@@ -1,0 +1,45 @@
+import type { Role } from '@shared/auth/roles';
+import { roleLabels } from '@shared/auth/roles';
+import type { OutgoingMail } from './mailer';
+
+const escapeHtml = (s: string) =>
+  s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] ?? c);
+
+function layout(paragraphs: string[], link: { href: string; label: string }): string {
+  const body = paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join('\n');
+  return `<!doctype html><html><body style="font-family: system-ui, sans-serif; color: #1b2a30">
+${body}
+<p><a href="${escapeHtml(link.href)}" style="color: #1D4E5F">${escapeHtml(link.label)}</a></p>
+<p style="color: #5b6b70; font-size: 13px">Tailroom</p>
+</body></html>`;
+}
+
+export function passwordResetMail(to: string, link: string, minutes: number): OutgoingMail {
+  const lines = [
+    'Someone asked to reset the password of your Tailroom account.',
+    `The link below works once, for ${minutes} minutes. If it was not you, ignore this message: your password stays as it is.`,
+  ];
+  return {
+    to,
+    subject: 'Reset your Tailroom password',
+    text: `${lines.join('\n\n')}\n\n${link}\n`,
+    html: layout(lines, { href: link, label: 'Choose a new password' }),
+  };
+}
+
+export function invitationMail(
+  to: string,
+  link: string,
+  details: { organizationName: string; invitedByName: string; role: Role; days: number },
+): OutgoingMail {
+  const lines = [
+    `${details.invitedByName} invited you to join ${details.organizationName} on Tailroom as ${roleLabels[details.role].toLowerCase()}.`,
+    `The invitation is valid for ${details.days} days.`,
+  ];
+  return {
+    to,
+    subject: `Join ${details.organizationName} on Tailroom`,
+    text: `${lines.join('\n\n')}\n\n${link}\n`,
+    html: layout(lines, { href: link, label: 'Accept the invitation' }),
+  };
+}

@@ -1,0 +1,31 @@
+import { createApp } from './app';
+import { loadConfig } from './config';
+import { createDb } from './db';
+import { createLogger } from './logger';
+import { createMailer } from './mail/mailer';
+
+const config = loadConfig();
+const logger = createLogger(config.logLevel);
+const db = createDb(config.databaseUrl);
+const mailer = createMailer(config);
+const { app, close } = createApp({ config, db, mailer, logger });
+
+const server = app.listen(config.port, config.host, () => {
+  logger.info({ url: config.publicUrl }, 'Tailroom is listening');
+});
+
+let stopping = false;
+function stop(signal: string) {
+  if (stopping) return;
+  stopping = true;
+  logger.info({ signal }, 'stopping');
+  server.close(() => {
+    void Promise.all([db.destroy(), close()]).finally(() => {
+      mailer.close();
+      process.exit(0);
+    });
+  });
+  setTimeout(() => process.exit(0), 5000).unref();
+}
+process.on('SIGINT', () => stop('SIGINT'));
+process.on('SIGTERM', () => stop('SIGTERM'));

@@ -1,0 +1,84 @@
+import type { Express } from 'express';
+import type { Knex } from 'knex';
+import request from 'supertest';
+import { createApp } from '../../server/app';
+import { parseConfig, type Config } from '../../server/config';
+import { createDb } from '../../server/db';
+import { createLogger } from '../../server/logger';
+import { createMailer, type Mailer } from '../../server/mail/mailer';
+import { startSmtpSink, type SmtpSink } from '../../server/fakes/smtp-sink';
+
+export interface TestApp {
+  app: Express;
+  db: Knex;
+  sink: SmtpSink;
+  config: Config;
+  close(): Promise<void>;
+}
+
+/** The production createApp() against the test database and an in-process e-mail sink. */
+export async function createTestApp(overrides: Record<string, string> = {}): Promise<TestApp> {
+  const databaseUrl = process.env['DATABASE_URL'];
+  if (!databaseUrl) throw new Error('DATABASE_URL is not set: run the tests through `npm test`');
+  const sink = await startSmtpSink();
+  const config = parseConfig({
+    NODE_ENV: 'test',
+    DATABASE_URL: databaseUrl,
+    SESSION_SECRET: 'test-session-secret-that-is-long-enough-123',
+    SMTP_PORT: String(sink.smtpPort),
+    DEV_OUTBOX_URL: `http://127.0.0.1:${sink.httpPort}`,
+    PUBLIC_URL: 'http://tailroom.test',
+    LOG_LEVEL: 'silent',
+    ...overrides,
+  });
+  const db = createDb(config.databaseUrl);
+  const mailer: Mailer = createMailer(config);
+  const { app, close } = createApp({ config, db, mailer, logger: createLogger('silent') });
+  return {
+    app,
+    db,
+    sink,
+    config,
+    async close() {
+      mailer.close();
+      await close();
+      await db.destroy();
+      await sink.close();
+    },
+  };
+}
+
+/** Empties every table the app writes (the schema stays). */
+export async function resetDb(db: Knex): Promise<void> {
+  await db.raw('TRUNCATE users, organizations, memberships, invitations, password_resets, projects, "session" CASCADE');
+}
+
+export const PASSWORD = 'correct horse battery';
+
+let counter = 0;
+export function uniqueEmail(prefix = 'user'): string {
+  counter += 1;
+  return `${prefix}.${Date.now().toString(36)}.${counter}@example.test`;
+}
+
+/** A new account (and its own organisation) signed in on a supertest agent. */
+export async function signUp(
+  app: Express,
+  fields: { email?: string; name?: string; organizationName?: string } = {},
+) {
+  const agent = request.agent(app);
+  const email = fields.email ?? uniqueEmail();
+  const res = await agent
+    .post('/api/v1/auth/sign-up')
+    .send({ email, name: fields.name ?? 'Test Person', password: PASSWORD, organizationName: fields.organizationName })
+    .expect(201);
+  const body = res.body as { user: { id: string }; currentOrganizationId: string };
+  return { agent, email, userId: body.user.id, organizationId: body.currentOrganizationId };
+}
+
+/** Extracts the path of the first link in an e-mail that contains `fragment`. */
+export function linkPath(text: string, fragment: string): string {
+  const match = text.match(new RegExp(`https?://[^\\s]+${fragment}[^\\s]*`));
+  if (!match) throw new Error(`no ${fragment} link in: ${text}`);
+  return new URL(match[0]).pathname;
+}
