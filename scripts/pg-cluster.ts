@@ -67,7 +67,7 @@ export class PgCluster {
     const [file, argv] = isRoot ? ['runuser', ['-u', 'postgres', '--', cmd, ...args]] : [cmd, args];
     const result = spawnSync(file, argv, { encoding: 'utf8', stdio: quiet ? 'pipe' : 'inherit' });
     if (result.status !== 0) {
-      throw new Error(`${tool} ${args.join(' ')} failed:\n${result.stdout ?? ''}${result.stderr ?? ''}`);
+      throw new Error(`${tool} ${args.join(' ')} failed:\n${result.stdout}${result.stderr}`);
     }
   }
 

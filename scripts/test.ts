@@ -62,11 +62,11 @@ function run(cmd: string, args: string[], env: NodeJS.ProcessEnv = process.env):
     const child = spawn(cmd, args, { env, stdio: ['ignore', 'pipe', 'pipe'] });
     children.push(child);
     let out = '';
-    child.stdout?.on('data', (d: Buffer) => {
+    child.stdout.on('data', (d: Buffer) => {
       out += d.toString();
       process.stdout.write(d);
     });
-    child.stderr?.on('data', (d: Buffer) => {
+    child.stderr.on('data', (d: Buffer) => {
       out += d.toString();
       process.stderr.write(d);
     });

@@ -39,7 +39,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   app.use(
     pinoHttp({
       logger,
-      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+      autoLogging: { ignore: (req) => !req.url.startsWith('/api') },
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
     }),
   );
@@ -73,7 +73,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
     }),
   );
   configurePassport(db);
-  app.use('/api', passport.initialize(), passport.session());
+  app.use('/api', passport.initialize(), passport.session() as express.RequestHandler);
 
   app.use('/api/v1', express.json({ limit: '100kb', strict: true }));
   app.use('/api/v1', authRouter(db, config, mailer));

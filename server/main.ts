@@ -8,9 +8,9 @@ const config = loadConfig();
 const logger = createLogger(config.logLevel);
 const db = createDb(config.databaseUrl);
 const mailer = createMailer(config);
-const { app, close } = createApp({ config, db, mailer, logger });
+const tailroom = createApp({ config, db, mailer, logger });
 
-const server = app.listen(config.port, config.host, () => {
+const server = tailroom.app.listen(config.port, config.host, () => {
   logger.info({ url: config.publicUrl }, 'Tailroom is listening');
 });
 
@@ -20,7 +20,7 @@ function stop(signal: string) {
   stopping = true;
   logger.info({ signal }, 'stopping');
   server.close(() => {
-    void Promise.all([db.destroy(), close()]).finally(() => {
+    void Promise.all([db.destroy(), tailroom.close()]).finally(() => {
       mailer.close();
       process.exit(0);
     });

@@ -1,5 +1,5 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
-import { ZodError, type z } from 'zod';
+import { ZodError } from 'zod';
 import type { FieldIssue } from '@shared/api/api-error';
 import { HttpError } from './http-error';
 
@@ -9,7 +9,7 @@ export function zodDetails(err: ZodError): FieldIssue[] {
   for (const issue of err.issues) {
     const base = issue.path.map(String).join('.');
     if (issue.code === 'unrecognized_keys') {
-      for (const key of (issue as z.core.$ZodIssueUnrecognizedKeys).keys) {
+      for (const key of (issue).keys) {
         out.push({ path: base ? `${base}.${key}` : key, message: 'Unknown field' });
       }
     } else {

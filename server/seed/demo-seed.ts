@@ -17,7 +17,7 @@ const DEMO_PROJECTS = ['Demo: Fernbrook Lane bungalow (invented)', 'Demo: Old Mi
 /** Creates the demo organisation once; a second run changes nothing, so data made since is kept. */
 export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
   return db.transaction(async (trx) => {
-    const exists = await trx('users').where({ email: DEMO_ACCOUNTS[0].email }).first('id');
+    const exists: unknown = await trx('users').where({ email: DEMO_ACCOUNTS[0].email }).first('id');
     if (exists) return { created: false };
     const passwordHash = await hashPassword(DEMO_PASSWORD);
     const [org] = await trx('organizations').insert({ name: DEMO_ORGANIZATION }).returning<{ id: string }[]>('id');

@@ -33,7 +33,8 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
   });
   const db = createDb(config.databaseUrl);
   const mailer: Mailer = createMailer(config);
-  const { app, close } = createApp({ config, db, mailer, logger: createLogger('silent') });
+  const created = createApp({ config, db, mailer, logger: createLogger('silent') });
+  const { app } = created;
   return {
     app,
     db,
@@ -41,7 +42,7 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
     config,
     async close() {
       mailer.close();
-      await close();
+      await created.close();
       await db.destroy();
       await sink.close();
     },
@@ -78,7 +79,7 @@ export async function signUp(
 
 /** Extracts the path of the first link in an e-mail that contains `fragment`. */
 export function linkPath(text: string, fragment: string): string {
-  const match = text.match(new RegExp(`https?://[^\\s]+${fragment}[^\\s]*`));
+  const match = new RegExp(`https?://[^\\s]+${fragment}[^\\s]*`).exec(text);
   if (!match) throw new Error(`no ${fragment} link in: ${text}`);
   return new URL(match[0]).pathname;
 }

@@ -52,7 +52,7 @@ export function configurePassport(db: Knex): void {
 function authenticateLocal(req: Request, res: Response): Promise<UserRecord | false> {
   return new Promise((resolve, reject) => {
     const handler = passport.authenticate('local', (err: unknown, user: UserRecord | false) => {
-      if (err) reject(err instanceof Error ? err : new Error(String(err)));
+      if (err) reject(err instanceof Error ? err : new Error('authentication failed'));
       else resolve(user);
     }) as (req: Request, res: Response, next: (err?: unknown) => void) => void;
     handler(req, res, (err) => reject(err instanceof Error ? err : new Error(String(err))));

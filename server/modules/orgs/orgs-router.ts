@@ -80,7 +80,7 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
     const input = invitationInputSchema.parse(req.body);
     const { organizationId, user } = orgContext(req);
     const created = await db.transaction(async (trx) => {
-      const alreadyMember = await trx('memberships as m')
+      const alreadyMember: unknown = await trx('memberships as m')
         .join('users as u', 'u.id', 'm.user_id')
         .where({ 'm.organization_id': organizationId, 'u.email': input.email })
         .first('m.user_id');

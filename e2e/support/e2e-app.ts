@@ -1,0 +1,88 @@
+import { mkdirSync } from 'node:fs';
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import path from 'node:path';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { createApp } from '../../server/app';
+import { parseConfig } from '../../server/config';
+import { createDb } from '../../server/db';
+import { createLogger } from '../../server/logger';
+import { createMailer } from '../../server/mail/mailer';
+import { startSmtpSink, type SmtpSink } from '../../server/fakes/smtp-sink';
+
+export const SCREENSHOTS = path.resolve('test-results/screenshots');
+
+export interface E2eApp {
+  baseUrl: string;
+  sink: SmtpSink;
+  browser: Browser;
+  close(): Promise<void>;
+}
+
+/** The real server (built client, test database, local e-mail sink) on a free loopback port, and Chromium. */
+export async function startE2eApp(): Promise<E2eApp> {
+  const databaseUrl = process.env['DATABASE_URL'];
+  const clientDist = process.env['CLIENT_DIST'];
+  if (!databaseUrl || !clientDist) throw new Error('DATABASE_URL and CLIENT_DIST are set by `npm test`');
+  const sink = await startSmtpSink();
+  const base = {
+    NODE_ENV: 'test',
+    DATABASE_URL: databaseUrl,
+    SESSION_SECRET: 'e2e-session-secret-that-is-long-enough-000',
+    SMTP_PORT: String(sink.smtpPort),
+    DEV_OUTBOX_URL: `http://127.0.0.1:${sink.httpPort}`,
+    CLIENT_DIST: clientDist,
+    LOG_LEVEL: 'silent',
+  };
+  // The public URL (used in e-mailed links) is known only once the port is: listen first, then attach the app.
+  const server = createServer();
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  const port = (server.address() as AddressInfo).port;
+  const config = parseConfig({ ...base, PORT: String(port), PUBLIC_URL: `http://127.0.0.1:${port}` });
+  const db = createDb(databaseUrl);
+  const mailer = createMailer(config);
+  const app = createApp({ config, db, mailer, logger: createLogger('silent') });
+  server.on('request', app.app);
+
+  const browser = await chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-dev-shm-usage',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+      '--disable-quic',
+    ],
+  });
+  mkdirSync(SCREENSHOTS, { recursive: true });
+  return {
+    baseUrl: `http://127.0.0.1:${port}`,
+    sink,
+    browser,
+    async close() {
+      await browser.close();
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await app.close();
+      mailer.close();
+      await db.destroy();
+      await sink.close();
+    },
+  };
+}
+
+/** Fails the test when the page asks anything of a host other than the app itself. */
+export function guardOffline(page: Page, baseUrl: string, offenders: string[]): void {
+  page.on('request', (req) => {
+    const url = req.url();
+    if (!url.startsWith(baseUrl) && !url.startsWith('data:') && !url.startsWith('blob:')) offenders.push(url);
+  });
+}
+
+export async function screenshot(page: Page, name: string): Promise<void> {
+  await page.screenshot({ path: path.join(SCREENSHOTS, `${name}.png`), fullPage: true });
+}

@@ -1,0 +1,69 @@
+import type { Routes } from '@angular/router';
+import { authGuard } from './auth/auth-guard';
+import { guestGuard } from './auth/guest-guard';
+
+export const routes: Routes = [
+  { path: '', pathMatch: 'full', redirectTo: 'projects' },
+
+  // Signed-out pages
+  {
+    path: 'sign-in',
+    title: 'Sign in · Tailroom',
+    canActivate: [guestGuard],
+    loadComponent: () => import('./auth/sign-in-page/sign-in-page').then((m) => m.SignInPage),
+  },
+  {
+    path: 'create-account',
+    title: 'Create account · Tailroom',
+    canActivate: [guestGuard],
+    loadComponent: () => import('./auth/create-account-page/create-account-page').then((m) => m.CreateAccountPage),
+  },
+  {
+    path: 'forgot-password',
+    title: 'Reset your password · Tailroom',
+    canActivate: [guestGuard],
+    loadComponent: () => import('./auth/forgot-password-page/forgot-password-page').then((m) => m.ForgotPasswordPage),
+  },
+  {
+    path: 'reset-password/:token',
+    title: 'Set a new password · Tailroom',
+    loadComponent: () => import('./auth/reset-password-page/reset-password-page').then((m) => m.ResetPasswordPage),
+  },
+  {
+    path: 'invitations/:token',
+    title: 'Invitation · Tailroom',
+    loadComponent: () => import('./orgs/invitation-page/invitation-page').then((m) => m.InvitationPage),
+  },
+
+  // Signed-in pages
+  {
+    path: 'projects',
+    title: 'Projects · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () => import('./projects/project-list-page/project-list-page').then((m) => m.ProjectListPage),
+  },
+  {
+    path: 'team',
+    title: 'Team · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () => import('./orgs/team-page/team-page').then((m) => m.TeamPage),
+  },
+
+  // Development only: the page itself says so when the server has no outbox.
+  {
+    path: 'dev/outbox',
+    title: 'Dev outbox · Tailroom',
+    loadComponent: () => import('./dev/outbox-page/outbox-page').then((m) => m.OutboxPage),
+  },
+
+  {
+    path: 'forbidden',
+    title: 'Not allowed · Tailroom',
+    loadComponent: () => import('./core/forbidden-page/forbidden-page').then((m) => m.ForbiddenPage),
+  },
+  {
+    path: '**',
+    title: 'Page not found · Tailroom',
+    loadComponent: () => import('./core/not-found-page/not-found-page').then((m) => m.NotFoundPage),
+  },
+];
