@@ -65,7 +65,8 @@ export class PgCluster {
   private run(tool: string, args: string[], quiet = true): void {
     const cmd = path.join(this.bin, tool);
     const [file, argv] = isRoot ? ['runuser', ['-u', 'postgres', '--', cmd, ...args]] : [cmd, args];
-    const result = spawnSync(file, argv, { encoding: 'utf8', stdio: quiet ? 'pipe' : 'inherit' });
+    // cwd: the postgres user may not be allowed into the caller's folder.
+    const result = spawnSync(file, argv, { encoding: 'utf8', stdio: quiet ? 'pipe' : 'inherit', cwd: this.rootDir });
     if (result.status !== 0) {
       throw new Error(`${tool} ${args.join(' ')} failed:\n${result.stdout}${result.stderr}`);
     }
@@ -101,7 +102,7 @@ export class PgCluster {
     ];
     const conf = path.join(this.dataDir, 'postgresql.conf');
     const append = `\n# Tailroom\n${settings.join('\n')}\n`;
-    if (isRoot) spawnSync('runuser', ['-u', 'postgres', '--', 'sh', '-c', `cat >> '${conf}'`], { input: append });
+    if (isRoot) spawnSync('runuser', ['-u', 'postgres', '--', 'sh', '-c', `cat >> '${conf}'`], { input: append, cwd: this.rootDir });
     else writeFileSync(conf, append, { flag: 'a' });
   }
 
@@ -109,7 +110,7 @@ export class PgCluster {
     const cmd = path.join(this.bin, 'pg_ctl');
     const args = ['-D', this.dataDir, 'status'];
     const r = isRoot
-      ? spawnSync('runuser', ['-u', 'postgres', '--', cmd, ...args])
+      ? spawnSync('runuser', ['-u', 'postgres', '--', cmd, ...args], { cwd: this.rootDir })
       : spawnSync(cmd, args);
     return r.status === 0;
   }

@@ -5,7 +5,7 @@
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { createHash, randomBytes } from 'node:crypto';
-import { existsSync, mkdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, realpathSync, symlinkSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { createDb } from '../server/db';
 import { migrateLatest } from '../server/migrate';
@@ -29,12 +29,13 @@ function secret(file: string, bytes: number): string {
 /** The cluster's folder: .data/pg, or (as root, where the repo's parents are closed to `postgres`) a link to /var/lib. */
 function clusterDir(): string {
   const inRepo = path.join(dataDir, 'pg');
-  if (existsSync(inRepo) || reachableByPostgres(dataDir)) return inRepo;
+  if (existsSync(inRepo)) return realpathSync(inRepo);
+  if (reachableByPostgres(dataDir)) return inRepo;
   const outside = path.join('/var/lib/tailroom', createHash('sha256').update(repo).digest('hex').slice(0, 16));
   mkdirSync(outside, { recursive: true });
   symlinkSync(outside, inRepo);
   log(`» ${dataDir} is not reachable by the postgres user; the cluster lives in ${outside} (linked as .data/pg)`);
-  return inRepo;
+  return outside;
 }
 
 const children: ChildProcess[] = [];
