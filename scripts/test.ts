@@ -112,7 +112,8 @@ function testFiles(dir: string, suffix: string): string[] {
     }
   };
   walk(dir);
-  return out.sort();
+  const filter = process.env['TEST_FILES'];
+  return out.filter((f) => !filter || new RegExp(filter).test(f)).sort();
 }
 function readdirSyncSafe(d: string): Dirent[] {
   return existsSync(d) ? readdirSync(d, { withFileTypes: true }) : [];
@@ -161,8 +162,10 @@ async function main(): Promise<number> {
       await db.destroy();
     }
   }
-  const e2eDb = createDb(cluster.url('tailroom_e2e'));
-  await migrateLatest(e2eDb).finally(() => e2eDb.destroy());
+  for (const name of ['tailroom_api', 'tailroom_e2e']) {
+    const db = createDb(cluster.url(name));
+    await migrateLatest(db).finally(() => db.destroy());
+  }
 
   const ng = ['node_modules/@angular/cli/bin/ng.js'];
   await check('typecheck', 'npm', ['run', '--silent', 'typecheck']);

@@ -13,6 +13,7 @@ import { apiNotFound, errorHandler } from './http/error-handler';
 import type { Mailer } from './mail/mailer';
 import { authRouter, configurePassport, SESSION_COOKIE } from './modules/auth/auth-router';
 import { devOutboxRouter } from './modules/dev/dev-outbox-router';
+import { climateRouter } from './modules/climate/climate-router';
 import { orgsRouter } from './modules/orgs/orgs-router';
 import { projectsRouter } from './modules/projects/projects-router';
 
@@ -40,6 +41,10 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
     pinoHttp({
       logger,
       autoLogging: { ignore: (req) => !req.url.startsWith('/api') },
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
       customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
     }),
   );
@@ -79,6 +84,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   app.use('/api/v1', authRouter(db, config, mailer));
   app.use('/api/v1', orgsRouter(db, config, mailer));
   app.use('/api/v1/projects', projectsRouter(db));
+  app.use('/api/v1', climateRouter(db));
   if (config.devOutboxUrl) app.use('/api/v1/dev', devOutboxRouter(config.devOutboxUrl));
   app.use('/api', apiNotFound);
 

@@ -1,4 +1,5 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { MulterError } from 'multer';
 import { ZodError } from 'zod';
 import type { FieldIssue } from '@shared/api/api-error';
 import { HttpError } from './http-error';
@@ -43,6 +44,20 @@ export function errorHandler(): ErrorRequestHandler {
       res.status(err.status).json({
         error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) },
       });
+      return;
+    }
+    if (err instanceof MulterError) {
+      if (err.code === 'LIMIT_FILE_SIZE') {
+        res.status(413).json({ error: { code: 'file_too_large', message: 'The file is larger than the upload limit' } });
+      } else {
+        res.status(400).json({
+          error: {
+            code: 'invalid_upload',
+            message: 'The upload could not be read',
+            details: [{ path: err.field ?? '', message: err.message }],
+          },
+        });
+      }
       return;
     }
     const bp = err as BodyParserError;

@@ -1,0 +1,158 @@
+/**
+ * Tailroom command line.
+ *
+ *   node --import tsx cli/tailroom-cli.ts conditions <file> [--format csv|isd-lite] [--elevation m]
+ *   node --import tsx cli/tailroom-cli.ts demo <site-id> [--years N] [--format csv|isd-lite]
+ *
+ * `conditions` prints the design conditions JSON of an hourly weather file to stdout.
+ * `demo` prints a generated demo file for an invented site to stdout.
+ * Exit codes: 0 success, 1 unreadable or unusable data, 2 usage error.
+ */
+import { createReadStream, existsSync, statSync } from 'node:fs';
+import { createInterface } from 'node:readline';
+import {
+  computeDesignConditions,
+  createParser,
+  demoSiteIds,
+  detectFormat,
+  findDemoSite,
+  generateDemoSeries,
+  seriesToCsv,
+  seriesToIsdLite,
+  weatherFileFormats,
+  type LineParser,
+  type ParseResult,
+  type WeatherFileFormat,
+} from '../shared/climate/index';
+
+const USAGE = `Usage:
+  tailroom-cli conditions <file> [--format csv|isd-lite] [--elevation m]
+  tailroom-cli demo <site-id> [--years N] [--format csv|isd-lite]
+
+Demo sites (invented): ${demoSiteIds.join(', ')}`;
+
+class UsageError extends Error {}
+
+interface ParsedArgs {
+  positional: string[];
+  flags: Map<string, string>;
+}
+
+function parseArgs(args: readonly string[], allowed: readonly string[]): ParsedArgs {
+  const positional: string[] = [];
+  const flags = new Map<string, string>();
+  for (let i = 0; i < args.length; i++) {
+    const arg = args[i] ?? '';
+    if (arg.startsWith('--')) {
+      const [name = '', inline] = arg.slice(2).split('=', 2);
+      if (!allowed.includes(name)) throw new UsageError(`Unknown option --${name}`);
+      const value = inline ?? args[++i];
+      if (value === undefined) throw new UsageError(`Option --${name} needs a value`);
+      flags.set(name, value);
+    } else {
+      positional.push(arg);
+    }
+  }
+  return { positional, flags };
+}
+
+function formatFlag(flags: Map<string, string>): WeatherFileFormat | undefined {
+  const value = flags.get('format');
+  if (value === undefined) return undefined;
+  const format = weatherFileFormats.find((f) => f === value);
+  if (format === undefined) throw new UsageError(`--format must be one of ${weatherFileFormats.join(', ')}`);
+  return format;
+}
+
+function numberFlag(flags: Map<string, string>, name: string): number | undefined {
+  const value = flags.get(name);
+  if (value === undefined) return undefined;
+  const n = Number(value);
+  if (value.trim() === '' || !Number.isFinite(n)) throw new UsageError(`--${name} must be a number`);
+  return n;
+}
+
+/** Streams a file line by line through the parser for its (given or detected) format. */
+async function parseFile(path: string, format: WeatherFileFormat | undefined): Promise<ParseResult & { format: WeatherFileFormat }> {
+  const lines = createInterface({ input: createReadStream(path, { encoding: 'utf8' }), crlfDelay: Infinity });
+  let parser: LineParser | undefined;
+  let chosen = format;
+  const pending: { line: string; n: number }[] = [];
+  let lineNumber = 0;
+  for await (const line of lines) {
+    lineNumber++;
+    if (parser === undefined) {
+      pending.push({ line, n: lineNumber });
+      if (line.trim() === '') continue;
+      chosen ??= detectFormat(line);
+      parser = createParser(chosen);
+      for (const p of pending) parser.push(p.line, p.n);
+      continue;
+    }
+    parser.push(line, lineNumber);
+  }
+  chosen ??= 'csv';
+  parser ??= createParser(chosen);
+  return { ...parser.finish(), format: chosen };
+}
+
+async function conditionsCommand(args: readonly string[]): Promise<number> {
+  const { positional, flags } = parseArgs(args, ['format', 'elevation']);
+  const [file, extra] = positional;
+  if (file === undefined) throw new UsageError('conditions needs a file');
+  if (extra !== undefined) throw new UsageError(`Unexpected argument ${extra}`);
+  if (!existsSync(file) || !statSync(file).isFile()) throw new UsageError(`No such file: ${file}`);
+  const format = formatFlag(flags);
+  const elevationM = numberFlag(flags, 'elevation');
+
+  const parsed = await parseFile(file, format);
+  if (!parsed.ok) {
+    const lines = parsed.problems.map((p) => `  line ${p.line}: ${p.message}`);
+    const more = parsed.problemCount - parsed.problems.length;
+    process.stderr.write(
+      `${file}: cannot be read as ${parsed.format}:\n${lines.join('\n')}\n` + (more > 0 ? `  … and ${more} more problem(s)\n` : ''),
+    );
+    return 1;
+  }
+  const result = computeDesignConditions(parsed.series, { elevationM });
+  if (!result.ok) {
+    process.stderr.write(`${file}: ${result.error.message}\n`);
+    for (const y of result.years) process.stderr.write(`  ${y.year}: ${(y.completeness * 100).toFixed(1)} % valid hours\n`);
+    return 1;
+  }
+  for (const w of result.warnings) process.stderr.write(`warning (${w.code}): ${w.message}\n`);
+  process.stdout.write(JSON.stringify(result.conditions, null, 2) + '\n');
+  return 0;
+}
+
+function demoCommand(args: readonly string[]): number {
+  const { positional, flags } = parseArgs(args, ['years', 'format']);
+  const [siteId, extra] = positional;
+  if (siteId === undefined) throw new UsageError('demo needs a site id');
+  if (extra !== undefined) throw new UsageError(`Unexpected argument ${extra}`);
+  const site = findDemoSite(siteId);
+  if (site === undefined) throw new UsageError(`Unknown demo site ${siteId}`);
+  const years = numberFlag(flags, 'years') ?? 10;
+  if (!Number.isInteger(years) || years < 1 || years > 200) throw new UsageError('--years must be a whole number from 1 to 200');
+  const series = generateDemoSeries(site, { years });
+  const format = formatFlag(flags) ?? 'csv';
+  process.stdout.write(format === 'isd-lite' ? seriesToIsdLite(series) : seriesToCsv(series));
+  return 0;
+}
+
+async function main(argv: readonly string[]): Promise<number> {
+  const [command, ...rest] = argv;
+  try {
+    if (command === 'conditions') return await conditionsCommand(rest);
+    if (command === 'demo') return demoCommand(rest);
+    throw new UsageError(command === undefined ? 'No command given' : `Unknown command ${command}`);
+  } catch (error) {
+    if (error instanceof UsageError) {
+      process.stderr.write(`${error.message}\n\n${USAGE}\n`);
+      return 2;
+    }
+    throw error;
+  }
+}
+
+process.exitCode = await main(process.argv.slice(2));

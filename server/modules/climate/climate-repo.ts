@@ -1,0 +1,259 @@
+import { pipeline } from 'node:stream/promises';
+import { Readable } from 'node:stream';
+import type { Knex } from 'knex';
+import { from as copyFrom } from 'pg-copy-streams';
+import type pg from 'pg';
+import type { ClimateSite, ClimateSiteSummary, SourceKind } from '@shared/climate-sites/climate-site-schemas';
+import type { DesignConditions, PublishedDesignValues } from '@shared/climate/design-conditions-schema';
+import type { HourlySeries } from '@shared/climate/hourly-series';
+import type { DistributionBin, MonthlyStatistics } from '@shared/climate/quality-report';
+
+interface SiteRow {
+  id: string;
+  organization_id: string;
+  name: string;
+  latitude: number | null;
+  longitude: number | null;
+  elevation_m: number | null;
+  utc_offset_hours: number | null;
+  notes: string;
+  source_kind: SourceKind;
+  published_source: string | null;
+  published_values: PublishedDesignValues | null;
+  is_demo: boolean;
+  created_at: Date;
+  updated_at: Date;
+  // joined from design_conditions
+  conditions: DesignConditions | null;
+  method_version: string | null;
+  computed_at: Date | null;
+  file_name: string | null;
+  row_count: number | null;
+}
+
+function toSummary(r: SiteRow): ClimateSiteSummary {
+  const heating = r.conditions?.heating ?? r.published_values?.heating ?? null;
+  const period = r.conditions?.period;
+  return {
+    id: r.id,
+    name: r.name,
+    latitude: r.latitude,
+    longitude: r.longitude,
+    elevationM: r.elevation_m,
+    utcOffsetHours: r.utc_offset_hours,
+    sourceKind: r.source_kind,
+    isDemo: r.is_demo,
+    heatingDb99_6: heating?.db99_6 ?? null,
+    heatingDb99: heating?.db99 ?? null,
+    firstYear: period?.firstYear ?? r.published_values?.period?.firstYear ?? null,
+    lastYear: period?.lastYear ?? r.published_values?.period?.lastYear ?? null,
+    qualifyingYearCount: period ? period.qualifyingYears.length : null,
+    updatedAt: r.updated_at.toISOString(),
+  };
+}
+
+function toSite(r: SiteRow): ClimateSite {
+  return {
+    ...toSummary(r),
+    notes: r.notes,
+    createdAt: r.created_at.toISOString(),
+    publishedValues: r.published_values,
+    computed:
+      r.conditions && r.method_version && r.computed_at
+        ? {
+            conditions: r.conditions,
+            methodVersion: r.method_version,
+            computedAt: r.computed_at.toISOString(),
+            fileName: r.file_name,
+            rowCount: r.row_count ?? 0,
+          }
+        : null,
+  };
+}
+
+function siteQuery(db: Knex, organizationId: string) {
+  return db('climate_sites as s')
+    .leftJoin('design_conditions as d', 'd.climate_site_id', 's.id')
+    .where('s.organization_id', organizationId)
+    .select<SiteRow[]>('s.*', 'd.conditions', 'd.method_version', 'd.computed_at', 'd.file_name', 'd.row_count');
+}
+
+export async function listSites(db: Knex, organizationId: string): Promise<ClimateSiteSummary[]> {
+  const rows = await siteQuery(db, organizationId).orderBy([{ column: 's.name' }, { column: 's.id' }]);
+  return rows.map(toSummary);
+}
+
+export async function findSite(db: Knex, organizationId: string, id: string): Promise<ClimateSite | undefined> {
+  const rows = await siteQuery(db, organizationId).andWhere('s.id', id);
+  return rows[0] && toSite(rows[0]);
+}
+
+export interface SiteWrite {
+  name?: string;
+  latitude?: number | null;
+  longitude?: number | null;
+  elevationM?: number | null;
+  utcOffsetHours?: number | null;
+  notes?: string;
+  publishedValues?: PublishedDesignValues;
+}
+
+function toRow(input: SiteWrite): Record<string, unknown> {
+  const row: Record<string, unknown> = {};
+  if (input.name !== undefined) row['name'] = input.name;
+  if (input.latitude !== undefined) row['latitude'] = input.latitude;
+  if (input.longitude !== undefined) row['longitude'] = input.longitude;
+  if (input.elevationM !== undefined) row['elevation_m'] = input.elevationM;
+  if (input.utcOffsetHours !== undefined) row['utc_offset_hours'] = input.utcOffsetHours;
+  if (input.notes !== undefined) row['notes'] = input.notes;
+  if (input.publishedValues !== undefined) {
+    row['published_values'] = JSON.stringify(input.publishedValues);
+    row['published_source'] = input.publishedValues.source;
+  }
+  return row;
+}
+
+export async function insertSite(
+  db: Knex,
+  organizationId: string,
+  userId: string | null,
+  input: SiteWrite & { name: string; sourceKind: SourceKind; isDemo?: boolean },
+): Promise<string> {
+  const [row] = await db('climate_sites')
+    .insert({
+      ...toRow(input),
+      organization_id: organizationId,
+      source_kind: input.sourceKind,
+      is_demo: input.isDemo ?? false,
+      created_by: userId,
+    })
+    .returning<{ id: string }[]>('id');
+  if (!row) throw new Error('insert returned no row');
+  return row.id;
+}
+
+export async function updateSite(db: Knex, organizationId: string, id: string, input: SiteWrite): Promise<boolean> {
+  const n = await db('climate_sites')
+    .where({ id, organization_id: organizationId })
+    .update({ ...toRow(input), updated_at: db.fn.now() });
+  return n > 0;
+}
+
+export async function deleteSite(db: Knex, organizationId: string, id: string): Promise<boolean> {
+  return (await db('climate_sites').where({ id, organization_id: organizationId }).delete()) > 0;
+}
+
+const fmt = (v: number | undefined): string => (v === undefined || Number.isNaN(v) ? '\\N' : String(v));
+
+/**
+ * Replaces a site's hourly observations with a series, by COPY (one round trip for the
+ * whole record). `trx` must be a transaction: a failure leaves the old record in place.
+ * Repeated hours keep their first value, as the engine does.
+ */
+export async function replaceObservations(trx: Knex.Transaction, siteId: string, series: HourlySeries): Promise<number> {
+  await trx('hourly_observations').where({ climate_site_id: siteId }).delete();
+  // Inside a transaction knex hands out the transaction's own connection.
+  const client = trx.client as { acquireConnection(): Promise<pg.PoolClient> };
+  const conn = await client.acquireConnection();
+  const n = series.time.length;
+  const seen = new Set<number>();
+  function* lines(): Generator<string> {
+    let chunk = '';
+    for (let i = 0; i < n; i++) {
+      const t = series.time[i] ?? NaN;
+      if (!Number.isFinite(t)) continue;
+      const hour = Math.floor(t / 3_600_000);
+      if (seen.has(hour)) continue;
+      seen.add(hour);
+      chunk += `${siteId}\t${new Date(hour * 3_600_000).toISOString()}\t${fmt(series.dryBulbC[i])}\t${fmt(series.dewPointC[i])}\t${fmt(series.windSpeedMs[i])}\t${fmt(series.stationPressureKpa[i])}\n`;
+      if (chunk.length > 256 * 1024) {
+        yield chunk;
+        chunk = '';
+      }
+    }
+    if (chunk) yield chunk;
+  }
+  const copy = conn.query(
+    copyFrom(
+      'COPY hourly_observations (climate_site_id, observed_at, dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa) FROM STDIN',
+    ),
+  );
+  await pipeline(Readable.from(lines()), copy);
+  return seen.size;
+}
+
+/** A site's stored hourly record, in time order. */
+export async function loadObservations(db: Knex, siteId: string): Promise<HourlySeries> {
+  const rows = await db('hourly_observations')
+    .where({ climate_site_id: siteId })
+    .orderBy('observed_at')
+    .select<{ t: number; db: number | null; dp: number | null; ws: number | null; p: number | null }[]>(
+      db.raw('(extract(epoch from observed_at) * 1000)::float8 as t'),
+      'dry_bulb_c as db',
+      'dew_point_c as dp',
+      'wind_speed_ms as ws',
+      'station_pressure_kpa as p',
+    );
+  const n = rows.length;
+  const series = {
+    time: new Float64Array(n),
+    dryBulbC: new Float64Array(n),
+    dewPointC: new Float64Array(n),
+    windSpeedMs: new Float64Array(n),
+    stationPressureKpa: new Float64Array(n),
+  };
+  // `real` arrives as its shortest decimal text; Math.fround gives back the exact stored
+  // 32-bit value, so a recomputation matches what was computed at upload.
+  const f = (v: number | null) => (v === null ? NaN : Math.fround(v));
+  rows.forEach((r, i) => {
+    series.time[i] = r.t;
+    series.dryBulbC[i] = f(r.db);
+    series.dewPointC[i] = f(r.dp);
+    series.windSpeedMs[i] = f(r.ws);
+    series.stationPressureKpa[i] = f(r.p);
+  });
+  return series;
+}
+
+export interface StoredComputation {
+  methodVersion: string;
+  conditions: DesignConditions;
+  quality: unknown;
+  distribution: { binWidthK: number; hours: number; bins: DistributionBin[] };
+  monthly: MonthlyStatistics[];
+  fileName: string | null;
+  rowCount: number;
+}
+
+export async function saveComputation(db: Knex, siteId: string, c: StoredComputation): Promise<void> {
+  await db('design_conditions')
+    .insert({
+      climate_site_id: siteId,
+      method_version: c.methodVersion,
+      conditions: JSON.stringify(c.conditions),
+      quality: JSON.stringify(c.quality),
+      distribution: JSON.stringify(c.distribution),
+      monthly: JSON.stringify(c.monthly),
+      file_name: c.fileName,
+      row_count: c.rowCount,
+      computed_at: db.fn.now(),
+    })
+    .onConflict('climate_site_id')
+    .merge();
+  await db('climate_sites').where({ id: siteId }).update({ updated_at: db.fn.now() });
+}
+
+export async function chartData(
+  db: Knex,
+  organizationId: string,
+  siteId: string,
+): Promise<{ distribution: StoredComputation['distribution']; monthly: MonthlyStatistics[] } | undefined> {
+  const row = await db('design_conditions as d')
+    .join('climate_sites as s', 's.id', 'd.climate_site_id')
+    .where({ 's.id': siteId, 's.organization_id': organizationId })
+    .first<{ distribution: StoredComputation['distribution']; monthly: MonthlyStatistics[] } | undefined>(
+      'd.distribution',
+      'd.monthly',
+    );
+  return row;
+}

@@ -1,0 +1,202 @@
+import { Router } from 'express';
+import type { Knex } from 'knex';
+import multer from 'multer';
+import { z } from 'zod';
+import {
+  CLIMATE_UPLOAD_MAX_BYTES,
+  CLIMATE_UPLOAD_MAX_FILES,
+  climateSiteInputSchema,
+  climateSitePatchSchema,
+  uploadFieldsSchema,
+  type ClimateUpload,
+} from '@shared/climate-sites/climate-site-schemas';
+import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
+import { csvFields, type CsvMapping } from '@shared/climate/readers/csv-reader';
+import { authorize, orgContext } from '../../http/authorize';
+import { HttpError } from '../../http/http-error';
+import * as repo from './climate-repo';
+import { analyse, qualitySummary, recompute, storeRecord } from './climate-service';
+import { atStoragePrecision, decodeSeries, encodeSeries } from './series-codec';
+import { readWeatherFiles } from './weather-files';
+
+const siteParam = z.object({ siteId: z.uuid('Unknown climate site') });
+const uploadParam = z.object({ uploadId: z.uuid('Unknown upload') });
+const mappingSchema = z.partialRecord(z.enum(csvFields), z.string().min(1).max(200));
+const UPLOAD_HOURS = 24;
+
+const siteNotFound = () => new HttpError(404, 'not_found', 'That climate site was not found');
+
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: CLIMATE_UPLOAD_MAX_BYTES, files: CLIMATE_UPLOAD_MAX_FILES, fields: 5, fieldSize: 8000 },
+});
+
+export function climateRouter(db: Knex): Router {
+  const router = Router();
+
+  router.get('/climate-sites', authorize(db, 'org:read'), async (req, res) => {
+    res.json(await repo.listSites(db, orgContext(req).organizationId));
+  });
+
+  router.post('/climate-sites', authorize(db, 'project:write'), async (req, res) => {
+    const input = climateSiteInputSchema.parse(req.body);
+    const { organizationId, user } = orgContext(req);
+    const id = await repo.insertSite(db, organizationId, user.id, input);
+    const site = await repo.findSite(db, organizationId, id);
+    res.status(201).location(`/api/v1/climate-sites/${id}`).json(site);
+  });
+
+  router.get('/climate-sites/:siteId', authorize(db, 'org:read'), async (req, res) => {
+    const { siteId } = siteParam.parse(req.params);
+    const { organizationId } = orgContext(req);
+    let site = await repo.findSite(db, organizationId, siteId);
+    if (!site) throw siteNotFound();
+    if (site.computed && site.computed.methodVersion !== METHOD_VERSION) {
+      // Stored with an older method: recompute from the stored record.
+      const elevation = site.elevationM;
+      await db.transaction((trx) => recompute(trx, siteId, elevation));
+      site = await repo.findSite(db, organizationId, siteId);
+    }
+    res.json(site);
+  });
+
+  router.patch('/climate-sites/:siteId', authorize(db, 'project:write'), async (req, res) => {
+    const { siteId } = siteParam.parse(req.params);
+    const patch = climateSitePatchSchema.parse(req.body);
+    const { organizationId } = orgContext(req);
+    await db.transaction(async (trx) => {
+      const before = await repo.findSite(trx, organizationId, siteId);
+      if (!before) throw siteNotFound();
+      if (patch.publishedValues && before.sourceKind !== 'published') {
+        throw new HttpError(422, 'not_published', 'This site computes its values from an hourly record', [
+          { path: 'publishedValues', message: 'Only sites with published values take typed-in values' },
+        ]);
+      }
+      await repo.updateSite(trx, organizationId, siteId, patch);
+      // The station pressure, and so the humidity ratios, follow the elevation.
+      if (patch.elevationM !== undefined && patch.elevationM !== before.elevationM && before.computed) {
+        await recompute(trx, siteId, patch.elevationM);
+      }
+    });
+    res.json(await repo.findSite(db, organizationId, siteId));
+  });
+
+  router.delete('/climate-sites/:siteId', authorize(db, 'project:write'), async (req, res) => {
+    const { siteId } = siteParam.parse(req.params);
+    if (!(await repo.deleteSite(db, orgContext(req).organizationId, siteId))) throw siteNotFound();
+    res.status(204).end();
+  });
+
+  router.get('/climate-sites/:siteId/chart-data', authorize(db, 'org:read'), async (req, res) => {
+    const { siteId } = siteParam.parse(req.params);
+    const { organizationId } = orgContext(req);
+    const data = await repo.chartData(db, organizationId, siteId);
+    if (!data) {
+      if (!(await repo.findSite(db, organizationId, siteId))) throw siteNotFound();
+      throw new HttpError(404, 'no_record', 'This site has no hourly record yet');
+    }
+    res.json(data);
+  });
+
+  router.post(
+    '/climate-sites/:siteId/uploads',
+    authorize(db, 'project:write'),
+    upload.array('files', CLIMATE_UPLOAD_MAX_FILES),
+    async (req, res) => {
+      const { siteId } = siteParam.parse(req.params);
+      const fields = uploadFieldsSchema.parse(req.body ?? {});
+      let mapping: CsvMapping | undefined;
+      if (fields.mapping) {
+        let raw: unknown;
+        try {
+          raw = JSON.parse(fields.mapping);
+        } catch {
+          throw new HttpError(400, 'invalid_input', 'The column mapping is not valid JSON', [{ path: 'mapping', message: 'Not valid JSON' }]);
+        }
+        mapping = mappingSchema.parse(raw);
+      }
+      const { organizationId, user } = orgContext(req);
+      const site = await repo.findSite(db, organizationId, siteId);
+      if (!site) throw siteNotFound();
+      if (site.sourceKind !== 'hourly') {
+        throw new HttpError(422, 'not_hourly', 'This site holds published values; create a site for an hourly record');
+      }
+      const files = (req.files as Express.Multer.File[] | undefined) ?? [];
+      const total = files.reduce((s, f) => s + f.size, 0);
+      if (total > CLIMATE_UPLOAD_MAX_BYTES) {
+        throw new HttpError(413, 'file_too_large', `An upload can hold at most ${CLIMATE_UPLOAD_MAX_BYTES / 1024 / 1024} MB`);
+      }
+      const { series, format, rowCount } = readWeatherFiles(
+        files.map((f) => ({ name: f.originalname, content: f.buffer })),
+        { format: fields.format, mapping },
+      );
+      const stored = atStoragePrecision(series);
+      const { result, quality } = analyse(stored, site.elevationM);
+      const fileName = files.length === 1 ? (files[0]?.originalname ?? 'upload') : `${files.length} files`;
+      const expiresAt = new Date(Date.now() + UPLOAD_HOURS * 3_600_000);
+      const summary = qualitySummary(quality);
+      const [row] = await db('climate_uploads')
+        .insert({
+          organization_id: organizationId,
+          climate_site_id: siteId,
+          uploaded_by: user.id,
+          file_name: fileName,
+          format,
+          row_count: rowCount,
+          series: encodeSeries(stored),
+          quality: JSON.stringify(summary),
+          expires_at: expiresAt,
+        })
+        .returning<{ id: string }[]>('id');
+      if (!row) throw new Error('insert returned no row');
+      const answer: ClimateUpload = {
+        id: row.id,
+        siteId,
+        fileName,
+        format,
+        rowCount,
+        quality: summary,
+        preview: result.ok ? result.conditions : null,
+        warnings: [...(result.ok ? [] : [result.error.message]), ...result.warnings.map((w) => w.message)],
+        expiresAt: expiresAt.toISOString(),
+      };
+      res.status(201).location(`/api/v1/climate-uploads/${row.id}`).json(answer);
+    },
+  );
+
+  router.post('/climate-uploads/:uploadId/confirm', authorize(db, 'project:write'), async (req, res) => {
+    const { uploadId } = uploadParam.parse(req.params);
+    const { organizationId } = orgContext(req);
+    const siteId = await db.transaction(async (trx) => {
+      const up = await trx('climate_uploads')
+        .where({ id: uploadId, organization_id: organizationId })
+        .where('expires_at', '>', trx.fn.now())
+        .forUpdate()
+        .first<{ climate_site_id: string; series: Buffer; file_name: string; row_count: number } | undefined>(
+          'climate_site_id',
+          'series',
+          'file_name',
+          'row_count',
+        );
+      if (!up) throw new HttpError(404, 'not_found', 'That upload was not found or has expired; upload the file again');
+      const site = await repo.findSite(trx, organizationId, up.climate_site_id);
+      if (!site) throw siteNotFound();
+      await storeRecord(trx, up.climate_site_id, decodeSeries(up.series), site.elevationM, {
+        fileName: up.file_name,
+        rowCount: up.row_count,
+      });
+      await trx('climate_uploads').where({ climate_site_id: up.climate_site_id }).delete();
+      return up.climate_site_id;
+    });
+    res.json(await repo.findSite(db, organizationId, siteId));
+  });
+
+  router.delete('/climate-uploads/:uploadId', authorize(db, 'project:write'), async (req, res) => {
+    const { uploadId } = uploadParam.parse(req.params);
+    const n = await db('climate_uploads').where({ id: uploadId, organization_id: orgContext(req).organizationId }).delete();
+    if (!n) throw new HttpError(404, 'not_found', 'That upload was not found');
+    res.status(204).end();
+  });
+
+  return router;
+}

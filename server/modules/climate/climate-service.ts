@@ -1,0 +1,81 @@
+import type { Knex } from 'knex';
+import type { QualitySummary } from '@shared/climate-sites/climate-site-schemas';
+import { computeFromPrepared, type DesignConditionsResult } from '@shared/climate/design-conditions';
+import type { HourlySeries } from '@shared/climate/hourly-series';
+import { prepareSeries } from '@shared/climate/prepared-series';
+import { qualityReportFromPrepared, type QualityReport } from '@shared/climate/quality-report';
+import { HttpError } from '../../http/http-error';
+import * as repo from './climate-repo';
+
+export interface Analysis {
+  result: DesignConditionsResult;
+  quality: QualityReport;
+}
+
+/** Checks and computes a record once (ordering, de-duplication and range checks shared by both). */
+export function analyse(series: HourlySeries, elevationM: number | null): Analysis {
+  const prepared = prepareSeries(series);
+  return {
+    result: computeFromPrepared(prepared, { elevationM }),
+    quality: qualityReportFromPrepared(prepared),
+  };
+}
+
+/** The quality report without its chart data, as the upload screen shows it. */
+export function qualitySummary(q: QualityReport): QualitySummary {
+  return {
+    distinctHours: q.distinctHours,
+    firstHour: q.firstHour,
+    lastHour: q.lastHour,
+    yearsFound: q.yearsFound,
+    qualifyingYears: q.qualifyingYears,
+    completeness: q.completeness.map((y) => ({ ...y })),
+    gaps: q.gaps,
+    duplicates: q.duplicates,
+    outOfRange: { count: q.outOfRange.count, byField: { ...q.outOfRange.byField }, first: q.outOfRange.first.map((o) => ({ ...o })) },
+  };
+}
+
+/** Stores a record and its computed conditions (inside the caller's transaction). */
+export async function storeRecord(
+  trx: Knex.Transaction,
+  siteId: string,
+  series: HourlySeries,
+  elevationM: number | null,
+  source: { fileName: string | null; rowCount: number },
+): Promise<void> {
+  const { result, quality } = analyse(series, elevationM);
+  if (!result.ok) {
+    throw new HttpError(422, 'no_qualifying_years', `${result.error.message} Nothing was stored.`);
+  }
+  await repo.replaceObservations(trx, siteId, series);
+  await repo.saveComputation(trx, siteId, {
+    methodVersion: result.methodVersion,
+    conditions: result.conditions,
+    quality: qualitySummary(quality),
+    distribution: quality.distribution,
+    monthly: quality.monthly,
+    fileName: source.fileName,
+    rowCount: source.rowCount,
+  });
+}
+
+/** Recomputes a site's stored conditions from its stored record (after its elevation or the method changed). */
+export async function recompute(trx: Knex.Transaction, siteId: string, elevationM: number | null): Promise<void> {
+  const current = await trx('design_conditions')
+    .where({ climate_site_id: siteId })
+    .first<{ file_name: string | null; row_count: number } | undefined>('file_name', 'row_count');
+  if (!current) return;
+  const series = await repo.loadObservations(trx, siteId);
+  const { result, quality } = analyse(series, elevationM);
+  if (!result.ok) return;
+  await repo.saveComputation(trx, siteId, {
+    methodVersion: result.methodVersion,
+    conditions: result.conditions,
+    quality: qualitySummary(quality),
+    distribution: quality.distribution,
+    monthly: quality.monthly,
+    fileName: current.file_name,
+    rowCount: current.row_count,
+  });
+}

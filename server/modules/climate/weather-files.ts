@@ -1,0 +1,93 @@
+import { gunzipSync } from 'node:zlib';
+import type { HourlySeries } from '@shared/climate/hourly-series';
+import { createParser, detectFormat, type CsvMapping, type WeatherFileFormat } from '@shared/climate/readers';
+import type { FieldIssue } from '@shared/api/api-error';
+import { HttpError } from '../../http/http-error';
+import { concatSeries } from './series-codec';
+
+export interface WeatherFile {
+  name: string;
+  content: Buffer;
+}
+
+const MAX_UNPACKED_BYTES = 400 * 1024 * 1024;
+const MAX_LISTED_PROBLEMS = 10;
+
+/** Text of an uploaded file: gzip is unpacked; anything that is not text is refused (checked from the content, not the name). */
+export function fileText(file: WeatherFile): string {
+  let bytes = file.content;
+  if (bytes.length >= 2 && bytes[0] === 0x1f && bytes[1] === 0x8b) {
+    try {
+      bytes = gunzipSync(bytes, { maxOutputLength: MAX_UNPACKED_BYTES });
+    } catch {
+      throw new HttpError(415, 'unsupported_file', `${file.name} looks compressed but could not be unpacked`);
+    }
+  }
+  const sample = bytes.subarray(0, 64 * 1024);
+  if (sample.includes(0)) {
+    throw new HttpError(415, 'unsupported_file', `${file.name} is not a text file: upload a CSV or NOAA ISD-Lite text file`);
+  }
+  const text = bytes.toString('utf8');
+  if (sample.length > 0 && text.slice(0, 4096).includes('\uFFFD')) {
+    throw new HttpError(415, 'unsupported_file', `${file.name} is not UTF-8 text`);
+  }
+  return text;
+}
+
+/**
+ * Reads one or more files with the streaming line parsers (line by line, without
+ * splitting the whole text into an array). A bad file refuses the whole upload.
+ */
+export function readWeatherFiles(
+  files: WeatherFile[],
+  options: { format: 'auto' | WeatherFileFormat; mapping?: CsvMapping },
+): { series: HourlySeries; format: WeatherFileFormat; rowCount: number } {
+  if (files.length === 0) throw new HttpError(400, 'invalid_input', 'Choose a file to upload', [{ path: 'files', message: 'Choose a file' }]);
+  const parts: HourlySeries[] = [];
+  const problems: FieldIssue[] = [];
+  let format: WeatherFileFormat | undefined;
+  let rowCount = 0;
+  let problemCount = 0;
+  for (const file of files) {
+    const text = fileText(file);
+    const firstLine = text.slice(0, !text.includes('\n') ? text.length : text.indexOf('\n')).trim();
+    const fileFormat = options.format === 'auto' ? detectFormat(firstLine) : options.format;
+    if (format && fileFormat !== format) {
+      throw new HttpError(400, 'invalid_file', 'All files of one upload must have the same format', [
+        { path: file.name, message: `This file looks like ${fileFormat}, the first one like ${format}` },
+      ]);
+    }
+    format = fileFormat;
+    const parser = createParser(fileFormat, { mapping: options.mapping });
+    let start = 0;
+    let line = 0;
+    while (start <= text.length) {
+      let end = text.indexOf('\n', start);
+      if (end === -1) end = text.length;
+      line++;
+      const raw = text.slice(start, end);
+      parser.push(raw.endsWith('\r') ? raw.slice(0, -1) : raw, line);
+      start = end + 1;
+    }
+    const result = parser.finish();
+    if (result.ok) {
+      parts.push(result.series);
+      rowCount += result.rowCount;
+    } else {
+      problemCount += result.problemCount;
+      const label = files.length > 1 ? `${file.name} line` : 'line';
+      for (const p of result.problems) {
+        if (problems.length < MAX_LISTED_PROBLEMS) problems.push({ path: `${label} ${p.line}`, message: p.message });
+      }
+    }
+  }
+  if (problems.length > 0 || !format) {
+    throw new HttpError(
+      400,
+      'invalid_file',
+      `The file was refused: ${problemCount} problem${problemCount === 1 ? '' : 's'} found (the first are listed). Nothing was stored.`,
+      problems,
+    );
+  }
+  return { series: concatSeries(parts), format, rowCount };
+}

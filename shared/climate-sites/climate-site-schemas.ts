@@ -1,0 +1,178 @@
+import { z } from 'zod';
+import { designConditionsSchema, publishedDesignValuesSchema } from '../climate/design-conditions-schema';
+
+export const CLIMATE_SITE_NAME_MAX = 160;
+/** Largest accepted upload, bytes (60 MB). */
+export const CLIMATE_UPLOAD_MAX_BYTES = 60 * 1024 * 1024;
+/** ISD-Lite comes one file per station-year: an upload may hold this many files. */
+export const CLIMATE_UPLOAD_MAX_FILES = 60;
+
+export const sourceKinds = ['published', 'hourly'] as const;
+export const sourceKindSchema = z.enum(sourceKinds, { error: 'Choose published values or an hourly record' });
+export type SourceKind = z.infer<typeof sourceKindSchema>;
+
+const optionalNumber = (label: string, min: number, max: number, unit: string) =>
+  z
+    .number({ error: `Enter the ${label} as a number (${unit})` })
+    .min(min, `The ${label} must be at least ${min} ${unit}`)
+    .max(max, `The ${label} must be at most ${max} ${unit}`)
+    .nullable()
+    .optional();
+
+const siteFields = {
+  name: z
+    .string({ error: 'Enter a name for the site' })
+    .trim()
+    .min(1, 'Enter a name for the site')
+    .max(CLIMATE_SITE_NAME_MAX, `Use at most ${CLIMATE_SITE_NAME_MAX} characters`),
+  latitude: optionalNumber('latitude', -90, 90, '°'),
+  longitude: optionalNumber('longitude', -180, 180, '°'),
+  /** Site elevation, m; sets the station pressure by the standard atmosphere. */
+  elevationM: optionalNumber('elevation', -500, 9000, 'm'),
+  /** Local standard time minus UTC, hours (for display only: the engine works in UTC). */
+  utcOffsetHours: optionalNumber('UTC offset', -12, 14, 'h'),
+  notes: z.string().trim().max(4000, 'Use at most 4000 characters for notes').optional(),
+};
+
+/** POST /api/v1/climate-sites */
+export const climateSiteInputSchema = z
+  .strictObject({
+    ...siteFields,
+    sourceKind: sourceKindSchema,
+    /** Required when sourceKind is 'published'. */
+    publishedValues: publishedDesignValuesSchema.optional(),
+  })
+  .refine((v) => v.sourceKind !== 'published' || v.publishedValues !== undefined, {
+    path: ['publishedValues'],
+    error: 'Enter the published design values (at least the heating dry-bulbs and their source)',
+  })
+  .refine((v) => v.sourceKind !== 'hourly' || v.publishedValues === undefined, {
+    path: ['publishedValues'],
+    error: 'A site with an hourly record computes its values; it takes no published values',
+  });
+export type ClimateSiteInput = z.infer<typeof climateSiteInputSchema>;
+
+/** PATCH /api/v1/climate-sites/:siteId (publishedValues only on published sites) */
+export const climateSitePatchSchema = z.strictObject({
+  name: siteFields.name.optional(),
+  latitude: siteFields.latitude,
+  longitude: siteFields.longitude,
+  elevationM: siteFields.elevationM,
+  utcOffsetHours: siteFields.utcOffsetHours,
+  notes: siteFields.notes,
+  publishedValues: publishedDesignValuesSchema.optional(),
+});
+export type ClimateSitePatch = z.infer<typeof climateSitePatchSchema>;
+
+/** One row of GET /api/v1/climate-sites */
+export const climateSiteSummarySchema = z.object({
+  id: z.uuid(),
+  name: z.string(),
+  latitude: z.number().nullable(),
+  longitude: z.number().nullable(),
+  elevationM: z.number().nullable(),
+  utcOffsetHours: z.number().nullable(),
+  sourceKind: sourceKindSchema,
+  /** Invented demo data (labelled as such in the app). */
+  isDemo: z.boolean(),
+  /** Heating design dry-bulbs, °C, when known (computed or published). */
+  heatingDb99_6: z.number().nullable(),
+  heatingDb99: z.number().nullable(),
+  /** Years of the hourly record (null for published values or before an upload). */
+  firstYear: z.int().nullable(),
+  lastYear: z.int().nullable(),
+  qualifyingYearCount: z.int().nullable(),
+  updatedAt: z.string(),
+});
+export type ClimateSiteSummary = z.infer<typeof climateSiteSummarySchema>;
+export const climateSiteListSchema = z.array(climateSiteSummarySchema);
+
+/** GET /api/v1/climate-sites/:siteId */
+export const climateSiteSchema = climateSiteSummarySchema.extend({
+  notes: z.string(),
+  createdAt: z.string(),
+  /** Published sites: the values as typed in. */
+  publishedValues: publishedDesignValuesSchema.nullable(),
+  /** Hourly sites after a confirmed upload: the computed conditions and their provenance. */
+  computed: z
+    .object({
+      conditions: designConditionsSchema,
+      methodVersion: z.string(),
+      computedAt: z.string(),
+      fileName: z.string().nullable(),
+      rowCount: z.int(),
+    })
+    .nullable(),
+});
+export type ClimateSite = z.infer<typeof climateSiteSchema>;
+
+export const distributionBinSchema = z.object({
+  upperC: z.number(),
+  hours: z.number(),
+  cumulativeFraction: z.number(),
+});
+export const monthlyStatisticsSchema = z.object({
+  month: z.int(),
+  hours: z.number(),
+  minC: z.number().nullable(),
+  meanC: z.number().nullable(),
+  maxC: z.number().nullable(),
+});
+
+/** GET /api/v1/climate-sites/:siteId/chart-data (hourly sites with a confirmed upload) */
+export const climateChartDataSchema = z.object({
+  distribution: z.object({ binWidthK: z.number(), hours: z.number(), bins: z.array(distributionBinSchema) }),
+  monthly: z.array(monthlyStatisticsSchema),
+});
+export type ClimateChartData = z.infer<typeof climateChartDataSchema>;
+
+const gapSchema = z.object({ start: z.string(), hours: z.number() });
+/** The data-quality report shown before an upload is confirmed (the engine's QualityReport less the chart data). */
+export const qualitySummarySchema = z.object({
+  distinctHours: z.number(),
+  firstHour: z.string().nullable(),
+  lastHour: z.string().nullable(),
+  yearsFound: z.array(z.int()),
+  qualifyingYears: z.array(z.int()),
+  completeness: z.array(
+    z.object({
+      year: z.int(),
+      hoursPresent: z.number(),
+      validHours: z.number(),
+      hoursInYear: z.number(),
+      completeness: z.number(),
+      qualifies: z.boolean(),
+    }),
+  ),
+  gaps: z.object({ count: z.number(), longest: gapSchema.nullable(), first: z.array(gapSchema) }),
+  duplicates: z.number(),
+  outOfRange: z.object({
+    count: z.number(),
+    byField: z.record(z.string(), z.number()),
+    first: z.array(z.object({ time: z.string(), field: z.string(), value: z.number() })),
+  }),
+});
+export type QualitySummary = z.infer<typeof qualitySummarySchema>;
+
+/** Multipart fields of POST /api/v1/climate-sites/:siteId/uploads besides the file(s) ("files"). */
+export const uploadFieldsSchema = z.strictObject({
+  format: z.enum(['auto', 'csv', 'isd-lite'], { error: 'Choose CSV, ISD-Lite or automatic' }).default('auto'),
+  /** JSON of a column mapping for CSVs with other column names, e.g. {"time":"Date","dry_bulb_c":"Temp"}. */
+  mapping: z.string().max(4000).optional(),
+});
+
+/** 201 answer of an upload: parsed and checked, waiting for the user's confirmation. */
+export const climateUploadSchema = z.object({
+  id: z.uuid(),
+  siteId: z.uuid(),
+  fileName: z.string(),
+  format: z.enum(['csv', 'isd-lite']),
+  rowCount: z.int(),
+  quality: qualitySummarySchema,
+  /** What the conditions would be (null when no year qualifies). */
+  preview: designConditionsSchema.nullable(),
+  /** Plain messages for what the engine warned about. */
+  warnings: z.array(z.string()),
+  expiresAt: z.string(),
+});
+export type ClimateUpload = z.infer<typeof climateUploadSchema>;

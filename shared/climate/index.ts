@@ -1,0 +1,12 @@
+/** Climate engine: design conditions from hourly weather records, data quality, readers and demo data. */
+export * from './design-conditions';
+export * from './design-conditions-schema';
+export * from './demo-weather';
+export * from './extremes';
+export * from './hourly-series';
+export * from './percentile';
+export * from './prepared-series';
+export * from './psychrometrics';
+export * from './quality-report';
+export * from './units';
+export * from './readers/index';

@@ -1,0 +1,316 @@
+/**
+ * Streaming reader for the generic hourly CSV: a header row that names the units, then one row per
+ * observation. Columns (case-insensitive):
+ *   time (ISO 8601; UTC when no offset), dry_bulb_c | dry_bulb_f (required),
+ *   dew_point_c | dew_point_f, wind_speed_ms | wind_speed_mph | wind_speed_kn, station_pressure_kpa.
+ * Other columns are ignored. An empty cell, `NA` or −9999 is a missing value. Quoted fields and a
+ * UTF-8 byte-order mark are accepted; lines starting with `#` and blank lines are skipped.
+ */
+import { fahrenheitToCelsius, knotsToMs, mphToMs } from '../units';
+import { parseIsoDateTime } from './iso-time';
+import { type LineParser, parseDecimal, ProblemList, type ParseResult } from './parse-result';
+import { SeriesBuilder } from './series-builder';
+
+export const csvFields = [
+  'time',
+  'dry_bulb_c',
+  'dry_bulb_f',
+  'dew_point_c',
+  'dew_point_f',
+  'wind_speed_ms',
+  'wind_speed_mph',
+  'wind_speed_kn',
+  'station_pressure_kpa',
+] as const;
+export type CsvField = (typeof csvFields)[number];
+
+/** Maps our field names to the file's own column names, e.g. `{ time: 'Date/Time', dry_bulb_c: 'Temp' }`. */
+export type CsvMapping = Partial<Record<CsvField, string>>;
+
+export interface CsvParserOptions {
+  /** Columns of the file to read each field from; unmapped fields are looked up by their own names. */
+  mapping?: CsvMapping;
+}
+
+/** Value used by many weather files for "missing". */
+export const MISSING_SENTINEL = -9999;
+
+const BOM = '\uFEFF';
+
+function normaliseName(name: string): string {
+  return name.replace(BOM, '').trim().toLowerCase();
+}
+
+function detectDelimiter(headerLine: string): string {
+  if (headerLine.includes(',')) return ',';
+  if (headerLine.includes(';')) return ';';
+  if (headerLine.includes('\t')) return '\t';
+  return ',';
+}
+
+/**
+ * Splits one CSV line into fields (RFC 4180 quoting within the line: `"a, b"`, `"say ""hi"""`).
+ * Returns undefined when a quoted field is not closed on the line.
+ */
+export function splitCsvLine(line: string, delimiter = ','): string[] | undefined {
+  const fields: string[] = [];
+  let i = 0;
+  const n = line.length;
+  for (;;) {
+    let field = '';
+    while (i < n && line[i] === ' ') i++;
+    if (line[i] === '"') {
+      i++;
+      let closed = false;
+      while (i < n) {
+        const c = line.charAt(i);
+        if (c === '"') {
+          if (line[i + 1] === '"') {
+            field += '"';
+            i += 2;
+          } else {
+            i++;
+            closed = true;
+            break;
+          }
+        } else {
+          field += c;
+          i++;
+        }
+      }
+      if (!closed) return undefined;
+      while (i < n && line[i] !== delimiter) i++;
+    } else {
+      const next = line.indexOf(delimiter, i);
+      const end = next === -1 ? n : next;
+      field = line.slice(i, end);
+      i = end;
+    }
+    fields.push(field.trim());
+    if (i >= n) break;
+    i++; // the delimiter
+    if (i === n) {
+      fields.push('');
+      break;
+    }
+  }
+  return fields;
+}
+
+/** A cell as a number: NaN for missing (empty, NA, −9999), undefined when it is not a number. */
+function parseCell(text: string): number | undefined {
+  if (text === '' || text.toUpperCase() === 'NA' || text.toUpperCase() === 'N/A') return NaN;
+  const v = parseDecimal(text);
+  if (v === undefined) return undefined;
+  return v === MISSING_SENTINEL ? NaN : v;
+}
+
+export interface CsvHeaderInspection {
+  /** Column names as written (quotes, spaces and byte-order mark removed). */
+  columns: string[];
+  /** A guess of which column holds each field; check it with the user before use. */
+  suggestedMapping: CsvMapping;
+  /** Required fields no column could be matched to. */
+  missingRequired: ('time' | 'dry_bulb')[];
+}
+
+function unitTokens(name: string): Set<string> {
+  return new Set(name.toLowerCase().replace('°', 'deg').split(/[^a-z0-9]+/).filter((t) => t.length > 0));
+}
+
+/** Reads a header line and suggests which column holds each field. */
+export function inspectCsvHeader(line: string): CsvHeaderInspection {
+  const stripped = line.replace(BOM, '');
+  const columns = (splitCsvLine(stripped, detectDelimiter(stripped)) ?? stripped.split(',')).map((c) => c.trim());
+  const suggestedMapping: CsvMapping = {};
+  const taken = new Set<string>();
+  const assign = (field: CsvField, column: string): void => {
+    if (suggestedMapping[field] === undefined && !taken.has(column)) {
+      suggestedMapping[field] = column;
+      taken.add(column);
+    }
+  };
+  // Exact names first.
+  for (const column of columns) {
+    const name = normaliseName(column);
+    for (const field of csvFields) if (name === field) assign(field, column);
+  }
+  const hasAny = (...fields: CsvField[]): boolean => fields.some((f) => suggestedMapping[f] !== undefined);
+  for (const column of columns) {
+    if (taken.has(column)) continue;
+    const name = normaliseName(column);
+    const tokens = unitTokens(column);
+    const fahrenheit = tokens.has('f') || tokens.has('degf') || tokens.has('fahrenheit');
+    if (!hasAny('time') && /time|date|utc/.test(name)) {
+      assign('time', column);
+    } else if (!hasAny('dew_point_c', 'dew_point_f') && /dew|tdp/.test(name)) {
+      assign(fahrenheit ? 'dew_point_f' : 'dew_point_c', column);
+    } else if (
+      !hasAny('dry_bulb_c', 'dry_bulb_f') &&
+      (/dry.?bulb|temp|tdb|t2m/.test(name) || name === 't') &&
+      !/wet|dew|soil|water/.test(name)
+    ) {
+      assign(fahrenheit ? 'dry_bulb_f' : 'dry_bulb_c', column);
+    } else if (
+      !hasAny('wind_speed_ms', 'wind_speed_mph', 'wind_speed_kn') &&
+      (/wind.?(speed|spd)|^ws$|^wspd$/.test(name) || (name.includes('wind') && !/dir|gust/.test(name)))
+    ) {
+      const knots = tokens.has('kn') || tokens.has('kt') || tokens.has('kts') || tokens.has('knots');
+      assign(tokens.has('mph') ? 'wind_speed_mph' : knots ? 'wind_speed_kn' : 'wind_speed_ms', column);
+    } else if (!hasAny('station_pressure_kpa') && tokens.has('kpa') && !name.includes('sea')) {
+      assign('station_pressure_kpa', column);
+    }
+  }
+  const missingRequired: ('time' | 'dry_bulb')[] = [];
+  if (!hasAny('time')) missingRequired.push('time');
+  if (!hasAny('dry_bulb_c', 'dry_bulb_f')) missingRequired.push('dry_bulb');
+  return { columns, suggestedMapping, missingRequired };
+}
+
+interface ColumnPlan {
+  delimiter: string;
+  width: number;
+  time: number;
+  dryBulb: number;
+  dryBulbFahrenheit: boolean;
+  dewPoint: number;
+  dewPointFahrenheit: boolean;
+  wind: number;
+  windToMs: (v: number) => number;
+  pressure: number;
+  names: string[];
+}
+
+/** Creates an incremental parser for the generic hourly CSV. */
+export function createCsvParser(options: CsvParserOptions = {}): LineParser {
+  const builder = new SeriesBuilder();
+  const problems = new ProblemList();
+  let lineCounter = 0;
+  let plan: ColumnPlan | undefined;
+  let headerFailed = false;
+  let headerLine = 0;
+  let lastLine = 0;
+  let rows = 0;
+
+  const readHeader = (line: string, lineNumber: number): void => {
+    const delimiter = detectDelimiter(line);
+    const fields = splitCsvLine(line, delimiter);
+    if (fields === undefined) {
+      problems.add(lineNumber, 'The header has a quoted name that is not closed');
+      headerFailed = true;
+      return;
+    }
+    const names = fields.map(normaliseName);
+    const mapping = options.mapping ?? {};
+    const headerProblems: string[] = [];
+    const indexOf = (field: CsvField): number => {
+      const mapped = mapping[field];
+      if (mapped !== undefined) {
+        const index = names.indexOf(normaliseName(mapped));
+        if (index === -1) headerProblems.push(`Column "${mapped}" given for ${field} is not in the header`);
+        return index;
+      }
+      return names.indexOf(field);
+    };
+    const found = Object.fromEntries(csvFields.map((f) => [f, indexOf(f)])) as Record<CsvField, number>;
+    const pickOne = (label: string, candidates: CsvField[], required: boolean): CsvField | undefined => {
+      const present = candidates.filter((f) => found[f] >= 0);
+      if (present.length > 1) {
+        headerProblems.push(`Give only one ${label} column (found ${present.join(', ')})`);
+        return undefined;
+      }
+      if (present.length === 0 && required && !candidates.some((f) => mapping[f] !== undefined)) {
+        headerProblems.push(`Missing required column: ${candidates.join(' or ')}`);
+      }
+      return present[0];
+    };
+    if (found.time < 0 && mapping.time === undefined) headerProblems.push('Missing required column: time');
+    const dryBulb = pickOne('dry-bulb', ['dry_bulb_c', 'dry_bulb_f'], true);
+    const dewPoint = pickOne('dew-point', ['dew_point_c', 'dew_point_f'], false);
+    const wind = pickOne('wind-speed', ['wind_speed_ms', 'wind_speed_mph', 'wind_speed_kn'], false);
+    if (headerProblems.length > 0 || dryBulb === undefined) {
+      for (const message of headerProblems) problems.add(lineNumber, message);
+      headerFailed = true;
+      return;
+    }
+    plan = {
+      delimiter,
+      width: names.length,
+      time: found.time,
+      dryBulb: found[dryBulb],
+      dryBulbFahrenheit: dryBulb === 'dry_bulb_f',
+      dewPoint: dewPoint === undefined ? -1 : found[dewPoint],
+      dewPointFahrenheit: dewPoint === 'dew_point_f',
+      wind: wind === undefined ? -1 : found[wind],
+      windToMs: wind === 'wind_speed_mph' ? mphToMs : wind === 'wind_speed_kn' ? knotsToMs : (v: number) => v,
+      pressure: found.station_pressure_kpa,
+      names: fields,
+    };
+  };
+
+  const readRow = (p: ColumnPlan, line: string, lineNumber: number): void => {
+    const fields = splitCsvLine(line, p.delimiter);
+    if (fields === undefined) {
+      problems.add(lineNumber, 'A quoted field is not closed');
+      return;
+    }
+    if (fields.length !== p.width) {
+      problems.add(lineNumber, `Expected ${p.width} columns, found ${fields.length}`);
+      return;
+    }
+    const timeText = fields[p.time] ?? '';
+    const time = parseIsoDateTime(timeText);
+    if (time === undefined) {
+      problems.add(lineNumber, timeText === '' ? 'The time is missing' : `Cannot read the time "${timeText}"`);
+      return;
+    }
+    const cells: number[] = [];
+    for (const index of [p.dryBulb, p.dewPoint, p.wind, p.pressure]) {
+      if (index < 0) {
+        cells.push(NaN);
+        continue;
+      }
+      const text = fields[index] ?? '';
+      const v = parseCell(text);
+      if (v === undefined) {
+        problems.add(lineNumber, `Column "${p.names[index] ?? ''}": "${text}" is not a number`);
+        return;
+      }
+      cells.push(v);
+    }
+    const [db = NaN, dp = NaN, ws = NaN, pressure = NaN] = cells;
+    builder.push(
+      time,
+      p.dryBulbFahrenheit ? fahrenheitToCelsius(db) : db,
+      p.dewPointFahrenheit ? fahrenheitToCelsius(dp) : dp,
+      p.windToMs(ws),
+      pressure,
+    );
+    rows++;
+  };
+
+  return {
+    push(rawLine: string, lineNumber?: number): void {
+      lineCounter++;
+      const ln = lineNumber ?? lineCounter;
+      lastLine = ln;
+      const line = (lineCounter === 1 ? rawLine.replace(BOM, '') : rawLine).replace(/\r$/, '');
+      if (line.trim() === '' || line.trimStart().startsWith('#')) return;
+      if (headerFailed) return;
+      if (plan === undefined) {
+        headerLine = ln;
+        readHeader(line, ln);
+        return;
+      }
+      readRow(plan, line, ln);
+    },
+    finish(): ParseResult {
+      if (plan === undefined && !headerFailed) problems.add(Math.max(1, lastLine), 'The file is empty');
+      else if (plan !== undefined && rows === 0 && problems.count === 0) {
+        problems.add(headerLine, 'The file has a header but no data rows');
+      }
+      if (problems.count > 0) return { ok: false, problems: problems.listed, problemCount: problems.count };
+      return { ok: true, series: builder.build(), rowCount: rows };
+    },
+  };
+}
