@@ -1,5 +1,9 @@
 import type { Knex } from 'knex';
+import { DEMO_SITES, generateDemoSeries } from '@shared/climate/demo-weather';
 import { hashPassword } from '../modules/auth/passwords';
+import { insertSite } from '../modules/climate/climate-repo';
+import { storeRecord } from '../modules/climate/climate-service';
+import { atStoragePrecision } from '../modules/climate/series-codec';
 
 /**
  * Demo data: an invented firm in an invented town, for trying Tailroom out.
@@ -34,6 +38,40 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
     for (const name of DEMO_PROJECTS) {
       await trx('projects').insert({ organization_id: org.id, name, created_by: ownerId });
     }
+    // Three invented sites with 30-year hourly records from the seeded generator.
+    for (const site of DEMO_SITES) {
+      const siteId = await insertSite(trx, org.id, ownerId, {
+        name: site.name,
+        latitude: site.latitude,
+        longitude: site.longitude,
+        elevationM: site.elevationM,
+        utcOffsetHours: site.utcOffsetHours,
+        notes: `${site.description} Invented demo data made by a seeded generator, not observations of a real place.`,
+        sourceKind: 'hourly',
+        isDemo: true,
+      });
+      const series = atStoragePrecision(generateDemoSeries(site, { years: 30 }));
+      await storeRecord(trx, siteId, series, site.elevationM, { fileName: `${site.id} (generated)`, rowCount: series.time.length });
+    }
+    // And one typed in by hand, as from a published table (invented values).
+    await insertSite(trx, org.id, ownerId, {
+      name: 'Ashcombe Ridge (invented, typed-in values)',
+      elevationM: 240,
+      utcOffsetHours: -5,
+      notes: 'Invented demo values entered by hand, to show a site without an hourly record.',
+      sourceKind: 'published',
+      isDemo: true,
+      publishedValues: {
+        source: 'Invented demo values (no real table)',
+        elevation: 240,
+        period: { firstYear: 1995, lastYear: 2024 },
+        heating: { db99_6: -19.4, db99: -16.2 },
+        cooling: { db0_4: 31.6, db1: 30.1, db2: 28.7 },
+        extremeMin: { mean: -23.8, sd: 3.4, returnPeriod: { '5': -26.2, '10': -28.2, '20': -30.1, '50': -32.6 } },
+        wind: { coldestMonth: 1, coldestMonth1: 10.8, coincident99_6: 3.9, annual1: 10.2, annual2_5: 9.1, annual5: 8.2 },
+        hdd18: 3890,
+      },
+    });
     return { created: true };
   });
 }

@@ -125,6 +125,11 @@ describe('hourly records: upload, check, confirm', () => {
     assert.ok(Math.abs(last.cumulativeFraction - 1) < 1e-9);
     const list = await agent.get('/api/v1/climate-sites').expect(200);
     assert.equal(list.body[0].qualifyingYearCount, 3);
+
+    // Deleting the site takes its hourly record with it.
+    await agent.delete(`/api/v1/climate-sites/${siteId}`).expect(204);
+    assert.equal(await count('hourly_observations'), 0);
+    assert.equal(await count('design_conditions'), 0);
   });
 
   it('accepts several gzipped ISD-Lite yearly files in one upload', async () => {

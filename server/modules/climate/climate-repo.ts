@@ -1,5 +1,3 @@
-import { pipeline } from 'node:stream/promises';
-import { Readable } from 'node:stream';
 import type { Knex } from 'knex';
 import { from as copyFrom } from 'pg-copy-streams';
 import type pg from 'pg';
@@ -143,43 +141,82 @@ export async function deleteSite(db: Knex, organizationId: string, id: string): 
   return (await db('climate_sites').where({ id, organization_id: organizationId }).delete()) > 0;
 }
 
-const fmt = (v: number | undefined): string => (v === undefined || Number.isNaN(v) ? '\\N' : String(v));
+/** PostgreSQL's epoch (2000-01-01T00:00Z) in hours since the Unix epoch. */
+const PG_EPOCH_HOURS = 262_968;
+const MICROSECONDS_PER_HOUR = 3_600_000_000;
+const TWO_TO_32 = 4_294_967_296;
 
 /**
- * Replaces a site's hourly observations with a series, by COPY (one round trip for the
- * whole record). `trx` must be a transaction: a failure leaves the old record in place.
- * Repeated hours keep their first value, as the engine does.
+ * The rows of a series in PostgreSQL's binary COPY format (faster for the server to read than
+ * text: no number or date parsing). One tuple: 6 fields — uuid, timestamptz (int64 µs since
+ * 2000-01-01), four float4 (length −1 for NULL).
+ */
+export function binaryCopyRows(siteId: string, series: HourlySeries): { buffer: Buffer; rows: number } {
+  const uuid = Buffer.from(siteId.replace(/-/g, ''), 'hex');
+  const n = series.time.length;
+  const tupleBytes = 2 + (4 + 16) + (4 + 8) + 4 * (4 + 4);
+  const out = Buffer.alloc(11 + 4 + 4 + n * tupleBytes + 2);
+  let o = out.write('PGCOPY\n\xff\r\n\0', 0, 'latin1');
+  o = out.writeInt32BE(0, o); // flags
+  o = out.writeInt32BE(0, o); // header extension length
+  const seen = new Set<number>();
+  const columns = [series.dryBulbC, series.dewPointC, series.windSpeedMs, series.stationPressureKpa];
+  let rows = 0;
+  for (let i = 0; i < n; i++) {
+    const t = series.time[i] ?? NaN;
+    if (!Number.isFinite(t)) continue;
+    const hour = Math.floor(t / 3_600_000);
+    if (seen.has(hour)) continue; // a repeated hour keeps its first value
+    seen.add(hour);
+    rows++;
+    o = out.writeInt16BE(6, o);
+    o = out.writeInt32BE(16, o);
+    o += uuid.copy(out, o);
+    // int64 µs since 2000-01-01, written as two 32-bit halves (exact: |µs| < 2^53 for years 1715–2284).
+    const us = (hour - PG_EPOCH_HOURS) * MICROSECONDS_PER_HOUR;
+    const high = Math.floor(us / TWO_TO_32);
+    o = out.writeInt32BE(8, o);
+    o = out.writeInt32BE(high, o);
+    o = out.writeUInt32BE(us - high * TWO_TO_32, o);
+    for (const column of columns) {
+      const v = column[i] ?? NaN;
+      if (Number.isNaN(v)) {
+        o = out.writeInt32BE(-1, o);
+      } else {
+        o = out.writeInt32BE(4, o);
+        o = out.writeFloatBE(v, o);
+      }
+    }
+  }
+  o = out.writeInt16BE(-1, o); // trailer
+  return { buffer: out.subarray(0, o), rows };
+}
+
+/**
+ * Replaces a site's hourly observations with a series by one binary COPY. `trx` must be a
+ * transaction: a failure leaves the old record in place. Repeated hours keep their first value,
+ * as the engine does.
  */
 export async function replaceObservations(trx: Knex.Transaction, siteId: string, series: HourlySeries): Promise<number> {
+  // The site must exist and stay while its rows go in (hourly_observations has no foreign key).
+  const site: unknown = await trx('climate_sites').where({ id: siteId }).forKeyShare().first('id');
+  if (!site) throw new Error(`climate site ${siteId} does not exist`);
   await trx('hourly_observations').where({ climate_site_id: siteId }).delete();
   // Inside a transaction knex hands out the transaction's own connection.
   const client = trx.client as { acquireConnection(): Promise<pg.PoolClient> };
   const conn = await client.acquireConnection();
-  const n = series.time.length;
-  const seen = new Set<number>();
-  function* lines(): Generator<string> {
-    let chunk = '';
-    for (let i = 0; i < n; i++) {
-      const t = series.time[i] ?? NaN;
-      if (!Number.isFinite(t)) continue;
-      const hour = Math.floor(t / 3_600_000);
-      if (seen.has(hour)) continue;
-      seen.add(hour);
-      chunk += `${siteId}\t${new Date(hour * 3_600_000).toISOString()}\t${fmt(series.dryBulbC[i])}\t${fmt(series.dewPointC[i])}\t${fmt(series.windSpeedMs[i])}\t${fmt(series.stationPressureKpa[i])}\n`;
-      if (chunk.length > 256 * 1024) {
-        yield chunk;
-        chunk = '';
-      }
-    }
-    if (chunk) yield chunk;
-  }
+  const { buffer, rows } = binaryCopyRows(siteId, series);
   const copy = conn.query(
     copyFrom(
-      'COPY hourly_observations (climate_site_id, observed_at, dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa) FROM STDIN',
+      'COPY hourly_observations (climate_site_id, observed_at, dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa) FROM STDIN (FORMAT binary)',
     ),
   );
-  await pipeline(Readable.from(lines()), copy);
-  return seen.size;
+  await new Promise<void>((resolve, reject) => {
+    copy.on('finish', resolve);
+    copy.on('error', reject);
+    copy.end(buffer);
+  });
+  return rows;
 }
 
 /** A site's stored hourly record, in time order. */

@@ -15,7 +15,7 @@ import { csvFields, type CsvMapping } from '@shared/climate/readers/csv-reader';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
 import * as repo from './climate-repo';
-import { analyse, qualitySummary, recompute, storeRecord } from './climate-service';
+import { analyse, qualitySummary, recompute, storeRecord, storedComputation } from './climate-service';
 import { atStoragePrecision, decodeSeries, encodeSeries } from './series-codec';
 import { readWeatherFiles } from './weather-files';
 
@@ -131,8 +131,10 @@ export function climateRouter(db: Knex): Router {
         { format: fields.format, mapping },
       );
       const stored = atStoragePrecision(series);
-      const { result, quality } = analyse(stored, site.elevationM);
+      const analysis = analyse(stored, site.elevationM);
+      const { result, quality } = analysis;
       const fileName = files.length === 1 ? (files[0]?.originalname ?? 'upload') : `${files.length} files`;
+      const computed = storedComputation(analysis, { fileName, rowCount });
       const expiresAt = new Date(Date.now() + UPLOAD_HOURS * 3_600_000);
       const summary = qualitySummary(quality);
       const [row] = await db('climate_uploads')
@@ -145,6 +147,8 @@ export function climateRouter(db: Knex): Router {
           row_count: rowCount,
           series: encodeSeries(stored),
           quality: JSON.stringify(summary),
+          analysis: computed ? JSON.stringify(computed) : null,
+          elevation_m: site.elevationM,
           expires_at: expiresAt,
         })
         .returning<{ id: string }[]>('id');
@@ -172,19 +176,30 @@ export function climateRouter(db: Knex): Router {
         .where({ id: uploadId, organization_id: organizationId })
         .where('expires_at', '>', trx.fn.now())
         .forUpdate()
-        .first<{ climate_site_id: string; series: Buffer; file_name: string; row_count: number } | undefined>(
-          'climate_site_id',
-          'series',
-          'file_name',
-          'row_count',
-        );
+        .first<
+          | {
+              climate_site_id: string;
+              series: Buffer;
+              file_name: string;
+              row_count: number;
+              analysis: repo.StoredComputation | null;
+              elevation_m: number | null;
+            }
+          | undefined
+        >('climate_site_id', 'series', 'file_name', 'row_count', 'analysis', 'elevation_m');
       if (!up) throw new HttpError(404, 'not_found', 'That upload was not found or has expired; upload the file again');
       const site = await repo.findSite(trx, organizationId, up.climate_site_id);
       if (!site) throw siteNotFound();
-      await storeRecord(trx, up.climate_site_id, decodeSeries(up.series), site.elevationM, {
-        fileName: up.file_name,
-        rowCount: up.row_count,
-      });
+      // The analysis made at upload used the site's elevation of that moment; recompute if it changed since.
+      const computed = site.elevationM === up.elevation_m ? up.analysis : null;
+      await storeRecord(
+        trx,
+        up.climate_site_id,
+        decodeSeries(up.series),
+        site.elevationM,
+        { fileName: up.file_name, rowCount: up.row_count },
+        computed,
+      );
       await trx('climate_uploads').where({ climate_site_id: up.climate_site_id }).delete();
       return up.climate_site_id;
     });

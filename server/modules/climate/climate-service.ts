@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import type { QualitySummary } from '@shared/climate-sites/climate-site-schemas';
 import { computeFromPrepared, type DesignConditionsResult } from '@shared/climate/design-conditions';
+import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import type { HourlySeries } from '@shared/climate/hourly-series';
 import { prepareSeries } from '@shared/climate/prepared-series';
 import { qualityReportFromPrepared, type QualityReport } from '@shared/climate/quality-report';
@@ -36,20 +37,14 @@ export function qualitySummary(q: QualityReport): QualitySummary {
   };
 }
 
-/** Stores a record and its computed conditions (inside the caller's transaction). */
-export async function storeRecord(
-  trx: Knex.Transaction,
-  siteId: string,
-  series: HourlySeries,
-  elevationM: number | null,
+/** What is stored for a record; undefined when no year qualifies. */
+export function storedComputation(
+  analysis: Analysis,
   source: { fileName: string | null; rowCount: number },
-): Promise<void> {
-  const { result, quality } = analyse(series, elevationM);
-  if (!result.ok) {
-    throw new HttpError(422, 'no_qualifying_years', `${result.error.message} Nothing was stored.`);
-  }
-  await repo.replaceObservations(trx, siteId, series);
-  await repo.saveComputation(trx, siteId, {
+): repo.StoredComputation | undefined {
+  const { result, quality } = analysis;
+  if (!result.ok) return undefined;
+  return {
     methodVersion: result.methodVersion,
     conditions: result.conditions,
     quality: qualitySummary(quality),
@@ -57,7 +52,29 @@ export async function storeRecord(
     monthly: quality.monthly,
     fileName: source.fileName,
     rowCount: source.rowCount,
-  });
+  };
+}
+
+/**
+ * Stores a record and its computed conditions (inside the caller's transaction). `computed`
+ * is the result already worked out for this very series at upload; it is recomputed when
+ * absent or made by another method version.
+ */
+export async function storeRecord(
+  trx: Knex.Transaction,
+  siteId: string,
+  series: HourlySeries,
+  elevationM: number | null,
+  source: { fileName: string | null; rowCount: number },
+  computed?: repo.StoredComputation | null,
+): Promise<void> {
+  const current =
+    computed?.methodVersion === METHOD_VERSION ? computed : storedComputation(analyse(series, elevationM), source);
+  if (!current) {
+    throw new HttpError(422, 'no_qualifying_years', 'No year of the record has enough valid hours (85 %). Nothing was stored.');
+  }
+  await repo.replaceObservations(trx, siteId, series);
+  await repo.saveComputation(trx, siteId, current);
 }
 
 /** Recomputes a site's stored conditions from its stored record (after its elevation or the method changed). */
@@ -67,15 +84,6 @@ export async function recompute(trx: Knex.Transaction, siteId: string, elevation
     .first<{ file_name: string | null; row_count: number } | undefined>('file_name', 'row_count');
   if (!current) return;
   const series = await repo.loadObservations(trx, siteId);
-  const { result, quality } = analyse(series, elevationM);
-  if (!result.ok) return;
-  await repo.saveComputation(trx, siteId, {
-    methodVersion: result.methodVersion,
-    conditions: result.conditions,
-    quality: qualitySummary(quality),
-    distribution: quality.distribution,
-    monthly: quality.monthly,
-    fileName: current.file_name,
-    rowCount: current.row_count,
-  });
+  const computed = storedComputation(analyse(series, elevationM), { fileName: current.file_name, rowCount: current.row_count });
+  if (computed) await repo.saveComputation(trx, siteId, computed);
 }

@@ -1,0 +1,43 @@
+import assert from 'node:assert/strict';
+import { after, before, describe, it } from 'node:test';
+import request from 'supertest';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from '../../server/seed/demo-seed';
+import { createTestApp, resetDb, type TestApp } from '../support/test-app';
+
+let t: TestApp;
+before(async () => {
+  t = await createTestApp();
+  await resetDb(t.db);
+});
+after(async () => {
+  await t.close();
+});
+
+describe('demo data', () => {
+  it('is created once, then left alone, and every demo account signs in', async () => {
+    assert.deepEqual(await seedDemo(t.db), { created: true });
+    const keep = await request(t.app)
+      .post('/api/v1/auth/sign-in')
+      .send({ email: DEMO_ACCOUNTS[0].email, password: DEMO_PASSWORD })
+      .expect(200);
+    assert.match(keep.body.organizations[0].name, /\(demo\)/);
+    assert.deepEqual(await seedDemo(t.db), { created: false });
+    for (const account of DEMO_ACCOUNTS) {
+      const res = await request(t.app).post('/api/v1/auth/sign-in').send({ email: account.email, password: DEMO_PASSWORD }).expect(200);
+      assert.equal(res.body.organizations[0].role, account.role);
+    }
+  });
+
+  it('labels its climate sites as invented and gives each hourly one 30 qualifying years', async () => {
+    const agent = request.agent(t.app);
+    await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD }).expect(200);
+    const sites = await agent.get('/api/v1/climate-sites').expect(200);
+    assert.equal(sites.body.length, 4);
+    for (const s of sites.body) {
+      assert.equal(s.isDemo, true);
+      assert.match(s.name, /invented/i);
+      assert.ok(s.heatingDb99_6 <= s.heatingDb99);
+      if (s.sourceKind === 'hourly') assert.equal(s.qualifyingYearCount, 30);
+    }
+  });
+});
