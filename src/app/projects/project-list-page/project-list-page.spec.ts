@@ -12,7 +12,15 @@ function aProject(name: string): Project {
   return {
     id: '0b6f1c3e-9d2a-4e5b-8c7d-6e5f4a3b2c1d',
     name,
+    clientName: '',
+    siteAddress: '',
+    climateSiteId: null,
+    climateSiteName: null,
+    notes: '',
+    archived: false,
+    version: 1,
     createdByName: 'Dana Frost',
+    updatedByName: 'Dana Frost',
     createdAt: '2026-01-12T09:30:15.000Z',
     updatedAt: '2026-01-12T09:30:15.000Z',
   };
