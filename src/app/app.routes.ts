@@ -1,6 +1,7 @@
 import type { Routes } from '@angular/router';
 import { authGuard } from './auth/auth-guard';
 import { guestGuard } from './auth/guest-guard';
+import { roleGuard } from './auth/role-guard';
 
 export const routes: Routes = [
   { path: '', pathMatch: 'full', redirectTo: 'projects' },
@@ -41,6 +42,26 @@ export const routes: Routes = [
     title: 'Projects · Tailroom',
     canActivate: [authGuard],
     loadComponent: () => import('./projects/project-list-page/project-list-page').then((m) => m.ProjectListPage),
+  },
+  {
+    path: 'climate-sites',
+    title: 'Climate sites · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () =>
+      import('./climate/climate-site-list-page/climate-site-list-page').then((m) => m.ClimateSiteListPage),
+  },
+  {
+    path: 'climate-sites/new',
+    title: 'New climate site · Tailroom',
+    canActivate: [roleGuard('project:write')],
+    loadComponent: () =>
+      import('./climate/climate-site-new-page/climate-site-new-page').then((m) => m.ClimateSiteNewPage),
+  },
+  {
+    path: 'climate-sites/:id',
+    title: 'Climate site · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () => import('./climate/climate-site-page/climate-site-page').then((m) => m.ClimateSitePage),
   },
   {
     path: 'team',
