@@ -44,6 +44,12 @@ export const routes: Routes = [
     loadComponent: () => import('./projects/project-list-page/project-list-page').then((m) => m.ProjectListPage),
   },
   {
+    path: 'projects/:id',
+    title: 'Project · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () => import('./projects/project-page/project-page').then((m) => m.ProjectPage),
+  },
+  {
     path: 'climate-sites',
     title: 'Climate sites · Tailroom',
     canActivate: [authGuard],

@@ -1,17 +1,17 @@
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, inject, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
-import { PROJECT_NAME_MAX_LENGTH, type Project } from '@shared/projects/project-schemas';
-import { applyApiErrors, fieldError } from '../../core/api-errors';
-import { ProjectsApi } from '../projects-api';
+import type { Project } from '@shared/projects/project-schemas';
+import { applyApiErrors } from '../../core/api-errors';
+import { ProjectFields } from '../project-fields/project-fields';
+import { checkProjectDetails, projectDetailsForm, projectDetailsValue } from '../project-form';
+import { ProjectsApi, type ClimateSiteChoice } from '../projects-api';
 
-/** Asks for a project name, creates the project and closes with it. */
+/** Asks for a project's details, creates the project and closes with it. */
 @Component({
   selector: 'app-new-project-dialog',
-  imports: [ReactiveFormsModule, MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule],
+  imports: [ReactiveFormsModule, MatButtonModule, MatDialogModule, ProjectFields],
   template: `
     <h2 mat-dialog-title>New project</h2>
     <form [formGroup]="form" (ngSubmit)="create()" novalidate>
@@ -19,12 +19,7 @@ import { ProjectsApi } from '../projects-api';
         @if (formError()) {
           <p class="tr-alert" role="alert">{{ formError() }}</p>
         }
-        <mat-form-field class="name">
-          <mat-label>Project name</mat-label>
-          <input matInput formControlName="name" cdkFocusInitial autocomplete="off" />
-          <mat-hint>For example the street address or the client's name</mat-hint>
-          <mat-error>{{ fieldError(form.controls.name, { required: 'Enter a project name' }) }}</mat-error>
-        </mat-form-field>
+        <app-project-fields [form]="form" [sites]="sites()" />
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
@@ -33,8 +28,10 @@ import { ProjectsApi } from '../projects-api';
     </form>
   `,
   styles: `
-    .name {
-      width: min(360px, 100%);
+    app-project-fields {
+      display: block;
+      width: min(560px, 100%);
+      padding-top: 0.25rem;
     }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -45,25 +42,30 @@ export class NewProjectDialog {
   private readonly dialogRef = inject<MatDialogRef<NewProjectDialog, Project>>(MatDialogRef);
   private readonly cdr = inject(ChangeDetectorRef);
 
-  protected readonly form = inject(NonNullableFormBuilder).group({
-    name: ['', [Validators.required, Validators.maxLength(PROJECT_NAME_MAX_LENGTH)]],
-  });
+  protected readonly form = projectDetailsForm(inject(NonNullableFormBuilder));
+  private readonly siteChoices = this.api.climateSiteChoicesResource();
+  protected readonly sites = computed<ClimateSiteChoice[]>(() =>
+    this.siteChoices.hasValue() ? this.siteChoices.value() : [],
+  );
   protected readonly pending = signal(false);
   protected readonly formError = signal('');
-  protected readonly fieldError = fieldError;
 
   protected async create(): Promise<void> {
     if (this.pending()) return;
-    const name = this.form.controls.name.value.trim();
-    if (!name) this.form.controls.name.setValue('');
-    if (this.form.invalid) {
-      this.form.markAllAsTouched();
-      return;
-    }
+    if (!checkProjectDetails(this.form)) return;
+    const { name, clientName, siteAddress, climateSiteId, notes } = projectDetailsValue(this.form);
     this.pending.set(true);
     this.formError.set('');
     try {
-      this.dialogRef.close(await this.api.create({ name }));
+      const created = await this.api.create({
+        name,
+        // Only what was filled in: the server keeps its own defaults for the rest.
+        ...(clientName ? { clientName } : {}),
+        ...(siteAddress ? { siteAddress } : {}),
+        ...(climateSiteId ? { climateSiteId } : {}),
+        ...(notes ? { notes } : {}),
+      });
+      this.dialogRef.close(created);
     } catch (err) {
       this.formError.set(applyApiErrors(this.form, err));
     } finally {

@@ -1,0 +1,210 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { provideRouter } from '@angular/router';
+import type { Role } from '@shared/auth/roles';
+import type { Project } from '@shared/projects/project-schemas';
+import { AuthStore } from '../../auth/auth-store';
+import { settle, signedInSession } from '../../testing/test-sessions';
+import { PROJECT_ID, SITE_ID, aProject, someClimateSites } from '../testing/project-fixtures';
+import { ProjectPage } from './project-page';
+
+const PROJECT_URL = `/api/v1/projects/${PROJECT_ID}`;
+const STALE_MESSAGE =
+  'Sam Reed changed this project since you opened it; reload to see their changes, then apply yours again';
+
+function maple(fields: Partial<Project> = {}): Project {
+  return aProject('Maple Street duplex', {
+    clientName: 'Jordan Hale',
+    siteAddress: '14 Maple Street, Brookfield',
+    climateSiteId: SITE_ID,
+    climateSiteName: 'Lakeview station',
+    notes: 'Basement stays unheated.',
+    version: 3,
+    ...fields,
+  });
+}
+
+describe('ProjectPage', () => {
+  let http: HttpTestingController;
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({
+      imports: [ProjectPage],
+      providers: [
+        provideRouter([]),
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      ],
+    });
+    http = TestBed.inject(HttpTestingController);
+  });
+  afterEach(() => http.verify());
+
+  async function render(role: Role, project: Project | { status: number; body: object }) {
+    TestBed.inject(AuthStore).setSession(signedInSession(role));
+    const fixture = TestBed.createComponent(ProjectPage);
+    fixture.componentRef.setInput('id', PROJECT_ID);
+    fixture.detectChanges();
+    await settle(1);
+    const get = http.expectOne({ method: 'GET', url: PROJECT_URL });
+    if ('status' in project) get.flush(project.body, { status: project.status, statusText: 'Error' });
+    else get.flush(project);
+    http.expectOne({ method: 'GET', url: '/api/v1/climate-sites' }).flush(someClimateSites());
+    const stable = async () => {
+      await settle();
+      await fixture.whenStable();
+    };
+    await stable();
+    const el = fixture.nativeElement as HTMLElement;
+    const text = () => el.textContent?.replace(/\s+/g, ' ') ?? '';
+    /** The input or textarea of the field labelled `label`. */
+    const field = (label: string) => {
+      const formField = Array.from(el.querySelectorAll('mat-form-field')).find(
+        (f) => f.querySelector('mat-label')?.textContent?.trim() === label,
+      );
+      return formField?.querySelector<HTMLInputElement | HTMLTextAreaElement>('input, textarea') ?? null;
+    };
+    const type = async (label: string, value: string) => {
+      const input = field(label)!;
+      input.value = value;
+      input.dispatchEvent(new Event('input'));
+      await fixture.whenStable();
+    };
+    const button = (label: string) =>
+      Array.from(el.querySelectorAll<HTMLButtonElement>('button')).find((b) => b.textContent?.trim() === label);
+    const click = async (label: string) => {
+      const b = button(label);
+      expect(b).withContext(`button ${label}`).toBeDefined();
+      b!.click();
+      await stable();
+    };
+    return { fixture, el, text, field, type, button, click, stable };
+  }
+
+  it('shows the project’s name, client, address and climate site in the header', async () => {
+    const { el, text } = await render('designer', maple());
+    expect(el.querySelector('h1')?.textContent?.trim()).toBe('Maple Street duplex');
+    const facts = el.querySelector('[data-testid="project-facts"]')?.textContent ?? '';
+    expect(facts).toContain('Jordan Hale');
+    expect(facts).toContain('14 Maple Street, Brookfield');
+    const siteLink = el.querySelector<HTMLAnchorElement>('[data-testid="project-facts"] a');
+    expect(siteLink?.textContent?.trim()).toBe('Lakeview station');
+    expect(siteLink?.getAttribute('href')).toBe(`/climate-sites/${SITE_ID}`);
+    expect(el.querySelector('.archived-chip')).toBeNull();
+    expect(text()).toContain('Heating 99.6 %: −20.0 °C');
+  });
+
+  it('marks an archived project', async () => {
+    const { el } = await render('viewer', maple({ archived: true }));
+    expect(el.querySelector('.archived-chip')?.textContent?.trim()).toBe('Archived');
+  });
+
+  it('says what the building, equipment and trade-off sections will hold, without numbers', async () => {
+    const { el } = await render('viewer', maple());
+    const cards = Array.from(el.querySelectorAll('mat-card'));
+    expect(cards.map((c) => c.querySelector('mat-card-title')?.textContent?.trim())).toEqual([
+      'Building',
+      'Equipment',
+      'Trade-off',
+    ]);
+    for (const card of cards) {
+      expect(card.textContent).toContain('Coming next');
+      expect(card.querySelector('mat-card-content')?.textContent).not.toMatch(/\d/);
+    }
+  });
+
+  it('fills the details form with the stored values', async () => {
+    const { field } = await render('designer', maple());
+    expect(field('Project name')?.value).toBe('Maple Street duplex');
+    expect(field('Client name')?.value).toBe('Jordan Hale');
+    expect(field('Site address')?.value).toBe('14 Maple Street, Brookfield');
+    expect(field('Notes')?.value).toBe('Basement stays unheated.');
+  });
+
+  it('saves the details with the version they were loaded at', async () => {
+    const { el, type, click, stable } = await render('designer', maple());
+    await type('Client name', '  Hale family ');
+    await click('Save');
+    const patch = http.expectOne({ method: 'PATCH', url: PROJECT_URL });
+    expect(patch.request.body).toEqual({
+      version: 3,
+      name: 'Maple Street duplex',
+      clientName: 'Hale family',
+      siteAddress: '14 Maple Street, Brookfield',
+      climateSiteId: SITE_ID,
+      notes: 'Basement stays unheated.',
+    });
+    patch.flush(maple({ clientName: 'Hale family', version: 4 }));
+    await stable();
+    expect(el.querySelector('[data-testid="project-facts"]')?.textContent).toContain('Hale family');
+  });
+
+  it('does not send a project without a name', async () => {
+    const { type, click, text } = await render('designer', maple());
+    await type('Project name', '   ');
+    await click('Save');
+    http.expectNone({ method: 'PATCH' });
+    expect(text()).toContain('Enter a project name');
+  });
+
+  it('on a conflicting save shows who saved, keeps the typed values, and lets them be applied to the latest version', async () => {
+    const { el, field, type, click, text, button, stable } = await render('designer', maple());
+    await type('Client name', 'Hale family');
+    await click('Save');
+    http
+      .expectOne({ method: 'PATCH', url: PROJECT_URL })
+      .flush({ error: { code: 'stale_update', message: STALE_MESSAGE } }, { status: 409, statusText: 'Conflict' });
+    await stable();
+    expect(el.querySelector('[role="alert"]')?.textContent).toContain(STALE_MESSAGE);
+    expect(field('Client name')?.value).toBe('Hale family');
+    expect(button('Reload')).toBeDefined();
+
+    // Reload shows the latest saved version and keeps the typed value aside.
+    await click('Reload');
+    http
+      .expectOne({ method: 'GET', url: PROJECT_URL })
+      .flush(maple({ name: 'Maple Street duplex, north unit', updatedByName: 'Sam Reed', version: 5 }));
+    await stable();
+    expect(el.querySelector('h1')?.textContent?.trim()).toBe('Maple Street duplex, north unit');
+    expect(field('Project name')?.value).toBe('Maple Street duplex, north unit');
+    expect(field('Client name')?.value).toBe('Jordan Hale');
+    expect(text()).toContain('Your changes that were not saved');
+    expect(el.querySelector('[data-testid="unsaved-changes"] li')?.textContent?.replace(/\s+/g, ' ').trim()).toBe(
+      'Client name: Hale family',
+    );
+    expect(el.querySelectorAll('[data-testid="unsaved-changes"] li').length).toBe(1);
+
+    // Applied again and saved, the change is made from the latest version.
+    await click('Apply my changes again');
+    expect(field('Client name')?.value).toBe('Hale family');
+    expect(el.querySelector('[data-testid="unsaved-changes"]')).toBeNull();
+    await click('Save');
+    const patch = http.expectOne({ method: 'PATCH', url: PROJECT_URL });
+    expect(patch.request.body).toEqual(
+      jasmine.objectContaining({ version: 5, name: 'Maple Street duplex, north unit', clientName: 'Hale family' }),
+    );
+    patch.flush(maple({ name: 'Maple Street duplex, north unit', clientName: 'Hale family', version: 6 }));
+    await stable();
+    expect(el.querySelector('[role="alert"]')).toBeNull();
+  });
+
+  it('shows the details read-only to viewers, without Save', async () => {
+    const { field, button, text } = await render('viewer', maple());
+    expect(field('Project name')?.disabled).toBeTrue();
+    expect(field('Notes')?.disabled).toBeTrue();
+    expect(button('Save')).toBeUndefined();
+    expect(text()).toContain('Designers and owners in your organisation can change it.');
+  });
+
+  it('says so when the project does not exist', async () => {
+    const { el, text } = await render('designer', {
+      status: 404,
+      body: { error: { code: 'not_found', message: 'That project was not found' } },
+    });
+    expect(el.querySelector('h1')).toBeNull();
+    expect(text()).toContain('This project was not found.');
+  });
+});

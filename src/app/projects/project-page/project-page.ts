@@ -1,0 +1,222 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  ChangeDetectorRef,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCardModule } from '@angular/material/card';
+import { MatChipsModule } from '@angular/material/chips';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { RouterLink } from '@angular/router';
+import type { Project, ProjectInput } from '@shared/projects/project-schemas';
+import { AuthStore } from '../../auth/auth-store';
+import { apiErrorCode, apiErrorMessage, applyApiErrors } from '../../core/api-errors';
+import { ProjectFields, type ClimateSiteRef } from '../project-fields/project-fields';
+import { checkProjectDetails, fillProjectDetails, projectDetailsForm, projectDetailsValue } from '../project-form';
+import { ProjectsApi, type ClimateSiteChoice } from '../projects-api';
+
+type DetailKey = keyof Required<ProjectInput>;
+
+const DETAIL_LABELS: Record<DetailKey, string> = {
+  name: 'Project name',
+  clientName: 'Client name',
+  siteAddress: 'Site address',
+  climateSiteId: 'Climate site',
+  notes: 'Notes',
+};
+
+/** A value the user typed that was not saved because someone else saved first. */
+interface UnsavedChange {
+  key: DetailKey;
+  label: string;
+  text: string;
+  value: string | null;
+}
+
+/** The parts of a project still to be built, said plainly. */
+const SECTIONS = [
+  {
+    title: 'Building',
+    icon: 'home_work',
+    text: 'The building’s design heat loss and the indoor temperature it is kept at.',
+  },
+  {
+    title: 'Equipment',
+    icon: 'heat_pump',
+    text: 'The heating units you could install, with their output in the cold and their installed prices.',
+  },
+  {
+    title: 'Trade-off',
+    icon: 'balance',
+    text: 'For each outdoor design temperature: the unit it sizes for, what it costs, and the cold hours it leaves short.',
+  },
+] as const;
+
+/** `/projects/:id`: a project's details, and the parts of the project still to come. */
+@Component({
+  selector: 'app-project-page',
+  imports: [
+    DatePipe,
+    ReactiveFormsModule,
+    RouterLink,
+    MatButtonModule,
+    MatCardModule,
+    MatChipsModule,
+    MatIconModule,
+    MatProgressBarModule,
+    ProjectFields,
+  ],
+  templateUrl: './project-page.html',
+  styleUrl: './project-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ProjectPage {
+  // services
+  protected readonly auth = inject(AuthStore);
+  private readonly api = inject(ProjectsApi);
+  private readonly snackBar = inject(MatSnackBar);
+  private readonly cdr = inject(ChangeDetectorRef);
+
+  /** Route parameter. */
+  readonly id = input.required<string>();
+
+  protected readonly sections = SECTIONS;
+  protected readonly loaded = this.api.projectResource(() => this.id());
+  protected readonly notFound = computed(() => apiErrorCode(this.loaded.error()) === 'not_found');
+  private readonly siteChoices = this.api.climateSiteChoicesResource();
+  protected readonly sites = computed<ClimateSiteChoice[]>(() =>
+    this.siteChoices.hasValue() ? this.siteChoices.value() : [],
+  );
+
+  /** The project as last loaded or saved; the form's changes are made from its `version`. */
+  protected readonly project = signal<Project | null>(null);
+  protected readonly currentSite = computed<ClimateSiteRef | null>(() => {
+    const p = this.project();
+    return p?.climateSiteId ? { id: p.climateSiteId, name: p.climateSiteName ?? 'Chosen climate site' } : null;
+  });
+  protected readonly canWrite = computed(() => this.auth.can('project:write'));
+
+  protected readonly form = projectDetailsForm(inject(NonNullableFormBuilder));
+  protected readonly pending = signal(false);
+  protected readonly formError = signal('');
+  /** Someone saved the project after it was loaded here: the save was refused. */
+  protected readonly stale = signal(false);
+  /** The user's values that were replaced by the latest saved version on reload. */
+  protected readonly unsaved = signal<UnsavedChange[]>([]);
+
+  constructor() {
+    effect(() => {
+      if (!this.loaded.hasValue()) return;
+      const project = this.loaded.value();
+      untracked(() => this.show(project));
+    });
+    effect(() => {
+      if (this.canWrite()) this.form.enable();
+      else this.form.disable();
+    });
+  }
+
+  protected async save(): Promise<void> {
+    const base = this.project();
+    if (!base || this.pending() || !this.canWrite()) return;
+    if (!checkProjectDetails(this.form)) return;
+    this.pending.set(true);
+    this.formError.set('');
+    this.stale.set(false);
+    try {
+      const saved = await this.api.update(base.id, { version: base.version, ...projectDetailsValue(this.form) });
+      this.show(saved);
+      this.unsaved.set([]);
+      this.snackBar.open('Project saved', 'Close', { duration: 4000 });
+    } catch (err) {
+      if (apiErrorCode(err) === 'stale_update') {
+        // The typed values stay in the form; Reload shows the latest version and keeps them aside.
+        this.stale.set(true);
+        this.formError.set(apiErrorMessage(err));
+      } else {
+        this.formError.set(applyApiErrors(this.form, err));
+      }
+    } finally {
+      this.pending.set(false);
+      this.cdr.markForCheck();
+    }
+  }
+
+  /** Loads the latest saved version into the form and keeps the user's own changes ready to apply again. */
+  protected async reload(): Promise<void> {
+    const base = this.project();
+    if (!base || this.pending()) return;
+    const typed = projectDetailsValue(this.form);
+    this.pending.set(true);
+    this.formError.set('');
+    try {
+      const latest = await this.api.get(base.id);
+      const changes = this.changesFrom(typed, latest, base);
+      this.show(latest);
+      this.stale.set(false);
+      this.unsaved.set(changes);
+    } catch (err) {
+      this.formError.set(apiErrorMessage(err));
+    } finally {
+      this.pending.set(false);
+      this.cdr.markForCheck();
+    }
+  }
+
+  /** Puts the changes kept aside on reload back into the form, to be saved over the latest version. */
+  protected applyUnsaved(): void {
+    for (const change of this.unsaved()) {
+      const control = this.form.controls[change.key];
+      control.setValue(change.value as never);
+      control.markAsDirty();
+    }
+    this.unsaved.set([]);
+  }
+
+  protected discardUnsaved(): void {
+    this.unsaved.set([]);
+  }
+
+  /** Puts the form back to the project as saved. */
+  protected discardChanges(): void {
+    const project = this.project();
+    if (project) this.show(project);
+    this.formError.set('');
+    this.stale.set(false);
+  }
+
+  private show(project: Project): void {
+    this.project.set(project);
+    fillProjectDetails(this.form, project);
+    if (!this.canWrite()) this.form.disable();
+  }
+
+  /** The fields the user changed from `base` that the latest version does not already hold. */
+  private changesFrom(typed: Required<ProjectInput>, latest: Project, base: Project): UnsavedChange[] {
+    const changes: UnsavedChange[] = [];
+    for (const key of Object.keys(DETAIL_LABELS) as DetailKey[]) {
+      const value = typed[key] ?? null;
+      // Only what the user changed, and only where the latest version differs from it.
+      if (value === (base[key] ?? null) || value === (latest[key] ?? null)) continue;
+      changes.push({ key, label: DETAIL_LABELS[key], text: this.describe(key, value, base), value });
+    }
+    return changes;
+  }
+
+  private describe(key: DetailKey, value: string | null, base: Project): string {
+    if (key !== 'climateSiteId') return value === null || value === '' ? '(empty)' : value;
+    if (value === null) return 'None chosen';
+    const site = this.sites().find((s) => s.id === value);
+    return site?.name ?? (value === base.climateSiteId ? base.climateSiteName : null) ?? 'Another climate site';
+  }
+}
