@@ -1,0 +1,143 @@
+/**
+ * An equipment option the user could install: a furnace, a boiler, a heat pump or electric
+ * resistance heat, with its rated output, efficiency or heat-pump ratings, installed price and
+ * expected life. SI: W, °C; efficiency and COP are fractions; prices are decimal strings.
+ */
+import { z } from 'zod';
+import { moneyStringSchema } from '../money/money';
+
+export const equipmentKinds = ['furnace', 'boiler', 'heat-pump', 'electric'] as const;
+export type EquipmentKind = (typeof equipmentKinds)[number];
+export const fuels = ['gas', 'oil', 'electricity', 'propane'] as const;
+export type Fuel = z.infer<typeof fuelSchema>;
+export const fuelSchema = z.enum(fuels, { error: 'The fuel must be gas, oil, electricity or propane' });
+export const combustionFuels = ['gas', 'oil', 'propane'] as const;
+
+const MAX_POWER_W = 10_000_000;
+
+const power = (label: string) =>
+  z
+    .number({ error: `Enter the ${label} as a number (W)` })
+    .positive(`The ${label} must be greater than 0 W`)
+    .max(MAX_POWER_W, `The ${label} must be at most ${MAX_POWER_W} W`);
+
+const cop = (label: string) =>
+  z
+    .number({ error: `Enter the ${label} as a number` })
+    .positive(`The ${label} must be greater than 0`)
+    .max(10, `The ${label} must be at most 10`);
+
+const common = {
+  label: z
+    .string({ error: 'Name the equipment option' })
+    .trim()
+    .min(1, 'Name the equipment option')
+    .max(160, 'Use at most 160 characters for the name'),
+  /** Installed price, in the organisation's currency, e.g. "8450.00". */
+  installedPrice: moneyStringSchema,
+  /** Expected life, years. */
+  lifeYears: z
+    .int({ error: 'Enter the expected life as a whole number of years' })
+    .min(1, 'The expected life must be at least 1 year')
+    .max(100, 'The expected life must be at most 100 years'),
+};
+
+/** Output rating: either the output, or the input (output = input × efficiency). */
+const rated = {
+  /** Rated heating output, W. */
+  outputW: power('output').optional(),
+  /** Rated input, W (output = input × efficiency, METHODS §4.1). */
+  inputW: power('input').optional(),
+};
+
+const combustionFields = {
+  fuel: z.enum(combustionFuels, { error: 'A furnace or boiler burns gas, oil or propane' }),
+  /** AFUE or steady-state efficiency, 0–1. */
+  efficiency: z
+    .number({ error: 'Enter the efficiency as a fraction such as 0.95' })
+    .positive('The efficiency must be greater than 0')
+    .max(1, 'The efficiency must be at most 1 (enter 95 % as 0.95)'),
+  ...rated,
+};
+
+export const furnaceSchema = z.strictObject({ kind: z.literal('furnace'), ...common, ...combustionFields });
+export const boilerSchema = z.strictObject({ kind: z.literal('boiler'), ...common, ...combustionFields });
+
+export const electricSchema = z.strictObject({
+  kind: z.literal('electric'),
+  ...common,
+  fuel: z.literal('electricity', { error: 'Electric resistance heat uses electricity' }).default('electricity'),
+  /** Resistance heat turns all its input into heat. */
+  efficiency: z.literal(1, { error: 'The efficiency of electric resistance heat is 1' }).default(1),
+  ...rated,
+});
+
+export const heatPumpSchema = z.strictObject({
+  kind: z.literal('heat-pump'),
+  ...common,
+  fuel: z.literal('electricity', { error: 'A heat pump uses electricity' }).default('electricity'),
+  /** Heating capacity and COP at 8.3 °C (47 °F, rating point H1). */
+  capacity8_3W: power('capacity at 8.3 °C'),
+  cop8_3: cop('COP at 8.3 °C'),
+  /** Heating capacity and COP at −8.3 °C (17 °F, rating point H3). */
+  capacityM8_3W: power('capacity at −8.3 °C'),
+  copM8_3: cop('COP at −8.3 °C'),
+  /** Optional: heating capacity and COP at −15 °C (5 °F, rating point H4). */
+  capacityM15W: power('capacity at −15 °C').optional(),
+  copM15: cop('COP at −15 °C').optional(),
+  /** Electric backup heat, W (COP 1). */
+  backupW: z
+    .number({ error: 'Enter the backup heat as a number (W)' })
+    .min(0, 'The backup heat cannot be negative')
+    .max(MAX_POWER_W, `The backup heat must be at most ${MAX_POWER_W} W`)
+    .default(0),
+  /** Beyond the coldest rating point: false holds capacity and COP flat, true extends the last segment. */
+  extrapolate: z.boolean({ error: 'Extrapolate is true or false' }).default(false),
+  /**
+   * Use the frost/defrost band of the DOE/AHRI method between −8.3 °C and 7.2 °C (45 °F), with the
+   * default 1.7 °C (35 °F) point derived from the two ratings (METHODS §4.3 [M]).
+   */
+  defrostBand: z.boolean({ error: 'Defrost band is true or false' }).default(false),
+  /** Low-ambient cut-out, °C: below it the compressor gives nothing (METHODS §4.3 [M]). */
+  cutoutC: z
+    .number({ error: 'Enter the cut-out temperature as a number (°C)' })
+    .min(-60, 'The cut-out temperature must be at least −60 °C')
+    .max(20, 'The cut-out temperature must be at most 20 °C')
+    .optional(),
+});
+
+export const equipmentOptionSchema = z
+  .discriminatedUnion('kind', [furnaceSchema, boilerSchema, heatPumpSchema, electricSchema], {
+    error: 'The kind must be furnace, boiler, heat-pump or electric',
+  })
+  .check((ctx) => {
+    const o = ctx.value;
+    if (o.kind === 'heat-pump') {
+      if ((o.capacityM15W === undefined) !== (o.copM15 === undefined)) {
+        ctx.issues.push({
+          code: 'custom',
+          input: o,
+          path: [o.capacityM15W === undefined ? 'capacityM15W' : 'copM15'],
+          message: 'Enter both the capacity and the COP at −15 °C, or neither',
+        });
+      }
+    } else if ((o.outputW === undefined) === (o.inputW === undefined)) {
+      ctx.issues.push({
+        code: 'custom',
+        input: o,
+        path: [o.outputW === undefined ? 'outputW' : 'inputW'],
+        message:
+          o.outputW === undefined
+            ? 'Enter the rated output or the rated input'
+            : 'Enter either the rated output or the rated input, not both',
+      });
+    }
+  });
+export type EquipmentOption = z.infer<typeof equipmentOptionSchema>;
+export type EquipmentOptionInput = z.input<typeof equipmentOptionSchema>;
+export type HeatPumpOption = Extract<EquipmentOption, { kind: 'heat-pump' }>;
+export type FuelledOption = Exclude<EquipmentOption, { kind: 'heat-pump' }>;
+
+export const equipmentListSchema = z
+  .array(equipmentOptionSchema, { error: 'List the equipment options' })
+  .max(500, 'Use at most 500 equipment options in a list');
