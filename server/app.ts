@@ -14,6 +14,7 @@ import type { Mailer } from './mail/mailer';
 import { authRouter, configurePassport, SESSION_COOKIE } from './modules/auth/auth-router';
 import { devOutboxRouter } from './modules/dev/dev-outbox-router';
 import { climateRouter } from './modules/climate/climate-router';
+import { equipmentRouter } from './modules/equipment/equipment-router';
 import { orgsRouter } from './modules/orgs/orgs-router';
 import { projectsRouter } from './modules/projects/projects-router';
 
@@ -80,11 +81,12 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   configurePassport(db);
   app.use('/api', passport.initialize(), passport.session() as express.RequestHandler);
 
-  app.use('/api/v1', express.json({ limit: '100kb', strict: true }));
+  app.use('/api/v1', express.json({ limit: '1mb', strict: true }));
   app.use('/api/v1', authRouter(db, config, mailer));
   app.use('/api/v1', orgsRouter(db, config, mailer));
   app.use('/api/v1/projects', projectsRouter(db));
   app.use('/api/v1', climateRouter(db));
+  app.use('/api/v1', equipmentRouter(db));
   if (config.devOutboxUrl) app.use('/api/v1/dev', devOutboxRouter(config.devOutboxUrl));
   app.use('/api', apiNotFound);
 

@@ -13,4 +13,12 @@ export class HttpError extends Error {
   }
 }
 
+/** 409 for an optimistic-concurrency miss: someone saved since the caller loaded `what`. */
+export const staleUpdate = (byName: string, what: string) =>
+  new HttpError(
+    409,
+    'stale_update',
+    `${byName} changed this ${what} since you opened it; reload to see their changes, then apply yours again`,
+  );
+
 export const notFound = (what = 'That item') => new HttpError(404, 'not_found', `${what} was not found`);

@@ -14,6 +14,7 @@ const projectFields = {
   clientName: text('client name', 160),
   siteAddress: text('site address', 500),
   climateSiteId: z.uuid('Choose a climate site from the list').nullable(),
+  equipmentListId: z.uuid('Choose an equipment list from the list').nullable(),
   notes: text('notes', 4000),
 };
 
@@ -23,6 +24,7 @@ export const projectInputSchema = z.strictObject({
   clientName: projectFields.clientName.optional(),
   siteAddress: projectFields.siteAddress.optional(),
   climateSiteId: projectFields.climateSiteId.optional(),
+  equipmentListId: projectFields.equipmentListId.optional(),
   notes: projectFields.notes.optional(),
 });
 export type ProjectInput = z.infer<typeof projectInputSchema>;
@@ -37,6 +39,7 @@ export const projectPatchSchema = z.strictObject({
   clientName: projectFields.clientName.optional(),
   siteAddress: projectFields.siteAddress.optional(),
   climateSiteId: projectFields.climateSiteId.optional(),
+  equipmentListId: projectFields.equipmentListId.optional(),
   notes: projectFields.notes.optional(),
   archived: z.boolean({ error: 'Archived is true or false' }).optional(),
 });
@@ -54,6 +57,8 @@ export const projectSchema = z.object({
   siteAddress: z.string(),
   climateSiteId: z.uuid().nullable(),
   climateSiteName: z.string().nullable(),
+  equipmentListId: z.uuid().nullable(),
+  equipmentListName: z.string().nullable(),
   notes: z.string(),
   archived: z.boolean(),
   version: z.int(),

@@ -110,7 +110,7 @@ describe('bad input gets a clear 4xx and stores nothing', () => {
       () =>
         request(t.app)
           .post('/api/v1/auth/sign-up')
-          .send({ email: 'x@example.test', name: 'y'.repeat(200_000), password: PASSWORD }),
+          .send({ email: 'x@example.test', name: 'y'.repeat(1_200_000), password: PASSWORD }),
       413,
       'payload_too_large',
     ],

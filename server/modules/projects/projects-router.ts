@@ -7,8 +7,10 @@ import {
   projectPatchSchema,
   type Project,
 } from '@shared/projects/project-schemas';
+import { projectBuildingPutSchema } from '@shared/building/building-api-schemas';
+import type { Building } from '@shared/building/building-schemas';
 import { authorize, orgContext } from '../../http/authorize';
-import { HttpError } from '../../http/http-error';
+import { HttpError, staleUpdate } from '../../http/http-error';
 
 interface ProjectRow {
   id: string;
@@ -17,6 +19,8 @@ interface ProjectRow {
   site_address: string;
   climate_site_id: string | null;
   climate_site_name: string | null;
+  equipment_list_id: string | null;
+  equipment_list_name: string | null;
   notes: string;
   archived_at: Date | null;
   version: number;
@@ -35,6 +39,8 @@ const toProject = (r: ProjectRow): Project => ({
   siteAddress: r.site_address,
   climateSiteId: r.climate_site_id,
   climateSiteName: r.climate_site_name,
+  equipmentListId: r.equipment_list_id,
+  equipmentListName: r.equipment_list_name,
   notes: r.notes,
   archived: r.archived_at !== null,
   version: r.version,
@@ -49,6 +55,7 @@ function projectQuery(db: Knex, organizationId: string) {
     .leftJoin('users as cu', 'cu.id', 'p.created_by')
     .leftJoin('users as uu', 'uu.id', 'p.updated_by')
     .leftJoin('climate_sites as cs', 'cs.id', 'p.climate_site_id')
+    .leftJoin('equipment_lists as el', 'el.id', 'p.equipment_list_id')
     .where('p.organization_id', organizationId)
     .select<ProjectRow[]>(
       'p.id',
@@ -57,6 +64,8 @@ function projectQuery(db: Knex, organizationId: string) {
       'p.site_address',
       'p.climate_site_id',
       'cs.name as climate_site_name',
+      'p.equipment_list_id',
+      'el.name as equipment_list_name',
       'p.notes',
       'p.archived_at',
       'p.version',
@@ -75,14 +84,24 @@ async function findProject(db: Knex, organizationId: string, id: string): Promis
 const projectParam = z.object({ projectId: z.uuid('Unknown project') });
 const notFound = () => new HttpError(404, 'not_found', 'That project was not found');
 
-/** A climate site named in a project must be one of the organisation's own (404 otherwise, as for any other item). */
-async function checkClimateSite(db: Knex, organizationId: string, climateSiteId: string | null | undefined): Promise<void> {
-  if (!climateSiteId) return;
-  const found: unknown = await db('climate_sites').where({ id: climateSiteId, organization_id: organizationId }).first('id');
-  if (!found) {
-    throw new HttpError(404, 'not_found', 'That climate site was not found', [
-      { path: 'climateSiteId', message: 'Choose a climate site of this organisation' },
-    ]);
+/** A climate site or equipment list named in a project must be the organisation's own (404 otherwise, as for any other item). */
+async function checkReferences(
+  db: Knex,
+  organizationId: string,
+  refs: { climateSiteId?: string | null; equipmentListId?: string | null },
+): Promise<void> {
+  const checks = [
+    { id: refs.climateSiteId, table: 'climate_sites', path: 'climateSiteId', what: 'climate site' },
+    { id: refs.equipmentListId, table: 'equipment_lists', path: 'equipmentListId', what: 'equipment list' },
+  ];
+  for (const c of checks) {
+    if (!c.id) continue;
+    const found: unknown = await db(c.table).where({ id: c.id, organization_id: organizationId }).first('id');
+    if (!found) {
+      throw new HttpError(404, 'not_found', `That ${c.what} was not found`, [
+        { path: c.path, message: `Choose a ${c.what} of this organisation` },
+      ]);
+    }
   }
 }
 
@@ -99,7 +118,7 @@ export function projectsRouter(db: Knex): Router {
   router.post('/', authorize(db, 'project:write'), async (req, res) => {
     const input = projectInputSchema.parse(req.body);
     const { organizationId, user } = orgContext(req);
-    await checkClimateSite(db, organizationId, input.climateSiteId);
+    await checkReferences(db, organizationId, input);
     const [inserted] = await db('projects')
       .insert({
         organization_id: organizationId,
@@ -107,6 +126,7 @@ export function projectsRouter(db: Knex): Router {
         client_name: input.clientName ?? '',
         site_address: input.siteAddress ?? '',
         climate_site_id: input.climateSiteId ?? null,
+        equipment_list_id: input.equipmentListId ?? null,
         notes: input.notes ?? '',
         created_by: user.id,
         updated_by: user.id,
@@ -128,12 +148,13 @@ export function projectsRouter(db: Knex): Router {
     const { projectId } = projectParam.parse(req.params);
     const patch = projectPatchSchema.parse(req.body);
     const { organizationId, user } = orgContext(req);
-    await checkClimateSite(db, organizationId, patch.climateSiteId);
+    await checkReferences(db, organizationId, patch);
     const row: Record<string, unknown> = { updated_by: user.id, updated_at: db.fn.now(), version: db.raw('version + 1') };
     if (patch.name !== undefined) row['name'] = patch.name;
     if (patch.clientName !== undefined) row['client_name'] = patch.clientName;
     if (patch.siteAddress !== undefined) row['site_address'] = patch.siteAddress;
     if (patch.climateSiteId !== undefined) row['climate_site_id'] = patch.climateSiteId;
+    if (patch.equipmentListId !== undefined) row['equipment_list_id'] = patch.equipmentListId;
     if (patch.notes !== undefined) row['notes'] = patch.notes;
     if (patch.archived !== undefined) row['archived_at'] = patch.archived ? db.fn.now() : null;
     // Optimistic concurrency: the update applies only to the version the user was looking at.
@@ -143,13 +164,34 @@ export function projectsRouter(db: Knex): Router {
     if (!updated) {
       const current = await findProject(db, organizationId, projectId);
       if (!current) throw notFound();
-      throw new HttpError(
-        409,
-        'stale_update',
-        `${current.updatedByName} changed this project since you opened it; reload to see their changes, then apply yours again`,
-      );
+      throw staleUpdate(current.updatedByName, 'project');
     }
     res.json(await findProject(db, organizationId, projectId));
+  });
+
+  router.get('/:projectId/building', authorize(db, 'org:read'), async (req, res) => {
+    const { projectId } = projectParam.parse(req.params);
+    const row = await db('projects')
+      .where({ id: projectId, organization_id: orgContext(req).organizationId })
+      .first<{ version: number; building: Building | null } | undefined>('version', 'building');
+    if (!row) throw notFound();
+    res.json({ version: row.version, building: row.building });
+  });
+
+  router.put('/:projectId/building', authorize(db, 'project:write'), async (req, res) => {
+    const { projectId } = projectParam.parse(req.params);
+    const { version, building } = projectBuildingPutSchema.parse(req.body);
+    const { organizationId, user } = orgContext(req);
+    const updated = await db('projects')
+      .where({ id: projectId, organization_id: organizationId, version })
+      .update({ building: JSON.stringify(building), version: db.raw('version + 1'), updated_by: user.id, updated_at: db.fn.now() })
+      .returning<{ version: number }[]>('version');
+    if (!updated[0]) {
+      const current = await findProject(db, organizationId, projectId);
+      if (!current) throw notFound();
+      throw staleUpdate(current.updatedByName, 'project');
+    }
+    res.json({ version: updated[0].version, building });
   });
 
   router.post('/:projectId/duplicate', authorize(db, 'project:write'), async (req, res) => {
@@ -164,6 +206,8 @@ export function projectsRouter(db: Knex): Router {
         client_name: source.clientName,
         site_address: source.siteAddress,
         climate_site_id: source.climateSiteId,
+        equipment_list_id: source.equipmentListId,
+        building: db.raw('(SELECT building FROM projects WHERE id = ?)', [source.id]),
         notes: source.notes,
         created_by: user.id,
         updated_by: user.id,

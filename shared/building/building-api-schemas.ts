@@ -1,0 +1,16 @@
+import { z } from 'zod';
+import { buildingSchema } from './building-schemas';
+
+/**
+ * GET /api/v1/projects/:projectId/building → { version, building } (building null until saved).
+ * PUT the same shape with the project's `version`: 409 `stale_update` when the project changed since.
+ */
+export const projectBuildingPutSchema = z.strictObject({
+  version: z.int({ error: 'The version of the project being changed is required' }).min(1),
+  building: buildingSchema,
+});
+export const projectBuildingAnswerSchema = z.object({
+  version: z.int(),
+  building: buildingSchema.nullable(),
+});
+export type ProjectBuildingAnswer = z.infer<typeof projectBuildingAnswerSchema>;
