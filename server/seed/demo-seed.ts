@@ -1,5 +1,7 @@
 import type { Knex } from 'knex';
 import { DEMO_SITES, generateDemoSeries } from '@shared/climate/demo-weather';
+import { buildingSchema } from '@shared/building/building-schemas';
+import { equipmentOptionSchema, type EquipmentOptionInput } from '@shared/equipment/equipment-schemas';
 import { hashPassword } from '../modules/auth/passwords';
 import { insertSite } from '../modules/climate/climate-repo';
 import { storeRecord } from '../modules/climate/climate-service';
@@ -18,6 +20,22 @@ export const DEMO_ACCOUNTS = [
 export const DEMO_PASSWORD = 'warm-house-demo-2026';
 const DEMO_PROJECTS = ['Demo: Fernbrook Lane bungalow (invented)', 'Demo: Old Mill duplex retrofit (invented)'];
 
+/** Invented catalogue entries and prices, for the demo only (not any manufacturer's data). */
+const DEMO_EQUIPMENT: EquipmentOptionInput[] = [
+  { kind: 'furnace', label: 'Demo gas furnace 40k (invented)', fuel: 'gas', efficiency: 0.96, outputW: 11_700, installedPrice: '4650.00', lifeYears: 20 },
+  { kind: 'furnace', label: 'Demo gas furnace 60k (invented)', fuel: 'gas', efficiency: 0.96, outputW: 17_600, installedPrice: '5180.00', lifeYears: 20 },
+  { kind: 'furnace', label: 'Demo gas furnace 80k (invented)', fuel: 'gas', efficiency: 0.95, outputW: 23_400, installedPrice: '5720.00', lifeYears: 20 },
+  {
+    kind: 'heat-pump', label: 'Demo cold-climate heat pump 2 t (invented)', capacity8_3W: 7_300, cop8_3: 3.9, capacityM8_3W: 5_600,
+    copM8_3: 2.5, capacityM15W: 4_700, copM15: 2.0, backupW: 5_000, installedPrice: '11200.00', lifeYears: 15,
+  },
+  {
+    kind: 'heat-pump', label: 'Demo cold-climate heat pump 3 t (invented)', capacity8_3W: 10_500, cop8_3: 3.7, capacityM8_3W: 8_200,
+    copM8_3: 2.4, capacityM15W: 6_900, copM15: 1.9, backupW: 10_000, installedPrice: '13900.00', lifeYears: 15,
+  },
+  { kind: 'boiler', label: 'Demo oil boiler 90k (invented)', fuel: 'oil', efficiency: 0.86, outputW: 26_400, installedPrice: '9300.00', lifeYears: 25 },
+];
+
 /** Creates the demo organisation once; a second run changes nothing, so data made since is kept. */
 export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
   return db.transaction(async (trx) => {
@@ -35,10 +53,41 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
       if (account.role === 'owner') ownerId = user.id;
       await trx('memberships').insert({ organization_id: org.id, user_id: user.id, role: account.role });
     }
+    const [list] = await trx('equipment_lists')
+      .insert({ organization_id: org.id, name: 'Demo standard line (invented prices)', updated_by: ownerId })
+      .returning<{ id: string }[]>('id');
+    if (!list) throw new Error('demo list not created');
+    await trx('equipment_options').insert(
+      DEMO_EQUIPMENT.map((input, position) => {
+        const option = equipmentOptionSchema.parse(input);
+        return { equipment_list_id: list.id, position, kind: option.kind, label: option.label, installed_price: option.installedPrice, option: JSON.stringify(option) };
+      }),
+    );
+    await trx('energy_prices').insert({
+      organization_id: org.id,
+      prices: JSON.stringify({ currency: 'USD', electricityPerKwh: '0.1600', gas: { unit: 'therm', price: '1.2500' }, oilPerLitre: '1.0500' }),
+      updated_by: ownerId,
+    });
+    const building = buildingSchema.parse({
+      conduction: { mode: 'ua', uaWPerK: 165 },
+      airLeakage: { mode: 'ach50', ach50: 4.5, volumeM3: 420, nFactor: 18.5 },
+      designWind: { source: 'default' },
+      ductLossPct: 5,
+      safetyFactorPct: 10,
+      thermalMass: { mode: 'class', class: 'medium', floorAreaM2: 160 },
+    });
     for (const name of DEMO_PROJECTS) {
-      await trx('projects').insert({ organization_id: org.id, name, created_by: ownerId });
+      await trx('projects').insert({
+        organization_id: org.id,
+        name,
+        created_by: ownerId,
+        updated_by: ownerId,
+        equipment_list_id: list.id,
+        building: JSON.stringify(building),
+      });
     }
     // Three invented sites with 30-year hourly records from the seeded generator.
+    let firstSiteId: string | undefined;
     for (const site of DEMO_SITES) {
       const siteId = await insertSite(trx, org.id, ownerId, {
         name: site.name,
@@ -52,7 +101,9 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
       });
       const series = atStoragePrecision(generateDemoSeries(site, { years: 30 }));
       await storeRecord(trx, siteId, series, site.elevationM, { fileName: `${site.id} (generated)`, rowCount: series.time.length });
+      firstSiteId ??= siteId;
     }
+    await trx('projects').where({ organization_id: org.id }).update({ climate_site_id: firstSiteId });
     // And one typed in by hand, as from a published table (invented values).
     await insertSite(trx, org.id, ownerId, {
       name: 'Ashcombe Ridge (invented, typed-in values)',
