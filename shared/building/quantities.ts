@@ -2,17 +2,16 @@
  * SI ↔ IP conversion of the building and equipment quantities (power, airflow, area, volume,
  * U-value, R-value, conductance, leakage area). Everything is stored in SI; the user's unit
  * system only changes what is shown and typed. Conversions go through mathjs units, with a
- * created instance holding only the unit functions, as in `shared/units/units.ts`.
+ * the one small instance of `shared/units/units.ts`.
  *
  * mathjs defines the foot as 0.3048 m, the British thermal unit as the International Table value
  * (1055.05585262 J) and °R as 5/9 K, so its factors agree with NIST SP 811 (2008), Appendix B
  * (tests/engine/building-quantities.test.ts checks them).
  */
-import { create, unitDependencies, type Unit } from 'mathjs';
 import type { UnitSystem } from '../auth/auth-schemas';
+import { convertUnits } from '../units/units';
 
-if (!unitDependencies) throw new Error('mathjs unit functions are missing');
-const math = create({ unitDependencies });
+export { convertUnits };
 
 /** The building and equipment quantities, with SI and IP units (mathjs names) and display labels. */
 export const buildingQuantities = {
@@ -41,13 +40,6 @@ export const buildingQuantities = {
   leakageArea: { si: 'cm^2', ip: 'in^2', labelSi: 'cm²', labelIp: 'in²', decimalsSi: 0, decimalsIp: 1 },
 } as const;
 export type BuildingQuantity = keyof typeof buildingQuantities;
-
-/** Converts a value between two mathjs unit expressions. */
-export function convertUnits(value: number, from: string, to: string): number {
-  if (from === to) return value;
-  const u: Unit = math.unit(value, from);
-  return u.toNumber(to);
-}
 
 /** An SI value in the user's units. */
 export function fromSi(quantity: BuildingQuantity, value: number, system: UnitSystem): number {

@@ -26,7 +26,8 @@ export type Quantity = keyof typeof quantities;
 /** 1 g/kg = 7 gr/lb (7000 grains per pound; 1 g/kg = 0.001 lb/lb). */
 const GRAINS_PER_LB_PER_G_PER_KG = 7;
 
-function convert(value: number, from: string, to: string): number {
+/** Converts a value between two mathjs unit expressions (e.g. 'BTU/h' → 'W'). */
+export function convertUnits(value: number, from: string, to: string): number {
   if (from === to) return value;
   const u: Unit = math.unit(value, from);
   return u.toNumber(to);
@@ -37,7 +38,7 @@ export function fromSi(quantity: Quantity, value: number, system: UnitSystem): n
   const q = quantities[quantity];
   if (system === 'SI') return value;
   if (quantity === 'humidityRatio') return value * GRAINS_PER_LB_PER_G_PER_KG;
-  return convert(value, q.si, q.ip);
+  return convertUnits(value, q.si, q.ip);
 }
 
 /** A value typed in the user's units, in SI. */
@@ -45,7 +46,7 @@ export function toSi(quantity: Quantity, value: number, system: UnitSystem): num
   const q = quantities[quantity];
   if (system === 'SI') return value;
   if (quantity === 'humidityRatio') return value / GRAINS_PER_LB_PER_G_PER_KG;
-  return convert(value, q.ip, q.si);
+  return convertUnits(value, q.ip, q.si);
 }
 
 export function unitLabel(quantity: Quantity, system: UnitSystem): string {

@@ -1,19 +1,9 @@
 import assert from 'node:assert/strict';
-import { after, before, beforeEach, describe, it } from 'node:test';
+import { describe, it } from 'node:test';
 import request from 'supertest';
-import { createTestApp, linkPath, PASSWORD, resetDb, signUp, uniqueEmail, type TestApp } from '../support/test-app';
+import { linkPath, PASSWORD, signUp, uniqueEmail, useTestApp } from '../support/test-app';
 
-let t: TestApp;
-before(async () => {
-  t = await createTestApp();
-});
-after(async () => {
-  await t.close();
-});
-beforeEach(async () => {
-  await resetDb(t.db);
-  t.sink.clear();
-});
+const t = useTestApp();
 
 const cookieOf = (res: request.Response): string => {
   const raw = res.headers['set-cookie'] as unknown as string[] | undefined;

@@ -1,22 +1,13 @@
 import assert from 'node:assert/strict';
-import { after, before, beforeEach, describe, it } from 'node:test';
+import { describe, it } from 'node:test';
 import { gzipSync } from 'node:zlib';
 import request from 'supertest';
 import { DEMO_SITES, generateDemoSeries, seriesToCsv, seriesToIsdLite } from '../../shared/climate/demo-weather';
 import { computeDesignConditions } from '../../shared/climate/design-conditions';
 import { parseWeatherText } from '../../shared/climate/readers';
-import { createTestApp, linkPath, PASSWORD, resetDb, signUp, uniqueEmail, type TestApp } from '../support/test-app';
+import { signUp, useTestApp, inviteMember } from '../support/test-app';
 
-let t: TestApp;
-before(async () => {
-  t = await createTestApp();
-});
-after(async () => {
-  await t.close();
-});
-beforeEach(async () => {
-  await resetDb(t.db);
-});
+const t = useTestApp();
 
 const site = DEMO_SITES[0]!;
 const threeYears = generateDemoSeries(site, { years: 3, endYear: 2023 });
@@ -67,12 +58,7 @@ describe('climate sites with published values', () => {
       .post('/api/v1/climate-sites')
       .send({ name: 'Ours', sourceKind: 'published', publishedValues: published })
       .expect(201);
-    const email = uniqueEmail('viewer');
-    const mail = t.sink.waitFor((m) => m.to.includes(email));
-    await owner.agent.post('/api/v1/invitations').send({ email, role: 'viewer' }).expect(201);
-    const token = linkPath((await mail).text, '/invitations/').split('/').pop();
-    const viewer = request.agent(t.app);
-    await viewer.post('/api/v1/auth/sign-up').send({ email, name: 'V', password: PASSWORD, invitationToken: token }).expect(201);
+    const viewer = (await inviteMember(t, owner, 'viewer')).agent;
     await viewer.get(`/api/v1/climate-sites/${created.body.id}`).expect(200);
     await viewer.post('/api/v1/climate-sites').send({ name: 'No', sourceKind: 'published', publishedValues: published }).expect(403);
     await viewer.delete(`/api/v1/climate-sites/${created.body.id}`).expect(403);

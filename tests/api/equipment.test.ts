@@ -1,18 +1,8 @@
 import assert from 'node:assert/strict';
-import { after, before, beforeEach, describe, it } from 'node:test';
-import request from 'supertest';
-import { createTestApp, linkPath, PASSWORD, resetDb, signUp, uniqueEmail, type TestApp } from '../support/test-app';
+import { describe, it } from 'node:test';
+import { signUp, useTestApp, inviteMember } from '../support/test-app';
 
-let t: TestApp;
-before(async () => {
-  t = await createTestApp();
-});
-after(async () => {
-  await t.close();
-});
-beforeEach(async () => {
-  await resetDb(t.db);
-});
+const t = useTestApp();
 
 const CSV = [
   'kind,label,output_w,input_w,efficiency,fuel,cap_8_3_w,cop_8_3,cap_m8_3_w,cop_m8_3,cap_m15_w,cop_m15,backup_w,installed_price,life_years',
@@ -23,13 +13,7 @@ const CSV = [
 const furnace = { kind: 'furnace', label: 'Furnace 80k', fuel: 'gas', efficiency: 0.95, outputW: 22271, installedPrice: '5120.00', lifeYears: 20 };
 
 async function member(owner: Awaited<ReturnType<typeof signUp>>, role: 'designer' | 'viewer') {
-  const email = uniqueEmail(role);
-  const mail = t.sink.waitFor((m) => m.to.includes(email));
-  await owner.agent.post('/api/v1/invitations').send({ email, role }).expect(201);
-  const token = linkPath((await mail).text, '/invitations/').split('/').pop();
-  const agent = request.agent(t.app);
-  await agent.post('/api/v1/auth/sign-up').send({ email, name: `A ${role}`, password: PASSWORD, invitationToken: token }).expect(201);
-  return agent;
+  return (await inviteMember(t, owner, role)).agent;
 }
 
 describe('equipment lists', () => {

@@ -1,45 +1,18 @@
 import assert from 'node:assert/strict';
-import { after, before, beforeEach, describe, it } from 'node:test';
+import { describe, it } from 'node:test';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
-import {
-  createTestApp,
-  linkPath,
-  PASSWORD,
-  resetDb,
-  signUp,
-  uniqueEmail,
-  type TestApp,
-} from '../support/test-app';
+import { createTestApp, linkPath, PASSWORD, signUp, uniqueEmail, useTestApp, inviteMember } from '../support/test-app';
 
-let t: TestApp;
-before(async () => {
-  t = await createTestApp();
-});
-after(async () => {
-  await t.close();
-});
-beforeEach(async () => {
-  await resetDb(t.db);
-  t.sink.clear();
-});
+const t = useTestApp();
 
 type Agent = InstanceType<typeof TestAgent>;
 
 /** An owner's organisation with a member of `role` who accepted an e-mailed invitation. */
 async function orgWithMember(role: 'owner' | 'designer' | 'viewer') {
   const owner = await signUp(t.app, { organizationName: 'Test Heating Ltd' });
-  const email = uniqueEmail(role);
-  const mail = t.sink.waitFor((m) => m.to.includes(email));
-  await owner.agent.post('/api/v1/invitations').send({ email, role }).expect(201);
-  const invitePath = linkPath((await mail).text, '/invitations/');
-  const token = invitePath.split('/').pop() ?? '';
-  const agent = request.agent(t.app);
-  const res = await agent
-    .post('/api/v1/auth/sign-up')
-    .send({ email, name: `A ${role}`, password: PASSWORD, invitationToken: token })
-    .expect(201);
-  return { owner, member: { agent, email, userId: res.body.user.id as string }, organizationId: owner.organizationId, token };
+  const member = await inviteMember(t, owner, role);
+  return { owner, member, organizationId: owner.organizationId, token: member.token };
 }
 
 describe('the role × action matrix', () => {

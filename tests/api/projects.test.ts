@@ -1,27 +1,11 @@
 import assert from 'node:assert/strict';
-import { after, before, beforeEach, describe, it } from 'node:test';
-import request from 'supertest';
-import { createTestApp, linkPath, PASSWORD, resetDb, signUp, uniqueEmail, type TestApp } from '../support/test-app';
+import { describe, it } from 'node:test';
+import { signUp, useTestApp, inviteMember } from '../support/test-app';
 
-let t: TestApp;
-before(async () => {
-  t = await createTestApp();
-});
-after(async () => {
-  await t.close();
-});
-beforeEach(async () => {
-  await resetDb(t.db);
-});
+const t = useTestApp();
 
 async function member(owner: Awaited<ReturnType<typeof signUp>>, role: 'designer' | 'viewer') {
-  const email = uniqueEmail(role);
-  const mail = t.sink.waitFor((m) => m.to.includes(email));
-  await owner.agent.post('/api/v1/invitations').send({ email, role }).expect(201);
-  const token = linkPath((await mail).text, '/invitations/').split('/').pop();
-  const agent = request.agent(t.app);
-  await agent.post('/api/v1/auth/sign-up').send({ email, name: `A ${role}`, password: PASSWORD, invitationToken: token }).expect(201);
-  return agent;
+  return (await inviteMember(t, owner, role)).agent;
 }
 
 describe('projects', () => {

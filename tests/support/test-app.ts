@@ -1,6 +1,8 @@
 import type { Express } from 'express';
 import type { Knex } from 'knex';
+import { after, before, beforeEach } from 'node:test';
 import request from 'supertest';
+import type { Role } from '../../shared/auth/roles';
 import { createApp } from '../../server/app';
 import { parseConfig, type Config } from '../../server/config';
 import { createDb } from '../../server/db';
@@ -82,4 +84,41 @@ export function linkPath(text: string, fragment: string): string {
   const match = new RegExp(`https?://[^\\s]+${fragment}[^\\s]*`).exec(text);
   if (!match) throw new Error(`no ${fragment} link in: ${text}`);
   return new URL(match[0]).pathname;
+}
+
+/**
+ * The test app for one test file: created before its tests, closed after them, and the
+ * database emptied before each test. Its fields are filled in by the `before` hook.
+ */
+export function useTestApp(): TestApp {
+  const holder = {} as TestApp;
+  before(async () => {
+    Object.assign(holder, await createTestApp());
+  });
+  after(async () => {
+    await holder.close();
+  });
+  beforeEach(async () => {
+    await resetDb(holder.db);
+    holder.sink.clear();
+  });
+  return holder;
+}
+
+/** Invites `email` into the owner's organisation as `role` and accepts by creating an account from the e-mailed link. */
+export async function inviteMember(
+  t: TestApp,
+  owner: { agent: request.Agent },
+  role: Role,
+  email = uniqueEmail(role),
+): Promise<{ agent: request.Agent; email: string; userId: string; token: string }> {
+  const mail = t.sink.waitFor((m) => m.to.includes(email));
+  await owner.agent.post('/api/v1/invitations').send({ email, role }).expect(201);
+  const token = linkPath((await mail).text, '/invitations/').split('/').pop() ?? '';
+  const agent = request.agent(t.app);
+  const res = await agent
+    .post('/api/v1/auth/sign-up')
+    .send({ email, name: `A ${role}`, password: PASSWORD, invitationToken: token })
+    .expect(201);
+  return { agent, email, userId: (res.body as { user: { id: string } }).user.id, token };
 }
