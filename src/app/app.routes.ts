@@ -70,6 +70,20 @@ export const routes: Routes = [
     loadComponent: () => import('./climate/climate-site-page/climate-site-page').then((m) => m.ClimateSitePage),
   },
   {
+    path: 'equipment-lists',
+    title: 'Equipment · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () =>
+      import('./equipment/equipment-lists-page/equipment-lists-page').then((m) => m.EquipmentListsPage),
+  },
+  {
+    path: 'equipment-lists/:id',
+    title: 'Equipment list · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () =>
+      import('./equipment/equipment-list-page/equipment-list-page').then((m) => m.EquipmentListPage),
+  },
+  {
     path: 'team',
     title: 'Team · Tailroom',
     canActivate: [authGuard],

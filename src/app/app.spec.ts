@@ -30,7 +30,7 @@ describe('App shell', () => {
     const { el } = await render();
     expect(el.querySelector('.brand')?.textContent).toBe('Tailroom');
     const nav = Array.from(el.querySelectorAll('nav a'), (a) => a.textContent?.trim());
-    expect(nav).toEqual(['Projects', 'Climate sites', 'Team', 'Dev outbox']);
+    expect(nav).toEqual(['Projects', 'Climate sites', 'Equipment', 'Team', 'Dev outbox']);
     expect(el.querySelector('.org-button')?.getAttribute('aria-label')).toBe('Organisation: Frost Heating');
     expect(el.querySelector('mat-button-toggle-group')?.getAttribute('aria-label')).toBe('Units');
   });

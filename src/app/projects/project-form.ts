@@ -21,8 +21,11 @@ export function projectDetailsForm(fb: NonNullableFormBuilder) {
 
 export type ProjectDetailsForm = ReturnType<typeof projectDetailsForm>;
 
+/** The details the form edits (the equipment list is chosen on its own). */
+export type ProjectDetails = Required<Omit<ProjectInput, 'equipmentListId'>>;
+
 /** The form's values as the API takes them (texts trimmed). */
-export function projectDetailsValue(form: ProjectDetailsForm): Required<ProjectInput> {
+export function projectDetailsValue(form: ProjectDetailsForm): ProjectDetails {
   const v = form.getRawValue();
   return {
     name: v.name.trim(),

@@ -3,6 +3,7 @@ import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import { z } from 'zod';
 import { climateSiteSummarySchema } from '@shared/climate-sites/climate-site-schemas';
+import { equipmentListSummarySchema } from '@shared/equipment/equipment-list-schemas';
 import {
   projectListSchema,
   projectSchema,
@@ -21,6 +22,11 @@ export const climateSiteChoiceSchema = climateSiteSummarySchema.pick({
 });
 export type ClimateSiteChoice = z.infer<typeof climateSiteChoiceSchema>;
 const climateSiteChoiceListSchema = z.array(climateSiteChoiceSchema);
+
+/** What the equipment-list select of a project needs to know about a list. */
+export const equipmentListChoiceSchema = equipmentListSummarySchema.pick({ id: true, name: true, optionCount: true });
+export type EquipmentListChoice = z.infer<typeof equipmentListChoiceSchema>;
+const equipmentListChoiceListSchema = z.array(equipmentListChoiceSchema);
 
 /** Projects of the current organisation. */
 @Injectable({ providedIn: 'root' })
@@ -55,6 +61,13 @@ export class ProjectsApi {
   climateSiteChoicesResource() {
     return httpResource(() => (this.auth.currentOrganizationId() ? '/api/v1/climate-sites' : undefined), {
       parse: climateSiteChoiceListSchema.parse,
+    });
+  }
+
+  /** The organisation's equipment lists, to choose a project's list from. */
+  equipmentListChoicesResource() {
+    return httpResource(() => (this.auth.currentOrganizationId() ? '/api/v1/equipment-lists' : undefined), {
+      parse: equipmentListChoiceListSchema.parse,
     });
   }
 

@@ -22,7 +22,12 @@ export function signedOutSession(): Session {
   return { user: null, organizations: [], currentOrganizationId: null, devOutbox: false };
 }
 
-/** Lets pending promises (HTTP answers, lazily loaded schema modules) settle. */
+/**
+ * Lets pending promises (HTTP answers, lazily loaded schema modules) settle. The schema module
+ * that AuthStore loads on demand is awaited first: its first load is a network fetch in the test
+ * browser, which a fixed number of ticks does not always cover.
+ */
 export async function settle(rounds = 3): Promise<void> {
+  await import('@shared/auth/auth-schemas');
   for (let i = 0; i < rounds; i++) await new Promise((resolve) => setTimeout(resolve, 0));
 }

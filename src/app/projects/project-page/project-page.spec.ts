@@ -6,6 +6,13 @@ import { provideRouter } from '@angular/router';
 import type { Role } from '@shared/auth/roles';
 import type { Project } from '@shared/projects/project-schemas';
 import { AuthStore } from '../../auth/auth-store';
+import {
+  LIST_ID,
+  aBuilding,
+  aSite,
+  anEquipmentList,
+  someEquipmentListSummaries,
+} from '../../building/testing/building-fixtures';
 import { settle, signedInSession } from '../../testing/test-sessions';
 import { PROJECT_ID, SITE_ID, aProject, someClimateSites } from '../testing/project-fixtures';
 import { ProjectPage } from './project-page';
@@ -57,7 +64,27 @@ describe('ProjectPage', () => {
       await settle();
       await fixture.whenStable();
     };
-    await stable();
+    if ('status' in project) await stable();
+    else {
+      await settle();
+      // The equipment select and the building section load their own parts.
+      http.expectOne({ method: 'GET', url: '/api/v1/equipment-lists' }).flush(someEquipmentListSummaries());
+      http.expectOne({ method: 'GET', url: `${PROJECT_URL}/building` }).flush({
+        version: project.version,
+        building: aBuilding(),
+      });
+      if (project.climateSiteId) {
+        http
+          .expectOne({ method: 'GET', url: `/api/v1/climate-sites/${project.climateSiteId}` })
+          .flush(aSite(project.climateSiteId));
+      }
+      if (project.equipmentListId) {
+        http
+          .expectOne({ method: 'GET', url: `/api/v1/equipment-lists/${project.equipmentListId}` })
+          .flush(anEquipmentList());
+      }
+      await stable();
+    }
     const el = fixture.nativeElement as HTMLElement;
     const text = () => el.textContent?.replace(/\s+/g, ' ') ?? '';
     /** The input or textarea of the field labelled `label`. */
@@ -102,18 +129,64 @@ describe('ProjectPage', () => {
     expect(el.querySelector('.archived-chip')?.textContent?.trim()).toBe('Archived');
   });
 
-  it('says what the building, equipment and trade-off sections will hold, without numbers', async () => {
+  it('says what the trade-off section will hold, without numbers', async () => {
     const { el } = await render('viewer', maple());
     const cards = Array.from(el.querySelectorAll('mat-card'));
-    expect(cards.map((c) => c.querySelector('mat-card-title')?.textContent?.trim())).toEqual([
-      'Building',
-      'Equipment',
-      'Trade-off',
-    ]);
+    expect(cards.map((c) => c.querySelector('mat-card-title')?.textContent?.trim())).toEqual(['Trade-off']);
     for (const card of cards) {
       expect(card.textContent).toContain('Coming next');
       expect(card.querySelector('mat-card-content')?.textContent).not.toMatch(/\d/);
     }
+  });
+
+  it('shows the building with its live heat loss at the project’s climate site', async () => {
+    const { el } = await render('designer', maple());
+    expect(el.querySelector('[data-testid="building-section"]')).not.toBeNull();
+    // 200 W/K × (21 − (−17.5)) K.
+    expect(el.querySelector('[data-testid="design-load"]')?.textContent?.trim()).toBe('7.7 kW');
+  });
+
+  it('chooses the project’s equipment list with the version it was loaded at, and links to it', async () => {
+    const { el, stable } = await render('designer', maple());
+    expect(el.querySelector('[data-testid="equipment-list-link"]')).toBeNull();
+    el.querySelector<HTMLElement>('[data-testid="equipment-list-select"] mat-select')!.click();
+    await stable();
+    const option = Array.from(document.querySelectorAll<HTMLElement>('mat-option')).find((o) =>
+      o.textContent?.includes('Spring price list'),
+    );
+    expect(option?.textContent?.trim()).toBe('Spring price list (2 options)');
+    option!.click();
+    await stable();
+    const patch = http.expectOne({ method: 'PATCH', url: PROJECT_URL });
+    expect(patch.request.body).toEqual({ version: 3, equipmentListId: LIST_ID });
+    patch.flush(maple({ equipmentListId: LIST_ID, equipmentListName: 'Spring price list', version: 4 }));
+    await settle();
+    http.expectOne({ method: 'GET', url: `/api/v1/equipment-lists/${LIST_ID}` }).flush(anEquipmentList());
+    await stable();
+    expect(el.querySelector('[data-testid="equipment-list-link"]')?.getAttribute('href')).toBe(
+      `/equipment-lists/${LIST_ID}`,
+    );
+    expect(el.querySelector('[data-testid="equipment-at-design"]')?.textContent).toContain('Gas furnace 60k');
+  });
+
+  it('saves the building from the version the details were saved at', async () => {
+    const { type, click, stable } = await render('designer', maple());
+    await type('Client name', 'Hale family');
+    await click('Save');
+    http.expectOne({ method: 'PATCH', url: PROJECT_URL }).flush(maple({ clientName: 'Hale family', version: 4 }));
+    await stable();
+    await type('Conduction UA', '250');
+    await click('Save building');
+    const put = http.expectOne({ method: 'PUT', url: `${PROJECT_URL}/building` });
+    expect(put.request.body.version).toBe(4);
+    put.flush({ version: 5, building: put.request.body.building });
+    await stable();
+    await type('Notes', 'Attic insulated in 2024.');
+    await click('Save');
+    const patch = http.expectOne({ method: 'PATCH', url: PROJECT_URL });
+    expect(patch.request.body.version).toBe(5);
+    patch.flush(maple({ clientName: 'Hale family', notes: 'Attic insulated in 2024.', version: 6 }));
+    await stable();
   });
 
   it('fills the details form with the stored values', async () => {

@@ -18,14 +18,22 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
-import type { Project, ProjectInput } from '@shared/projects/project-schemas';
+import type { Project } from '@shared/projects/project-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorCode, apiErrorMessage, applyApiErrors } from '../../core/api-errors';
+import { BuildingSection } from '../../building/building-section/building-section';
+import { EquipmentListSelect } from '../../building/equipment-list-select/equipment-list-select';
 import { ProjectFields, type ClimateSiteRef } from '../project-fields/project-fields';
-import { checkProjectDetails, fillProjectDetails, projectDetailsForm, projectDetailsValue } from '../project-form';
+import {
+  checkProjectDetails,
+  fillProjectDetails,
+  projectDetailsForm,
+  projectDetailsValue,
+  type ProjectDetails,
+} from '../project-form';
 import { ProjectsApi, type ClimateSiteChoice } from '../projects-api';
 
-type DetailKey = keyof Required<ProjectInput>;
+type DetailKey = keyof ProjectDetails;
 
 const DETAIL_LABELS: Record<DetailKey, string> = {
   name: 'Project name',
@@ -46,23 +54,13 @@ interface UnsavedChange {
 /** The parts of a project still to be built, said plainly. */
 const SECTIONS = [
   {
-    title: 'Building',
-    icon: 'home_work',
-    text: 'The building’s design heat loss and the indoor temperature it is kept at.',
-  },
-  {
-    title: 'Equipment',
-    icon: 'heat_pump',
-    text: 'The heating units you could install, with their output in the cold and their installed prices.',
-  },
-  {
     title: 'Trade-off',
     icon: 'balance',
     text: 'For each outdoor design temperature: the unit it sizes for, what it costs, and the cold hours it leaves short.',
   },
 ] as const;
 
-/** `/projects/:id`: a project's details, and the parts of the project still to come. */
+/** `/projects/:id`: a project's details, its equipment list, its building, and the parts still to come. */
 @Component({
   selector: 'app-project-page',
   imports: [
@@ -74,6 +72,8 @@ const SECTIONS = [
     MatChipsModule,
     MatIconModule,
     MatProgressBarModule,
+    BuildingSection,
+    EquipmentListSelect,
     ProjectFields,
   ],
   templateUrl: './project-page.html',
@@ -195,6 +195,17 @@ export class ProjectPage {
     this.stale.set(false);
   }
 
+  /** The project as saved by the equipment select; the details form keeps what the user is typing. */
+  protected adopt(project: Project): void {
+    if (this.form.dirty) this.project.set(project);
+    else this.show(project);
+  }
+
+  /** The building was saved: the project moved on one version, its details unchanged. */
+  protected buildingSaved(version: number): void {
+    this.project.update((p) => (p ? { ...p, version } : p));
+  }
+
   private show(project: Project): void {
     this.project.set(project);
     fillProjectDetails(this.form, project);
@@ -202,7 +213,7 @@ export class ProjectPage {
   }
 
   /** The fields the user changed from `base` that the latest version does not already hold. */
-  private changesFrom(typed: Required<ProjectInput>, latest: Project, base: Project): UnsavedChange[] {
+  private changesFrom(typed: ProjectDetails, latest: Project, base: Project): UnsavedChange[] {
     const changes: UnsavedChange[] = [];
     for (const key of Object.keys(DETAIL_LABELS) as DetailKey[]) {
       const value = typed[key] ?? null;

@@ -18,6 +18,8 @@ export function aProject(name: string, fields: Partial<Project> = {}): Project {
     siteAddress: '',
     climateSiteId: null,
     climateSiteName: null,
+    equipmentListId: null,
+    equipmentListName: null,
     notes: '',
     archived: false,
     version: 1,
