@@ -84,5 +84,8 @@ export function guardOffline(page: Page, baseUrl: string, offenders: string[]): 
 }
 
 export async function screenshot(page: Page, name: string): Promise<void> {
+  await page.evaluate(() => {
+    window.scrollTo(0, 0);
+  });
   await page.screenshot({ path: path.join(SCREENSHOTS, `${name}.png`), fullPage: true });
 }
