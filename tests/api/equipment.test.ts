@@ -80,8 +80,10 @@ describe('equipment lists', () => {
   it('lets viewers read, not write; other organisations get 404', async () => {
     const owner = await signUp(t.app);
     const list = await owner.agent.post('/api/v1/equipment-lists').send({ name: 'L' }).expect(201);
+    const project = await owner.agent.post('/api/v1/projects').send({ name: 'Viewer test' }).expect(201);
     const viewer = await member(owner, 'viewer');
     await viewer.get(`/api/v1/equipment-lists/${list.body.id}`).expect(200);
+    await viewer.get(`/api/v1/projects/${project.body.id}/building`).expect(200);
     await viewer.get(`/api/v1/equipment-lists/${list.body.id}/csv`).expect(200);
     for (const res of [
       await viewer.post('/api/v1/equipment-lists').send({ name: 'No' }),
@@ -89,6 +91,7 @@ describe('equipment lists', () => {
       await viewer.post(`/api/v1/equipment-lists/${list.body.id}/csv-preview`).send({ csv: CSV }),
       await viewer.delete(`/api/v1/equipment-lists/${list.body.id}`),
       await viewer.put('/api/v1/energy-prices').send({ version: 0, prices: { currency: 'USD', electricityPerKwh: '0.15' } }),
+      await viewer.put(`/api/v1/projects/${project.body.id}/building`).send({ version: 1, building: {} }),
     ]) {
       assert.equal(res.status, 403);
     }
@@ -96,8 +99,9 @@ describe('equipment lists', () => {
     await other.agent.get(`/api/v1/equipment-lists/${list.body.id}`).expect(404);
     await other.agent.put(`/api/v1/equipment-lists/${list.body.id}/options`).send({ version: 1, options: [] }).expect(404);
     await other.agent.delete(`/api/v1/equipment-lists/${list.body.id}`).expect(404);
-    const project = await other.agent.post('/api/v1/projects').send({ name: 'P' }).expect(201);
-    const res = await other.agent.patch(`/api/v1/projects/${project.body.id}`).send({ version: 1, equipmentListId: list.body.id }).expect(404);
+    const theirs = await other.agent.post('/api/v1/projects').send({ name: 'P' }).expect(201);
+    await other.agent.get(`/api/v1/projects/${project.body.id}/building`).expect(404);
+    const res = await other.agent.patch(`/api/v1/projects/${theirs.body.id}`).send({ version: 1, equipmentListId: list.body.id }).expect(404);
     assert.equal(res.body.error.details[0].path, 'equipmentListId');
   });
 });
