@@ -69,6 +69,15 @@ describe('climate sites in a real browser', () => {
     const shown = expected.conditions.heating.db99_6.toFixed(1).replace('-', '−');
     assert.ok(heatingRow.includes(shown), `99.6 % row "${heatingRow}" shows ${shown}`);
     await page.getByTestId('design-caution').waitFor();
+
+    // The site's details can be edited after the upload; the values stay.
+    await page.getByRole('button', { name: 'Edit' }).click();
+    await page.getByRole('heading', { name: 'Edit site' }).waitFor();
+    await page.getByLabel(/^Site name/).fill(`${site.name} test upload`);
+    await page.getByLabel(/^Notes/).fill('Checked against the generated file');
+    await page.getByRole('button', { name: 'Save changes' }).click();
+    await page.getByTestId('design-values').waitFor();
+    assert.ok((await page.getByTestId('design-values').locator('[data-key="heating-99.6"]').innerText()).includes(shown));
     await page.waitForTimeout(300); // let the canvas paint
     await screenshot(page, 'climate-site-1280');
 

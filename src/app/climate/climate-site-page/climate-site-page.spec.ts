@@ -88,12 +88,19 @@ describe('ClimateSitePage', () => {
     expect(el.querySelector('[data-testid="cdf-chart"]')).toBeNull();
   });
 
-  it('offers upload and delete to designers, and nothing to viewers', async () => {
+  it('offers upload, edit and delete to designers, and nothing to viewers', async () => {
     const designer = await render(anHourlySite(), 'SI', 'designer');
     const labels = Array.from(designer.el.querySelectorAll('header button'), (b) =>
-      b.textContent?.replace(/upload_file|delete(?=Delete)/, '').trim(),
+      b.textContent?.replace(/upload_file|edit(?=Edit)|delete(?=Delete)/, '').trim(),
     );
-    expect(labels).toEqual(['Upload hourly data', 'Delete']);
+    expect(labels).toEqual(['Upload hourly data', 'Edit', 'Delete']);
+    const edit = Array.from(designer.el.querySelectorAll<HTMLButtonElement>('header button')).find((b) =>
+      b.textContent?.includes('Edit'),
+    );
+    edit?.click();
+    designer.fixture.detectChanges();
+    expect(designer.el.querySelector('h2')?.textContent).toContain('Edit site');
+    expect(designer.el.querySelector('app-climate-site-form')).not.toBeNull();
     designer.fixture.destroy();
 
     const viewer = await render(aPublishedSite(), 'SI', 'viewer');
