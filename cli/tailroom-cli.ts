@@ -3,12 +3,16 @@
  *
  *   node --import tsx cli/tailroom-cli.ts conditions <file> [--format csv|isd-lite] [--elevation m]
  *   node --import tsx cli/tailroom-cli.ts demo <site-id> [--years N] [--format csv|isd-lite]
+ *   node --import tsx cli/tailroom-cli.ts sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite]
  *
  * `conditions` prints the design conditions JSON of an hourly weather file to stdout.
  * `demo` prints a generated demo file for an invented site to stdout.
+ * `sweep` prints the design-temperature ladder of a scenario over a weather file as JSON rows.
  * Exit codes: 0 success, 1 unreadable or unusable data, 2 usage error.
  */
-import { createReadStream, existsSync, statSync } from 'node:fs';
+import { createReadStream, existsSync, readFileSync, statSync } from 'node:fs';
+import { scenarioFileSchema, scenarioToEngine } from '../shared/sweep/scenario-file';
+import { sweep } from '../shared/sweep/sweep';
 import { createInterface } from 'node:readline';
 import {
   computeDesignConditions,
@@ -28,6 +32,7 @@ import {
 const USAGE = `Usage:
   tailroom-cli conditions <file> [--format csv|isd-lite] [--elevation m]
   tailroom-cli demo <site-id> [--years N] [--format csv|isd-lite]
+  tailroom-cli sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite]
 
 Demo sites (invented): ${demoSiteIds.join(', ')}`;
 
@@ -125,6 +130,77 @@ async function conditionsCommand(args: readonly string[]): Promise<number> {
   return 0;
 }
 
+async function sweepCommand(args: readonly string[]): Promise<number> {
+  const { positional, flags } = parseArgs(args, ['weather', 'scenario', 'format']);
+  if (positional.length > 0) throw new UsageError(`Unexpected argument ${positional[0] ?? ''}`);
+  const weather = flags.get('weather');
+  const scenarioPath = flags.get('scenario');
+  if (weather === undefined || scenarioPath === undefined) throw new UsageError('sweep needs --weather <file> and --scenario <file>');
+  for (const f of [weather, scenarioPath]) {
+    if (!existsSync(f) || !statSync(f).isFile()) throw new UsageError(`No such file: ${f}`);
+  }
+  let raw: unknown;
+  try {
+    raw = JSON.parse(readFileSync(scenarioPath, 'utf8'));
+  } catch {
+    process.stderr.write(`${scenarioPath}: not valid JSON\n`);
+    return 1;
+  }
+  const checked = scenarioFileSchema.safeParse(raw);
+  if (!checked.success) {
+    const lines = checked.error.issues.map((i) => `  ${i.path.join('.') || '(file)'}: ${i.message}`);
+    process.stderr.write(`${scenarioPath}: not a valid scenario:\n${lines.join('\n')}\n`);
+    return 1;
+  }
+  const scenario = checked.data;
+  let engine: ReturnType<typeof scenarioToEngine>;
+  try {
+    engine = scenarioToEngine(scenario);
+  } catch (error) {
+    process.stderr.write(`${scenarioPath}: ${error instanceof Error ? error.message : String(error)}\n`);
+    return 1;
+  }
+  const parsed = await parseFile(weather, formatFlag(flags));
+  if (!parsed.ok) {
+    const lines = parsed.problems.map((p) => `  line ${p.line}: ${p.message}`);
+    process.stderr.write(`${weather}: cannot be read as ${parsed.format}:\n${lines.join('\n')}\n`);
+    return 1;
+  }
+  const conditions = computeDesignConditions(parsed.series, { elevationM: scenario.elevationM });
+  if (!conditions.ok) {
+    process.stderr.write(`${weather}: ${conditions.error.message}\n`);
+    return 1;
+  }
+  const result = sweep({
+    ...engine,
+    economics: scenario.economics,
+    designConditions: conditions.conditions,
+    designWindMs: scenario.designWindMs ?? 6.7,
+    record: { series: parsed.series, qualifyingYears: conditions.conditions.period.qualifyingYears },
+    extraDesignC: scenario.extraDesignTemperaturesC ?? [],
+  });
+  const rows = result.rows
+    .filter((r) => !r.isGrid)
+    .map((r) => ({
+      label: r.label,
+      designC: r.designC,
+      designLoadW: r.designLoadW,
+      selectedOptionId: r.selectedOptionId,
+      capacityAtDesignW: r.capacityAtDesignW,
+      installedPrice: r.installedPrice,
+      annualEnergyKWh: r.annualEnergyKWh,
+      annualCost: r.annualCost,
+      runHoursPerYear: r.runHoursPerYear,
+      unmetHoursPerYear: r.unmetHoursPerYear,
+      unmetHoursWorstYear: r.unmetHoursWorstYear,
+      unmetDegreeHoursPerYear: r.unmetDegreeHoursPerYear,
+      worstSagC: r.worstSagC,
+      lifeCycleCost: r.lifeCycleCost,
+    }));
+  process.stdout.write(JSON.stringify({ rows }, null, 2) + '\n');
+  return 0;
+}
+
 function demoCommand(args: readonly string[]): number {
   const { positional, flags } = parseArgs(args, ['years', 'format']);
   const [siteId, extra] = positional;
@@ -145,6 +221,7 @@ async function main(argv: readonly string[]): Promise<number> {
   try {
     if (command === 'conditions') return await conditionsCommand(rest);
     if (command === 'demo') return demoCommand(rest);
+    if (command === 'sweep') return await sweepCommand(rest);
     throw new UsageError(command === undefined ? 'No command given' : `Unknown command ${command}`);
   } catch (error) {
     if (error instanceof UsageError) {
