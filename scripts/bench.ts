@@ -1,6 +1,7 @@
 /**
  * `npm run bench`: speed figures for the README, measured on this machine (not asserted in tests).
- * Reads, checks and stores a 30-year hourly record (about 263,000 rows) the way an upload does,
+ * First the design-temperature sweep (fast path against the naive loop, scripts/bench-sweep.ts); then
+ * reading, checking and storing a 30-year hourly record (about 263,000 rows) the way an upload does,
  * against a throwaway PostgreSQL on loopback.
  */
 import { chmodSync, mkdtempSync, rmSync } from 'node:fs';
@@ -14,6 +15,7 @@ import { migrateLatest } from '../server/migrate';
 import { analyse, storeRecord, storedComputation } from '../server/modules/climate/climate-service';
 import { atStoragePrecision } from '../server/modules/climate/series-codec';
 import { readWeatherFiles } from '../server/modules/climate/weather-files';
+import { benchSweep } from './bench-sweep';
 import { ensurePostgresInstalled, PgCluster } from './pg-cluster';
 
 const RUNS = 5;
@@ -31,6 +33,8 @@ function freePort(): Promise<number> {
 }
 
 async function main(): Promise<void> {
+  benchSweep();
+  console.log('');
   const dir = mkdtempSync(path.join(tmpdir(), 'tailroom-bench-'));
   chmodSync(dir, 0o755);
   const cluster = new PgCluster(path.join(dir, 'pg'), await freePort(), randomBytes(12).toString('hex'), ensurePostgresInstalled(console.log));

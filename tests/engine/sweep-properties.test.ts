@@ -14,6 +14,7 @@ import { equipmentOptionSchema, type EquipmentOptionInput } from '../../shared/e
 import type { EnergyPrices } from '../../shared/money/energy-prices';
 import {
   designLadder,
+  indexSweepRecord,
   sweep,
   sweepNaive,
   type SweepDesignValues,
@@ -214,6 +215,40 @@ describe('sweep properties', () => {
         },
       ),
       { numRuns: 150 },
+    );
+  });
+
+  it('fast sweep equals the naive sweep off the 0.1 K grid, and an index reused across sweeps changes nothing', () => {
+    // Temperatures as arbitrary doubles: the bins come from a map instead of the 0.1 K array.
+    const offGrid: fc.Arbitrary<SweepRecord> = recordArb.map((r) => {
+      if (!('series' in r)) return r;
+      const dryBulbC = Array.from(r.series.dryBulbC, (t, i) => (Number.isNaN(t) ? t : t + ((i * 0.37) % 0.09) + 0.001));
+      return { ...r, series: { ...r.series, dryBulbC: Float64Array.from(dryBulbC) } };
+    });
+    fc.assert(
+      fc.property(
+        buildingArb,
+        fc.array(fc.oneof(flatArb, heatPumpArb), { minLength: 1, maxLength: 5 }),
+        offGrid,
+        designArb,
+        (building, options, record, designConditions) => {
+          const input = {
+            building,
+            options: withIds(options),
+            prices,
+            economics: { discountRatePct: 3 },
+            designConditions,
+            designWindMs: 4,
+            record,
+          };
+          const naive = sweepNaive(input);
+          assertRowsAgree(sweep(input).rows, naive.rows);
+          const index = indexSweepRecord(record);
+          sweep({ ...input, record: index });
+          assertRowsAgree(sweep({ ...input, record: index }).rows, naive.rows);
+        },
+      ),
+      { numRuns: 100 },
     );
   });
 
