@@ -17,6 +17,8 @@ import { climateRouter } from './modules/climate/climate-router';
 import { equipmentRouter } from './modules/equipment/equipment-router';
 import { orgsRouter } from './modules/orgs/orgs-router';
 import { projectsRouter } from './modules/projects/projects-router';
+import { scenariosRouter } from './modules/scenarios/scenarios-router';
+import { createSweepPool } from './modules/scenarios/sweep-pool';
 
 export interface AppDeps {
   config: Config;
@@ -27,7 +29,7 @@ export interface AppDeps {
 
 export interface App {
   app: Express;
-  /** Closes what the app opened itself (the session store's pool). */
+  /** Closes what the app opened itself (the session store's pool, the sweep workers). */
   close(): Promise<void>;
 }
 
@@ -84,7 +86,9 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   app.use('/api/v1', express.json({ limit: '1mb', strict: true }));
   app.use('/api/v1', authRouter(db, config, mailer));
   app.use('/api/v1', orgsRouter(db, config, mailer));
+  const sweepPool = createSweepPool();
   app.use('/api/v1/projects', projectsRouter(db));
+  app.use('/api/v1/projects', scenariosRouter(db, sweepPool, config.databaseUrl));
   app.use('/api/v1', climateRouter(db));
   app.use('/api/v1', equipmentRouter(db));
   if (config.devOutboxUrl) app.use('/api/v1/dev', devOutboxRouter(config.devOutboxUrl));
@@ -99,5 +103,10 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   }
 
   app.use(errorHandler());
-  return { app, close: () => sessionPool.end() };
+  return {
+    app,
+    close: async () => {
+      await Promise.all([sessionPool.end(), sweepPool.close()]);
+    },
+  };
 }

@@ -5,6 +5,7 @@ import { equipmentOptionSchema, type EquipmentOptionInput } from '@shared/equipm
 import { hashPassword } from '../modules/auth/passwords';
 import { insertSite } from '../modules/climate/climate-repo';
 import { storeRecord } from '../modules/climate/climate-service';
+import { scenarioSettingsSchema } from '@shared/scenarios/scenario-schemas';
 import { atStoragePrecision } from '../modules/climate/series-codec';
 
 /**
@@ -22,6 +23,7 @@ const DEMO_PROJECTS = ['Demo: Fernbrook Lane bungalow (invented)', 'Demo: Old Mi
 
 /** Invented catalogue entries and prices, for the demo only (not any manufacturer's data). */
 const DEMO_EQUIPMENT: EquipmentOptionInput[] = [
+  { kind: 'furnace', label: 'Demo gas furnace 30k (invented)', fuel: 'gas', efficiency: 0.96, outputW: 8_800, installedPrice: '4290.00', lifeYears: 20 },
   { kind: 'furnace', label: 'Demo gas furnace 40k (invented)', fuel: 'gas', efficiency: 0.96, outputW: 11_700, installedPrice: '4650.00', lifeYears: 20 },
   { kind: 'furnace', label: 'Demo gas furnace 60k (invented)', fuel: 'gas', efficiency: 0.96, outputW: 17_600, installedPrice: '5180.00', lifeYears: 20 },
   { kind: 'furnace', label: 'Demo gas furnace 80k (invented)', fuel: 'gas', efficiency: 0.95, outputW: 23_400, installedPrice: '5720.00', lifeYears: 20 },
@@ -87,7 +89,8 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
       });
     }
     // Three invented sites with 30-year hourly records from the seeded generator.
-    let firstSiteId: string | undefined;
+    // The demo projects use the site with the widest useful ladder for their house (Tallowmere Vale).
+    let projectSiteId: string | undefined;
     for (const site of DEMO_SITES) {
       const siteId = await insertSite(trx, org.id, ownerId, {
         name: site.name,
@@ -101,9 +104,31 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
       });
       const series = atStoragePrecision(generateDemoSeries(site, { years: 30 }));
       await storeRecord(trx, siteId, series, site.elevationM, { fileName: `${site.id} (generated)`, rowCount: series.time.length });
-      firstSiteId ??= siteId;
+      if (site.id === 'tallowmere-vale' || projectSiteId === undefined) projectSiteId = siteId;
     }
-    await trx('projects').where({ organization_id: org.id }).update({ climate_site_id: firstSiteId });
+    await trx('projects').where({ organization_id: org.id }).update({ climate_site_id: projectSiteId });
+    // Two bid scenarios on each demo project: gas furnaces only, and heat pumps with their backup.
+    const projects = await trx('projects').where({ organization_id: org.id }).select<{ id: string }[]>('id');
+    const labelsOf = (kinds: string[]) => DEMO_EQUIPMENT.filter((o) => kinds.includes(o.kind)).map((o) => o.label);
+    for (const p of projects) {
+      for (const [name, kinds] of [
+        ['Gas furnace bid (demo)', ['furnace']],
+        ['Heat pump bid (demo)', ['heat-pump']],
+      ] as const) {
+        await trx('scenarios').insert({
+          organization_id: org.id,
+          project_id: p.id,
+          name,
+          climate_site_id: projectSiteId,
+          equipment_list_id: list.id,
+          settings: JSON.stringify(
+            scenarioSettingsSchema.parse({ optionLabels: labelsOf([...kinds]), extraDesignC: [], discountRatePct: 3 }),
+          ),
+          created_by: ownerId,
+          updated_by: ownerId,
+        });
+      }
+    }
     // And one typed in by hand, as from a published table (invented values).
     await insertSite(trx, org.id, ownerId, {
       name: 'Ashcombe Ridge (invented, typed-in values)',

@@ -11,6 +11,7 @@
  */
 import type { z } from 'zod';
 import { toSi } from '../building/quantities';
+import { csvField } from '../csv/csv-field';
 import { equipmentOptionSchema, type EquipmentOption } from './equipment-schemas';
 
 export interface CsvProblem {
@@ -266,10 +267,6 @@ function buildOption(cells: ReadonlyMap<string, string>): { value: Record<string
 }
 
 /** Quotes a CSV field when it needs it (comma, quote, line break, or spaces at either end). */
-function csvField(value: string): string {
-  return /[",\r\n]|^\s|\s$/.test(value) ? `"${value.replaceAll('"', '""')}"` : value;
-}
-
 const num = (v: number | undefined): string => (v === undefined ? '' : String(v));
 
 /** The options as CSV (header + one row each, CRLF line ends), readable by `parseEquipmentCsv`. */

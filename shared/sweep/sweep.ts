@@ -720,3 +720,43 @@ export function sweep(input: SweepInput): SweepResult {
   return { rows, years: common.hours?.years ?? [], timeConstantH: common.tauH };
 }
 
+
+export interface LoadDurationPoint {
+  /** Hours per average qualifying year with a load at or above `loadW`. */
+  hoursPerYear: number;
+  loadW: number;
+  /** Outdoor temperature of that load (the warmest bin at this load), °C. */
+  outdoorC: number;
+}
+
+/**
+ * The record's load-duration curve for a building: hourly loads in descending order against the
+ * hours per average year at or above them, thinned to at most `maxPoints` points (the first and the
+ * last always kept). Hours without load are left out.
+ */
+export function loadDuration(
+  building: Building,
+  index: SweepRecordIndex,
+  designWindMs: number,
+  maxPoints = 300,
+): LoadDurationPoint[] {
+  const { bins, load } = binLoads(building, index, designWindMs);
+  const years = Math.max(1, index.hours.years.length);
+  const order = Array.from(load.keys())
+    .filter((b) => (load[b] ?? 0) > 0)
+    .sort((a, b) => (load[b] ?? 0) - (load[a] ?? 0));
+  const all: LoadDurationPoint[] = [];
+  let hours = 0;
+  for (const b of order) {
+    hours += bins.count[b] ?? 0;
+    all.push({ hoursPerYear: hours / years, loadW: load[b] ?? 0, outdoorC: bins.t[b] ?? 0 });
+  }
+  if (all.length <= maxPoints) return all;
+  const step = (all.length - 1) / (maxPoints - 1);
+  const thinned: LoadDurationPoint[] = [];
+  for (let k = 0; k < maxPoints; k++) {
+    const p = all[Math.round(k * step)];
+    if (p) thinned.push(p);
+  }
+  return thinned;
+}

@@ -40,4 +40,27 @@ describe('demo data', () => {
       if (s.sourceKind === 'hourly') assert.equal(s.qualifyingYearCount, 30);
     }
   });
+
+  it('gives each demo project two bid scenarios whose sweeps show a trade-off across the ladder', async () => {
+    const agent = request.agent(t.app);
+    await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD }).expect(200);
+    const projects = (await agent.get('/api/v1/projects').expect(200)).body as { id: string }[];
+    assert.equal(projects.length, 2);
+    const project = projects[0];
+    assert.ok(project);
+    const scenarios = (await agent.get(`/api/v1/projects/${project.id}/scenarios`).expect(200)).body as { id: string; name: string }[];
+    assert.deepEqual(scenarios.map((x) => x.name).sort(), ['Gas furnace bid (demo)', 'Heat pump bid (demo)']);
+    for (const sc of scenarios) {
+      const sweep = (await agent.post(`/api/v1/projects/${project.id}/scenarios/${sc.id}/sweep`).expect(200)).body as {
+        rows: { isGrid: boolean; selectedOptionId: string | null; unmetHoursPerYear: number | null }[];
+        years: number[];
+      };
+      assert.equal(sweep.years.length, 30);
+      const named = sweep.rows.filter((r) => !r.isGrid);
+      assert.ok(named.every((r) => r.selectedOptionId !== null), `${sc.name}: a unit at every named rung`);
+      // The mildest rung installs a smaller unit than the coldest, and falls short more often.
+      assert.notEqual(named[0]?.selectedOptionId, named.at(-1)?.selectedOptionId, `${sc.name}: one unit everywhere`);
+      assert.ok((named[0]?.unmetHoursPerYear ?? 0) > (named.at(-1)?.unmetHoursPerYear ?? 0), sc.name);
+    }
+  });
 });

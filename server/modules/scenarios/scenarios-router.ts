@@ -1,0 +1,350 @@
+/**
+ * /api/v1/projects/:projectId/scenarios…: scenarios CRUD, duplicate, freeze, sweeps (run, read,
+ * CSV) and the comparison of two to five scenarios (JSON, CSV).
+ */
+import { Router, type Response } from 'express';
+import type { Knex } from 'knex';
+import { z } from 'zod';
+import { csvLines, csvTextField } from '@shared/csv/csv-field';
+import {
+  compareQuerySchema,
+  scenarioCopySchema,
+  scenarioInputSchema,
+  scenarioPatchSchema,
+  scenarioSettingsSchema,
+  type Comparison,
+  type Scenario,
+  type ScenarioSettings,
+  type SweepAnswer,
+} from '@shared/scenarios/scenario-schemas';
+import { authorize, orgContext } from '../../http/authorize';
+import { HttpError, staleUpdate } from '../../http/http-error';
+import { computeSweep, prepareSweep, type ScenarioRow } from './sweep-service';
+import type { SweepPool } from './sweep-pool';
+
+const FORMER = 'A former member';
+
+type ListedRow = ScenarioRow & {
+  climate_site_name: string | null;
+  equipment_list_name: string | null;
+  updated_by_name: string | null;
+  created_at: Date;
+  updated_at: Date;
+};
+
+function toScenario(r: ListedRow): Scenario {
+  return {
+    id: r.id,
+    projectId: r.project_id,
+    name: r.name,
+    climateSiteId: r.climate_site_id,
+    climateSiteName: r.frozen_at ? r.frozen_site_name : r.climate_site_name,
+    equipmentListId: r.equipment_list_id,
+    equipmentListName: r.frozen_at ? r.frozen_list_name : r.equipment_list_name,
+    settings: scenarioSettingsSchema.parse(r.settings),
+    frozenAt: r.frozen_at ? r.frozen_at.toISOString() : null,
+    frozenFromId: r.frozen_from_id,
+    version: r.version,
+    updatedByName: r.updated_by_name ?? FORMER,
+    createdAt: r.created_at.toISOString(),
+    updatedAt: r.updated_at.toISOString(),
+  };
+}
+
+function scenarioQuery(db: Knex, organizationId: string, projectId: string) {
+  return db('scenarios as s')
+    .leftJoin('climate_sites as cs', 'cs.id', 's.climate_site_id')
+    .leftJoin('equipment_lists as el', 'el.id', 's.equipment_list_id')
+    .leftJoin('users as uu', 'uu.id', 's.updated_by')
+    .where({ 's.organization_id': organizationId, 's.project_id': projectId })
+    .select<ListedRow[]>('s.*', 'cs.name as climate_site_name', 'el.name as equipment_list_name', 'uu.name as updated_by_name');
+}
+
+const projectParam = z.object({ projectId: z.uuid('Unknown project') });
+const scenarioParams = z.object({ projectId: z.uuid('Unknown project'), scenarioId: z.uuid('Unknown scenario') });
+const scenarioNotFound = () => new HttpError(404, 'not_found', 'That scenario was not found');
+const frozenError = () =>
+  new HttpError(409, 'frozen', 'This scenario is frozen for a bid: its inputs and results cannot change. Duplicate it to work on a copy.');
+
+const bidDate = (d: Date) => d.toISOString().slice(0, 10);
+
+export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string): Router {
+  const router = Router();
+
+  async function requireProject(organizationId: string, projectId: string) {
+    const p = await db('projects')
+      .where({ id: projectId, organization_id: organizationId })
+      .first<{ id: string; climate_site_id: string | null; equipment_list_id: string | null } | undefined>(
+        'id',
+        'climate_site_id',
+        'equipment_list_id',
+      );
+    if (!p) throw new HttpError(404, 'not_found', 'That project was not found');
+    return p;
+  }
+
+  async function findScenario(organizationId: string, projectId: string, scenarioId: string): Promise<ListedRow> {
+    const rows = await scenarioQuery(db, organizationId, projectId).andWhere('s.id', scenarioId);
+    const row = rows[0];
+    if (!row) throw scenarioNotFound();
+    return row;
+  }
+
+  async function checkReferences(organizationId: string, refs: { climateSiteId?: string | null; equipmentListId?: string | null }) {
+    const checks = [
+      { id: refs.climateSiteId, table: 'climate_sites', path: 'climateSiteId', what: 'climate site' },
+      { id: refs.equipmentListId, table: 'equipment_lists', path: 'equipmentListId', what: 'equipment list' },
+    ];
+    for (const c of checks) {
+      if (!c.id) continue;
+      const found: unknown = await db(c.table).where({ id: c.id, organization_id: organizationId }).first('id');
+      if (!found) {
+        throw new HttpError(404, 'not_found', `That ${c.what} was not found`, [{ path: c.path, message: `Choose a ${c.what} of this organisation` }]);
+      }
+    }
+  }
+
+  /** The sweep answer of a scenario: its frozen result, or the cache, or a new run. */
+  async function sweepOf(row: ScenarioRow, options: { onlyCached?: boolean } = {}): Promise<SweepAnswer | null> {
+    if (row.frozen_at && row.frozen_result) {
+      return { ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true };
+    }
+    const prepared = await prepareSweep(db, row);
+    const out = await computeSweep(db, pool, databaseUrl, prepared, options);
+    return out && { ...out.body, scenarioId: row.id, cached: out.cached, frozen: false };
+  }
+
+  router.get('/:projectId/scenarios', authorize(db, 'org:read'), async (req, res) => {
+    const { projectId } = projectParam.parse(req.params);
+    const { organizationId } = orgContext(req);
+    await requireProject(organizationId, projectId);
+    const rows = await scenarioQuery(db, organizationId, projectId).orderBy([
+      { column: 's.created_at', order: 'asc' },
+      { column: 's.id' },
+    ]);
+    res.json(rows.map(toScenario));
+  });
+
+  router.post('/:projectId/scenarios', authorize(db, 'project:write'), async (req, res) => {
+    const { projectId } = projectParam.parse(req.params);
+    const input = scenarioInputSchema.parse(req.body);
+    const { organizationId, user } = orgContext(req);
+    const project = await requireProject(organizationId, projectId);
+    await checkReferences(organizationId, input);
+    const settings: ScenarioSettings = input.settings ?? scenarioSettingsSchema.parse({});
+    const [row] = await db('scenarios')
+      .insert({
+        organization_id: organizationId,
+        project_id: projectId,
+        name: input.name,
+        climate_site_id: input.climateSiteId === undefined ? project.climate_site_id : input.climateSiteId,
+        equipment_list_id: input.equipmentListId === undefined ? project.equipment_list_id : input.equipmentListId,
+        settings: JSON.stringify(settings),
+        created_by: user.id,
+        updated_by: user.id,
+      })
+      .returning<{ id: string }[]>('id');
+    const created = await findScenario(organizationId, projectId, row?.id ?? '');
+    res.status(201).location(`/api/v1/projects/${projectId}/scenarios/${created.id}`).json(toScenario(created));
+  });
+
+  router.get('/:projectId/scenarios/:scenarioId', authorize(db, 'org:read'), async (req, res) => {
+    const { projectId, scenarioId } = scenarioParams.parse(req.params);
+    res.json(toScenario(await findScenario(orgContext(req).organizationId, projectId, scenarioId)));
+  });
+
+  router.patch('/:projectId/scenarios/:scenarioId', authorize(db, 'project:write'), async (req, res) => {
+    const { projectId, scenarioId } = scenarioParams.parse(req.params);
+    const patch = scenarioPatchSchema.parse(req.body);
+    const { organizationId, user } = orgContext(req);
+    const current = await findScenario(organizationId, projectId, scenarioId);
+    const changesInputs = patch.climateSiteId !== undefined || patch.equipmentListId !== undefined || patch.settings !== undefined;
+    if (current.frozen_at && changesInputs) throw frozenError();
+    await checkReferences(organizationId, patch);
+    const update: Record<string, unknown> = { updated_by: user.id, updated_at: db.fn.now(), version: db.raw('version + 1') };
+    if (patch.name !== undefined) update['name'] = patch.name;
+    if (patch.climateSiteId !== undefined) update['climate_site_id'] = patch.climateSiteId;
+    if (patch.equipmentListId !== undefined) update['equipment_list_id'] = patch.equipmentListId;
+    if (patch.settings !== undefined) update['settings'] = JSON.stringify(patch.settings);
+    const n = await db('scenarios').where({ id: scenarioId, organization_id: organizationId, version: patch.version }).update(update);
+    if (!n) throw staleUpdate(current.updated_by_name ?? FORMER, 'scenario');
+    res.json(toScenario(await findScenario(organizationId, projectId, scenarioId)));
+  });
+
+  router.delete('/:projectId/scenarios/:scenarioId', authorize(db, 'project:write'), async (req, res) => {
+    const { projectId, scenarioId } = scenarioParams.parse(req.params);
+    const n = await db('scenarios')
+      .where({ id: scenarioId, project_id: projectId, organization_id: orgContext(req).organizationId })
+      .delete();
+    if (!n) throw scenarioNotFound();
+    res.status(204).end();
+  });
+
+  router.post('/:projectId/scenarios/:scenarioId/duplicate', authorize(db, 'project:write'), async (req, res) => {
+    const { projectId, scenarioId } = scenarioParams.parse(req.params);
+    const { name } = scenarioCopySchema.parse(req.body ?? {});
+    const { organizationId, user } = orgContext(req);
+    const source = await findScenario(organizationId, projectId, scenarioId);
+    const [row] = await db('scenarios')
+      .insert({
+        organization_id: organizationId,
+        project_id: projectId,
+        name: name ?? `${source.name} (copy)`.slice(0, 160),
+        climate_site_id: source.climate_site_id,
+        equipment_list_id: source.equipment_list_id,
+        settings: JSON.stringify(source.settings),
+        created_by: user.id,
+        updated_by: user.id,
+      })
+      .returning<{ id: string }[]>('id');
+    const copy = await findScenario(organizationId, projectId, row?.id ?? '');
+    res.status(201).location(`/api/v1/projects/${projectId}/scenarios/${copy.id}`).json(toScenario(copy));
+  });
+
+  /** Freezing takes an immutable dated copy with the inputs and the result of this moment; the scenario itself stays editable. */
+  router.post('/:projectId/scenarios/:scenarioId/freeze', authorize(db, 'project:write'), async (req, res) => {
+    const { projectId, scenarioId } = scenarioParams.parse(req.params);
+    const { name } = scenarioCopySchema.parse(req.body ?? {});
+    const { organizationId, user } = orgContext(req);
+    const source = await findScenario(organizationId, projectId, scenarioId);
+    if (source.frozen_at) throw new HttpError(409, 'frozen', 'This scenario is already a frozen copy');
+    const prepared = await prepareSweep(db, source);
+    const out = await computeSweep(db, pool, databaseUrl, prepared);
+    if (!out) throw new Error('sweep missing after a run');
+    const now = new Date();
+    const [row] = await db('scenarios')
+      .insert({
+        organization_id: organizationId,
+        project_id: projectId,
+        name: name ?? `${source.name} · bid ${bidDate(now)}`.slice(0, 160),
+        climate_site_id: source.climate_site_id,
+        equipment_list_id: source.equipment_list_id,
+        // The prices of this moment, so that a copy of the bid prices the same way.
+        settings: JSON.stringify({ ...source.settings, prices: prepared.prices }),
+        frozen_at: now,
+        frozen_from_id: source.id,
+        frozen_site_name: prepared.meta.climateSiteName,
+        frozen_list_name: prepared.meta.equipmentListName,
+        frozen_inputs: JSON.stringify({ hash: prepared.hash, ...prepared.task }),
+        frozen_result: JSON.stringify(out.body),
+        created_by: user.id,
+        updated_by: user.id,
+      })
+      .returning<{ id: string }[]>('id');
+    const frozen = await findScenario(organizationId, projectId, row?.id ?? '');
+    res.status(201).location(`/api/v1/projects/${projectId}/scenarios/${frozen.id}`).json(toScenario(frozen));
+  });
+
+  router.post('/:projectId/scenarios/:scenarioId/sweep', authorize(db, 'org:read'), async (req, res) => {
+    const { projectId, scenarioId } = scenarioParams.parse(req.params);
+    res.json(await sweepOf(await findScenario(orgContext(req).organizationId, projectId, scenarioId)));
+  });
+
+  /** The cached sweep only (404 `not_computed` when the current inputs have not been swept yet). */
+  router.get('/:projectId/scenarios/:scenarioId/sweep', authorize(db, 'org:read'), async (req, res) => {
+    const { projectId, scenarioId } = scenarioParams.parse(req.params);
+    const answer = await sweepOf(await findScenario(orgContext(req).organizationId, projectId, scenarioId), { onlyCached: true });
+    if (!answer) throw new HttpError(404, 'not_computed', 'This scenario has not been swept with its current inputs yet');
+    res.json(answer);
+  });
+
+  router.get('/:projectId/scenarios/:scenarioId/sweep.csv', authorize(db, 'org:read'), async (req, res) => {
+    const { projectId, scenarioId } = scenarioParams.parse(req.params);
+    const row = await findScenario(orgContext(req).organizationId, projectId, scenarioId);
+    const answer = await sweepOf(row);
+    if (!answer) throw new Error('sweep missing after a run');
+    sendCsv(res, `${row.name}-sweep.csv`, csvLines([SWEEP_CSV_HEADER, ...sweepCsvRows(row.name, answer, false)]));
+  });
+
+  async function comparison(organizationId: string, projectId: string, ids: string[]): Promise<Comparison> {
+    await requireProject(organizationId, projectId);
+    const rows = await scenarioQuery(db, organizationId, projectId).whereIn('s.id', ids);
+    const byId = new Map(rows.map((r) => [r.id, r]));
+    const missing = ids.filter((id) => !byId.has(id));
+    if (missing.length > 0) throw new HttpError(404, 'not_found', 'Some of these scenarios were not found', [{ path: 'ids', message: `Unknown scenario: ${missing.join(', ')}` }]);
+    const entries: Comparison['entries'] = [];
+    for (const id of ids) {
+      const r = byId.get(id);
+      if (!r) continue;
+      try {
+        entries.push({ scenario: toScenario(r), sweep: await sweepOf(r), problem: null });
+      } catch (error) {
+        if (!(error instanceof HttpError) || error.code !== 'scenario_incomplete') throw error;
+        entries.push({ scenario: toScenario(r), sweep: null, problem: error.message });
+      }
+    }
+    return { entries };
+  }
+
+  router.get('/:projectId/scenario-comparison', authorize(db, 'org:read'), async (req, res) => {
+    const { projectId } = projectParam.parse(req.params);
+    const { ids } = compareQuerySchema.parse(req.query);
+    res.json(await comparison(orgContext(req).organizationId, projectId, ids));
+  });
+
+  router.get('/:projectId/scenario-comparison.csv', authorize(db, 'org:read'), async (req, res) => {
+    const { projectId } = projectParam.parse(req.params);
+    const { ids } = compareQuerySchema.parse(req.query);
+    const { entries } = await comparison(orgContext(req).organizationId, projectId, ids);
+    const lines = [SWEEP_CSV_HEADER];
+    for (const e of entries) if (e.sweep) lines.push(...sweepCsvRows(e.scenario.name, e.sweep, true));
+    sendCsv(res, 'scenario-comparison.csv', csvLines(lines));
+  });
+
+  return router;
+}
+
+const SWEEP_CSV_HEADER = [
+  'scenario',
+  'rung',
+  'design_c',
+  'design_load_w',
+  'option',
+  'capacity_at_design_w',
+  'installed_price',
+  'annual_energy_kwh',
+  'annual_cost',
+  'run_hours_per_year',
+  'unmet_hours_per_year',
+  'unmet_hours_worst_year',
+  'unmet_degree_hours_per_year',
+  'worst_sag_k',
+  'life_cycle_cost',
+  'currency',
+  'note',
+];
+
+const num = (v: number | null, digits: number) => (v === null ? '' : String(Number(v.toFixed(digits))));
+
+function sweepCsvRows(scenarioName: string, a: SweepAnswer, namedOnly: boolean): string[][] {
+  const labels = new Map(a.options.map((o) => [o.id, o.label]));
+  return a.rows
+    .filter((r) => !namedOnly || !r.isGrid)
+    .map((r) => [
+      csvTextField(scenarioName),
+      csvTextField(r.label),
+      num(r.designC, 2),
+      num(r.designLoadW, 0),
+      csvTextField(r.selectedOptionId ? (labels.get(r.selectedOptionId) ?? r.selectedOptionId) : ''),
+      num(r.capacityAtDesignW, 0),
+      r.installedPrice ?? '',
+      num(r.annualEnergyKWh, 1),
+      r.annualCost ?? '',
+      num(r.runHoursPerYear, 1),
+      num(r.unmetHoursPerYear, 2),
+      num(r.unmetHoursWorstYear, 0),
+      num(r.unmetDegreeHoursPerYear, 1),
+      num(r.worstSagC, 2),
+      r.lifeCycleCost ?? '',
+      a.currency,
+      csvTextField(r.selectionReason ?? r.costUnavailableReason ?? r.unavailableReason ?? ''),
+    ]);
+}
+
+function sendCsv(res: Response, fileName: string, body: string): void {
+  const safe = fileName.replace(/[^\w.-]+/g, '-').replace(/-+/g, '-');
+  res
+    .type('text/csv; charset=utf-8')
+    .set('Content-Disposition', `attachment; filename="${safe}"`)
+    .send(body);
+}

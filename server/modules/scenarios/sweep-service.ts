@@ -1,0 +1,215 @@
+/**
+ * Puts a scenario's sweep together from the project's building, the scenario's climate site,
+ * equipment list, prices and settings; looks it up in the result cache by a hash of all of that;
+ * runs it in the worker pool when it is not there.
+ */
+import { createHash } from 'node:crypto';
+import type { Knex } from 'knex';
+import type { FieldIssue } from '@shared/api/api-error';
+import type { Building } from '@shared/building/building-schemas';
+import { resolveDesignWind } from '@shared/building/heat-loss';
+import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
+import { capacityAt } from '@shared/equipment/capacity';
+import { equipmentOptionSchema, type EquipmentOption } from '@shared/equipment/equipment-schemas';
+import { energyPricesSchema, type EnergyPrices } from '@shared/money/energy-prices';
+import type { ScenarioSettings, SweepAnswer, SweepOptionAnswer } from '@shared/scenarios/scenario-schemas';
+import type { SweepDesignValues, SweepOption } from '@shared/sweep/sweep';
+import { HttpError } from '../../http/http-error';
+import { findSite } from '../climate/climate-repo';
+import type { SweepPool } from './sweep-pool';
+import type { SweepTask } from './sweep-worker';
+
+/** Bumped whenever the sweep's figures or the answer's shape change, so that old cache entries are not used. */
+export const SWEEP_VERSION = 'sweep-1.0.0';
+
+export interface ScenarioRow {
+  id: string;
+  organization_id: string;
+  project_id: string;
+  name: string;
+  climate_site_id: string | null;
+  equipment_list_id: string | null;
+  settings: ScenarioSettings;
+  frozen_at: Date | null;
+  frozen_from_id: string | null;
+  frozen_site_name: string | null;
+  frozen_list_name: string | null;
+  frozen_inputs: unknown;
+  frozen_result: SweepAnswerBody | null;
+  version: number;
+}
+
+/** A sweep answer without what depends on who asks and how (scenario id, cached, frozen). */
+export type SweepAnswerBody = Omit<SweepAnswer, 'scenarioId' | 'cached' | 'frozen'>;
+
+export interface PreparedSweep {
+  hash: string;
+  task: Omit<SweepTask, 'databaseUrl'>;
+  meta: Omit<SweepAnswerBody, 'inputHash' | 'computedAt' | 'years' | 'timeConstantH' | 'rows' | 'loadDuration'>;
+  /** The prices used (the scenario's or the organisation's), kept with a frozen copy. */
+  prices: EnergyPrices;
+}
+
+/** 422 `scenario_incomplete` with what is missing, field by field. */
+export const incomplete = (details: FieldIssue[]) =>
+  new HttpError(422, 'scenario_incomplete', 'This scenario cannot be swept yet: ' + details.map((d) => d.message).join('; '), details);
+
+const CURVE_FROM_C = 20;
+const CURVE_TO_C = -45;
+
+function capacityCurve(option: EquipmentOption): SweepOptionAnswer['capacityCurve'] {
+  const curve: SweepOptionAnswer['capacityCurve'] = [];
+  for (let t = CURVE_FROM_C; t >= CURVE_TO_C; t--) curve.push({ outdoorC: t, capacityW: capacityAt(option, t).totalW });
+  return curve;
+}
+
+/** Everything a sweep of this scenario depends on, or 422 with what is missing. */
+export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<PreparedSweep> {
+  const problems: FieldIssue[] = [];
+  const orgId = scenario.organization_id;
+  const project = await db('projects')
+    .where({ id: scenario.project_id, organization_id: orgId })
+    .first<{ building: Building | null } | undefined>('building');
+  const building = project?.building ?? null;
+  if (building === null) problems.push({ path: 'building', message: 'Describe the building on the project page first' });
+
+  const site = scenario.climate_site_id ? await findSite(db, orgId, scenario.climate_site_id) : undefined;
+  let designConditions: SweepDesignValues | null = null;
+  let windValues: { coincident99_6?: number | null; coldestMonth1?: number | null } | null = null;
+  let record: SweepTask['record'] = null;
+  if (!site) {
+    problems.push({ path: 'climateSiteId', message: 'Choose a climate site' });
+  } else if (site.computed) {
+    const c = site.computed.conditions;
+    designConditions = { heating: c.heating, extremeMin: c.extremeMin };
+    windValues = c.wind;
+    record = {
+      siteId: site.id,
+      key: `${site.id}@${site.computed.computedAt}#${site.computed.rowCount}`,
+      qualifyingYears: c.period.qualifyingYears,
+    };
+  } else if (site.publishedValues) {
+    const p = site.publishedValues;
+    designConditions = { heating: p.heating, extremeMin: p.extremeMin };
+    windValues = p.wind ?? null;
+  } else {
+    problems.push({ path: 'climateSiteId', message: `"${site.name}" has no design values yet: upload and confirm its hourly record` });
+  }
+
+  const list = scenario.equipment_list_id
+    ? await db('equipment_lists').where({ id: scenario.equipment_list_id, organization_id: orgId }).first<{ name: string } | undefined>('name')
+    : undefined;
+  const options: SweepOption[] = [];
+  const notes: string[] = [];
+  if (!list) {
+    problems.push({ path: 'equipmentListId', message: 'Choose an equipment list' });
+  } else {
+    const rows = await db('equipment_options')
+      .where({ equipment_list_id: scenario.equipment_list_id })
+      .orderBy('position')
+      .select<{ position: number; option: unknown }[]>('position', 'option');
+    const wanted = scenario.settings.optionLabels;
+    const seen = new Set<string>();
+    for (const r of rows) {
+      const option = equipmentOptionSchema.parse(r.option);
+      if (wanted !== null && !wanted.includes(option.label)) continue;
+      seen.add(option.label);
+      options.push({ ...option, id: String(r.position + 1) });
+    }
+    const missing = (wanted ?? []).filter((l) => !seen.has(l));
+    if (missing.length > 0) {
+      notes.push(`${missing.length === 1 ? 'An option' : `${missing.length} options`} chosen for this scenario ${missing.length === 1 ? 'is' : 'are'} no longer in the list: ${missing.join(', ')}`);
+    }
+    if (options.length === 0) {
+      problems.push({
+        path: wanted === null ? 'equipmentListId' : 'settings.optionLabels',
+        message: wanted === null ? `"${list.name}" has no options yet` : 'None of the chosen options is in the list any more',
+      });
+    }
+  }
+
+  let prices = scenario.settings.prices;
+  if (prices === null) {
+    const row = await db('energy_prices').where({ organization_id: orgId }).first<{ prices: unknown } | undefined>('prices');
+    prices = row ? energyPricesSchema.parse(row.prices) : null;
+  }
+  if (prices === null) {
+    problems.push({ path: 'settings.prices', message: 'Enter the organisation’s energy prices, or give this scenario its own' });
+  }
+
+  if (problems.length > 0 || building === null || designConditions === null || prices === null || !site || !list) {
+    throw incomplete(problems);
+  }
+  const sized: Building = { ...building, safetyFactorPct: scenario.settings.safetyFactorPct ?? building.safetyFactorPct };
+  const wind = resolveDesignWind(building.designWind, windValues);
+  if (wind.fellBack) notes.push(`The building's design wind choice has no value at "${site.name}"; the default ${wind.windMs} m/s is used`);
+  if (record === null) notes.push(`"${site.name}" has published values only: running cost, run-hours and unmet hours need an hourly record`);
+
+  const input: SweepTask['input'] = {
+    building: sized,
+    options,
+    prices,
+    economics: { discountRatePct: scenario.settings.discountRatePct },
+    designConditions,
+    designWindMs: wind.windMs,
+    extraDesignC: scenario.settings.extraDesignC,
+  };
+  const hash = createHash('sha256')
+    .update(JSON.stringify({ v: SWEEP_VERSION, m: METHOD_VERSION, input, record }))
+    .digest('hex');
+  return {
+    hash,
+    task: { input, record },
+    prices,
+    meta: {
+      climateSiteName: site.name,
+      equipmentListName: list.name,
+      currency: prices.currency,
+      hasRecord: record !== null,
+      designWindMs: wind.windMs,
+      indoorDesignC: sized.indoorDesignC,
+      discountRatePct: scenario.settings.discountRatePct,
+      options: options.map((o) => ({
+        id: o.id,
+        label: o.label,
+        kind: o.kind,
+        fuel: o.fuel,
+        lifeYears: o.lifeYears,
+        installedPrice: o.installedPrice,
+        capacityCurve: capacityCurve(o),
+      })),
+      notes,
+    },
+  };
+}
+
+/** The sweep of a prepared scenario: from the cache, or computed in the pool and then cached. */
+export async function computeSweep(
+  db: Knex,
+  pool: SweepPool,
+  databaseUrl: string,
+  prepared: PreparedSweep,
+  options: { onlyCached?: boolean } = {},
+): Promise<{ body: SweepAnswerBody; cached: boolean } | null> {
+  const hit = await db('sweep_results')
+    .where({ input_hash: prepared.hash })
+    .update({ used_at: db.fn.now() })
+    .returning<{ result: SweepAnswerBody }[]>('result');
+  if (hit[0]) return { body: { ...hit[0].result, ...prepared.meta }, cached: true };
+  if (options.onlyCached) return null;
+  const { result, loadDuration } = await pool.run(prepared.hash, { ...prepared.task, databaseUrl });
+  const body: SweepAnswerBody = {
+    ...prepared.meta,
+    inputHash: prepared.hash,
+    computedAt: new Date().toISOString(),
+    years: result.years,
+    timeConstantH: result.timeConstantH,
+    rows: result.rows,
+    loadDuration: loadDuration ? { points: loadDuration } : null,
+  };
+  await db('sweep_results')
+    .insert({ input_hash: prepared.hash, result: JSON.stringify(body) })
+    .onConflict('input_hash')
+    .ignore();
+  return { body, cached: false };
+}

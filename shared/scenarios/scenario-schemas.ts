@@ -1,0 +1,192 @@
+/**
+ * Scenarios of a project (a climate site, an equipment list or part of it, sizing rules, prices and
+ * economics) and the API answers of their sweeps. A frozen scenario is an immutable dated copy for a
+ * bid: its inputs and results no longer change.
+ */
+import { z } from 'zod';
+import { energyPricesSchema } from '../money/energy-prices';
+
+export const SCENARIO_NAME_MAX = 160;
+export const EXTRA_DESIGN_TEMPERATURES_MAX = 10;
+export const COMPARE_MIN = 2;
+export const COMPARE_MAX = 5;
+export const DEFAULT_DISCOUNT_RATE_PCT = 3;
+
+const scenarioName = z
+  .string({ error: 'Enter a scenario name' })
+  .trim()
+  .min(1, 'Enter a scenario name')
+  .max(SCENARIO_NAME_MAX, `Use at most ${SCENARIO_NAME_MAX} characters`);
+
+export const scenarioSettingsSchema = z.strictObject({
+  /** Design temperatures to add to the ladder, °C. */
+  extraDesignC: z
+    .array(
+      z
+        .number({ error: 'Enter a temperature as a number (°C)' })
+        .min(-70, 'A design temperature must be at least −70 °C')
+        .max(20, 'A design temperature must be at most 20 °C'),
+    )
+    .max(EXTRA_DESIGN_TEMPERATURES_MAX, `Add at most ${EXTRA_DESIGN_TEMPERATURES_MAX} design temperatures`)
+    .default([]),
+  /** Real discount rate for the life-cycle cost, % per year (NIST Handbook 135). */
+  discountRatePct: z
+    .number({ error: 'Enter the discount rate as a number (%)' })
+    .min(0, 'The discount rate cannot be negative')
+    .max(30, 'The discount rate must be at most 30 %')
+    .default(DEFAULT_DISCOUNT_RATE_PCT),
+  /** Sizing margin over the design load, %; null uses the building's own safety factor. */
+  safetyFactorPct: z
+    .number({ error: 'Enter the safety factor as a number (%)' })
+    .min(0, 'The safety factor cannot be negative')
+    .max(100, 'The safety factor must be at most 100 %')
+    .nullable()
+    .default(null),
+  /** Energy prices for this scenario; null uses the organisation's prices. */
+  prices: energyPricesSchema.nullable().default(null),
+  /** The options of the list to consider, by label; null considers the whole list. */
+  optionLabels: z
+    .array(z.string().trim().min(1).max(160))
+    .min(1, 'Choose at least one option, or consider the whole list')
+    .max(200)
+    .nullable()
+    .default(null),
+});
+export type ScenarioSettings = z.infer<typeof scenarioSettingsSchema>;
+export type ScenarioSettingsInput = z.input<typeof scenarioSettingsSchema>;
+
+/** POST /api/v1/projects/:projectId/scenarios (the project's site and list when none is given) */
+export const scenarioInputSchema = z.strictObject({
+  name: scenarioName,
+  climateSiteId: z.uuid('Choose a climate site from the list').nullable().optional(),
+  equipmentListId: z.uuid('Choose an equipment list from the list').nullable().optional(),
+  settings: scenarioSettingsSchema.optional(),
+});
+export type ScenarioInput = z.input<typeof scenarioInputSchema>;
+
+/** PATCH /api/v1/projects/:projectId/scenarios/:scenarioId (409 `stale_update`; 409 `frozen` for inputs of a frozen one) */
+export const scenarioPatchSchema = z.strictObject({
+  version: z.int({ error: 'The version of the scenario being changed is required' }).min(1),
+  name: scenarioName.optional(),
+  climateSiteId: z.uuid('Choose a climate site from the list').nullable().optional(),
+  equipmentListId: z.uuid('Choose an equipment list from the list').nullable().optional(),
+  settings: scenarioSettingsSchema.optional(),
+});
+export type ScenarioPatch = z.input<typeof scenarioPatchSchema>;
+
+/** POST …/scenarios/:scenarioId/duplicate and …/freeze */
+export const scenarioCopySchema = z.strictObject({ name: scenarioName.optional() });
+
+export const scenarioSchema = z.object({
+  id: z.uuid(),
+  projectId: z.uuid(),
+  name: z.string(),
+  climateSiteId: z.uuid().nullable(),
+  climateSiteName: z.string().nullable(),
+  equipmentListId: z.uuid().nullable(),
+  equipmentListName: z.string().nullable(),
+  settings: scenarioSettingsSchema,
+  /** When it was frozen for a bid (null: editable). */
+  frozenAt: z.string().nullable(),
+  /** The scenario a frozen copy was taken from (null when that one was deleted, or not frozen). */
+  frozenFromId: z.uuid().nullable(),
+  version: z.int(),
+  updatedByName: z.string(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type Scenario = z.infer<typeof scenarioSchema>;
+export const scenarioListSchema = z.array(scenarioSchema);
+
+const nullableNumber = z.number().nullable();
+export const sweepRowSchema = z.object({
+  label: z.string(),
+  designC: z.number(),
+  designLoadW: z.number(),
+  selectedOptionId: z.string().nullable(),
+  selectionReason: z.string().nullable(),
+  capacityAtDesignW: nullableNumber,
+  installedPrice: z.string().nullable(),
+  annualEnergyKWh: nullableNumber,
+  annualCost: z.string().nullable(),
+  runHoursPerYear: nullableNumber,
+  unmetHoursPerYear: nullableNumber,
+  unmetHoursWorstYear: nullableNumber,
+  unmetEnergyKWhPerYear: nullableNumber,
+  unmetDegreeHoursPerYear: nullableNumber,
+  worstSagC: nullableNumber,
+  lifeCycleCost: z.string().nullable(),
+  isGrid: z.boolean(),
+  unavailableReason: z.string().nullable(),
+  costUnavailableReason: z.string().nullable(),
+});
+export type SweepRowAnswer = z.infer<typeof sweepRowSchema>;
+
+/** One option as the sweep saw it: the id the rows name, and what to show for it. */
+export const sweepOptionSchema = z.object({
+  id: z.string(),
+  label: z.string(),
+  kind: z.string(),
+  fuel: z.string(),
+  lifeYears: z.int(),
+  installedPrice: z.string(),
+  /** Capacity of the option (with backup) at each whole degree from +20 °C down to −45 °C, for the load-duration chart. */
+  capacityCurve: z.array(z.object({ outdoorC: z.number(), capacityW: z.number() })),
+});
+export type SweepOptionAnswer = z.infer<typeof sweepOptionSchema>;
+
+/** Hours of the record by hourly load, for the load-duration chart (loads descending). */
+export const loadDurationSchema = z.object({
+  /** Hours per average qualifying year at or above each load. */
+  points: z.array(z.object({ hoursPerYear: z.number(), loadW: z.number(), outdoorC: z.number() })),
+});
+
+/** POST/GET …/scenarios/:scenarioId/sweep */
+export const sweepAnswerSchema = z.object({
+  scenarioId: z.uuid(),
+  inputHash: z.string(),
+  /** Whether the result came from the result cache (or a frozen copy) rather than a new run. */
+  cached: z.boolean(),
+  frozen: z.boolean(),
+  computedAt: z.string(),
+  climateSiteName: z.string(),
+  equipmentListName: z.string(),
+  currency: z.string(),
+  hasRecord: z.boolean(),
+  years: z.array(z.int()),
+  timeConstantH: z.number(),
+  designWindMs: z.number(),
+  indoorDesignC: z.number(),
+  discountRatePct: z.number(),
+  options: z.array(sweepOptionSchema),
+  rows: z.array(sweepRowSchema),
+  loadDuration: loadDurationSchema.nullable(),
+  /** Things the user should know (options of the subset no longer in the list, a design wind that fell back…). */
+  notes: z.array(z.string()),
+});
+export type SweepAnswer = z.infer<typeof sweepAnswerSchema>;
+
+/** GET /api/v1/projects/:projectId/scenario-comparison?ids=a,b[,c…] (2–5 scenarios of the project) */
+export const compareQuerySchema = z.strictObject({
+  ids: z
+    .string({ error: `Choose ${COMPARE_MIN} to ${COMPARE_MAX} scenarios to compare` })
+    .transform((s) => [...new Set(s.split(',').map((x) => x.trim()).filter((x) => x.length > 0))])
+    .pipe(
+      z
+        .array(z.uuid('Unknown scenario'))
+        .min(COMPARE_MIN, `Choose ${COMPARE_MIN} to ${COMPARE_MAX} scenarios to compare`)
+        .max(COMPARE_MAX, `Choose ${COMPARE_MIN} to ${COMPARE_MAX} scenarios to compare`),
+    ),
+});
+
+export const comparisonSchema = z.object({
+  entries: z.array(
+    z.object({
+      scenario: scenarioSchema,
+      sweep: sweepAnswerSchema.nullable(),
+      /** Why the scenario has no sweep (incomplete inputs). */
+      problem: z.string().nullable(),
+    }),
+  ),
+});
+export type Comparison = z.infer<typeof comparisonSchema>;

@@ -1,0 +1,261 @@
+/**
+ * Scenarios and sweeps through the API: CRUD, incomplete inputs (422 with fields), the sweep run in
+ * the worker pool and its cache, freezing, comparison and CSV, roles and other organisations.
+ * The sweep answer is checked against the engine's naive reference run in the test over the same
+ * stored record (METHODS §5, §6).
+ */
+import assert from 'node:assert/strict';
+import { describe, it } from 'node:test';
+import type request from 'supertest';
+import { buildingSchema } from '../../shared/building/building-schemas';
+import { resolveDesignWind } from '../../shared/building/heat-loss';
+import { DEMO_SITES, generateDemoSeries } from '../../shared/climate/demo-weather';
+import { computeDesignConditions } from '../../shared/climate/design-conditions';
+import { equipmentOptionSchema, type EquipmentOptionInput } from '../../shared/equipment/equipment-schemas';
+import type { Comparison, Scenario, SweepAnswer } from '../../shared/scenarios/scenario-schemas';
+import { sweepNaive, type SweepOption } from '../../shared/sweep/sweep';
+import { insertSite, loadObservations } from '../../server/modules/climate/climate-repo';
+import { storeRecord } from '../../server/modules/climate/climate-service';
+import { atStoragePrecision } from '../../server/modules/climate/series-codec';
+import { inviteMember, signUp, useTestApp, type TestApp } from '../support/test-app';
+
+const t = useTestApp();
+
+const OPTIONS: EquipmentOptionInput[] = [
+  { kind: 'furnace', label: 'F 6 kW', fuel: 'gas', efficiency: 0.95, outputW: 6000, installedPrice: '3000.00', lifeYears: 20 },
+  { kind: 'furnace', label: 'F 9 kW', fuel: 'gas', efficiency: 0.95, outputW: 9000, installedPrice: '3400.00', lifeYears: 20 },
+  { kind: 'furnace', label: 'F 14 kW', fuel: 'gas', efficiency: 0.95, outputW: 14000, installedPrice: '3900.00', lifeYears: 20 },
+  {
+    kind: 'heat-pump', label: 'HP 2 t', capacity8_3W: 7300, cop8_3: 3.9, capacityM8_3W: 5600, copM8_3: 2.5,
+    capacityM15W: 4700, copM15: 2.0, backupW: 5000, installedPrice: '11200.00', lifeYears: 15,
+  },
+];
+const PRICES = { currency: 'USD', electricityPerKwh: '0.1600', gas: { unit: 'kWh', price: '0.0450' } };
+const BUILDING = buildingSchema.parse({
+  conduction: { mode: 'ua', uaWPerK: 150 },
+  airLeakage: { mode: 'ach', ach: 0.35, volumeM3: 420 },
+  designWind: { source: 'default' },
+  ductLossPct: 5,
+  safetyFactorPct: 10,
+  thermalMass: { mode: 'hours', timeConstantH: 40 },
+});
+
+interface Fixture {
+  agent: request.Agent;
+  organizationId: string;
+  projectId: string;
+  siteId: string;
+  publishedSiteId: string;
+  listId: string;
+}
+
+/** An organisation with a 4-year hourly site, a typed-in site, a list, prices and a project with a building. */
+async function fixture(app: TestApp, withBuilding = true): Promise<Fixture> {
+  const owner = await signUp(app.app);
+  const demo = DEMO_SITES[1];
+  if (!demo) throw new Error('no demo site');
+  const series = atStoragePrecision(generateDemoSeries(demo, { years: 4 }));
+  const siteId = await insertSite(app.db, owner.organizationId, owner.userId, { name: 'Test hourly site (invented)', sourceKind: 'hourly', elevationM: demo.elevationM });
+  await app.db.transaction((trx) => storeRecord(trx, siteId, series, demo.elevationM, { fileName: 'gen', rowCount: series.time.length }));
+  const publishedSiteId = await insertSite(app.db, owner.organizationId, owner.userId, {
+    name: 'Typed-in site (invented)',
+    sourceKind: 'published',
+    publishedValues: { source: 'Invented', heating: { db99_6: -18, db99: -15 }, extremeMin: { mean: -22, returnPeriod: { '50': -30 } } },
+  });
+  const list = await owner.agent.post('/api/v1/equipment-lists').send({ name: 'Test list' }).expect(201);
+  const listId = (list.body as { id: string }).id;
+  await owner.agent.put(`/api/v1/equipment-lists/${listId}/options`).send({ version: 1, options: OPTIONS }).expect(200);
+  await owner.agent.put('/api/v1/energy-prices').send({ version: 0, prices: PRICES }).expect(200);
+  const project = await owner.agent.post('/api/v1/projects').send({ name: 'House', climateSiteId: siteId, equipmentListId: listId }).expect(201);
+  const projectId = (project.body as { id: string }).id;
+  if (withBuilding) await owner.agent.put(`/api/v1/projects/${projectId}/building`).send({ version: 1, building: BUILDING }).expect(200);
+  return { agent: owner.agent, organizationId: owner.organizationId, projectId, siteId, publishedSiteId, listId };
+}
+
+const base = (f: Fixture) => `/api/v1/projects/${f.projectId}/scenarios`;
+
+async function createScenario(f: Fixture, body: Record<string, unknown> = {}): Promise<Scenario> {
+  const res = await f.agent.post(base(f)).send({ name: 'Base bid', ...body }).expect(201);
+  return res.body as Scenario;
+}
+
+describe('scenarios API', () => {
+  it('creates a scenario with the project’s site and list, lists, renames with a version, duplicates and deletes', async () => {
+    const f = await fixture(t);
+    const s = await createScenario(f);
+    assert.equal(s.climateSiteId, f.siteId);
+    assert.equal(s.equipmentListId, f.listId);
+    assert.equal(s.settings.discountRatePct, 3);
+    assert.equal(s.settings.optionLabels, null);
+    assert.equal(s.frozenAt, null);
+    const renamed = await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, name: 'Renamed' }).expect(200);
+    assert.equal((renamed.body as Scenario).name, 'Renamed');
+    const stale = await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, name: 'Again' }).expect(409);
+    assert.equal((stale.body as { error: { code: string } }).error.code, 'stale_update');
+    const copy = await f.agent.post(`${base(f)}/${s.id}/duplicate`).send({}).expect(201);
+    assert.equal((copy.body as Scenario).name, 'Renamed (copy)');
+    const list = await f.agent.get(base(f)).expect(200);
+    assert.deepEqual((list.body as Scenario[]).map((x) => x.name), ['Renamed', 'Renamed (copy)']);
+    await f.agent.delete(`${base(f)}/${s.id}`).expect(204);
+    await f.agent.delete(`${base(f)}/${s.id}`).expect(404);
+  });
+
+  it('refuses bad settings with field details and stores nothing', async () => {
+    const f = await fixture(t);
+    const res = await f.agent
+      .post(base(f))
+      .send({ name: ' ', settings: { discountRatePct: -1, extraDesignC: [-90], optionLabels: [] } })
+      .expect(400);
+    const paths = (res.body as { error: { details: { path: string }[] } }).error.details.map((d) => d.path).sort();
+    assert.deepEqual(paths, ['name', 'settings.discountRatePct', 'settings.extraDesignC.0', 'settings.optionLabels']);
+    assert.equal(((await f.agent.get(base(f)).expect(200)).body as unknown[]).length, 0);
+  });
+
+  it('answers 422 with what is missing when a scenario cannot be swept', async () => {
+    const f = await fixture(t, false);
+    const s = await createScenario(f, { equipmentListId: null });
+    const res = await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(422);
+    const body = res.body as { error: { code: string; details: { path: string }[] } };
+    assert.equal(body.error.code, 'scenario_incomplete');
+    assert.deepEqual(body.error.details.map((d) => d.path).sort(), ['building', 'equipmentListId']);
+  });
+
+  it('sweeps in the worker pool, agrees with the naive reference over the stored record, and caches by input', async () => {
+    const f = await fixture(t);
+    const s = await createScenario(f, { settings: { extraDesignC: [-12.3], discountRatePct: 4 } });
+    await f.agent.get(`${base(f)}/${s.id}/sweep`).expect(404);
+    const first = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    assert.equal(first.cached, false);
+    assert.equal(first.hasRecord, true);
+    assert.equal(first.years.length, 4);
+    assert.ok(first.rows.some((r) => r.label === '-12.3 °C' && !r.isGrid));
+    assert.ok(first.loadDuration && first.loadDuration.points.length > 10);
+
+    // Independent run: the engine's naive path over the record read back from the database.
+    const series = await loadObservations(t.db, f.siteId);
+    const dc = computeDesignConditions(series, {});
+    assert.ok(dc.ok);
+    const options: SweepOption[] = OPTIONS.map((o, i) => ({ ...equipmentOptionSchema.parse(o), id: String(i + 1) }));
+    const naive = sweepNaive({
+      building: BUILDING,
+      options,
+      prices: { currency: 'USD', electricityPerKwh: '0.1600', gas: { unit: 'kWh', price: '0.0450' } },
+      economics: { discountRatePct: 4 },
+      designConditions: dc.conditions,
+      designWindMs: resolveDesignWind(BUILDING.designWind, dc.conditions.wind).windMs,
+      record: { series, qualifyingYears: dc.conditions.period.qualifyingYears },
+      extraDesignC: [-12.3],
+    });
+    assert.deepEqual(first.years, dc.conditions.period.qualifyingYears);
+    assert.equal(first.rows.length, naive.rows.length);
+    for (const [i, row] of first.rows.entries()) {
+      const ref = naive.rows[i];
+      assert.ok(ref);
+      assert.equal(row.label, ref.label);
+      assert.equal(row.selectedOptionId, ref.selectedOptionId, row.label);
+      assert.equal(row.installedPrice, ref.installedPrice);
+      for (const k of ['designLoadW', 'annualEnergyKWh', 'runHoursPerYear', 'unmetHoursPerYear', 'unmetDegreeHoursPerYear', 'worstSagC'] as const) {
+        const a = row[k];
+        const b = ref[k];
+        assert.ok(a === b || (a !== null && b !== null && Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(b))), `${row.label} ${k}: ${a} vs ${b}`);
+      }
+      if (row.lifeCycleCost !== null && ref.lifeCycleCost !== null) {
+        assert.ok(Math.abs(Number(row.lifeCycleCost) - Number(ref.lifeCycleCost)) <= 0.011, `${row.label} LCC`);
+      }
+    }
+
+    const second = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    assert.equal(second.cached, true);
+    assert.equal(second.inputHash, first.inputHash);
+    const read = (await f.agent.get(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    assert.deepEqual(read.rows, first.rows);
+
+    // Another input, another hash.
+    await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, settings: { ...s.settings, discountRatePct: 7 } }).expect(200);
+    await f.agent.get(`${base(f)}/${s.id}/sweep`).expect(404);
+    const third = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    assert.notEqual(third.inputHash, first.inputHash);
+  });
+
+  it('a subset of the list, and a typed-in site gives capacity and price with the hour-based figures marked unavailable', async () => {
+    const f = await fixture(t);
+    const s = await createScenario(f, { climateSiteId: f.publishedSiteId, settings: { optionLabels: ['F 9 kW', 'F 14 kW', 'Gone'] } });
+    const a = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    assert.equal(a.hasRecord, false);
+    assert.equal(a.loadDuration, null);
+    assert.deepEqual(a.options.map((o) => o.label), ['F 9 kW', 'F 14 kW']);
+    assert.ok(a.notes.some((n) => n.includes('Gone')));
+    const named = a.rows.filter((r) => !r.isGrid).map((r) => r.label);
+    assert.deepEqual(named, ['99 %', '99.6 %', 'Extreme mean', '50-year']);
+    for (const r of a.rows) {
+      assert.equal(r.unmetHoursPerYear, null);
+      if (r.selectedOptionId) assert.match(r.unavailableReason ?? '', /hourly record/);
+    }
+  });
+
+  it('freezes an immutable dated copy: its inputs cannot change, its result stays when the list changes', async () => {
+    const f = await fixture(t);
+    const s = await createScenario(f);
+    const frozen = (await f.agent.post(`${base(f)}/${s.id}/freeze`).send({}).expect(201)).body as Scenario;
+    assert.ok(frozen.frozenAt);
+    assert.equal(frozen.frozenFromId, s.id);
+    assert.match(frozen.name, /^Base bid · bid \d{4}-\d{2}-\d{2}$/);
+    assert.deepEqual(frozen.settings.prices, PRICES);
+    const before = (await f.agent.post(`${base(f)}/${frozen.id}/sweep`).expect(200)).body as SweepAnswer;
+    assert.equal(before.frozen, true);
+
+    const refused = await f.agent.patch(`${base(f)}/${frozen.id}`).send({ version: frozen.version, settings: { ...frozen.settings, discountRatePct: 9 } }).expect(409);
+    assert.equal((refused.body as { error: { code: string } }).error.code, 'frozen');
+    await f.agent.patch(`${base(f)}/${frozen.id}`).send({ version: frozen.version, name: 'Bid sent' }).expect(200);
+    await f.agent.post(`${base(f)}/${frozen.id}/freeze`).send({}).expect(409);
+
+    // The list's prices double: the live scenario changes, the frozen copy does not.
+    const doubled = OPTIONS.map((o) => ({ ...o, installedPrice: (Number(o.installedPrice) * 2).toFixed(2) }));
+    await f.agent.put(`/api/v1/equipment-lists/${f.listId}/options`).send({ version: 2, options: doubled }).expect(200);
+    const live = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const after = (await f.agent.post(`${base(f)}/${frozen.id}/sweep`).expect(200)).body as SweepAnswer;
+    assert.deepEqual(after.rows, before.rows);
+    const priced = (a: SweepAnswer) => a.rows.find((r) => r.installedPrice !== null)?.installedPrice;
+    assert.equal(Number(priced(live)), 2 * Number(priced(before)));
+
+    // The database refuses a change to a frozen copy's inputs even without the API.
+    await assert.rejects(t.db('scenarios').where({ id: frozen.id }).update({ settings: JSON.stringify({}) }), /frozen scenario/);
+  });
+
+  it('compares two to five scenarios in JSON and CSV, with text cells guarded against formulas', async () => {
+    const f = await fixture(t);
+    const a = await createScenario(f, { name: '=HYPERLINK("http://x.test")', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } });
+    const b = await createScenario(f, { name: 'Heat pump', settings: { optionLabels: ['HP 2 t'] } });
+    const c = await createScenario(f, { name: 'No list', equipmentListId: null });
+    const url = `/api/v1/projects/${f.projectId}/scenario-comparison`;
+    const res = await f.agent.get(url).query({ ids: [a.id, b.id, c.id].join(',') }).expect(200);
+    const cmp = res.body as Comparison;
+    assert.deepEqual(cmp.entries.map((e) => e.scenario.name), [a.name, 'Heat pump', 'No list']);
+    assert.ok(cmp.entries[0]?.sweep && cmp.entries[1]?.sweep);
+    assert.match(cmp.entries[2]?.problem ?? '', /equipment list/);
+    await f.agent.get(url).query({ ids: a.id }).expect(400);
+    await f.agent.get(url).query({ ids: 'not-a-uuid,' + a.id }).expect(400);
+    const csv = await f.agent.get(`${url}.csv`).query({ ids: [a.id, b.id].join(',') }).expect(200);
+    assert.match(csv.headers['content-type'] ?? '', /text\/csv/);
+    const lines = csv.text.trim().split('\r\n');
+    assert.equal(lines[0]?.split(',')[0], 'scenario');
+    assert.ok(lines.some((l) => l.startsWith(`"'=HYPERLINK(""http://x.test"")"`)), 'formula guarded');
+    assert.ok(lines.some((l) => l.startsWith('Heat pump,99 %,')));
+    const one = await f.agent.get(`${base(f)}/${b.id}/sweep.csv`).expect(200);
+    assert.ok(one.text.split('\r\n').length > 10, 'the whole ladder, grid included');
+  });
+
+  it('viewers read and sweep but cannot change; other organisations see 404', async () => {
+    const f = await fixture(t);
+    const s = await createScenario(f);
+    const viewer = await inviteMember(t, { agent: f.agent }, 'viewer');
+    await viewer.agent.get(base(f)).expect(200);
+    await viewer.agent.post(`${base(f)}/${s.id}/sweep`).expect(200);
+    await viewer.agent.post(base(f)).send({ name: 'No' }).expect(403);
+    await viewer.agent.post(`${base(f)}/${s.id}/freeze`).send({}).expect(403);
+    const other = await signUp(t.app);
+    await other.agent.get(`${base(f)}/${s.id}`).expect(404);
+    await other.agent.post(`${base(f)}/${s.id}/sweep`).expect(404);
+    await other.agent.get(base(f)).expect(404);
+  });
+});
