@@ -50,6 +50,18 @@ export const routes: Routes = [
     loadComponent: () => import('./projects/project-page/project-page').then((m) => m.ProjectPage),
   },
   {
+    path: 'projects/:id/scenarios/:scenarioId',
+    title: 'Trade-off · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () => import('./scenarios/tradeoff-page/tradeoff-page').then((m) => m.TradeoffPage),
+  },
+  {
+    path: 'projects/:id/compare',
+    title: 'Compare scenarios · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () => import('./scenarios/compare-page/compare-page').then((m) => m.ComparePage),
+  },
+  {
     path: 'climate-sites',
     title: 'Climate sites · Tailroom',
     canActivate: [authGuard],

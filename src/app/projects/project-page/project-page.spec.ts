@@ -5,6 +5,7 @@ import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
 import type { Role } from '@shared/auth/roles';
 import type { Project } from '@shared/projects/project-schemas';
+import type { Scenario } from '@shared/scenarios/scenario-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import {
   LIST_ID,
@@ -15,6 +16,7 @@ import {
 } from '../../building/testing/building-fixtures';
 import { settle, signedInSession } from '../../testing/test-sessions';
 import { PROJECT_ID, SITE_ID, aProject, someClimateSites } from '../testing/project-fixtures';
+import { SCENARIO_A, SCENARIO_B, aScenario } from '../../scenarios/testing/scenario-fixtures';
 import { ProjectPage } from './project-page';
 
 const PROJECT_URL = `/api/v1/projects/${PROJECT_ID}`;
@@ -50,7 +52,7 @@ describe('ProjectPage', () => {
   });
   afterEach(() => http.verify());
 
-  async function render(role: Role, project: Project | { status: number; body: object }) {
+  async function render(role: Role, project: Project | { status: number; body: object }, scenarios: Scenario[] = []) {
     TestBed.inject(AuthStore).setSession(signedInSession(role));
     const fixture = TestBed.createComponent(ProjectPage);
     fixture.componentRef.setInput('id', PROJECT_ID);
@@ -83,6 +85,7 @@ describe('ProjectPage', () => {
           .expectOne({ method: 'GET', url: `/api/v1/equipment-lists/${project.equipmentListId}` })
           .flush(anEquipmentList());
       }
+      http.expectOne({ method: 'GET', url: `${PROJECT_URL}/scenarios` }).flush(scenarios);
       await stable();
     }
     const el = fixture.nativeElement as HTMLElement;
@@ -129,14 +132,25 @@ describe('ProjectPage', () => {
     expect(el.querySelector('.archived-chip')?.textContent?.trim()).toBe('Archived');
   });
 
-  it('says what the trade-off section will hold, without numbers', async () => {
-    const { el } = await render('viewer', maple());
-    const cards = Array.from(el.querySelectorAll('mat-card'));
-    expect(cards.map((c) => c.querySelector('mat-card-title')?.textContent?.trim())).toEqual(['Trade-off']);
-    for (const card of cards) {
-      expect(card.textContent).toContain('Coming next');
-      expect(card.querySelector('mat-card-content')?.textContent).not.toMatch(/\d/);
-    }
+  it('lists the scenarios, marks a frozen bid copy, and compares only two to five ticked ones', async () => {
+    const { el, fixture } = await render('designer', maple(), [
+      aScenario({ id: SCENARIO_A, name: 'Gas bid' }),
+      aScenario({ id: SCENARIO_B, name: 'Gas bid · bid 2026-11-30', frozenAt: '2026-11-30T10:00:00.000Z' }),
+    ]);
+    const rows = Array.from(el.querySelectorAll<HTMLElement>('[data-scenario]'));
+    expect(rows.map((r) => r.dataset['scenario'])).toEqual(['Gas bid', 'Gas bid · bid 2026-11-30']);
+    expect(rows[0]?.querySelector('.frozen')).toBeNull();
+    expect(rows[1]?.querySelector('.frozen')?.textContent).toContain('Frozen');
+    expect(rows[0]?.querySelector('a.name')?.getAttribute('href')).toBe(`/projects/${PROJECT_ID}/scenarios/${SCENARIO_A}`);
+    const compare = el.querySelector<HTMLButtonElement>('[data-testid="compare-selected"]')!;
+    expect(compare.disabled).toBeTrue();
+    const boxes = Array.from(el.querySelectorAll<HTMLInputElement>('[data-scenario] input[type="checkbox"]'));
+    boxes[0]!.click();
+    fixture.detectChanges();
+    expect(compare.disabled).toBeTrue();
+    boxes[1]!.click();
+    fixture.detectChanges();
+    expect(compare.disabled).toBeFalse();
   });
 
   it('shows the building with its live heat loss at the project’s climate site', async () => {

@@ -12,7 +12,6 @@ import {
 } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatCardModule } from '@angular/material/card';
 import { MatChipsModule } from '@angular/material/chips';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -32,6 +31,7 @@ import {
   type ProjectDetails,
 } from '../project-form';
 import { ProjectsApi, type ClimateSiteChoice } from '../projects-api';
+import { ScenarioList } from '../../scenarios/scenario-list/scenario-list';
 
 type DetailKey = keyof ProjectDetails;
 
@@ -51,16 +51,7 @@ interface UnsavedChange {
   value: string | null;
 }
 
-/** The parts of a project still to be built, said plainly. */
-const SECTIONS = [
-  {
-    title: 'Trade-off',
-    icon: 'balance',
-    text: 'For each outdoor design temperature: the unit it sizes for, what it costs, and the cold hours it leaves short.',
-  },
-] as const;
-
-/** `/projects/:id`: a project's details, its equipment list, its building, and the parts still to come. */
+/** `/projects/:id`: a project's details, its equipment list, its building and its scenarios. */
 @Component({
   selector: 'app-project-page',
   imports: [
@@ -68,13 +59,13 @@ const SECTIONS = [
     ReactiveFormsModule,
     RouterLink,
     MatButtonModule,
-    MatCardModule,
     MatChipsModule,
     MatIconModule,
     MatProgressBarModule,
     BuildingSection,
     EquipmentListSelect,
     ProjectFields,
+    ScenarioList,
   ],
   templateUrl: './project-page.html',
   styleUrl: './project-page.scss',
@@ -90,7 +81,6 @@ export class ProjectPage {
   /** Route parameter. */
   readonly id = input.required<string>();
 
-  protected readonly sections = SECTIONS;
   protected readonly loaded = this.api.projectResource(() => this.id());
   protected readonly notFound = computed(() => apiErrorCode(this.loaded.error()) === 'not_found');
   private readonly siteChoices = this.api.climateSiteChoicesResource();

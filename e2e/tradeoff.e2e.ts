@@ -1,0 +1,125 @@
+import assert from 'node:assert/strict';
+import { after, before, describe, it } from 'node:test';
+import type { Page } from 'playwright-core';
+import { createDb } from '../server/db';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from '../server/seed/demo-seed';
+import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
+
+let e2e: E2eApp;
+before(async () => {
+  const db = createDb(process.env['DATABASE_URL'] ?? '');
+  try {
+    await seedDemo(db);
+  } finally {
+    await db.destroy();
+  }
+  e2e = await startE2eApp();
+});
+after(async () => {
+  await e2e.close();
+});
+
+const designer = DEMO_ACCOUNTS.find((a) => a.role === 'designer') ?? DEMO_ACCOUNTS[0];
+
+async function signIn(page: Page): Promise<void> {
+  await page.goto(e2e.baseUrl + '/sign-in');
+  await page.getByLabel(/^E-mail/).fill(designer.email);
+  await page.getByLabel(/^Password/).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(/\/projects$/);
+}
+
+const text = (page: Page, id: string) => page.getByTestId(id).innerText();
+
+describe('the trade-off screen on the demo data', () => {
+  it('moves the design point, freezes a scenario for a bid and compares two scenarios', async () => {
+    const offenders: string[] = [];
+    const context = await e2e.browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    guardOffline(page, e2e.baseUrl, offenders);
+    await signIn(page);
+
+    await page.getByRole('link', { name: /Fernbrook Lane/ }).click();
+    await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)' }).click();
+    await page.waitForURL(/\/scenarios\//);
+    await page.getByTestId('tradeoff-sentence').waitFor();
+    await page.getByTestId('tradeoff-chart').locator('canvas').first().waitFor();
+
+    // The page opens on the 99.6 % rung. The slider's Home key goes to the mildest rung (99 %).
+    const slider = page.getByTestId('design-slider');
+    await slider.focus();
+    await page.keyboard.press('Home');
+    await page.getByTestId('chosen-temperature').filter({ hasText: '(99 %)' }).waitFor();
+    const mild = { sentence: await text(page, 'tradeoff-sentence'), unit: await text(page, 'chosen-unit'), price: await text(page, 'chosen-price') };
+    assert.match(mild.sentence, /instead of .*\(50-year\)/);
+    assert.match(mild.sentence, /less to install/);
+    assert.match(mild.sentence, /average year/);
+
+    // End: the coldest rung; a larger (dearer) unit, and the sentence says so.
+    await page.keyboard.press('End');
+    await page.getByTestId('chosen-temperature').filter({ hasText: '(50-year)' }).waitFor();
+    const cold = { sentence: await text(page, 'tradeoff-sentence'), unit: await text(page, 'chosen-unit'), price: await text(page, 'chosen-price') };
+    assert.notEqual(cold.unit, mild.unit);
+    assert.notEqual(cold.price, mild.price);
+    assert.notEqual(cold.sentence, mild.sentence);
+    assert.match(cold.sentence, /coldest point of the ladder/);
+
+    // The numbers shown are the API's for that rung.
+    const scenarioUrl = new URL(page.url()).pathname;
+    const api = await page.request.post(`${e2e.baseUrl}/api/v1${scenarioUrl}/sweep`);
+    const body = (await api.json()) as { rows: { label: string; installedPrice: string }[] };
+    const fifty = body.rows.find((r) => r.label === '50-year');
+    assert.ok(fifty);
+    assert.equal(cold.price.replace(/[$,]/g, ''), fifty.installedPrice);
+
+    // A click on the chart's middle chooses a point between the two.
+    await page.getByTestId('tradeoff-chart').scrollIntoViewIfNeeded();
+    const box = await page.getByTestId('tradeoff-chart').boundingBox();
+    assert.ok(box);
+    await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    await page.waitForFunction(() => !document.querySelector('[data-testid="chosen-temperature"]')?.textContent?.includes('50-year'));
+    assert.notEqual(await text(page, 'chosen-temperature'), '');
+    await slider.focus();
+    await page.keyboard.press('Home');
+    await page.getByTestId('ladder-table').waitFor();
+    await page.getByTestId('tradeoff-cautions').waitFor();
+    await page.getByTestId('load-duration-chart').locator('canvas').first().waitFor();
+    await screenshot(page, 'tradeoff-1280');
+
+    // Freeze it for a bid: a dated copy that says it is frozen and offers no settings to save.
+    await page.getByRole('button', { name: 'Freeze for a bid' }).click();
+    await page.getByLabel(/^Name of the frozen copy/).fill('Gas furnace bid (demo) · sent');
+    await page.getByRole('button', { name: 'Freeze', exact: true }).click();
+    await page.getByRole('button', { name: 'Open' }).click();
+    await page.getByTestId('frozen-note').waitFor();
+    await page.getByText('Scenario settings').click();
+    assert.equal(await page.getByRole('button', { name: 'Save and sweep again' }).count(), 0);
+
+    // Compare the frozen copy with the heat-pump scenario.
+    await page.getByRole('link', { name: 'Project', exact: true }).click();
+    const list = page.getByTestId('scenario-list');
+    await list.getByRole('checkbox', { name: 'Compare Gas furnace bid (demo) · sent' }).check();
+    await list.getByRole('checkbox', { name: 'Compare Heat pump bid (demo)' }).check();
+    await page.getByTestId('compare-selected').click();
+    await page.waitForURL(/\/compare\?ids=/);
+    const table = page.getByTestId('compare-table');
+    await table.waitFor();
+    const header = await table.locator('thead').innerText();
+    assert.match(header, /Gas furnace bid \(demo\) · sent/);
+    assert.match(header, /Heat pump bid \(demo\)/);
+    assert.match(await table.locator('tbody').innerText(), /50-year/);
+    await page.getByTestId('compare-chart').locator('canvas').first().waitFor();
+    await screenshot(page, 'compare-1280');
+
+    // A phone-sized screen.
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.goBack();
+    await page.goto(e2e.baseUrl + scenarioUrl);
+    await page.getByTestId('tradeoff-sentence').waitFor();
+    await page.getByTestId('tradeoff-chart').locator('canvas').first().waitFor();
+    await screenshot(page, 'tradeoff-390');
+
+    assert.deepEqual(offenders, []);
+    await context.close();
+  });
+});

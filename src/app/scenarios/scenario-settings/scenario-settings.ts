@@ -1,0 +1,257 @@
+import {
+  ChangeDetectionStrategy,
+  ChangeDetectorRef,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  output,
+  signal,
+  untracked,
+} from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { EnergyPrices, GasPriceUnit } from '@shared/money/energy-prices';
+import { EXTRA_DESIGN_TEMPERATURES_MAX, type Scenario, type ScenarioSettings } from '@shared/scenarios/scenario-schemas';
+import { fromSi, toSi, unitLabel } from '@shared/units/units';
+import { apiErrorCode, apiErrorMessage, applyApiErrors, fieldError } from '../../core/api-errors';
+import { EquipmentApi } from '../../equipment/equipment-api';
+import { ProjectsApi } from '../../projects/projects-api';
+import { ScenariosApi } from '../scenarios-api';
+
+const PRICE_PATTERN = /^\d{1,9}(\.\d{1,6})?$/;
+
+/** Parses "−15, -22.5" typed in the user's temperature unit into °C; null when a part is not a number. */
+export function parseTemperatures(text: string, system: UnitSystem): number[] | null {
+  const parts = text
+    .replaceAll('−', '-')
+    .split(/[,;\s]+/)
+    .map((p) => p.trim())
+    .filter((p) => p.length > 0);
+  const values = parts.map(Number);
+  if (values.some((v) => !Number.isFinite(v))) return null;
+  return values.map((v) => Math.round(toSi('temperature', v, system) * 100) / 100);
+}
+
+export function formatTemperatures(valuesC: readonly number[], system: UnitSystem): string {
+  return valuesC.map((c) => String(Math.round(fromSi('temperature', c, system) * 10) / 10)).join(', ');
+}
+
+/** A scenario's inputs: climate site, equipment list (or some of its options), sizing margin, economics and prices. */
+@Component({
+  selector: 'app-scenario-settings',
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatSelectModule,
+  ],
+  templateUrl: './scenario-settings.html',
+  styleUrl: './scenario-settings.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class ScenarioSettingsPanel {
+  readonly scenario = input.required<Scenario>();
+  readonly canEdit = input.required<boolean>();
+  readonly unitSystem = input.required<UnitSystem>();
+  /** The saved scenario, after a successful save. */
+  readonly saved = output<Scenario>();
+
+  private readonly api = inject(ScenariosApi);
+  private readonly equipment = inject(EquipmentApi);
+  private readonly cdr = inject(ChangeDetectorRef);
+  private readonly fb = inject(NonNullableFormBuilder);
+  protected readonly sites = inject(ProjectsApi).climateSiteChoicesResource();
+  protected readonly lists = this.equipment.listsResource();
+
+  protected readonly form = this.fb.group({
+    climateSiteId: this.fb.control<string | null>(null, Validators.required),
+    equipmentListId: this.fb.control<string | null>(null, Validators.required),
+    wholeList: this.fb.control(true),
+    safetyFactorPct: this.fb.control('', [Validators.pattern(/^\d{0,3}(\.\d+)?$/), Validators.max(100)]),
+    discountRatePct: this.fb.control('3', [Validators.required, Validators.min(0), Validators.max(30)]),
+    extraDesign: this.fb.control(''),
+    ownPrices: this.fb.control(false),
+    currency: this.fb.control('USD'),
+    electricityPerKwh: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
+    gasUnit: this.fb.control<GasPriceUnit>('m3'),
+    gasPrice: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
+    oilPerLitre: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
+    propanePerLitre: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
+  });
+  protected readonly chosenLabels = signal<ReadonlySet<string>>(new Set());
+  protected readonly listOptions = signal<string[]>([]);
+  protected readonly pending = signal(false);
+  protected readonly formError = signal('');
+  protected readonly stale = signal(false);
+  protected readonly temperatureUnit = computed(() => unitLabel('temperature', this.unitSystem()));
+  protected readonly extraMax = EXTRA_DESIGN_TEMPERATURES_MAX;
+  protected readonly fieldError = fieldError;
+  private current: Scenario | null = null;
+
+  constructor() {
+    effect(() => {
+      const s = this.scenario();
+      untracked(() => this.show(s));
+    });
+    effect(() => {
+      if (this.canEdit()) this.form.enable({ emitEvent: false });
+      else this.form.disable({ emitEvent: false });
+    });
+    this.form.controls.equipmentListId.valueChanges.subscribe((id) => void this.loadOptions(id, null));
+  }
+
+  private show(s: Scenario): void {
+    this.current = s;
+    const st = s.settings;
+    this.form.reset({
+      climateSiteId: s.climateSiteId,
+      equipmentListId: s.equipmentListId,
+      wholeList: st.optionLabels === null,
+      safetyFactorPct: st.safetyFactorPct === null ? '' : String(st.safetyFactorPct),
+      discountRatePct: String(st.discountRatePct),
+      extraDesign: formatTemperatures(st.extraDesignC, this.unitSystem()),
+      ownPrices: st.prices !== null,
+      currency: st.prices?.currency ?? 'USD',
+      electricityPerKwh: st.prices?.electricityPerKwh ?? '',
+      gasUnit: st.prices?.gas?.unit ?? 'm3',
+      gasPrice: st.prices?.gas?.price ?? '',
+      oilPerLitre: st.prices?.oilPerLitre ?? '',
+      propanePerLitre: st.prices?.propanePerLitre ?? '',
+    }, { emitEvent: false });
+    void this.loadOptions(s.equipmentListId, st.optionLabels);
+  }
+
+  private async loadOptions(listId: string | null, chosen: readonly string[] | null): Promise<void> {
+    if (!listId) {
+      this.listOptions.set([]);
+      return;
+    }
+    try {
+      const list = await this.equipment.get(listId);
+      const labels = [...new Set(list.options.map((o) => o.label))];
+      this.listOptions.set(labels);
+      this.chosenLabels.set(new Set(chosen ?? labels));
+    } catch {
+      this.listOptions.set([]);
+    } finally {
+      this.cdr.markForCheck();
+    }
+  }
+
+  protected toggleOption(label: string, on: boolean): void {
+    const next = new Set(this.chosenLabels());
+    if (on) next.add(label);
+    else next.delete(label);
+    this.chosenLabels.set(next);
+    this.form.markAsDirty();
+  }
+
+  /** Fills the scenario's own prices from the organisation's when they are switched on empty. */
+  protected async ownPricesChanged(on: boolean): Promise<void> {
+    if (!on || this.form.controls.electricityPerKwh.value) return;
+    try {
+      const p = (await this.equipment.getEnergyPrices()).prices;
+      if (p) {
+        this.form.patchValue({
+          currency: p.currency,
+          electricityPerKwh: p.electricityPerKwh,
+          gasUnit: p.gas?.unit ?? 'm3',
+          gasPrice: p.gas?.price ?? '',
+          oilPerLitre: p.oilPerLitre ?? '',
+          propanePerLitre: p.propanePerLitre ?? '',
+        });
+      }
+    } finally {
+      this.cdr.markForCheck();
+    }
+  }
+
+  private settingsValue(): ScenarioSettings | string {
+    const v = this.form.getRawValue();
+    const extra = parseTemperatures(v.extraDesign, this.unitSystem());
+    if (extra === null) return `Enter the extra design temperatures as numbers in ${this.temperatureUnit()}, separated by commas`;
+    if (extra.length > EXTRA_DESIGN_TEMPERATURES_MAX) return `Add at most ${EXTRA_DESIGN_TEMPERATURES_MAX} design temperatures`;
+    let prices: EnergyPrices | null = null;
+    if (v.ownPrices) {
+      if (!PRICE_PATTERN.test(v.electricityPerKwh)) return 'Enter this scenario’s electricity price per kWh, or use the organisation’s prices';
+      prices = {
+        currency: v.currency,
+        electricityPerKwh: v.electricityPerKwh,
+        ...(v.gasPrice ? { gas: { unit: v.gasUnit, price: v.gasPrice } } : {}),
+        ...(v.oilPerLitre ? { oilPerLitre: v.oilPerLitre } : {}),
+        ...(v.propanePerLitre ? { propanePerLitre: v.propanePerLitre } : {}),
+      };
+    }
+    const labels = this.listOptions().filter((l) => this.chosenLabels().has(l));
+    if (!v.wholeList && labels.length === 0) return 'Choose at least one option, or consider the whole list';
+    return {
+      extraDesignC: extra,
+      discountRatePct: Number(v.discountRatePct),
+      safetyFactorPct: v.safetyFactorPct.trim() === '' ? null : Number(v.safetyFactorPct),
+      prices,
+      optionLabels: v.wholeList ? null : labels,
+    };
+  }
+
+  protected async save(): Promise<void> {
+    const base = this.current;
+    if (!base || this.pending()) return;
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    const settings = this.settingsValue();
+    if (typeof settings === 'string') {
+      this.formError.set(settings);
+      return;
+    }
+    const v = this.form.getRawValue();
+    this.pending.set(true);
+    this.formError.set('');
+    this.stale.set(false);
+    try {
+      const saved = await this.api.update(base.projectId, base.id, {
+        version: base.version,
+        climateSiteId: v.climateSiteId,
+        equipmentListId: v.equipmentListId,
+        settings,
+      });
+      this.current = saved;
+      this.form.markAsPristine();
+      this.saved.emit(saved);
+    } catch (err) {
+      if (apiErrorCode(err) === 'stale_update') {
+        this.stale.set(true);
+        this.formError.set(apiErrorMessage(err));
+      } else {
+        this.formError.set(applyApiErrors(this.form, err));
+      }
+    } finally {
+      this.pending.set(false);
+      this.cdr.markForCheck();
+    }
+  }
+
+  /** Loads the latest saved scenario over the form (after someone else saved). */
+  protected async reload(): Promise<void> {
+    const base = this.current;
+    if (!base) return;
+    const latest = await this.api.get(base.projectId, base.id);
+    this.stale.set(false);
+    this.formError.set('');
+    this.show(latest);
+    this.saved.emit(latest);
+    this.cdr.markForCheck();
+  }
+}

@@ -1,0 +1,272 @@
+import { BreakpointObserver } from '@angular/cdk/layout';
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatChipsModule } from '@angular/material/chips';
+import { MatDialog } from '@angular/material/dialog';
+import { MatExpansionModule } from '@angular/material/expansion';
+import { MatIconModule } from '@angular/material/icon';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import { MatSliderModule } from '@angular/material/slider';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { Router, RouterLink } from '@angular/router';
+import type { ECElementEvent, ECharts } from 'echarts/core';
+import { NgxEchartsDirective } from 'ngx-echarts';
+import { firstValueFrom, map } from 'rxjs';
+import type { FieldIssue } from '@shared/api/api-error';
+import { SCENARIO_NAME_MAX, type Scenario, type SweepAnswer } from '@shared/scenarios/scenario-schemas';
+import { formatMoney } from '@shared/money/money';
+import { formatQuantity } from '@shared/units/units';
+import { AuthStore } from '../../auth/auth-store';
+import { apiErrorMessage, readApiError } from '../../core/api-errors';
+import { provideCharts } from '../../charts/provide-charts';
+import { NameDialog, type NameDialogData } from '../../ui/name-dialog/name-dialog';
+import { ScenarioSettingsPanel } from '../scenario-settings/scenario-settings';
+import { ScenariosApi } from '../scenarios-api';
+import {
+  defaultIndex,
+  formatPower,
+  ladderRows,
+  loadDurationChart,
+  nearestIndex,
+  optionLabelOf,
+  sentenceFor,
+  tradeoffChart,
+  tradeoffChartSummary,
+} from '../tradeoff-model';
+import { TradeoffCautions } from './tradeoff-cautions';
+
+/** `/projects/:id/scenarios/:scenarioId`: one scenario's sweep, the chosen design point, and its settings. */
+@Component({
+  selector: 'app-tradeoff-page',
+  imports: [
+    DatePipe,
+    RouterLink,
+    NgxEchartsDirective,
+    MatButtonModule,
+    MatChipsModule,
+    MatExpansionModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatSlideToggleModule,
+    MatSliderModule,
+    ScenarioSettingsPanel,
+    TradeoffCautions,
+  ],
+  providers: [provideCharts()],
+  templateUrl: './tradeoff-page.html',
+  styleUrl: './tradeoff-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class TradeoffPage {
+  /** Route parameters. */
+  readonly id = input.required<string>();
+  readonly scenarioId = input.required<string>();
+
+  private readonly api = inject(ScenariosApi);
+  private readonly auth = inject(AuthStore);
+  private readonly dialog = inject(MatDialog);
+  private readonly snack = inject(MatSnackBar);
+  private readonly router = inject(Router);
+  private readonly cdr = inject(ChangeDetectorRef);
+
+  protected readonly compact = toSignal(
+    inject(BreakpointObserver)
+      .observe('(max-width: 599.98px)')
+      .pipe(map((s) => s.matches)),
+    { initialValue: false },
+  );
+  protected readonly unitSystem = this.auth.unitSystem;
+  protected readonly canWrite = computed(() => this.auth.can('project:write'));
+
+  protected readonly scenario = signal<Scenario | null>(null);
+  protected readonly loadError = signal('');
+  protected readonly sweep = signal<SweepAnswer | null>(null);
+  protected readonly sweeping = signal(false);
+  protected readonly sweepError = signal('');
+  protected readonly sweepProblems = signal<FieldIssue[]>([]);
+  protected readonly index = signal(0);
+  protected readonly showGrid = signal(false);
+
+  protected readonly canEdit = computed(() => this.canWrite() && this.scenario()?.frozenAt === null);
+  protected readonly rows = computed(() => {
+    const s = this.sweep();
+    return s ? ladderRows(s, this.unitSystem()) : [];
+  });
+  protected readonly tableRows = computed(() => {
+    const i = this.index();
+    return this.rows().filter((r) => this.showGrid() || !r.isGrid || r.index === i);
+  });
+  protected readonly chosen = computed(() => this.rows()[this.index()] ?? null);
+  protected readonly chosenRow = computed(() => this.sweep()?.rows[this.index()] ?? null);
+  protected readonly sentence = computed(() => {
+    const s = this.sweep();
+    return s ? sentenceFor(s, this.index(), this.unitSystem()) : '';
+  });
+  protected readonly chartOptions = computed(() => {
+    const s = this.sweep();
+    return s ? tradeoffChart(s, this.index(), this.unitSystem(), this.compact()) : null;
+  });
+  protected readonly chartSummary = computed(() => {
+    const s = this.sweep();
+    return s ? tradeoffChartSummary(s, this.unitSystem()) : '';
+  });
+  protected readonly durationOptions = computed(() => {
+    const s = this.sweep();
+    return s ? loadDurationChart(s, this.index(), this.unitSystem(), this.compact()) : null;
+  });
+  protected readonly sliderMax = computed(() => Math.max(0, (this.sweep()?.rows.length ?? 1) - 1));
+  protected readonly sliderText = computed(() => {
+    const r = this.chosenRow();
+    return r ? `${formatQuantity('temperature', r.designC, this.unitSystem())}${r.isGrid ? '' : ` (${r.label})`}` : '';
+  });
+  protected readonly capacityText = computed(() => {
+    const r = this.chosenRow();
+    return r?.capacityAtDesignW == null ? '—' : formatPower(r.capacityAtDesignW, this.unitSystem());
+  });
+  protected readonly csvUrl = computed(() => this.api.sweepCsvUrl(this.id(), this.scenarioId()));
+  protected readonly lifeCycleNote = computed(() => {
+    const s = this.sweep();
+    const r = this.chosenRow();
+    if (!s || !r?.selectedOptionId) return '';
+    const o = s.options.find((x) => x.id === r.selectedOptionId);
+    return o ? `${o.lifeYears}-year life at ${s.discountRatePct} % real discount rate` : '';
+  });
+  protected readonly optionLabel = computed(() => {
+    const s = this.sweep();
+    return s ? optionLabelOf(s) : (id: string) => id;
+  });
+
+  private chart: ECharts | null = null;
+  private dragging = false;
+
+  constructor() {
+    effect(() => {
+      const projectId = this.id();
+      const scenarioId = this.scenarioId();
+      untracked(() => void this.load(projectId, scenarioId));
+    });
+  }
+
+  protected async load(projectId = this.id(), scenarioId = this.scenarioId()): Promise<void> {
+    this.loadError.set('');
+    try {
+      const s = await this.api.get(projectId, scenarioId);
+      this.scenario.set(s);
+      await this.runSweep();
+    } catch (err) {
+      this.loadError.set(
+        readApiError(err)?.code === 'not_found'
+          ? 'This scenario was not found. It may have been deleted, or it belongs to another organisation.'
+          : apiErrorMessage(err, 'The scenario could not be loaded.'),
+      );
+    } finally {
+      this.cdr.markForCheck();
+    }
+  }
+
+  /** Runs the sweep (the server answers from its cache when nothing changed); the page stays usable meanwhile. */
+  protected async runSweep(): Promise<void> {
+    const s = this.scenario();
+    if (!s) return;
+    this.sweeping.set(true);
+    this.sweepError.set('');
+    this.sweepProblems.set([]);
+    this.cdr.markForCheck();
+    try {
+      const answer = await this.api.sweep(s.projectId, s.id);
+      const previous = this.chosenRow()?.designC;
+      this.sweep.set(answer);
+      this.index.set(previous === undefined ? defaultIndex(answer.rows) : nearestIndex(answer.rows, previous));
+    } catch (err) {
+      const e = readApiError(err);
+      this.sweep.set(null);
+      this.sweepError.set(apiErrorMessage(err, 'The sweep could not be run.'));
+      this.sweepProblems.set(e?.code === 'scenario_incomplete' ? (e.details ?? []) : []);
+    } finally {
+      this.sweeping.set(false);
+      this.cdr.markForCheck();
+    }
+  }
+
+  protected settingsSaved(s: Scenario): void {
+    this.scenario.set(s);
+    void this.runSweep();
+  }
+
+  protected select(index: number): void {
+    const max = this.sliderMax();
+    this.index.set(Math.min(max, Math.max(0, Math.round(index))));
+  }
+
+  protected onChartInit(chart: ECharts): void {
+    this.chart = chart;
+    const zr = chart.getZr();
+    const pick = (e: { offsetX: number; offsetY: number }) => {
+      const s = this.sweep();
+      if (!s || !chart.containPixel('grid', [e.offsetX, e.offsetY])) return;
+      const [xValue] = chart.convertFromPixel('grid', [e.offsetX, e.offsetY]) as [number, number];
+      const c = this.unitSystem() === 'SI' ? xValue : ((xValue - 32) * 5) / 9;
+      this.select(nearestIndex(s.rows, c));
+      this.cdr.markForCheck();
+    };
+    zr.on('mousedown', (e) => {
+      this.dragging = true;
+      pick(e);
+    });
+    zr.on('mousemove', (e) => {
+      if (this.dragging) pick(e);
+    });
+    zr.on('mouseup', () => (this.dragging = false));
+    zr.on('globalout', () => (this.dragging = false));
+  }
+
+  protected onChartClick(e: ECElementEvent): void {
+    if (typeof e.dataIndex === 'number' && e.componentType === 'series') this.select(e.dataIndex);
+  }
+
+  protected money(v: string | null): string {
+    const s = this.sweep();
+    return v === null || !s ? '—' : formatMoney(v, s.currency);
+  }
+
+  protected async freeze(): Promise<void> {
+    const s = this.scenario();
+    if (!s) return;
+    const data: NameDialogData<Scenario> = {
+      title: 'Freeze for a bid',
+      label: 'Name of the frozen copy',
+      initial: `${s.name} · bid ${new Date().toISOString().slice(0, 10)}`,
+      submitLabel: 'Freeze',
+      maxLength: SCENARIO_NAME_MAX,
+      hint: 'A dated copy keeps today’s inputs, prices and results. It can be read, compared and copied, but never changed.',
+      save: (name) => this.api.freeze(s.projectId, s.id, name),
+    };
+    const frozen = await firstValueFrom(this.dialog.open<NameDialog<Scenario>, NameDialogData<Scenario>, Scenario>(NameDialog, { data }).afterClosed());
+    if (frozen) {
+      this.snack.open(`Frozen as “${frozen.name}”`, 'Open', { duration: 6000 }).onAction().subscribe(() => {
+        void this.router.navigate(['/projects', s.projectId, 'scenarios', frozen.id]);
+      });
+    }
+  }
+
+  protected async copyFrozen(): Promise<void> {
+    const s = this.scenario();
+    if (!s) return;
+    try {
+      const copy = await this.api.duplicate(s.projectId, s.id);
+      await this.router.navigate(['/projects', s.projectId, 'scenarios', copy.id]);
+    } catch (err) {
+      this.snack.open(apiErrorMessage(err), 'Dismiss', { duration: 8000 });
+    }
+  }
+
+  protected readonly temperature = (c: number) => formatQuantity('temperature', c, this.unitSystem());
+  /** The slider's bubble: the temperature of the row at that position. */
+  protected readonly temperatureAtIndex = (i: number): string => {
+    const r = this.sweep()?.rows[i];
+    return r ? formatQuantity('temperature', r.designC, this.unitSystem()).replace(/ .*$/, '°') : '';
+  };
+}

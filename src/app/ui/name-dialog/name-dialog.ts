@@ -1,0 +1,92 @@
+import { ChangeDetectionStrategy, ChangeDetectorRef, Component, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { applyApiErrors, fieldError } from '../../core/api-errors';
+
+export interface NameDialogData<T> {
+  title: string;
+  /** Label of the name field, e.g. "Scenario name". */
+  label: string;
+  initial: string;
+  submitLabel: string;
+  maxLength: number;
+  /** An optional line under the title. */
+  hint?: string;
+  /** Saves the name; the dialog closes with its answer, or shows the error and stays open. */
+  save: (name: string) => Promise<T>;
+}
+
+/** Asks for a name and saves it through the caller's `save`; closes with what `save` answered. */
+@Component({
+  selector: 'app-name-dialog',
+  imports: [ReactiveFormsModule, MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule],
+  template: `
+    <h2 mat-dialog-title>{{ data.title }}</h2>
+    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
+      <mat-dialog-content>
+        @if (data.hint) {
+          <p class="hint">{{ data.hint }}</p>
+        }
+        @if (formError()) {
+          <div class="tr-alert" role="alert">
+            <span>{{ formError() }}</span>
+          </div>
+        }
+        <mat-form-field class="name">
+          <mat-label>{{ data.label }}</mat-label>
+          <input matInput formControlName="name" cdkFocusInitial autocomplete="off" />
+          <mat-error>{{ fieldError(form.controls.name, { required: 'Enter a name' }) }}</mat-error>
+        </mat-form-field>
+      </mat-dialog-content>
+      <mat-dialog-actions align="end">
+        <button mat-button type="button" mat-dialog-close>Cancel</button>
+        <button mat-flat-button type="submit" [disabled]="pending()">{{ data.submitLabel }}</button>
+      </mat-dialog-actions>
+    </form>
+  `,
+  styles: `
+    .name {
+      width: min(400px, 100%);
+      padding-top: 0.25rem;
+    }
+    .hint {
+      margin: 0 0 0.75rem;
+      max-width: 400px;
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class NameDialog<T> {
+  protected readonly data = inject<NameDialogData<T>>(MAT_DIALOG_DATA);
+  private readonly dialogRef = inject<MatDialogRef<NameDialog<T>, T>>(MatDialogRef);
+  private readonly cdr = inject(ChangeDetectorRef);
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    name: [this.data.initial, [Validators.required, Validators.maxLength(this.data.maxLength)]],
+  });
+  protected readonly pending = signal(false);
+  protected readonly formError = signal('');
+  protected readonly fieldError = fieldError;
+
+  protected async submit(): Promise<void> {
+    if (this.pending()) return;
+    const name = this.form.controls.name.value.trim();
+    if (!name) this.form.controls.name.setValue('');
+    if (this.form.invalid) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.pending.set(true);
+    this.formError.set('');
+    try {
+      this.dialogRef.close(await this.data.save(name));
+    } catch (err) {
+      this.formError.set(applyApiErrors(this.form, err));
+    } finally {
+      this.pending.set(false);
+      this.cdr.markForCheck();
+    }
+  }
+}
