@@ -51,6 +51,12 @@ function benchScenario(): ScenarioFile {
   });
 }
 
+/** The bench scenario as engine input over a record's design conditions (without the record). */
+export function benchScenarioInput(designConditions: SweepInput['designConditions']): Omit<SweepInput, 'record'> {
+  const scenario = benchScenario();
+  return { ...scenarioToEngine(scenario), economics: scenario.economics, designConditions, designWindMs: 6.7 };
+}
+
 export interface SweepBenchResult {
   hours: number;
   years: number;

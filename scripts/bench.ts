@@ -15,7 +15,10 @@ import { migrateLatest } from '../server/migrate';
 import { analyse, storeRecord, storedComputation } from '../server/modules/climate/climate-service';
 import { atStoragePrecision } from '../server/modules/climate/series-codec';
 import { readWeatherFiles } from '../server/modules/climate/weather-files';
-import { benchSweep } from './bench-sweep';
+import type { DesignConditions } from '../shared/climate/design-conditions-schema';
+import { createSweepPool } from '../server/modules/scenarios/sweep-pool';
+import type { SweepTask } from '../server/modules/scenarios/sweep-worker';
+import { benchScenarioInput, benchSweep } from './bench-sweep';
 import { ensurePostgresInstalled, PgCluster } from './pg-cluster';
 
 const RUNS = 5;
@@ -84,6 +87,34 @@ async function main(): Promise<void> {
       console.log(
         `${format.padEnd(8)} read ${ms(median(read))} · check + preview ${ms(median(check))} · store (COPY + save) ${ms(median(store))} · total ${ms(median(total))}`,
       );
+    }
+
+    // A sweep in the worker pool over a stored record: the first loads the record from PostgreSQL
+    // and indexes it in the worker; later ones (other inputs, same record) reuse it.
+    const [stored] = await db('design_conditions').select<{ climate_site_id: string; conditions: DesignConditions; computed_at: Date }[]>(
+      'climate_site_id',
+      'conditions',
+      'computed_at',
+    );
+    if (stored) {
+      const pool = createSweepPool({ maxThreads: 1 });
+      const scenario = benchScenarioInput(stored.conditions);
+      const task = (rate: number): SweepTask => ({
+        databaseUrl: cluster.url('bench'),
+        input: { ...scenario, economics: { discountRatePct: rate } },
+        record: { siteId: stored.climate_site_id, key: `${stored.climate_site_id}@${stored.computed_at.toISOString()}`, qualifyingYears: stored.conditions.period.qualifyingYears },
+      });
+      let t = performance.now();
+      await pool.run('cold', task(3));
+      const cold = performance.now() - t;
+      const warm: number[] = [];
+      for (let run = 0; run < RUNS; run++) {
+        t = performance.now();
+        await pool.run(`warm-${run}`, task(4 + run));
+        warm.push(performance.now() - t);
+      }
+      await pool.close();
+      console.log(`\nWorker pool sweep of a stored 30-year record: first (load from PostgreSQL + index + sweep) ${ms(cold)} · later sweeps of the same record ${median(warm).toFixed(1)} ms`);
     }
     await db.destroy();
   } finally {

@@ -1,0 +1,73 @@
+import type { SweepAnswer } from '@shared/scenarios/scenario-schemas';
+import { aSweepAnswer } from './testing/scenario-fixtures';
+import { capacityAtC, comparisonRows, defaultIndex, ladderRows, nearestIndex, sentenceFor, tradeoffChart } from './tradeoff-model';
+
+describe('trade-off model', () => {
+  const answer = aSweepAnswer();
+
+  it('writes the ladder in the user’s units, with "None large enough" for a rung without a unit', () => {
+    const si = ladderRows(answer, 'SI');
+    expect(si.map((r) => r.temperature)).toEqual(['−17.0 °C', '−20.5 °C', '−24.0 °C', '−32.0 °C']);
+    expect(si[0]?.unit).toBe('Furnace 9 kW');
+    expect(si[0]?.installedPrice).toBe('$4,000.00');
+    expect(si[0]?.designLoad).toBe('8.8 kW');
+    expect(si[0]?.unmetHours).toBe('12');
+    // −17 °C = 1.4 °F; 1.8 K = 3.24 °F shown to 0.1.
+    const ip = ladderRows(answer, 'IP');
+    expect(ip[0]?.temperature).toBe('1 °F');
+    expect(ip[0]?.sag).toBe('3.2 °F');
+    const none = ladderRows(aSweepAnswer({ rows: [{ ...answer.rows[0]!, selectedOptionId: null, installedPrice: null }] }), 'SI');
+    expect(none[0]?.unit).toBe('None large enough');
+    expect(none[0]?.installedPrice).toBe('—');
+  });
+
+  it('opens on the 99.6 % rung when there is one, else on the first named rung; finds the nearest rung to a temperature', () => {
+    expect(defaultIndex(answer.rows)).toBe(0); // no 99.6 % rung in the fixture: the first named one
+    const with996 = [answer.rows[0]!, { ...answer.rows[2]!, label: '99.6 %' }];
+    expect(defaultIndex(with996)).toBe(1);
+    expect(nearestIndex(answer.rows, -21)).toBe(1);
+    expect(nearestIndex(answer.rows, -40)).toBe(3);
+  });
+
+  it('says what the mild rung saves against the coldest, and what it risks', () => {
+    const s = sentenceFor(answer, 0, 'SI');
+    // 4600.00 − 4000.00 = 600; life-cycle 15000.00 − 14400.00 = 600.
+    expect(s).toContain('Sizing for −17.0 °C (99 %) instead of −32.0 °C (50-year) installs Furnace 9 kW instead of Furnace 12 kW');
+    expect(s).toContain('for $600.00 less to install ($600.00 less over its life)');
+    expect(s).toContain('about 12 hours in an average year and about 40 hours in the worst of the record\'s 4 years');
+    expect(s).toContain('cool by up to 1.8 K');
+    expect(sentenceFor(answer, 3, 'SI')).toContain('the coldest point of the ladder');
+    expect(sentenceFor(answer, 2, 'SI')).toContain('installs the same unit');
+  });
+
+  it('interpolates a capacity curve and holds it past its ends', () => {
+    const curve = [
+      { outdoorC: 10, capacityW: 10000 },
+      { outdoorC: -10, capacityW: 6000 },
+    ];
+    expect(capacityAtC(curve, 0)).toBe(8000);
+    expect(capacityAtC(curve, 20)).toBe(10000);
+    expect(capacityAtC(curve, -30)).toBe(6000);
+  });
+
+  it('lines up the named rungs of compared sweeps, leaving a gap where one lacks a rung', () => {
+    const other: SweepAnswer = aSweepAnswer({ rows: answer.rows.filter((r) => r.label !== 'Extreme mean') });
+    const rows = comparisonRows([answer, other, null], 'SI');
+    expect(rows.map((r) => r.label)).toEqual(['99 %', 'Extreme mean', '50-year']);
+    expect(rows[1]?.cells[0]?.unit).toBe('Furnace 12 kW');
+    expect(rows[1]?.cells[1]).toBeNull();
+    expect(rows[0]?.cells[2]).toBeNull();
+  });
+
+  it('marks the chosen design temperature on the chart and puts unmet hours on the second axis', () => {
+    const option = tradeoffChart(answer, 2, 'SI', false);
+    const series = option.series as { name: string; yAxisIndex: number; markLine?: { data: { xAxis: number; lineStyle: { color: string } }[] } }[];
+    expect(series.map((s) => s.name)).toEqual(['Installed price', 'Life-cycle cost', 'Unmet hours per year']);
+    expect(series[2]?.yAxisIndex).toBe(1);
+    const marks = series[0]?.markLine?.data ?? [];
+    expect(marks.filter((m) => m.lineStyle.color === '#C9583A').map((m) => m.xAxis)).toEqual([-24]);
+    expect(marks.length).toBe(4); // three named rungs + the chosen point
+    const noRecord = tradeoffChart(aSweepAnswer({ hasRecord: false }), 0, 'SI', false);
+    expect((noRecord.series as unknown[]).length).toBe(2);
+  });
+});
