@@ -1,33 +1,16 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
-import { createDb } from '../server/db';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from '../server/seed/demo-seed';
-import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
+import { guardOffline, screenshot, seedDemoData, signInAsDemo, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
 before(async () => {
-  const db = createDb(process.env['DATABASE_URL'] ?? '');
-  try {
-    await seedDemo(db);
-  } finally {
-    await db.destroy();
-  }
+  await seedDemoData();
   e2e = await startE2eApp();
 });
 after(async () => {
   await e2e.close();
 });
-
-const designer = DEMO_ACCOUNTS.find((a) => a.role === 'designer') ?? DEMO_ACCOUNTS[0];
-
-async function signIn(page: Page): Promise<void> {
-  await page.goto(e2e.baseUrl + '/sign-in');
-  await page.getByLabel(/^E-mail/).fill(designer.email);
-  await page.getByLabel(/^Password/).fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(/\/projects$/);
-}
 
 const text = (page: Page, id: string) => page.getByTestId(id).innerText();
 
@@ -37,7 +20,7 @@ describe('the trade-off screen on the demo data', () => {
     const context = await e2e.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();
     guardOffline(page, e2e.baseUrl, offenders);
-    await signIn(page);
+    await signInAsDemo(page, e2e.baseUrl, 'designer');
 
     await page.getByRole('link', { name: /Fernbrook Lane/ }).click();
     await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)' }).click();

@@ -18,6 +18,9 @@ import { equipmentRouter } from './modules/equipment/equipment-router';
 import { orgsRouter } from './modules/orgs/orgs-router';
 import { projectsRouter } from './modules/projects/projects-router';
 import { scenariosRouter } from './modules/scenarios/scenarios-router';
+import { logoRouter } from './modules/reports/logo-router';
+import { reportsRouter } from './modules/reports/reports-router';
+import { reportLinkHttpStatus } from './modules/reports/report-tokens';
 import { createSweepPool } from './modules/scenarios/sweep-pool';
 
 export interface AppDeps {
@@ -91,12 +94,19 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   app.use('/api/v1/projects', scenariosRouter(db, sweepPool, config.databaseUrl));
   app.use('/api/v1', climateRouter(db));
   app.use('/api/v1', equipmentRouter(db));
+  app.use('/api/v1', reportsRouter({ db, pool: sweepPool, config, mailer }));
+  app.use('/api/v1', logoRouter(db));
   if (config.devOutboxUrl) app.use('/api/v1/dev', devOutboxRouter(config.devOutboxUrl));
   app.use('/api', apiNotFound);
 
   if (config.clientDist && existsSync(path.join(config.clientDist, 'index.html'))) {
     const dist = path.resolve(config.clientDist);
     app.use(express.static(dist, { index: false, maxAge: '1h' }));
+    // A client report's page answers 410 for a withdrawn or expired link (the page explains it).
+    app.get('/r/:token', async (req, res) => {
+      const status = await reportLinkHttpStatus(db, config.sessionSecret, req.params.token);
+      res.status(status).sendFile(path.join(dist, 'index.html'), { headers: { 'cache-control': 'no-store' } });
+    });
     app.get('/{*splat}', (_req, res) => {
       res.sendFile(path.join(dist, 'index.html'), { headers: { 'cache-control': 'no-cache' } });
     });

@@ -1,4 +1,4 @@
-import { mkdirSync } from 'node:fs';
+import { mkdirSync, readFileSync } from 'node:fs';
 import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
@@ -9,6 +9,8 @@ import { createDb } from '../../server/db';
 import { createLogger } from '../../server/logger';
 import { createMailer } from '../../server/mail/mailer';
 import { startSmtpSink, type SmtpSink } from '../../server/fakes/smtp-sink';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from '../../server/seed/demo-seed';
+import type { Role } from '../../shared/auth/roles';
 
 export const SCREENSHOTS = path.resolve('test-results/screenshots');
 
@@ -88,4 +90,53 @@ export async function screenshot(page: Page, name: string): Promise<void> {
     window.scrollTo(0, 0);
   });
   await page.screenshot({ path: path.join(SCREENSHOTS, `${name}.png`), fullPage: true });
+}
+
+/**
+ * Draws the first page of a PDF with PDF.js (from node_modules, handed to the page as blob URLs, so
+ * nothing is fetched) and saves a screenshot of it, to look at what a PDF download holds.
+ */
+export async function pdfFirstPageScreenshot(browser: Browser, pdf: Buffer, name: string): Promise<void> {
+  const dir = path.resolve('node_modules/pdfjs-dist/legacy/build');
+  const lib = readFileSync(path.join(dir, 'pdf.min.mjs'), 'utf8');
+  const worker = readFileSync(path.join(dir, 'pdf.worker.min.mjs'), 'utf8');
+  const context = await browser.newContext({ viewport: { width: 900, height: 1200 } });
+  const page = await context.newPage();
+  await page.setContent('<!doctype html><body style="margin:0;background:#888"><canvas id="c"></canvas></body>');
+  // A string, not a function: the test runner's transpiler would wrap a function's inner helpers.
+  await page.evaluate(`(async () => {
+    const url = (code) => URL.createObjectURL(new Blob([code], { type: 'text/javascript' }));
+    const pdfjs = await import(url(${JSON.stringify(lib)}));
+    pdfjs.GlobalWorkerOptions.workerSrc = url(${JSON.stringify(worker)});
+    const bytes = Uint8Array.from(atob('${pdf.toString('base64')}'), (c) => c.charCodeAt(0));
+    const doc = await pdfjs.getDocument({ data: bytes }).promise;
+    const first = await doc.getPage(1);
+    const viewport = first.getViewport({ scale: 1.4 });
+    const canvas = document.getElementById('c');
+    canvas.width = viewport.width;
+    canvas.height = viewport.height;
+    await first.render({ canvasContext: canvas.getContext('2d'), viewport }).promise;
+  })()`);
+  await page.locator('#c').screenshot({ path: path.join(SCREENSHOTS, `${name}.png`) });
+  await context.close();
+}
+
+/** Seeds the invented demo organisation into the test database (once; a second call changes nothing). */
+export async function seedDemoData(): Promise<void> {
+  const db = createDb(process.env['DATABASE_URL'] ?? '');
+  try {
+    await seedDemo(db);
+  } finally {
+    await db.destroy();
+  }
+}
+
+/** Signs in as the demo account with `role` and waits for the projects page. */
+export async function signInAsDemo(page: Page, baseUrl: string, role: Role): Promise<void> {
+  const account = DEMO_ACCOUNTS.find((a) => a.role === role) ?? DEMO_ACCOUNTS[0];
+  await page.goto(baseUrl + '/sign-in');
+  await page.getByLabel(/^E-mail/).fill(account.email);
+  await page.getByLabel(/^Password/).fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(/\/projects$/);
 }

@@ -43,3 +43,21 @@ export function invitationMail(
     html: layout(lines, { href: link, label: 'Accept the invitation' }),
   };
 }
+
+export function reportMail(
+  to: string,
+  link: string,
+  details: { organizationName: string; senderName: string; title: string; message: string; expiresAt: Date },
+): OutgoingMail {
+  const lines = [
+    `${details.senderName} of ${details.organizationName} sent you a heating report: “${details.title}”.`,
+    ...(details.message ? [details.message] : []),
+    `The link works until ${details.expiresAt.toISOString().slice(0, 10)}; you need no account to open it.`,
+  ];
+  return {
+    to,
+    subject: `${details.organizationName}: ${details.title}`,
+    text: `${lines.join('\n\n')}\n\n${link}\n`,
+    html: layout(lines, { href: link, label: 'Open the report' }),
+  };
+}

@@ -56,6 +56,17 @@ export const routes: Routes = [
     loadComponent: () => import('./scenarios/tradeoff-page/tradeoff-page').then((m) => m.TradeoffPage),
   },
   {
+    path: 'projects/:id/reports/:reportId',
+    title: 'Client report · Tailroom',
+    canActivate: [authGuard],
+    loadComponent: () => import('./reports/report-page/report-page').then((m) => m.ReportPage),
+  },
+  {
+    path: 'r/:token',
+    title: 'Heating report',
+    loadComponent: () => import('./reports/public-report-page/public-report-page').then((m) => m.PublicReportPage),
+  },
+  {
     path: 'projects/:id/compare',
     title: 'Compare scenarios · Tailroom',
     canActivate: [authGuard],

@@ -19,7 +19,7 @@ import {
 } from '@shared/scenarios/scenario-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError, staleUpdate } from '../../http/http-error';
-import { computeSweep, prepareSweep, type ScenarioRow } from './sweep-service';
+import { computeSweep, prepareSweep, scenarioSweep, type ScenarioRow } from './sweep-service';
 import type { SweepPool } from './sweep-pool';
 
 const FORMER = 'A former member';
@@ -104,15 +104,7 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     }
   }
 
-  /** The sweep answer of a scenario: its frozen result, or the cache, or a new run. */
-  async function sweepOf(row: ScenarioRow, options: { onlyCached?: boolean } = {}): Promise<SweepAnswer | null> {
-    if (row.frozen_at && row.frozen_result) {
-      return { ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true };
-    }
-    const prepared = await prepareSweep(db, row);
-    const out = await computeSweep(db, pool, databaseUrl, prepared, options);
-    return out && { ...out.body, scenarioId: row.id, cached: out.cached, frozen: false };
-  }
+  const sweepOf = (row: ScenarioRow, options: { onlyCached?: boolean } = {}) => scenarioSweep(db, pool, databaseUrl, row, options);
 
   router.get('/:projectId/scenarios', authorize(db, 'org:read'), async (req, res) => {
     const { projectId } = projectParam.parse(req.params);

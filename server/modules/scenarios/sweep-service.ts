@@ -213,3 +213,19 @@ export async function computeSweep(
     .ignore();
   return { body, cached: false };
 }
+
+/** The sweep answer of a scenario: its frozen result, or the cache, or a new run (null: `onlyCached` and not cached). */
+export async function scenarioSweep(
+  db: Knex,
+  pool: SweepPool,
+  databaseUrl: string,
+  row: ScenarioRow,
+  options: { onlyCached?: boolean } = {},
+): Promise<SweepAnswer | null> {
+  if (row.frozen_at && row.frozen_result) {
+    return { ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true };
+  }
+  const prepared = await prepareSweep(db, row);
+  const out = await computeSweep(db, pool, databaseUrl, prepared, options);
+  return out && { ...out.body, scenarioId: row.id, cached: out.cached, frozen: false };
+}

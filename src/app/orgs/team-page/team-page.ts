@@ -18,10 +18,12 @@ import { apiErrorMessage, applyApiErrors, fieldError } from '../../core/api-erro
 import { emailAddress } from '../../core/validators';
 import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
 import { TeamApi } from '../team-api';
+import { FirmLogo } from '../firm-logo/firm-logo';
 
 @Component({
   selector: 'app-team-page',
   imports: [
+    FirmLogo,
     DatePipe,
     ReactiveFormsModule,
     MatButtonModule,

@@ -89,18 +89,6 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
     </section>
   `,
   styles: `
-    .head {
-      display: flex;
-      flex-wrap: wrap;
-      justify-content: space-between;
-      align-items: center;
-      gap: 0.5rem;
-    }
-    .back a {
-      display: inline-flex;
-      align-items: center;
-      gap: 0.25rem;
-    }
     .table-wrap {
       overflow-x: auto;
       border: 1px solid var(--tr-rule);

@@ -1,5 +1,6 @@
 import { ChangeDetectionStrategy, Component } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
+import { SIZING_CAUTIONS, SIZING_CAUTIONS_TITLE } from '@shared/reports/cautions';
 
 /** The trade's cautions beside any sizing result that leaves hours short. */
 @Component({
@@ -7,25 +8,11 @@ import { MatIconModule } from '@angular/material/icon';
   imports: [MatIconModule],
   template: `
     <section class="cautions" aria-labelledby="cautions-title" data-testid="tradeoff-cautions">
-      <h2 id="cautions-title"><mat-icon aria-hidden="true">warning</mat-icon>Before you size below the coldest point</h2>
+      <h2 id="cautions-title"><mat-icon aria-hidden="true">warning</mat-icon>{{ title }}</h2>
       <ul>
-        <li>
-          Unmet hours come from the past record; a colder spell than any in it can happen. A unit sized below the
-          coldest design point will fall behind in such a spell, and the house will cool.
-        </li>
-        <li>
-          Where pipes could freeze (exterior walls, crawlspaces, unheated rooms, a vacant house) or occupants are
-          vulnerable (infants, elderly or ill people), size for the colder design temperature or keep reliable backup or
-          supplementary heat.
-        </li>
-        <li>
-          Combustion equipment must be installed, vented and supplied with combustion air by qualified people; fit carbon
-          monoxide alarms. Never use ovens, grills or unvented heaters for space heating in a cold snap.
-        </li>
-        <li>
-          These are whole-building estimates for comparing options, not a room-by-room load calculation. Local codes,
-          the manufacturer's data and a licensed professional govern the final design.
-        </li>
+        @for (c of cautions; track c) {
+          <li>{{ c }}</li>
+        }
       </ul>
     </section>
   `,
@@ -54,4 +41,7 @@ import { MatIconModule } from '@angular/material/icon';
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class TradeoffCautions {}
+export class TradeoffCautions {
+  protected readonly title = SIZING_CAUTIONS_TITLE;
+  protected readonly cautions = SIZING_CAUTIONS;
+}

@@ -36,6 +36,7 @@ import {
   tradeoffChart,
   tradeoffChartSummary,
 } from '../tradeoff-model';
+import { ReportList } from '../../reports/report-list/report-list';
 import { TradeoffCautions } from './tradeoff-cautions';
 
 /** `/projects/:id/scenarios/:scenarioId`: one scenario's sweep, the chosen design point, and its settings. */
@@ -54,6 +55,7 @@ import { TradeoffCautions } from './tradeoff-cautions';
     MatSliderModule,
     ScenarioSettingsPanel,
     TradeoffCautions,
+    ReportList,
   ],
   providers: [provideCharts()],
   templateUrl: './tradeoff-page.html',

@@ -1,0 +1,85 @@
+/**
+ * The report's one chart as an ECharts option: life-cycle cost and hours short per year against the
+ * design temperature, with the presented design points marked. Used by the report page (canvas) and
+ * the PDF (SVG rendered on the server), so both show the same picture.
+ */
+import type { ReportView } from './report-schemas';
+
+const FONT = '"Source Sans 3", system-ui, sans-serif';
+/** The PDF's font name (pdfmake's registered Source Sans 3); no quotes, which would break the SVG attribute. */
+const PRINT_FONT = 'SourceSans';
+const EMBER = '#C9583A';
+const COLD = '#4F8FBF';
+const GREEN = '#6F8F3A';
+const TEXT = '#2A3A40';
+
+const group = (v: number) => Math.round(v).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+
+export function reportChartOption(view: ReportView, options: { compact: boolean; forPrint?: boolean }): Record<string, unknown> {
+  const { chart } = view;
+  const ts = chart.rows.map((r) => r.t);
+  const hasHours = chart.rows.some((r) => r.unmetHours !== null);
+  const small = options.compact || options.forPrint === true;
+  return {
+    animation: false,
+    textStyle: { fontFamily: options.forPrint ? PRINT_FONT : FONT, color: TEXT, fontSize: small ? 10 : 12 },
+    grid: { left: small ? 56 : 72, right: hasHours ? (small ? 40 : 56) : 16, top: small ? 40 : 48, bottom: small ? 36 : 48 },
+    legend: { top: 0, left: 'center', textStyle: { fontSize: small ? 10 : 12, fontFamily: options.forPrint ? PRINT_FONT : FONT } },
+    tooltip: options.forPrint ? undefined : { trigger: 'axis' },
+    xAxis: {
+      type: 'value',
+      inverse: true,
+      min: ts.length > 0 ? Math.floor(Math.min(...ts)) : undefined,
+      max: ts.length > 0 ? Math.ceil(Math.max(...ts)) : undefined,
+      name: `Design temperature (${chart.temperatureUnit}), milder to colder`,
+      nameLocation: 'middle',
+      nameGap: small ? 22 : 30,
+      splitLine: { lineStyle: { color: '#E3E8E6' } },
+    },
+    yAxis: [
+      {
+        type: 'value',
+        name: `Life-cycle cost (${chart.currency})`,
+        scale: true,
+        axisLabel: { formatter: (v: number) => group(v) },
+        splitLine: { lineStyle: { color: '#E3E8E6' } },
+      },
+      { type: 'value', name: hasHours ? 'Hours short / yr' : '', min: 0, show: hasHours, splitLine: { show: false } },
+    ],
+    series: [
+      {
+        name: 'Life-cycle cost',
+        type: 'line',
+        yAxisIndex: 0,
+        showSymbol: false,
+        data: chart.rows.map((r) => [r.t, r.lifeCycleCost]),
+        lineStyle: { color: GREEN, width: 2.5 },
+        itemStyle: { color: GREEN },
+        markLine: {
+          symbol: 'none',
+          silent: true,
+          animation: false,
+          data: chart.points.map((p) => ({
+            xAxis: p.t,
+            lineStyle: { color: EMBER, width: 2, type: 'solid' },
+            label: { formatter: p.label, color: EMBER, fontSize: small ? 10 : 12, position: 'insideEndTop' },
+          })),
+        },
+      },
+      ...(hasHours
+        ? [
+            {
+              name: 'Hours short per year',
+              type: 'line',
+              yAxisIndex: 1,
+              showSymbol: false,
+              data: chart.rows.map((r) => [r.t, r.unmetHours]),
+              areaStyle: { color: 'rgba(79, 143, 191, 0.18)' },
+              lineStyle: { color: COLD, width: 2 },
+              itemStyle: { color: COLD },
+            },
+          ]
+        : []),
+    ],
+  };
+}
