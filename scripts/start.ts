@@ -19,6 +19,7 @@ const port = Number(process.env['PORT'] ?? 3000);
 const pgPort = Number(process.env['PG_PORT'] ?? 54329);
 const smtpPort = Number(process.env['SMTP_PORT'] ?? 2525);
 const outboxPort = Number(process.env['OUTBOX_PORT'] ?? 2526);
+const paymentsPort = Number(process.env['PAYMENTS_FAKE_PORT'] ?? 12111);
 
 function secret(file: string, bytes: number): string {
   const p = path.join(dataDir, file);
@@ -117,7 +118,12 @@ async function main(): Promise<void> {
     SMTP_PORT: String(smtpPort),
     DEV_OUTBOX_URL: `http://127.0.0.1:${outboxPort}`,
     CLIENT_DIST: path.join(repo, 'dist', 'tailroom', 'browser'),
+    // The payment provider's SDK talks to the local fake (test keys only).
+    STRIPE_API_HOST: '127.0.0.1',
+    STRIPE_API_PORT: String(paymentsPort),
+    STRIPE_API_PROTOCOL: 'http',
   };
+  startChild('payment provider (fake)', ['server/fakes/payment-fake-main.ts', String(paymentsPort), `http://127.0.0.1:${port}/api/v1/billing/webhook`], env);
   startChild('e-mail sink', ['server/fakes/smtp-sink-main.ts', String(smtpPort), String(outboxPort)], env);
   const server = startChild('server', ['server/main.ts'], env);
 
@@ -137,6 +143,7 @@ async function main(): Promise<void> {
     for (const a of DEMO_ACCOUNTS) log(`    ${a.role.padEnd(8)} ${a.email}`);
     log(`    password  ${DEMO_PASSWORD}`);
     log(`  Dev outbox (e-mails sent locally): ${url}/dev/outbox`);
+    log(`  Payments: a local fake of the provider on 127.0.0.1:${paymentsPort}; test card 4242 4242 4242 4242`);
     log('  Press Ctrl-C to stop.');
     log('');
   }

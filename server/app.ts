@@ -19,6 +19,7 @@ import { orgsRouter } from './modules/orgs/orgs-router';
 import { projectsRouter } from './modules/projects/projects-router';
 import { scenariosRouter } from './modules/scenarios/scenarios-router';
 import { logoRouter } from './modules/reports/logo-router';
+import { billingRouter } from './modules/billing/billing-router';
 import { reportsRouter } from './modules/reports/reports-router';
 import { reportLinkHttpStatus } from './modules/reports/report-tokens';
 import { createSweepPool } from './modules/scenarios/sweep-pool';
@@ -86,6 +87,9 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   configurePassport(db);
   app.use('/api', passport.initialize(), passport.session() as express.RequestHandler);
 
+  // The provider's webhook reads its raw body (the signature covers the exact bytes): before the JSON parser.
+  const billing = billingRouter(db, config);
+  app.post('/api/v1/billing/webhook', ...billing.webhook);
   app.use('/api/v1', express.json({ limit: '1mb', strict: true }));
   app.use('/api/v1', authRouter(db, config, mailer));
   app.use('/api/v1', orgsRouter(db, config, mailer));
@@ -96,6 +100,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   app.use('/api/v1', equipmentRouter(db));
   app.use('/api/v1', reportsRouter({ db, pool: sweepPool, config, mailer }));
   app.use('/api/v1', logoRouter(db));
+  app.use('/api/v1', billing.router);
   if (config.devOutboxUrl) app.use('/api/v1/dev', devOutboxRouter(config.devOutboxUrl));
   app.use('/api', apiNotFound);
 

@@ -27,7 +27,17 @@ const envSchema = z.object({
   RESET_LINK_MINUTES: z.coerce.number().int().min(1).default(60),
   /** Lifetime of invitation links, days. */
   INVITATION_DAYS: z.coerce.number().int().min(1).default(7),
+  /** The payment provider: keys, and where its API is (the local fake in development and tests). */
+  STRIPE_SECRET_KEY: z.string().optional(),
+  STRIPE_WEBHOOK_SECRET: z.string().optional(),
+  STRIPE_API_HOST: z.string().optional(),
+  STRIPE_API_PORT: z.coerce.number().int().min(1).max(65535).optional(),
+  STRIPE_API_PROTOCOL: z.enum(['http', 'https']).optional(),
 });
+
+/** Keys of the local fake provider (development and tests only; refused in production). */
+export const FAKE_STRIPE_SECRET_KEY = 'sk_test_tailroom_local_fake';
+export const FAKE_STRIPE_WEBHOOK_SECRET = 'whsec_tailroom_local_fake';
 
 export type Config = Readonly<{
   env: 'development' | 'test' | 'production';
@@ -43,6 +53,7 @@ export type Config = Readonly<{
   logLevel: string;
   resetLinkMinutes: number;
   invitationDays: number;
+  stripe: { secretKey: string; webhookSecret: string; host?: string; port?: number; protocol?: 'http' | 'https' };
 }>;
 
 export function parseConfig(env: NodeJS.ProcessEnv): Config {
@@ -54,6 +65,9 @@ export function parseConfig(env: NodeJS.ProcessEnv): Config {
   const e = result.data;
   if (e.NODE_ENV === 'production' && e.DEV_OUTBOX_URL) {
     throw new Error('Invalid configuration:\n  DEV_OUTBOX_URL: the development outbox cannot be used in production');
+  }
+  if (e.NODE_ENV === 'production' && (!e.STRIPE_SECRET_KEY || !e.STRIPE_WEBHOOK_SECRET)) {
+    throw new Error('Invalid configuration:\n  STRIPE_SECRET_KEY, STRIPE_WEBHOOK_SECRET: required in production');
   }
   return Object.freeze({
     env: e.NODE_ENV,
@@ -69,6 +83,13 @@ export function parseConfig(env: NodeJS.ProcessEnv): Config {
     logLevel: e.LOG_LEVEL,
     resetLinkMinutes: e.RESET_LINK_MINUTES,
     invitationDays: e.INVITATION_DAYS,
+    stripe: {
+      secretKey: e.STRIPE_SECRET_KEY ?? FAKE_STRIPE_SECRET_KEY,
+      webhookSecret: e.STRIPE_WEBHOOK_SECRET ?? FAKE_STRIPE_WEBHOOK_SECRET,
+      host: e.STRIPE_API_HOST,
+      port: e.STRIPE_API_PORT,
+      protocol: e.STRIPE_API_PROTOCOL,
+    },
   });
 }
 

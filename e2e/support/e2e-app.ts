@@ -4,7 +4,8 @@ import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { createApp } from '../../server/app';
-import { parseConfig } from '../../server/config';
+import { FAKE_STRIPE_SECRET_KEY, FAKE_STRIPE_WEBHOOK_SECRET, parseConfig } from '../../server/config';
+import { startPaymentFake, type PaymentFake } from '../../server/fakes/payment-fake';
 import { createDb } from '../../server/db';
 import { createLogger } from '../../server/logger';
 import { createMailer } from '../../server/mail/mailer';
@@ -17,6 +18,8 @@ export const SCREENSHOTS = path.resolve('test-results/screenshots');
 export interface E2eApp {
   baseUrl: string;
   sink: SmtpSink;
+  /** The local fake of the payment provider the app's SDK talks to. */
+  payments: PaymentFake;
   browser: Browser;
   close(): Promise<void>;
 }
@@ -27,7 +30,11 @@ export async function startE2eApp(): Promise<E2eApp> {
   const clientDist = process.env['CLIENT_DIST'];
   if (!databaseUrl || !clientDist) throw new Error('DATABASE_URL and CLIENT_DIST are set by `npm test`');
   const sink = await startSmtpSink();
+  const payments = await startPaymentFake({ secretKey: FAKE_STRIPE_SECRET_KEY, webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET, retryBaseMs: 200 });
   const base = {
+    STRIPE_API_HOST: '127.0.0.1',
+    STRIPE_API_PORT: String(payments.port),
+    STRIPE_API_PROTOCOL: 'http',
     NODE_ENV: 'test',
     DATABASE_URL: databaseUrl,
     SESSION_SECRET: 'e2e-session-secret-that-is-long-enough-000',
@@ -45,6 +52,7 @@ export async function startE2eApp(): Promise<E2eApp> {
   const mailer = createMailer(config);
   const app = createApp({ config, db, mailer, logger: createLogger('silent') });
   server.on('request', app.app);
+  payments.setWebhookUrl(`http://127.0.0.1:${port}/api/v1/billing/webhook`);
 
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
@@ -64,6 +72,7 @@ export async function startE2eApp(): Promise<E2eApp> {
   return {
     baseUrl: `http://127.0.0.1:${port}`,
     sink,
+    payments,
     browser,
     async close() {
       await browser.close();
@@ -73,6 +82,7 @@ export async function startE2eApp(): Promise<E2eApp> {
       mailer.close();
       await db.destroy();
       await sink.close();
+      await payments.close();
     },
   };
 }

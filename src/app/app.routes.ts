@@ -107,6 +107,12 @@ export const routes: Routes = [
       import('./equipment/equipment-list-page/equipment-list-page').then((m) => m.EquipmentListPage),
   },
   {
+    path: 'billing',
+    title: 'Plan & billing · Tailroom',
+    canActivate: [roleGuard('billing:manage')],
+    loadComponent: () => import('./billing/billing-page/billing-page').then((m) => m.BillingPage),
+  },
+  {
     path: 'team',
     title: 'Team · Tailroom',
     canActivate: [authGuard],

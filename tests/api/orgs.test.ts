@@ -2,7 +2,7 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
-import { createTestApp, linkPath, PASSWORD, signUp, uniqueEmail, useTestApp, inviteMember } from '../support/test-app';
+import { createTestApp, linkPath, PASSWORD, signUp, uniqueEmail, useTestApp, inviteMember, setPlan } from '../support/test-app';
 
 const t = useTestApp();
 
@@ -11,6 +11,8 @@ type Agent = InstanceType<typeof TestAgent>;
 /** An owner's organisation with a member of `role` who accepted an e-mailed invitation. */
 async function orgWithMember(role: 'owner' | 'designer' | 'viewer') {
   const owner = await signUp(t.app, { organizationName: 'Test Heating Ltd' });
+  // Room for the member and a further invitation (the free plan holds two places).
+  await setPlan(t.db, owner.organizationId);
   const member = await inviteMember(t, owner, role);
   return { owner, member, organizationId: owner.organizationId, token: member.token };
 }

@@ -1,6 +1,6 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import { signUp, useTestApp, inviteMember } from '../support/test-app';
+import { signUp, useTestApp, inviteMember, setPlan } from '../support/test-app';
 
 const t = useTestApp();
 
@@ -76,6 +76,7 @@ describe('projects', () => {
 
   it('lets designers write and viewers only read', async () => {
     const owner = await signUp(t.app);
+    await setPlan(t.db, owner.organizationId);
     const p = await owner.agent.post('/api/v1/projects').send({ name: 'Roles' }).expect(201);
     const designer = await member(owner, 'designer');
     const viewer = await member(owner, 'viewer');

@@ -122,3 +122,11 @@ export async function inviteMember(
     .expect(201);
   return { agent, email, userId: (res.body as { user: { id: string } }).user.id, token };
 }
+
+/** Puts an organisation on a paid plan directly (as a confirmed subscription would), for tests that need more members or projects than the free plan holds. */
+export async function setPlan(db: Knex, organizationId: string, plan: 'crew' | 'firm' = 'firm'): Promise<void> {
+  await db('billing_accounts')
+    .insert({ organization_id: organizationId, plan, status: 'active', interval: 'month' })
+    .onConflict('organization_id')
+    .merge();
+}

@@ -10,6 +10,7 @@ import {
 } from '@shared/orgs/org-schemas';
 import type { Config } from '../../config';
 import { authorize, currentUser, orgContext, requireUser } from '../../http/authorize';
+import { assertCanAddMember } from '../billing/plan-limits';
 import { HttpError } from '../../http/http-error';
 import type { Mailer } from '../../mail/mailer';
 import { invitationMail } from '../../mail/messages';
@@ -90,11 +91,12 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
         ]);
       }
       // A new invitation replaces any earlier pending one for the same address.
-      await trx('invitations')
+      const replaced = await trx('invitations')
         .where({ organization_id: organizationId, email: input.email })
         .whereNull('accepted_at')
         .whereNull('revoked_at')
         .update({ revoked_at: trx.fn.now() });
+      if (replaced === 0) await assertCanAddMember(trx, organizationId);
       const { token, hash } = newLinkToken();
       const expiresAt = new Date(Date.now() + config.invitationDays * 86_400_000);
       const [row] = await trx('invitations')

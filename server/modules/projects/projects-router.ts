@@ -11,6 +11,7 @@ import { projectBuildingPutSchema } from '@shared/building/building-api-schemas'
 import type { Building } from '@shared/building/building-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError, staleUpdate } from '../../http/http-error';
+import { assertCanAddProject } from '../billing/plan-limits';
 
 interface ProjectRow {
   id: string;
@@ -119,19 +120,22 @@ export function projectsRouter(db: Knex): Router {
     const input = projectInputSchema.parse(req.body);
     const { organizationId, user } = orgContext(req);
     await checkReferences(db, organizationId, input);
-    const [inserted] = await db('projects')
-      .insert({
-        organization_id: organizationId,
-        name: input.name,
-        client_name: input.clientName ?? '',
-        site_address: input.siteAddress ?? '',
-        climate_site_id: input.climateSiteId ?? null,
-        equipment_list_id: input.equipmentListId ?? null,
-        notes: input.notes ?? '',
-        created_by: user.id,
-        updated_by: user.id,
-      })
-      .returning<{ id: string }[]>('id');
+    const [inserted] = await db.transaction(async (trx) => {
+      await assertCanAddProject(trx, organizationId);
+      return trx('projects')
+        .insert({
+          organization_id: organizationId,
+          name: input.name,
+          client_name: input.clientName ?? '',
+          site_address: input.siteAddress ?? '',
+          climate_site_id: input.climateSiteId ?? null,
+          equipment_list_id: input.equipmentListId ?? null,
+          notes: input.notes ?? '',
+          created_by: user.id,
+          updated_by: user.id,
+        })
+        .returning<{ id: string }[]>('id');
+    });
     const created = await findProject(db, organizationId, inserted?.id ?? '');
     if (!created) throw new Error('created project not found');
     res.status(201).location(`/api/v1/projects/${created.id}`).json(created);
@@ -149,7 +153,11 @@ export function projectsRouter(db: Knex): Router {
     const patch = projectPatchSchema.parse(req.body);
     const { organizationId, user } = orgContext(req);
     await checkReferences(db, organizationId, patch);
-    const row: Record<string, unknown> = { updated_by: user.id, updated_at: db.fn.now(), version: db.raw('version + 1') };
+    const row: Record<string, unknown> = {
+      updated_by: user.id,
+      updated_at: db.fn.now(),
+      version: db.raw('version + 1'),
+    };
     if (patch.name !== undefined) row['name'] = patch.name;
     if (patch.clientName !== undefined) row['client_name'] = patch.clientName;
     if (patch.siteAddress !== undefined) row['site_address'] = patch.siteAddress;
@@ -158,9 +166,18 @@ export function projectsRouter(db: Knex): Router {
     if (patch.notes !== undefined) row['notes'] = patch.notes;
     if (patch.archived !== undefined) row['archived_at'] = patch.archived ? db.fn.now() : null;
     // Optimistic concurrency: the update applies only to the version the user was looking at.
-    const updated = await db('projects')
-      .where({ id: projectId, organization_id: organizationId, version: patch.version })
-      .update(row);
+    // Bringing a project back from the archive takes a place on the plan like a new one.
+    const updated = await db.transaction(async (trx): Promise<number> => {
+      if (patch.archived === false) {
+        const current = await trx('projects')
+          .where({ id: projectId, organization_id: organizationId })
+          .first<{ archived_at: Date | null } | undefined>('archived_at');
+        if (current?.archived_at) await assertCanAddProject(trx, organizationId);
+      }
+      return trx('projects')
+        .where({ id: projectId, organization_id: organizationId, version: patch.version })
+        .update(row);
+    });
     if (!updated) {
       const current = await findProject(db, organizationId, projectId);
       if (!current) throw notFound();
@@ -184,7 +201,12 @@ export function projectsRouter(db: Knex): Router {
     const { organizationId, user } = orgContext(req);
     const updated = await db('projects')
       .where({ id: projectId, organization_id: organizationId, version })
-      .update({ building: JSON.stringify(building), version: db.raw('version + 1'), updated_by: user.id, updated_at: db.fn.now() })
+      .update({
+        building: JSON.stringify(building),
+        version: db.raw('version + 1'),
+        updated_by: user.id,
+        updated_at: db.fn.now(),
+      })
       .returning<{ version: number }[]>('version');
     if (!updated[0]) {
       const current = await findProject(db, organizationId, projectId);
@@ -199,20 +221,23 @@ export function projectsRouter(db: Knex): Router {
     const { organizationId, user } = orgContext(req);
     const source = await findProject(db, organizationId, projectId);
     if (!source) throw notFound();
-    const [inserted] = await db('projects')
-      .insert({
-        organization_id: organizationId,
-        name: `${source.name} (copy)`.slice(0, 160),
-        client_name: source.clientName,
-        site_address: source.siteAddress,
-        climate_site_id: source.climateSiteId,
-        equipment_list_id: source.equipmentListId,
-        building: db.raw('(SELECT building FROM projects WHERE id = ?)', [source.id]),
-        notes: source.notes,
-        created_by: user.id,
-        updated_by: user.id,
-      })
-      .returning<{ id: string }[]>('id');
+    const [inserted] = await db.transaction(async (trx) => {
+      await assertCanAddProject(trx, organizationId);
+      return trx('projects')
+        .insert({
+          organization_id: organizationId,
+          name: `${source.name} (copy)`.slice(0, 160),
+          client_name: source.clientName,
+          site_address: source.siteAddress,
+          climate_site_id: source.climateSiteId,
+          equipment_list_id: source.equipmentListId,
+          building: trx.raw('(SELECT building FROM projects WHERE id = ?)', [source.id]),
+          notes: source.notes,
+          created_by: user.id,
+          updated_by: user.id,
+        })
+        .returning<{ id: string }[]>('id');
+    });
     const copy = await findProject(db, organizationId, inserted?.id ?? '');
     if (!copy) throw new Error('duplicated project not found');
     res.status(201).location(`/api/v1/projects/${copy.id}`).json(copy);
@@ -220,7 +245,9 @@ export function projectsRouter(db: Knex): Router {
 
   router.delete('/:projectId', authorize(db, 'project:write'), async (req, res) => {
     const { projectId } = projectParam.parse(req.params);
-    const n = await db('projects').where({ id: projectId, organization_id: orgContext(req).organizationId }).delete();
+    const n = await db('projects')
+      .where({ id: projectId, organization_id: orgContext(req).organizationId })
+      .delete();
     if (!n) throw notFound();
     res.status(204).end();
   });

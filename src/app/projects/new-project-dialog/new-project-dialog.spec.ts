@@ -3,6 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatDialogRef } from '@angular/material/dialog';
+import { provideRouter } from '@angular/router';
 import { AuthStore } from '../../auth/auth-store';
 import { settle, signedInSession } from '../../testing/test-sessions';
 import { aProject, someClimateSites } from '../testing/project-fixtures';
@@ -19,6 +20,7 @@ describe('NewProjectDialog', () => {
       providers: [
         provideHttpClient(),
         provideHttpClientTesting(),
+        provideRouter([]),
         { provide: MatDialogRef, useValue: dialogRef },
         { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
       ],
@@ -27,12 +29,15 @@ describe('NewProjectDialog', () => {
   });
   afterEach(() => http.verify());
 
-  async function render() {
-    TestBed.inject(AuthStore).setSession(signedInSession('designer'));
+  async function render(projectsUsed = 1, role: 'owner' | 'designer' = 'designer') {
+    TestBed.inject(AuthStore).setSession(signedInSession(role));
     const fixture = TestBed.createComponent(NewProjectDialog);
     fixture.detectChanges();
     await settle(1);
     http.expectOne({ method: 'GET', url: '/api/v1/climate-sites' }).flush(someClimateSites());
+    http
+      .expectOne({ method: 'GET', url: '/api/v1/billing/usage' })
+      .flush({ plan: 'starter', planName: 'Starter', projects: { used: projectsUsed, limit: 3 }, members: { used: 1, limit: 2 } });
     const stable = async () => {
       await settle();
       await fixture.whenStable();
@@ -102,5 +107,20 @@ describe('NewProjectDialog', () => {
     expect(el.querySelector('[role="alert"]')?.textContent).toContain('Check the highlighted fields');
     expect(el.textContent).toContain('Use at most 160 characters for the client name');
     expect(dialogRef.close).not.toHaveBeenCalled();
+  });
+
+  it('says when the plan’s project limit is reached, offers owners the upgrade, and does not create', async () => {
+    const { el } = await render(3, 'owner');
+    expect(el.querySelector('[data-testid="plan-limit"]')?.textContent).toContain('The Starter plan holds 3 active projects');
+    expect(el.querySelector('[data-testid="plan-limit"] a')?.getAttribute('href')).toBe('/billing');
+    const create = Array.from(el.querySelectorAll<HTMLButtonElement>('button')).find((b) => b.textContent?.includes('Create project'));
+    expect(create?.disabled).toBeTrue();
+  });
+
+  it('tells a designer at the limit to ask an owner', async () => {
+    const { el } = await render(3, 'designer');
+    const note = el.querySelector('[data-testid="plan-limit"]');
+    expect(note?.textContent).toContain('Ask an owner to upgrade the plan');
+    expect(note?.querySelector('a')).toBeNull();
   });
 });

@@ -1,0 +1,15 @@
+import { FAKE_STRIPE_SECRET_KEY, FAKE_STRIPE_WEBHOOK_SECRET } from '../config';
+import { startPaymentFake } from './payment-fake';
+
+// Run by `npm start`: the local fake of the payment provider on loopback. Port and webhook URL come from the command line.
+const [port, webhookUrl] = process.argv.slice(2);
+const fake = await startPaymentFake({
+  port: Number(port ?? 12111),
+  secretKey: FAKE_STRIPE_SECRET_KEY,
+  webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET,
+  webhookUrl,
+});
+console.log(`payment provider (local fake): ${fake.url}, webhooks to ${webhookUrl ?? '(none)'}`);
+const stop = () => void fake.close().then(() => process.exit(0));
+process.on('SIGINT', stop);
+process.on('SIGTERM', stop);
