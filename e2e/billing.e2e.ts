@@ -24,7 +24,7 @@ describe('plans and billing in a real browser', () => {
     await page.getByRole('button', { name: 'Create account' }).click();
     await page.waitForURL(/\/projects$/);
     for (const name of ['First house', 'Second house', 'Third house']) {
-      const res = await page.request.post(e2e.baseUrl + '/api/v1/projects', { data: { name } });
+      const res = await page.request.post(e2e.baseUrl + '/api/v1/projects', { data: { name }, headers: { 'X-Requested-With': 'tailroom' } });
       assert.equal(res.status(), 201);
     }
     await page.reload();
@@ -35,7 +35,7 @@ describe('plans and billing in a real browser', () => {
     await limit.waitFor();
     assert.match(await limit.innerText(), /Starter plan holds 3 active projects/);
     assert.equal(await page.getByRole('button', { name: 'Create project' }).isDisabled(), true);
-    const refused = await page.request.post(e2e.baseUrl + '/api/v1/projects', { data: { name: 'Fourth house' } });
+    const refused = await page.request.post(e2e.baseUrl + '/api/v1/projects', { data: { name: 'Fourth house' }, headers: { 'X-Requested-With': 'tailroom' } });
     assert.equal(refused.status(), 402);
     await limit.getByRole('link', { name: /Upgrade/ }).click();
     await page.waitForURL(/\/billing$/);

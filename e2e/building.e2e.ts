@@ -51,6 +51,7 @@ describe('a project’s building in a real browser', () => {
 
     // A site with published values (through the API, with the page's session).
     const site = await page.request.post(e2e.baseUrl + '/api/v1/climate-sites', {
+      headers: { 'X-Requested-With': 'tailroom' },
       data: {
         name: 'Test site (invented)',
         sourceKind: 'published',

@@ -1,7 +1,7 @@
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import connectPgSimple from 'connect-pg-simple';
-import express, { type Express } from 'express';
+import express, { type Express, type Router } from 'express';
 import session from 'express-session';
 import type { Knex } from 'knex';
 import passport from 'passport';
@@ -9,7 +9,9 @@ import pg from 'pg';
 import { pinoHttp } from 'pino-http';
 import type { Logger } from 'pino';
 import type { Config } from './config';
+import { GUARD, type Guard } from './http/authorize';
 import { apiNotFound, errorHandler } from './http/error-handler';
+import { csrfProtection, rateLimits, securityHeaders } from './http/security';
 import type { Mailer } from './mail/mailer';
 import { authRouter, configurePassport, SESSION_COOKIE } from './modules/auth/auth-router';
 import { devOutboxRouter } from './modules/dev/dev-outbox-router';
@@ -20,6 +22,7 @@ import { projectsRouter } from './modules/projects/projects-router';
 import { scenariosRouter } from './modules/scenarios/scenarios-router';
 import { logoRouter } from './modules/reports/logo-router';
 import { billingRouter } from './modules/billing/billing-router';
+import { auditRouter } from './modules/audit/audit';
 import { reportsRouter } from './modules/reports/reports-router';
 import { reportLinkHttpStatus } from './modules/reports/report-tokens';
 import { createSweepPool } from './modules/scenarios/sweep-pool';
@@ -31,8 +34,17 @@ export interface AppDeps {
   logger: Logger;
 }
 
+export interface RouteInfo {
+  method: string;
+  path: string;
+  /** What guards the route: a role-checked action, any signed-in user, or nothing (public). */
+  guard: Guard | null;
+}
+
 export interface App {
   app: Express;
+  /** Every API route of the mounted routers, with its guard. */
+  routes(): RouteInfo[];
   /** Closes what the app opened itself (the session store's pool, the sweep workers). */
   close(): Promise<void>;
 }
@@ -42,6 +54,7 @@ const SESSION_DAYS = 14;
 export function createApp({ config, db, mailer, logger }: AppDeps): App {
   const app = express();
   app.disable('x-powered-by');
+  app.use(securityHeaders(config));
   if (config.env === 'production') app.set('trust proxy', 1);
 
   app.use(
@@ -91,17 +104,29 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   const billing = billingRouter(db, config);
   app.post('/api/v1/billing/webhook', ...billing.webhook);
   app.use('/api/v1', express.json({ limit: '1mb', strict: true }));
-  app.use('/api/v1', authRouter(db, config, mailer));
-  app.use('/api/v1', orgsRouter(db, config, mailer));
+  app.use('/api', csrfProtection(config));
+  const limits = rateLimits();
+  app.post('/api/v1/auth/sign-in', limits.signIn);
+  app.post('/api/v1/auth/password-resets', limits.passwordReset);
+  app.post('/api/v1/invitations', limits.invitations);
   const sweepPool = createSweepPool();
-  app.use('/api/v1/projects', projectsRouter(db));
-  app.use('/api/v1/projects', scenariosRouter(db, sweepPool, config.databaseUrl));
-  app.use('/api/v1', climateRouter(db));
-  app.use('/api/v1', equipmentRouter(db));
-  app.use('/api/v1', reportsRouter({ db, pool: sweepPool, config, mailer }));
-  app.use('/api/v1', logoRouter(db));
-  app.use('/api/v1', billing.router);
-  if (config.devOutboxUrl) app.use('/api/v1/dev', devOutboxRouter(config.devOutboxUrl));
+  // The API's routers, kept with their prefixes for `routes()` (the authorisation test walks them).
+  const mounted: { prefix: string; router: Router }[] = [];
+  const mount = (prefix: string, router: Router) => {
+    mounted.push({ prefix, router });
+    app.use(prefix, router);
+  };
+  mount('/api/v1', authRouter(db, config, mailer));
+  mount('/api/v1', orgsRouter(db, config, mailer));
+  mount('/api/v1/projects', projectsRouter(db));
+  mount('/api/v1/projects', scenariosRouter(db, sweepPool, config.databaseUrl));
+  mount('/api/v1', climateRouter(db));
+  mount('/api/v1', equipmentRouter(db));
+  mount('/api/v1', reportsRouter({ db, pool: sweepPool, config, mailer }));
+  mount('/api/v1', logoRouter(db));
+  mount('/api/v1', billing.router);
+  mount('/api/v1', auditRouter(db));
+  if (config.devOutboxUrl) mount('/api/v1/dev', devOutboxRouter(config.devOutboxUrl));
   app.use('/api', apiNotFound);
 
   if (config.clientDist && existsSync(path.join(config.clientDist, 'index.html'))) {
@@ -120,8 +145,28 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   app.use(errorHandler());
   return {
     app,
+    routes: () => routeTable(mounted),
     close: async () => {
       await Promise.all([sessionPool.end(), sweepPool.close()]);
     },
   };
+}
+
+interface RouteLayer {
+  route?: { path: string; methods: Record<string, boolean>; stack: { handle: { [GUARD]?: Guard } }[] };
+}
+
+function routeTable(mounted: readonly { prefix: string; router: Router }[]): RouteInfo[] {
+  const out: RouteInfo[] = [];
+  for (const { prefix, router } of mounted) {
+    for (const layer of (router as unknown as { stack: RouteLayer[] }).stack) {
+      const route = layer.route;
+      if (!route) continue;
+      const guard = route.stack.map((l) => l.handle[GUARD]).find((g) => g !== undefined) ?? null;
+      for (const [method, on] of Object.entries(route.methods)) {
+        if (on && method !== '_all') out.push({ method: method.toUpperCase(), path: prefix + route.path, guard });
+      }
+    }
+  }
+  return out;
 }

@@ -87,8 +87,14 @@ export async function startE2eApp(): Promise<E2eApp> {
   };
 }
 
-/** Fails the test when the page asks anything of a host other than the app itself. */
+/**
+ * Fails the test when the page asks anything of a host other than the app itself, or when the
+ * browser reports a content-security-policy violation (recorded as `csp: …`).
+ */
 export function guardOffline(page: Page, baseUrl: string, offenders: string[]): void {
+  page.on('console', (msg) => {
+    if (msg.type() === 'error' && /Content Security Policy/i.test(msg.text())) offenders.push(`csp: ${msg.text()}`);
+  });
   page.on('request', (req) => {
     const url = req.url();
     if (!url.startsWith(baseUrl) && !url.startsWith('data:') && !url.startsWith('blob:')) offenders.push(url);

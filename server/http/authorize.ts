@@ -29,10 +29,18 @@ export function orgContext(req: Request): OrgContext {
   return req.orgContext;
 }
 
-export const requireUser: RequestHandler = (req, _res, next) => {
-  currentUser(req);
-  next();
-};
+/** Marks on a route's handlers which check guards it, for the test that walks the route table. */
+export const GUARD = Symbol('tailroom.guard');
+export type Guard = { kind: 'user' } | { kind: 'action'; action: Action };
+type Guarded = RequestHandler & { [GUARD]?: Guard };
+
+export const requireUser: RequestHandler = Object.assign<RequestHandler, { [GUARD]: Guard }>(
+  (req, _res, next) => {
+    currentUser(req);
+    next();
+  },
+  { [GUARD]: { kind: 'user' } },
+);
 
 /**
  * The one authorisation layer: a signed-in user, a current organisation the user
@@ -40,7 +48,7 @@ export const requireUser: RequestHandler = (req, _res, next) => {
  * effect at once), and a role allowed to do `action`. 401 / 403 otherwise.
  */
 export function authorize(db: Knex, action: Action): RequestHandler {
-  return async (req, _res, next) => {
+  const handler: Guarded = async (req, _res, next) => {
     const user = currentUser(req);
     const organizationId = req.session.organizationId;
     const membership = organizationId
@@ -57,4 +65,6 @@ export function authorize(db: Knex, action: Action): RequestHandler {
     req.orgContext = { user, organizationId, role: membership.role };
     next();
   };
+  handler[GUARD] = { kind: 'action', action };
+  return handler;
 }

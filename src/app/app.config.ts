@@ -10,12 +10,13 @@ import { MatIconRegistry } from '@angular/material/icon';
 import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { routes } from './app.routes';
 import { sessionExpiredInterceptor } from './auth/session-expired-interceptor';
+import { csrfInterceptor } from './core/csrf-interceptor';
 
 export const appConfig: ApplicationConfig = {
   providers: [
     provideBrowserGlobalErrorListeners(),
     provideRouter(routes, withComponentInputBinding()),
-    provideHttpClient(withInterceptors([sessionExpiredInterceptor])),
+    provideHttpClient(withInterceptors([csrfInterceptor, sessionExpiredInterceptor])),
     // Icons come from the Material Symbols font shipped with the app.
     provideAppInitializer(() => {
       inject(MatIconRegistry).setDefaultFontSetClass('material-symbols-outlined');

@@ -89,6 +89,15 @@ export class App {
     }
   }
 
+  protected async signOutEverywhere(): Promise<void> {
+    try {
+      await this.auth.signOutEverywhere();
+    } catch {
+      // The local session is cleared either way.
+    }
+    await this.router.navigateByUrl('/sign-in');
+  }
+
   protected async signOut(): Promise<void> {
     try {
       await this.auth.signOut();

@@ -1,7 +1,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
-import { linkPath, PASSWORD, signUp, uniqueEmail, useTestApp } from '../support/test-app';
+import { linkPath, PASSWORD, signUp, uniqueEmail, useTestApp, newAgent } from '../support/test-app';
 
 const t = useTestApp();
 
@@ -14,7 +14,7 @@ const cookieOf = (res: request.Response): string => {
 
 describe('create account', () => {
   it('creates the user, an organisation they own, and signs them in', async () => {
-    const agent = request.agent(t.app);
+    const agent = newAgent(t.app);
     const res = await agent
       .post('/api/v1/auth/sign-up')
       .send({ email: '  Ada@Example.TEST ', name: 'Ada Byrne', password: PASSWORD })

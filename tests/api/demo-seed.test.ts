@@ -2,7 +2,7 @@ import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import request from 'supertest';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from '../../server/seed/demo-seed';
-import { createTestApp, resetDb, type TestApp } from '../support/test-app';
+import { createTestApp, resetDb, type TestApp, newAgent } from '../support/test-app';
 
 let t: TestApp;
 before(async () => {
@@ -29,7 +29,7 @@ describe('demo data', () => {
   });
 
   it('labels its climate sites as invented and gives each hourly one 30 qualifying years', async () => {
-    const agent = request.agent(t.app);
+    const agent = newAgent(t.app);
     await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD }).expect(200);
     const sites = await agent.get('/api/v1/climate-sites').expect(200);
     assert.equal(sites.body.length, 4);
@@ -42,7 +42,7 @@ describe('demo data', () => {
   });
 
   it('gives each demo project two bid scenarios whose sweeps show a trade-off across the ladder', async () => {
-    const agent = request.agent(t.app);
+    const agent = newAgent(t.app);
     await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD }).expect(200);
     const projects = (await agent.get('/api/v1/projects').expect(200)).body as { id: string }[];
     assert.equal(projects.length, 2);

@@ -2,7 +2,7 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
-import { createTestApp, linkPath, PASSWORD, signUp, uniqueEmail, useTestApp, inviteMember, setPlan } from '../support/test-app';
+import { createTestApp, linkPath, PASSWORD, signUp, uniqueEmail, useTestApp, inviteMember, setPlan, newAgent } from '../support/test-app';
 
 const t = useTestApp();
 
@@ -87,7 +87,7 @@ describe('the role × action matrix', () => {
   }
 
   it('answers 401 to every action without a session', async () => {
-    const anon = request.agent(t.app);
+    const anon = newAgent(t.app);
     const ctx = { ownerId: crypto.randomUUID(), invitationId: crypto.randomUUID() };
     for (const row of matrix) {
       const res = await row.send(anon, ctx);

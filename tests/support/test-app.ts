@@ -2,8 +2,9 @@ import type { Express } from 'express';
 import type { Knex } from 'knex';
 import { after, before, beforeEach } from 'node:test';
 import request from 'supertest';
+import { CSRF_HEADER, CSRF_HEADER_VALUE } from '../../shared/api/csrf';
 import type { Role } from '../../shared/auth/roles';
-import { createApp } from '../../server/app';
+import { createApp, type RouteInfo } from '../../server/app';
 import { parseConfig, type Config } from '../../server/config';
 import { createDb } from '../../server/db';
 import { createLogger } from '../../server/logger';
@@ -12,6 +13,8 @@ import { startSmtpSink, type SmtpSink } from '../../server/fakes/smtp-sink';
 
 export interface TestApp {
   app: Express;
+  /** The API's routes with their guards. */
+  routes: () => RouteInfo[];
   db: Knex;
   sink: SmtpSink;
   config: Config;
@@ -39,6 +42,7 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
   const { app } = created;
   return {
     app,
+    routes: created.routes,
     db,
     sink,
     config,
@@ -58,6 +62,11 @@ export async function resetDb(db: Knex): Promise<void> {
 
 export const PASSWORD = 'correct horse battery';
 
+/** A supertest agent that keeps cookies and sends the CSRF header, as the app's own pages do. */
+export function newAgent(app: Express): request.Agent {
+  return request.agent(app).set(CSRF_HEADER, CSRF_HEADER_VALUE);
+}
+
 let counter = 0;
 export function uniqueEmail(prefix = 'user'): string {
   counter += 1;
@@ -69,7 +78,7 @@ export async function signUp(
   app: Express,
   fields: { email?: string; name?: string; organizationName?: string } = {},
 ) {
-  const agent = request.agent(app);
+  const agent = newAgent(app);
   const email = fields.email ?? uniqueEmail();
   const res = await agent
     .post('/api/v1/auth/sign-up')
@@ -115,7 +124,7 @@ export async function inviteMember(
   const mail = t.sink.waitFor((m) => m.to.includes(email));
   await owner.agent.post('/api/v1/invitations').send({ email, role }).expect(201);
   const token = linkPath((await mail).text, '/invitations/').split('/').pop() ?? '';
-  const agent = request.agent(t.app);
+  const agent = newAgent(t.app);
   const res = await agent
     .post('/api/v1/auth/sign-up')
     .send({ email, name: `A ${role}`, password: PASSWORD, invitationToken: token })

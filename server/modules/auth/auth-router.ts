@@ -13,6 +13,7 @@ import {
 } from '@shared/auth/auth-schemas';
 import type { Config } from '../../config';
 import { currentUser, requireUser } from '../../http/authorize';
+import { audit } from '../audit/audit';
 import { HttpError } from '../../http/http-error';
 import type { Mailer } from '../../mail/mailer';
 import { passwordResetMail } from '../../mail/messages';
@@ -128,8 +129,14 @@ export function authRouter(db: Knex, config: Config, mailer: Mailer): Router {
   router.post('/auth/sign-in', async (req, res) => {
     req.body = signInInputSchema.parse(req.body);
     const user = await authenticateLocal(req, res);
-    if (!user) throw INVALID_CREDENTIALS;
+    const email = (req.body as { email: string }).email;
+    if (!user) {
+      const known = await db('users').whereRaw('lower(email) = lower(?)', [email]).first<{ id: string } | undefined>('id');
+      await audit(db, req, { type: 'sign_in_failed', userId: known?.id ?? null, actorEmail: email });
+      throw INVALID_CREDENTIALS;
+    }
     await logIn(req, user);
+    await audit(db, req, { type: 'sign_in', userId: user.id, actorEmail: user.email });
     await sessionView(db, req, devOutbox); // picks the current organisation
     await saveSession(req);
     res.json(await sessionView(db, req, devOutbox));
@@ -139,6 +146,18 @@ export function authRouter(db: Knex, config: Config, mailer: Mailer): Router {
     await new Promise<void>((resolve, reject) => {
       req.logout((err) => (err ? reject(err as Error) : resolve()));
     });
+    await new Promise<void>((resolve) => {
+      req.session.destroy(() => resolve());
+    });
+    res.clearCookie(SESSION_COOKIE, { path: '/' });
+    res.status(204).end();
+  });
+
+  /** Ends every session of the signed-in user, on every device, this one included. */
+  router.post('/auth/sign-out-everywhere', requireUser, async (req, res) => {
+    const user = currentUser(req);
+    const ended = await db('session').whereRaw(`(sess -> 'passport' ->> 'user') = ?`, [user.id]).delete();
+    await audit(db, req, { type: 'sign_out_everywhere', userId: user.id, actorEmail: user.email, detail: { sessions: ended } });
     await new Promise<void>((resolve) => {
       req.session.destroy(() => resolve());
     });

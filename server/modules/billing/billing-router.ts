@@ -19,6 +19,7 @@ import {
 import type { Config } from '../../config';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
+import { audit } from '../audit/audit';
 import { usageOf } from './plan-limits';
 
 interface AccountRow {
@@ -162,6 +163,7 @@ export function billingRouter(db: Knex, config: Config): { router: Router; webho
     if (!priced) return { organizationId, outcome: `ignored: unknown price ${item?.price.id ?? ''}` };
     const status = statusOf(sub.status);
     await trx('billing_accounts').insert({ organization_id: organizationId }).onConflict('organization_id').ignore();
+    const before = await trx('billing_accounts').where({ organization_id: organizationId }).forUpdate().first<{ plan: string; status: string }>('plan', 'status');
     await trx('billing_accounts')
       .where({ organization_id: organizationId })
       .update({
@@ -174,6 +176,10 @@ export function billingRouter(db: Knex, config: Config): { router: Router; webho
         cancel_at_period_end: sub.cancel_at_period_end,
         updated_at: trx.fn.now(),
       });
+    const plan = status === 'canceled' ? 'starter' : priced.plan;
+    if (before.plan !== plan || before.status !== status) {
+      await audit(trx, null, { type: 'plan_changed', organizationId, detail: { from: `${before.plan} ${before.status}`, to: `${plan} ${status}` } });
+    }
     return { organizationId, outcome: `applied: ${priced.plan} ${status}${sub.cancel_at_period_end ? ', ends at period end' : ''}` };
   }
 

@@ -10,6 +10,7 @@ import {
 } from '@shared/orgs/org-schemas';
 import type { Config } from '../../config';
 import { authorize, currentUser, orgContext, requireUser } from '../../http/authorize';
+import { audit } from '../audit/audit';
 import { assertCanAddMember } from '../billing/plan-limits';
 import { HttpError } from '../../http/http-error';
 import type { Mailer } from '../../mail/mailer';
@@ -58,6 +59,7 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
         .update({ role, updated_at: trx.fn.now() });
       return { ...before, role };
     });
+    await audit(db, req, { type: 'role_changed', organizationId, userId: orgContext(req).user.id, detail: { member: userId, role } });
     res.json(member);
   });
 
@@ -70,6 +72,7 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
       if (before.role === 'owner' && (await orgs.lockedOwnerCount(trx, organizationId)) <= 1) throw LAST_OWNER;
       await trx('memberships').where({ organization_id: organizationId, user_id: userId }).delete();
     });
+    await audit(db, req, { type: 'member_removed', organizationId, userId: orgContext(req).user.id, detail: { member: userId } });
     res.status(204).end();
   });
 
@@ -135,6 +138,7 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
         status: 'pending' as const,
       };
     });
+    await audit(db, req, { type: 'invitation_created', organizationId, userId: user.id, detail: { email: input.email, role: input.role } });
     res.status(201).location(`/api/v1/invitations/${created.id}`).json(created);
   });
 
@@ -144,6 +148,7 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
       .where({ id: invitationId, organization_id: orgContext(req).organizationId })
       .update({ revoked_at: db.raw('COALESCE(revoked_at, now())') });
     if (!updated) throw new HttpError(404, 'not_found', 'That invitation was not found');
+    await audit(db, req, { type: 'invitation_revoked', organizationId: orgContext(req).organizationId, userId: orgContext(req).user.id, detail: { invitation: invitationId } });
     res.status(204).end();
   });
 

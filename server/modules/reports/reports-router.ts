@@ -25,6 +25,7 @@ import type { Mailer } from '../../mail/mailer';
 import { reportMail } from '../../mail/messages';
 import type { SweepPool } from '../scenarios/sweep-pool';
 import { scenarioSweep, type ScenarioRow } from '../scenarios/sweep-service';
+import { audit } from '../audit/audit';
 import { loadLogo, sendLogo } from './logo-router';
 import { reportPdf } from './report-pdf';
 import { hashReportToken, newReportToken, verifyReportToken } from './report-tokens';
@@ -160,6 +161,7 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
 
   async function deliver(row: ReportRow, organizationName: string, senderName: string, input: { to: string; message: string; expiresInDays: number }, userId: string) {
     const { url, id: linkId, link } = await createLink(row.id, userId, input.expiresInDays);
+    await audit(db, null, { type: 'report_link_created', organizationId: row.organization_id, userId, detail: { report: row.id, title: row.title, link: linkId, emailedTo: input.to } });
     let error: string | null = null;
     try {
       await mailer.send(reportMail(input.to, url, { organizationName, senderName, title: row.title, message: input.message, expiresAt: new Date(link.expiresAt) }));
@@ -248,6 +250,7 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
     const { organizationId, user } = orgContext(req);
     const row = await findReport(organizationId, projectId, reportId);
     const { link, url } = await createLink(row.id, user.id, expiresInDays);
+    await audit(db, req, { type: 'report_link_created', organizationId, userId: user.id, detail: { report: row.id, title: row.title, link: link.id } });
     res.status(201).json({ link, url });
   });
 
@@ -255,6 +258,7 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
     const { projectId, reportId, linkId } = reportParams.extend({ linkId: z.uuid('Unknown link') }).parse(req.params);
     const row = await findReport(orgContext(req).organizationId, projectId, reportId);
     const n = await db('report_links').where({ id: linkId, report_id: row.id }).whereNull('revoked_at').update({ revoked_at: db.fn.now() });
+    if (n) await audit(db, req, { type: 'report_link_revoked', organizationId: row.organization_id, userId: orgContext(req).user.id, detail: { report: row.id, title: row.title, link: linkId } });
     if (!n) {
       const exists: unknown = await db('report_links').where({ id: linkId, report_id: row.id }).first('id');
       if (!exists) throw new HttpError(404, 'not_found', 'That link was not found');

@@ -74,6 +74,15 @@ export class AuthStore {
     }
   }
 
+  /** Ends every session of this user, on every device. */
+  async signOutEverywhere(): Promise<void> {
+    try {
+      await firstValueFrom(this.http.post('/api/v1/auth/sign-out-everywhere', null));
+    } finally {
+      this.markSignedOut();
+    }
+  }
+
   switchOrganization(organizationId: string): Promise<Session> {
     return this.apply(this.http.put<unknown>('/api/v1/session/organization', { organizationId }));
   }

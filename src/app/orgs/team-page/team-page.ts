@@ -18,11 +18,13 @@ import { apiErrorMessage, applyApiErrors, fieldError } from '../../core/api-erro
 import { emailAddress } from '../../core/validators';
 import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
 import { TeamApi } from '../team-api';
+import { AuditLog } from '../audit-log/audit-log';
 import { FirmLogo } from '../firm-logo/firm-logo';
 
 @Component({
   selector: 'app-team-page',
   imports: [
+    AuditLog,
     FirmLogo,
     DatePipe,
     ReactiveFormsModule,

@@ -1,0 +1,75 @@
+import { httpResource } from '@angular/common/http';
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, computed } from '@angular/core';
+import { z } from 'zod';
+
+const entrySchema = z.object({ id: z.string(), type: z.string(), detail: z.unknown(), ip: z.string().nullable(), at: z.string(), who: z.string() });
+const listSchema = z.array(entrySchema);
+
+const LABELS: Record<string, string> = {
+  sign_in: 'Signed in',
+  sign_in_failed: 'Failed sign-in',
+  sign_out_everywhere: 'Signed out everywhere',
+  role_changed: 'Changed a role',
+  member_removed: 'Removed a member',
+  invitation_created: 'Invited someone',
+  invitation_revoked: 'Revoked an invitation',
+  plan_changed: 'Plan changed',
+  report_link_created: 'Shared a report link',
+  report_link_revoked: 'Withdrew a report link',
+};
+
+/** The organisation's security log (owners). */
+@Component({
+  selector: 'app-audit-log',
+  imports: [DatePipe],
+  template: `
+    <section class="audit" aria-labelledby="audit-title" data-testid="audit-log">
+      <h2 id="audit-title">Security log</h2>
+      @if (entries().length === 0) {
+        <p class="none">Nothing recorded yet.</p>
+      } @else {
+        <ul>
+          @for (e of entries(); track e.id) {
+            <li>
+              <strong>{{ label(e.type) }}</strong> · {{ e.who }} · <span class="when">{{ e.at | date: 'medium' }}</span>
+              @if (e.ip) {
+                <span class="ip"> · {{ e.ip }}</span>
+              }
+            </li>
+          }
+        </ul>
+      }
+    </section>
+  `,
+  styles: `
+    .audit {
+      margin-top: 2rem;
+    }
+    ul {
+      list-style: none;
+      padding: 0;
+      max-height: 22rem;
+      overflow: auto;
+      border: 1px solid var(--tr-rule);
+      border-radius: 8px;
+    }
+    li {
+      padding: 0.35rem 0.75rem;
+      border-bottom: 1px solid var(--tr-rule);
+    }
+    .when,
+    .ip,
+    .none {
+      color: var(--mat-sys-on-surface-variant);
+    }
+  `,
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class AuditLog {
+  private readonly log = httpResource(() => '/api/v1/audit', { parse: listSchema.parse });
+  protected readonly entries = computed(() => (this.log.hasValue() ? this.log.value() : []));
+  protected label(type: string): string {
+    return LABELS[type] ?? type;
+  }
+}
