@@ -78,7 +78,9 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
     }
   });
 
-  const sessionPool = new pg.Pool({ connectionString: config.databaseUrl, max: 5 });
+  const sessionPool = new pg.Pool({ connectionString: config.databaseUrl, max: 5, connectionTimeoutMillis: 3000 });
+  // An idle connection cut by a database restart must not crash the process.
+  sessionPool.on('error', (err) => logger.warn({ err: err.message }, 'session pool connection lost'));
   const PgStore = connectPgSimple(session);
   app.use(
     '/api',

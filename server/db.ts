@@ -7,7 +7,9 @@ pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number.parseInt(v, 10));
 export function createDb(connectionString: string, maxConnections = 10): Knex {
   return knex({
     client: 'pg',
-    connection: { connectionString },
+    connection: { connectionString, connectionTimeoutMillis: 3000 },
     pool: { min: 0, max: maxConnections },
+    // Fail fast (503) when the database is down rather than queueing requests for a minute.
+    acquireConnectionTimeout: 5000,
   });
 }

@@ -19,13 +19,18 @@ function stop(signal: string) {
   if (stopping) return;
   stopping = true;
   logger.info({ signal }, 'stopping');
+  // Finish the requests in flight; close idle keep-alive connections so that nothing waits on them.
   server.close(() => {
     void Promise.all([db.destroy(), tailroom.close()]).finally(() => {
       mailer.close();
       process.exit(0);
     });
   });
-  setTimeout(() => process.exit(0), 5000).unref();
+  server.closeIdleConnections();
+  setTimeout(() => {
+    logger.warn('requests still running after 20 s; exiting');
+    process.exit(1);
+  }, 20_000).unref();
 }
 process.on('SIGINT', () => stop('SIGINT'));
 process.on('SIGTERM', () => stop('SIGTERM'));

@@ -26,6 +26,17 @@ interface BodyParserError {
   expose?: boolean;
 }
 
+const DATABASE_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'EPIPE', '57P01', '57P02', '57P03', '08000', '08001', '08003', '08006']);
+
+/** Whether an error means PostgreSQL cannot be reached (stopped, restarting, connections cut or exhausted). */
+export function isDatabaseUnavailable(err: unknown): boolean {
+  if (!(err instanceof Error)) return false;
+  const code = (err as { code?: unknown }).code;
+  if (typeof code === 'string' && DATABASE_DOWN_CODES.has(code)) return true;
+  if (err.name === 'KnexTimeoutError') return true;
+  return /Connection terminated|connect ECONNREFUSED|the database system is (starting up|shutting down)|terminating connection due to administrator command|timeout exceeded when trying to connect/i.test(err.message);
+}
+
 // Keep all four parameters: that is how Express recognises an error handler.
 export function errorHandler(): ErrorRequestHandler {
   return (err: unknown, req, res, _next) => {
@@ -71,6 +82,14 @@ export function errorHandler(): ErrorRequestHandler {
     }
     if (bp.expose && bp.status && bp.status >= 400 && bp.status < 500) {
       res.status(bp.status).json({ error: { code: 'bad_request', message: 'The request could not be read' } });
+      return;
+    }
+    if (isDatabaseUnavailable(err)) {
+      req.log.warn({ err: (err as Error).message, path: req.path }, 'database unavailable');
+      res
+        .status(503)
+        .set('Retry-After', '5')
+        .json({ error: { code: 'database_unavailable', message: 'The database is not reachable at the moment; nothing was changed. Try again in a few seconds.' } });
       return;
     }
     req.log.error({ err, path: req.path }, 'unhandled error');

@@ -44,7 +44,7 @@ describe('security', () => {
     const limited = await request(t.app).post('/api/v1/auth/sign-in').send({ email, password: PASSWORD }).expect(429);
     assert.equal((limited.body as { error: { code: string } }).error.code, 'rate_limited');
     assert.match((limited.body as { error: { message: string } }).error.message, /Too many failed sign-ins/);
-    assert.ok(limited.headers['ratelimit'] || limited.headers['ratelimit-policy'], 'rate-limit headers');
+    assert.ok(limited.headers['ratelimit'] ?? limited.headers['ratelimit-policy'], 'rate-limit headers');
     // Another address is not held up by it.
     const other = await signUp(t.app);
     await request(t.app).post('/api/v1/auth/sign-in').send({ email: other.email, password: PASSWORD }).expect(200);

@@ -42,7 +42,7 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
   const { app } = created;
   return {
     app,
-    routes: created.routes,
+    routes: () => created.routes(),
     db,
     sink,
     config,
