@@ -31,7 +31,7 @@ async function shippedFontLoaded(page: Page): Promise<boolean> {
 /** Signs out through the user menu. */
 async function signOut(page: Page): Promise<void> {
   await page.getByRole('button', { name: 'Account' }).click();
-  await page.getByRole('menuitem', { name: 'Sign out' }).click();
+  await page.getByRole('menuitem', { name: 'Sign out', exact: true }).click();
   await page.waitForURL(/\/sign-in/);
 }
 

@@ -87,7 +87,8 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
     session({
       name: SESSION_COOKIE,
       secret: config.sessionSecret,
-      store: new PgStore({ pool: sessionPool, tableName: 'session', createTableIfMissing: false }),
+      // No "touch" write on every request: a session lasts SESSION_DAYS from sign-in (and ends at sign-out).
+      store: new PgStore({ pool: sessionPool, tableName: 'session', createTableIfMissing: false, disableTouch: true }),
       resave: false,
       saveUninitialized: false,
       cookie: {

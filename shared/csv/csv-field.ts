@@ -9,7 +9,9 @@ export function csvField(value: string): string {
  * digit, gets a leading apostrophe so that a spreadsheet shows it as text. Numbers are not passed here.
  */
 export function csvTextField(value: string): string {
-  const risky = /^[=+@\t\r]/.test(value) || /^-(?![\d.])/.test(value);
+  // Text already starting with an apostrophe before such a character gets one more, so that the
+  // equipment reader (which takes one off) gives back exactly what was written.
+  const risky = /^[=+@\t\r]/.test(value) || /^-(?![\d.])/.test(value) || /^'[=+\-@\t\r]/.test(value);
   return csvField(risky ? `'${value}` : value);
 }
 

@@ -11,7 +11,7 @@
  */
 import type { z } from 'zod';
 import { toSi } from '../building/quantities';
-import { csvField } from '../csv/csv-field';
+import { csvTextField } from '../csv/csv-field';
 import { equipmentOptionSchema, type EquipmentOption } from './equipment-schemas';
 
 export interface CsvProblem {
@@ -230,7 +230,8 @@ function buildOption(cells: ReadonlyMap<string, string>): { value: Record<string
 
   const kind = cells.get('kind')?.toLowerCase();
   put('kind', kind);
-  put('label', cells.get('label'));
+  // A leading apostrophe before =, +, -, @ was added on export against spreadsheet formulas: take it off.
+  put('label', cells.get('label')?.replace(/^'(?=[=+\-@\t\r])/, ''));
   put('installedPrice', cells.get('installed_price'));
   put('lifeYears', number('life_years'));
   put('fuel', cells.get('fuel')?.toLowerCase());
@@ -281,7 +282,7 @@ export function toCsv(options: readonly EquipmentOption[]): string {
     const other = o.kind === 'heat-pump' ? undefined : o;
     const row = [
       o.kind,
-      csvField(o.label),
+      csvTextField(o.label),
       num(other?.outputW),
       num(other?.inputW),
       num(other?.efficiency),

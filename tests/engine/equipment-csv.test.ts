@@ -120,6 +120,24 @@ describe('equipment CSV export', () => {
     assert.equal(toCsv(again.options), csv);
   });
 
+  it('guards labels that a spreadsheet would run as formulas, and reads them back unchanged', () => {
+    // OWASP "CSV Injection": cells starting with =, +, -, @ get a leading apostrophe on export.
+    const labels = ['=HYPERLINK("http://x.test")', '+1 furnace', '-cmd', '@SUM(A1)', 'Plain furnace'];
+    const options = labels.map((label) =>
+      equipmentOptionSchema.parse({ kind: 'furnace', label, fuel: 'gas', efficiency: 0.95, outputW: 9000, installedPrice: '3000.00', lifeYears: 20 }),
+    );
+    const csv = toCsv(options);
+    const cells = csv.split('\r\n').slice(1, -1).map((line) => line.split(',')[1] ?? '');
+    assert.ok(cells[0]?.startsWith('"\'='), cells[0]);
+    assert.equal(cells[1], "'+1 furnace");
+    assert.equal(cells[2], "'-cmd");
+    assert.equal(cells[3], "'@SUM(A1)");
+    assert.equal(cells[4], 'Plain furnace');
+    const back = parseEquipmentCsv(csv);
+    assert.ok(back.ok);
+    assert.deepEqual(back.options.map((o) => o.label), labels);
+  });
+
   it('keeps the heat-pump settings in extra columns when they are used', () => {
     const options: EquipmentOption[] = [
       equipmentOptionSchema.parse({

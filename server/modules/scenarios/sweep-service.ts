@@ -183,6 +183,21 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
   };
 }
 
+/**
+ * The most recently used results of this process, by input hash: a result never changes for its
+ * hash, so reading it again from PostgreSQL is only needed after a restart or on another process.
+ */
+const RECENT_MAX = 200;
+const recent = new Map<string, SweepAnswerBody>();
+function remember(hash: string, body: SweepAnswerBody): void {
+  recent.delete(hash);
+  recent.set(hash, body);
+  if (recent.size > RECENT_MAX) {
+    const oldest = recent.keys().next().value;
+    if (oldest !== undefined) recent.delete(oldest);
+  }
+}
+
 /** The sweep of a prepared scenario: from the cache, or computed in the pool and then cached. */
 export async function computeSweep(
   db: Knex,
@@ -191,11 +206,15 @@ export async function computeSweep(
   prepared: PreparedSweep,
   options: { onlyCached?: boolean } = {},
 ): Promise<{ body: SweepAnswerBody; cached: boolean } | null> {
-  const hit = await db('sweep_results')
-    .where({ input_hash: prepared.hash })
-    .update({ used_at: db.fn.now() })
-    .returning<{ result: SweepAnswerBody }[]>('result');
-  if (hit[0]) return { body: { ...hit[0].result, ...prepared.meta }, cached: true };
+  const remembered = recent.get(prepared.hash);
+  if (remembered) return { body: { ...remembered, ...prepared.meta }, cached: true };
+  const hit = await db('sweep_results').where({ input_hash: prepared.hash }).first<{ result: SweepAnswerBody; used_at: Date } | undefined>('result', 'used_at');
+  if (hit) {
+    // The last-used time is for pruning old entries: an hour's precision is enough, and spares a write per read.
+    if (Date.now() - hit.used_at.getTime() > 3_600_000) await db('sweep_results').where({ input_hash: prepared.hash }).update({ used_at: db.fn.now() });
+    remember(prepared.hash, hit.result);
+    return { body: { ...hit.result, ...prepared.meta }, cached: true };
+  }
   if (options.onlyCached) return null;
   const { result, loadDuration } = await pool.run(prepared.hash, { ...prepared.task, databaseUrl });
   const body: SweepAnswerBody = {
@@ -211,6 +230,7 @@ export async function computeSweep(
     .insert({ input_hash: prepared.hash, result: JSON.stringify(body) })
     .onConflict('input_hash')
     .ignore();
+  remember(prepared.hash, body);
   return { body, cached: false };
 }
 
