@@ -120,6 +120,15 @@ describe('scenarios API', () => {
     await f.agent.get(`${base(f)}/${s.id}/sweep`).expect(404);
     const third = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
     assert.notEqual(third.inputHash, first.inputHash);
+
+    // A change to the project's building, the list or the prices gives another sweep too.
+    await f.agent.put(`/api/v1/projects/${f.projectId}/building`).send({ version: 2, building: { ...BUILDING, conduction: { mode: 'ua', uaWPerK: 200 } } }).expect(200);
+    const fourth = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    assert.notEqual(fourth.inputHash, third.inputHash);
+    assert.ok((fourth.rows[0]?.designLoadW ?? 0) > (third.rows[0]?.designLoadW ?? 0));
+    await f.agent.put('/api/v1/energy-prices').send({ version: 1, prices: { ...PRICES, electricityPerKwh: '0.2000' } }).expect(200);
+    const fifth = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    assert.notEqual(fifth.inputHash, fourth.inputHash);
   });
 
   it('a subset of the list, and a typed-in site gives capacity and price with the hour-based figures marked unavailable', async () => {

@@ -234,6 +234,49 @@ export async function computeSweep(
   return { body, cached: false };
 }
 
+/**
+ * Everything that can change a scenario's sweep inputs moves one of these: the scenario's, project's,
+ * list's and prices' versions, the site's last update and computation, and the references themselves.
+ */
+async function inputsKey(db: Knex, row: ScenarioRow): Promise<string> {
+  const r: unknown = await db('scenarios as s')
+    .join('projects as p', 'p.id', 's.project_id')
+    .leftJoin('equipment_lists as el', 'el.id', 's.equipment_list_id')
+    .leftJoin('energy_prices as ep', 'ep.organization_id', 's.organization_id')
+    .leftJoin('climate_sites as cs', 'cs.id', 's.climate_site_id')
+    .leftJoin('design_conditions as dc', 'dc.climate_site_id', 's.climate_site_id')
+    .where('s.id', row.id)
+    .first(
+      's.version as sv',
+      's.climate_site_id as site',
+      's.equipment_list_id as list',
+      'p.version as pv',
+      'el.version as lv',
+      'ep.version as ev',
+      'cs.updated_at as cu',
+      'dc.computed_at as dc',
+    );
+  return JSON.stringify(r ?? null);
+}
+
+const PREPARED_MAX = 500;
+const preparedByScenario = new Map<string, { key: string; prepared: PreparedSweep }>();
+
+/** `prepareSweep`, reused while none of the scenario's inputs has changed (one query to tell). */
+async function prepareSweepReusing(db: Knex, row: ScenarioRow): Promise<PreparedSweep> {
+  const key = await inputsKey(db, row);
+  const hit = preparedByScenario.get(row.id);
+  if (hit?.key === key) return hit.prepared;
+  const prepared = await prepareSweep(db, row);
+  preparedByScenario.delete(row.id);
+  preparedByScenario.set(row.id, { key, prepared });
+  if (preparedByScenario.size > PREPARED_MAX) {
+    const oldest = preparedByScenario.keys().next().value;
+    if (oldest !== undefined) preparedByScenario.delete(oldest);
+  }
+  return prepared;
+}
+
 /** The sweep answer of a scenario: its frozen result, or the cache, or a new run (null: `onlyCached` and not cached). */
 export async function scenarioSweep(
   db: Knex,
@@ -245,7 +288,7 @@ export async function scenarioSweep(
   if (row.frozen_at && row.frozen_result) {
     return { ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true };
   }
-  const prepared = await prepareSweep(db, row);
+  const prepared = await prepareSweepReusing(db, row);
   const out = await computeSweep(db, pool, databaseUrl, prepared, options);
   return out && { ...out.body, scenarioId: row.id, cached: out.cached, frozen: false };
 }
