@@ -46,6 +46,11 @@ const LABELS: Record<string, string> = {
     .audit {
       margin-top: 2rem;
     }
+    h2 {
+      font: var(--mat-sys-title-medium);
+      font-weight: 600;
+      margin: 0 0 0.5rem;
+    }
     ul {
       list-style: none;
       padding: 0;

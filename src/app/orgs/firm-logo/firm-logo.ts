@@ -45,6 +45,8 @@ import { apiErrorMessage } from '../../core/api-errors';
       border-radius: 8px;
     }
     h2 {
+      font: var(--mat-sys-title-medium);
+      font-weight: 600;
       margin: 0 0 0.5rem;
     }
     img {
