@@ -18,7 +18,7 @@ import { firstValueFrom, map } from 'rxjs';
 import type { FieldIssue } from '@shared/api/api-error';
 import { SCENARIO_NAME_MAX, type Scenario, type SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { formatMoney } from '@shared/money/money';
-import { formatQuantity } from '@shared/units/units';
+import { formatQuantity, fromSi } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';
 import { provideCharts } from '../../charts/provide-charts';
@@ -269,6 +269,7 @@ export class TradeoffPage {
   /** The slider's bubble: the temperature of the row at that position. */
   protected readonly temperatureAtIndex = (i: number): string => {
     const r = this.sweep()?.rows[i];
-    return r ? formatQuantity('temperature', r.designC, this.unitSystem()).replace(/ .*$/, '°') : '';
+    // The bubble holds about four characters: whole degrees.
+    return r ? `${Math.round(fromSi('temperature', r.designC, this.unitSystem()))}°`.replace('-', '−') : '';
   };
 }
