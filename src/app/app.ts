@@ -13,6 +13,7 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import { roleLabels, type Role } from '@shared/auth/roles';
 import { AuthStore } from './auth/auth-store';
 import { apiErrorMessage } from './core/api-errors';
+import type { NameDialogData } from './ui/name-dialog/name-dialog';
 
 /** The shell: toolbar with navigation, organisation, units and account; then the page. */
 @Component({
@@ -63,12 +64,26 @@ export class App {
   }
 
   protected async openNewOrganization(): Promise<void> {
-    // Loaded on demand: the dialog brings the form and schema code with it.
-    const { NewOrganizationDialog } = await import('./orgs/new-organization-dialog/new-organization-dialog');
+    // Loaded on demand: the dialog brings the form code with it.
+    const [{ NameDialog }, { ORGANIZATION_NAME_MAX_LENGTH }] = await Promise.all([
+      import('./ui/name-dialog/name-dialog'),
+      import('@shared/auth/auth-schemas'),
+    ]);
+    const data: NameDialogData<boolean> = {
+      title: 'New organisation',
+      label: 'Organisation name',
+      initial: '',
+      submitLabel: 'Create organisation',
+      maxLength: ORGANIZATION_NAME_MAX_LENGTH,
+      hint: 'You will be its owner, and Tailroom switches to it.',
+      autocomplete: 'organization',
+      save: async (name) => {
+        await this.auth.createOrganization(name);
+        return true;
+      },
+    };
     this.dialog
-      .open<InstanceType<typeof NewOrganizationDialog>, undefined, boolean>(NewOrganizationDialog, {
-        autoFocus: 'first-tabbable',
-      })
+      .open<InstanceType<typeof NameDialog<boolean>>, NameDialogData<boolean>, boolean>(NameDialog, { data })
       .afterClosed()
       .subscribe((created) => {
         if (!created) return;

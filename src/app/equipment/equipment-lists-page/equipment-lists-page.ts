@@ -9,13 +9,13 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
-import type { EquipmentList, EquipmentListSummary } from '@shared/equipment/equipment-list-schemas';
+import { EQUIPMENT_LIST_NAME_MAX, type EquipmentList, type EquipmentListSummary } from '@shared/equipment/equipment-list-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage } from '../../core/api-errors';
 import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
 import { EnergyPricesForm } from '../energy-prices-form/energy-prices-form';
 import { EquipmentApi } from '../equipment-api';
-import { NewEquipmentListDialog } from '../new-equipment-list-dialog/new-equipment-list-dialog';
+import { NameDialog, type NameDialogData } from '../../ui/name-dialog/name-dialog';
 import {
   RenameEquipmentListDialog,
   type RenameEquipmentListDialogData,
@@ -63,10 +63,19 @@ export class EquipmentListsPage {
   }
 
   protected async openNewList(): Promise<void> {
+    const data: NameDialogData<EquipmentList> = {
+      title: 'New equipment list',
+      label: 'List name',
+      initial: '',
+      submitLabel: 'Create list',
+      maxLength: EQUIPMENT_LIST_NAME_MAX,
+      fieldHint: 'For example “Gas furnaces 2026” or “Cold-climate heat pumps”',
+      requiredMessage: 'Enter a list name',
+      testId: 'list-name',
+      save: (name) => this.api.create(name),
+    };
     const created = await firstValueFrom(
-      this.dialog
-        .open<NewEquipmentListDialog, undefined, EquipmentList>(NewEquipmentListDialog, { autoFocus: 'first-tabbable' })
-        .afterClosed(),
+      this.dialog.open<NameDialog<EquipmentList>, NameDialogData<EquipmentList>, EquipmentList>(NameDialog, { data }).afterClosed(),
     );
     if (!created) return;
     this.snackBar.open(`Equipment list “${created.name}” created`, 'Close', { duration: 4000 });

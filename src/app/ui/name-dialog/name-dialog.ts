@@ -15,6 +15,14 @@ export interface NameDialogData<T> {
   maxLength: number;
   /** An optional line under the title. */
   hint?: string;
+  /** An optional hint under the field, e.g. an example name. */
+  fieldHint?: string;
+  /** The message when the name is left empty (default "Enter a name"). */
+  requiredMessage?: string;
+  /** `data-testid` of the input. */
+  testId?: string;
+  /** The input's autocomplete token (default "off"). */
+  autocomplete?: string;
   /** Saves the name; the dialog closes with its answer, or shows the error and stays open. */
   save: (name: string) => Promise<T>;
 }
@@ -37,8 +45,17 @@ export interface NameDialogData<T> {
         }
         <mat-form-field class="name">
           <mat-label>{{ data.label }}</mat-label>
-          <input matInput formControlName="name" cdkFocusInitial autocomplete="off" />
-          <mat-error>{{ fieldError(form.controls.name, { required: 'Enter a name' }) }}</mat-error>
+          <input
+            matInput
+            formControlName="name"
+            cdkFocusInitial
+            [attr.autocomplete]="data.autocomplete ?? 'off'"
+            [attr.data-testid]="data.testId ?? null"
+          />
+          @if (data.fieldHint) {
+            <mat-hint>{{ data.fieldHint }}</mat-hint>
+          }
+          <mat-error>{{ fieldError(form.controls.name, { required: data.requiredMessage ?? 'Enter a name' }) }}</mat-error>
         </mat-form-field>
       </mat-dialog-content>
       <mat-dialog-actions align="end">
