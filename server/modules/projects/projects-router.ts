@@ -12,6 +12,7 @@ import type { Building } from '@shared/building/building-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError, staleUpdate } from '../../http/http-error';
 import { assertCanAddProject } from '../billing/plan-limits';
+import { checkReferences } from '../../http/references';
 
 interface ProjectRow {
   id: string;
@@ -84,27 +85,6 @@ async function findProject(db: Knex, organizationId: string, id: string): Promis
 
 const projectParam = z.object({ projectId: z.uuid('Unknown project') });
 const notFound = () => new HttpError(404, 'not_found', 'That project was not found');
-
-/** A climate site or equipment list named in a project must be the organisation's own (404 otherwise, as for any other item). */
-async function checkReferences(
-  db: Knex,
-  organizationId: string,
-  refs: { climateSiteId?: string | null; equipmentListId?: string | null },
-): Promise<void> {
-  const checks = [
-    { id: refs.climateSiteId, table: 'climate_sites', path: 'climateSiteId', what: 'climate site' },
-    { id: refs.equipmentListId, table: 'equipment_lists', path: 'equipmentListId', what: 'equipment list' },
-  ];
-  for (const c of checks) {
-    if (!c.id) continue;
-    const found: unknown = await db(c.table).where({ id: c.id, organization_id: organizationId }).first('id');
-    if (!found) {
-      throw new HttpError(404, 'not_found', `That ${c.what} was not found`, [
-        { path: c.path, message: `Choose a ${c.what} of this organisation` },
-      ]);
-    }
-  }
-}
 
 export function projectsRouter(db: Knex): Router {
   const router = Router();

@@ -19,6 +19,7 @@ import {
 } from '@shared/scenarios/scenario-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError, staleUpdate } from '../../http/http-error';
+import { checkReferences } from '../../http/references';
 import { computeSweep, prepareSweep, scenarioSweep, type ScenarioRow } from './sweep-service';
 import type { SweepPool } from './sweep-pool';
 
@@ -90,20 +91,6 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     return row;
   }
 
-  async function checkReferences(organizationId: string, refs: { climateSiteId?: string | null; equipmentListId?: string | null }) {
-    const checks = [
-      { id: refs.climateSiteId, table: 'climate_sites', path: 'climateSiteId', what: 'climate site' },
-      { id: refs.equipmentListId, table: 'equipment_lists', path: 'equipmentListId', what: 'equipment list' },
-    ];
-    for (const c of checks) {
-      if (!c.id) continue;
-      const found: unknown = await db(c.table).where({ id: c.id, organization_id: organizationId }).first('id');
-      if (!found) {
-        throw new HttpError(404, 'not_found', `That ${c.what} was not found`, [{ path: c.path, message: `Choose a ${c.what} of this organisation` }]);
-      }
-    }
-  }
-
   const sweepOf = (row: ScenarioRow, options: { onlyCached?: boolean } = {}) => scenarioSweep(db, pool, databaseUrl, row, options);
 
   router.get('/:projectId/scenarios', authorize(db, 'org:read'), async (req, res) => {
@@ -122,7 +109,7 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     const input = scenarioInputSchema.parse(req.body);
     const { organizationId, user } = orgContext(req);
     const project = await requireProject(organizationId, projectId);
-    await checkReferences(organizationId, input);
+    await checkReferences(db, organizationId, input);
     const settings: ScenarioSettings = input.settings ?? scenarioSettingsSchema.parse({});
     const [row] = await db('scenarios')
       .insert({
@@ -152,7 +139,7 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     const current = await findScenario(organizationId, projectId, scenarioId);
     const changesInputs = patch.climateSiteId !== undefined || patch.equipmentListId !== undefined || patch.settings !== undefined;
     if (current.frozen_at && changesInputs) throw frozenError();
-    await checkReferences(organizationId, patch);
+    await checkReferences(db, organizationId, patch);
     const update: Record<string, unknown> = { updated_by: user.id, updated_at: db.fn.now(), version: db.raw('version + 1') };
     if (patch.name !== undefined) update['name'] = patch.name;
     if (patch.climateSiteId !== undefined) update['climate_site_id'] = patch.climateSiteId;
