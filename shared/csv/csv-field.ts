@@ -4,15 +4,20 @@ export function csvField(value: string): string {
 }
 
 /**
- * A text field of a report export, guarded against spreadsheet formula injection (OWASP "CSV
- * Injection"): text starting with =, +, @, a tab or a carriage return, or with − not followed by a
- * digit, gets a leading apostrophe so that a spreadsheet shows it as text. Numbers are not passed here.
+ * Text a spreadsheet could run as a formula (OWASP "CSV Injection"): starting with =, +, @, a tab or
+ * a carriage return, or with − not followed by a digit — after any apostrophes, so that guarding is
+ * exactly undone by `unguardCsvText` whatever the text.
  */
+const FORMULA_RISK = /^'*(?:[=+@\t\r]|-(?![\d.]))/;
+
+/** A text field of an export, with a leading apostrophe when a spreadsheet could run it as a formula. Numbers are not passed here. */
 export function csvTextField(value: string): string {
-  // Text already starting with an apostrophe before such a character gets one more, so that the
-  // equipment reader (which takes one off) gives back exactly what was written.
-  const risky = /^[=+@\t\r]/.test(value) || /^-(?![\d.])/.test(value) || /^'[=+\-@\t\r]/.test(value);
-  return csvField(risky ? `'${value}` : value);
+  return csvField(FORMULA_RISK.test(value) ? `'${value}` : value);
+}
+
+/** The text `csvTextField` guarded, as it was: the one apostrophe it added is taken off. */
+export function unguardCsvText(value: string): string {
+  return value.startsWith("'") && FORMULA_RISK.test(value.slice(1)) ? value.slice(1) : value;
 }
 
 /** Rows of fields (already formatted) as CSV text with CRLF line ends. */

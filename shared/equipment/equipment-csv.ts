@@ -11,7 +11,7 @@
  */
 import type { z } from 'zod';
 import { toSi } from '../building/quantities';
-import { csvTextField } from '../csv/csv-field';
+import { csvTextField, unguardCsvText } from '../csv/csv-field';
 import { equipmentOptionSchema, type EquipmentOption } from './equipment-schemas';
 
 export interface CsvProblem {
@@ -230,8 +230,9 @@ function buildOption(cells: ReadonlyMap<string, string>): { value: Record<string
 
   const kind = cells.get('kind')?.toLowerCase();
   put('kind', kind);
-  // A leading apostrophe before =, +, -, @ was added on export against spreadsheet formulas: take it off.
-  put('label', cells.get('label')?.replace(/^'(?=[=+\-@\t\r])/, ''));
+  // The apostrophe an export put before text a spreadsheet would run as a formula comes off.
+  const label = cells.get('label');
+  put('label', label === undefined ? undefined : unguardCsvText(label));
   put('installedPrice', cells.get('installed_price'));
   put('lifeYears', number('life_years'));
   put('fuel', cells.get('fuel')?.toLowerCase());

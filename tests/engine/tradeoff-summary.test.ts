@@ -5,7 +5,8 @@
  */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import { csvField, csvTextField } from '../../shared/csv/csv-field';
+import fc from 'fast-check';
+import { csvField, csvTextField, unguardCsvText } from '../../shared/csv/csv-field';
 import { coldestNamedRow, tradeoffSentence, type SummaryContext } from '../../shared/sweep/tradeoff-summary';
 
 type Row = SummaryContext['rows'][number];
@@ -82,5 +83,17 @@ describe('CSV text fields', () => {
     assert.equal(csvTextField('-23.5 °C'), '-23.5 °C');
     assert.equal(csvTextField('=HYPERLINK("x")'), '"\'=HYPERLINK(""x"")"');
     assert.equal(csvTextField('Gas bid'), 'Gas bid');
+    assert.equal(csvTextField("'=x"), "''=x");
+    assert.equal(csvTextField("''x"), "''x");
+  });
+
+  it('takes off exactly the apostrophe it added, whatever the text (fast-check)', () => {
+    fc.assert(
+      fc.property(fc.string({ unit: fc.constantFrom("'", '=', '+', '-', '@', '1', '.', 'a', '\t', ' ') }), (text) => {
+        const guarded = csvTextField(text).replace(/^"(.*)"$/s, (_m, inner: string) => inner.replaceAll('""', '"'));
+        assert.equal(unguardCsvText(guarded), text);
+      }),
+      { numRuns: 2000 },
+    );
   });
 });
