@@ -4,7 +4,8 @@
  * sweep, and on the cached sweep again while fresh sweeps run in the worker pool. Prints p50, p95,
  * p99 and errors. A benchmark for the README, not a test.
  */
-import { chmodSync, mkdtempSync, rmSync } from 'node:fs';
+import { spawn } from 'node:child_process';
+import { chmodSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { createServer as createHttpServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { randomBytes } from 'node:crypto';
@@ -12,17 +13,14 @@ import { cpus, tmpdir } from 'node:os';
 import path from 'node:path';
 import autocannon from 'autocannon';
 import { CSRF_HEADER, CSRF_HEADER_VALUE } from '../shared/api/csrf';
-import { createApp } from '../server/app';
-import { parseConfig } from '../server/config';
 import { createDb } from '../server/db';
-import { createLogger } from '../server/logger';
-import { createMailer } from '../server/mail/mailer';
 import { migrateLatest } from '../server/migrate';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from '../server/seed/demo-seed';
 import { ensurePostgresInstalled, PgCluster } from './pg-cluster';
 
 const SECONDS = Number(process.env['LOAD_SECONDS'] ?? 30);
 const CONNECTIONS = 50;
+const WARM_UP_SECONDS = 5;
 
 function freePort(): Promise<number> {
   return new Promise((resolve) => {
@@ -32,6 +30,38 @@ function freePort(): Promise<number> {
       s.close(() => resolve(port));
     });
   });
+}
+
+async function waitForHealth(url: string): Promise<void> {
+  const until = Date.now() + 60_000;
+  for (;;) {
+    try {
+      if ((await fetch(url)).ok) return;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > until) throw new Error(`the server did not answer ${url} within 60 s`);
+    await new Promise((r) => setTimeout(r, 200));
+  }
+}
+
+/** CPU seconds (user + system) used so far by the processes whose command name is `comm`, or by one pid. */
+function cpuSeconds(which: { pid: number } | { comm: string }): number {
+  const ticks = 100; // USER_HZ on Linux
+  const pids = 'pid' in which ? [String(which.pid)] : readdirSync('/proc').filter((d) => /^\d+$/.test(d));
+  let total = 0;
+  for (const pid of pids) {
+    try {
+      const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+      const close = stat.lastIndexOf(')');
+      if ('comm' in which && stat.slice(stat.indexOf('(') + 1, close) !== which.comm) continue;
+      const fields = stat.slice(close + 2).split(' ');
+      total += (Number(fields[11]) + Number(fields[12])) / ticks;
+    } catch {
+      // the process ended meanwhile
+    }
+  }
+  return total;
 }
 
 const pct = (sorted: number[], p: number) => sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? NaN;
@@ -45,8 +75,23 @@ interface Figures {
   p99: number;
 }
 
-async function run(title: string, opts: { url: string; method: 'GET' | 'POST'; headers: Record<string, string> }): Promise<Figures> {
+/** A few seconds of the same load, not counted: the JIT compiles the hot paths and the pools fill. */
+async function warmUp(opts: { url: string; method: 'GET' | 'POST'; headers: Record<string, string> }): Promise<void> {
+  await new Promise<void>((resolve, reject) => {
+    autocannon({ url: opts.url, method: opts.method, headers: opts.headers, connections: CONNECTIONS, duration: WARM_UP_SECONDS }, (err) => {
+      if (err) reject(err instanceof Error ? err : new Error(String(err)));
+      else resolve();
+    });
+  });
+}
+
+async function run(
+  title: string,
+  opts: { url: string; method: 'GET' | 'POST'; headers: Record<string, string>; serverPid: number },
+): Promise<Figures> {
   const times: number[] = [];
+  const server0 = cpuSeconds({ pid: opts.serverPid });
+  const db0 = cpuSeconds({ comm: 'postgres' });
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
     const instance = autocannon({ url: opts.url, method: opts.method, headers: opts.headers, connections: CONNECTIONS, duration: SECONDS }, (err, res) => {
       if (err) reject(err instanceof Error ? err : new Error(String(err)));
@@ -54,6 +99,8 @@ async function run(title: string, opts: { url: string; method: 'GET' | 'POST'; h
     });
     instance.on('response', (_client, _status, _bytes, ms) => times.push(ms));
   });
+  const serverMs = ((cpuSeconds({ pid: opts.serverPid }) - server0) * 1000) / Math.max(1, result.requests.total);
+  const dbMs = ((cpuSeconds({ comm: 'postgres' }) - db0) * 1000) / Math.max(1, result.requests.total);
   times.sort((a, b) => a - b);
   const f: Figures = {
     requests: result.requests.total,
@@ -66,6 +113,7 @@ async function run(title: string, opts: { url: string; method: 'GET' | 'POST'; h
   console.log(
     `${title.padEnd(46)} ${String(f.requests).padStart(7)} req · p50 ${f.p50.toFixed(1)} ms · p95 ${f.p95.toFixed(1)} ms · p99 ${f.p99.toFixed(1)} ms · errors ${f.errors} · non-2xx ${f.non2xx}`,
   );
+  console.log(`${''.padEnd(46)} CPU per request: server ${serverMs.toFixed(2)} ms, PostgreSQL ${dbMs.toFixed(2)} ms`);
   return f;
 }
 
@@ -73,7 +121,7 @@ async function main(): Promise<void> {
   const dir = mkdtempSync(path.join(tmpdir(), 'tailroom-load-'));
   chmodSync(dir, 0o755);
   const cluster = new PgCluster(path.join(dir, 'pg'), await freePort(), randomBytes(12).toString('hex'), ensurePostgresInstalled(console.log));
-  let close: (() => Promise<void>) | null = null;
+  let stopServer: (() => Promise<void>) | null = null;
   try {
     cluster.init({ throwaway: true });
     cluster.start();
@@ -83,25 +131,31 @@ async function main(): Promise<void> {
     await migrateLatest(db);
     console.log('Seeding the invented demo data…');
     await seedDemo(db);
+    await db.destroy();
     const port = await freePort();
-    const config = parseConfig({
+    // The server runs in its own process, as it does in production, so that autocannon does not share its event loop.
+    const env: NodeJS.ProcessEnv = {
+      ...process.env,
       NODE_ENV: 'test',
-      DATABASE_URL: databaseUrl,
+      DATABASE_URL: cluster.localUrl('load'),
       SESSION_SECRET: randomBytes(32).toString('hex'),
       PORT: String(port),
       LOG_LEVEL: 'silent',
-    });
-    const mailer = createMailer(config);
-    const app = createApp({ config, db, mailer, logger: createLogger('silent') });
-    const server = createHttpServer(app.app);
-    await new Promise<void>((resolve) => server.listen(port, '127.0.0.1', resolve));
-    close = async () => {
-      server.closeAllConnections();
-      await new Promise<void>((resolve) => server.close(() => resolve()));
-      await app.close();
-      mailer.close();
-      await db.destroy();
     };
+    const profileDir = process.env['LOAD_CPU_PROF'];
+    const child = spawn(process.execPath, [...(profileDir ? ['--cpu-prof', `--cpu-prof-dir=${profileDir}`] : []), '--import', 'tsx', 'server/main.ts'], {
+      env,
+      stdio: ['ignore', 'inherit', 'inherit'],
+    });
+    const serverPid = child.pid ?? 0;
+    const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+    stopServer = async () => {
+      // autocannon drops its connections at the end of a run; let the server finish what it was doing.
+      await new Promise((r) => setTimeout(r, 1000));
+      child.kill('SIGTERM');
+      await exited;
+    };
+    await waitForHealth(`http://127.0.0.1:${port}/api/health`);
     const base = `http://127.0.0.1:${port}`;
 
     const signIn = await fetch(`${base}/api/v1/auth/sign-in`, {
@@ -119,12 +173,16 @@ async function main(): Promise<void> {
     if (!scenario || !other) throw new Error('demo scenarios missing');
     const sweepUrl = `${base}/api/v1/projects/${projectId}/scenarios/${scenario.id}/sweep`;
     const t0 = performance.now();
-    await fetch(sweepUrl, { method: 'POST', headers });
+    const first = await (await fetch(sweepUrl, { method: 'POST', headers })).text();
     console.log(`First sweep of the demo scenario (worker start, record load, sweep): ${(performance.now() - t0).toFixed(0)} ms`);
-    console.log(`Machine: ${cpus().length} cores, Node ${process.version}; ${CONNECTIONS} connections, ${SECONDS} s each\n`);
+    const projectBody = await (await fetch(`${base}/api/v1/projects/${projectId}`, { headers })).text();
+    console.log(`Answer sizes: project ${(projectBody.length / 1024).toFixed(1)} kB, sweep ${(first.length / 1024).toFixed(1)} kB`);
+    console.log(`Machine: ${cpus().length} cores, Node ${process.version}; ${CONNECTIONS} connections, ${SECONDS} s each after ${WARM_UP_SECONDS} s of warm-up\n`);
+    await warmUp({ url: `${base}/api/v1/projects/${projectId}`, method: 'GET', headers });
+    await warmUp({ url: sweepUrl, method: 'POST', headers });
 
-    const read = await run('GET a project', { url: `${base}/api/v1/projects/${projectId}`, method: 'GET', headers });
-    const cached = await run('POST a sweep (cached result)', { url: sweepUrl, method: 'POST', headers });
+    const read = await run('GET a project', { url: `${base}/api/v1/projects/${projectId}`, method: 'GET', headers, serverPid });
+    const cached = await run('POST a sweep (cached result)', { url: sweepUrl, method: 'POST', headers, serverPid });
 
     // Fresh sweeps in the background: another scenario's discount rate changes before each one, so every run is new.
     let stop = false;
@@ -146,7 +204,7 @@ async function main(): Promise<void> {
       }
     };
     const loop = freshLoop();
-    const during = await run('POST a sweep (cached) while fresh sweeps run', { url: sweepUrl, method: 'POST', headers });
+    const during = await run('POST a sweep (cached) while fresh sweeps run', { url: sweepUrl, method: 'POST', headers, serverPid });
     stop = true;
     await loop;
     console.log(`\nFresh sweeps completed meanwhile: ${fresh} (mean ${(freshMs / Math.max(1, fresh)).toFixed(0)} ms each, in the worker pool)`);
@@ -154,7 +212,7 @@ async function main(): Promise<void> {
     const ok = read.errors + cached.errors + during.errors === 0 && read.non2xx + cached.non2xx + during.non2xx === 0;
     console.log(`Targets: zero errors ${ok ? 'met' : 'NOT met'}; p95 of cached reads under 150 ms ${Math.max(read.p95, cached.p95) < 150 ? 'met' : 'NOT met'}; fresh sweeps slow cached reads by at most 2× ${during.p95 / cached.p95 <= 2 ? 'met' : 'NOT met'}`);
   } finally {
-    if (close) await close();
+    if (stopServer) await stopServer();
     cluster.stop('fast');
     rmSync(dir, { recursive: true, force: true });
   }

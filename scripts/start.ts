@@ -112,7 +112,7 @@ async function main(): Promise<void> {
     ...process.env,
     NODE_ENV: 'development',
     PORT: String(port),
-    DATABASE_URL: databaseUrl,
+    DATABASE_URL: cluster.localUrl('tailroom'),
     SESSION_SECRET: secret('session-secret', 48),
     SMTP_HOST: '127.0.0.1',
     SMTP_PORT: String(smtpPort),

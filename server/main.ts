@@ -6,7 +6,7 @@ import { createMailer } from './mail/mailer';
 
 const config = loadConfig();
 const logger = createLogger(config.logLevel);
-const db = createDb(config.databaseUrl);
+const db = createDb(config.databaseUrl, config.databasePoolMax);
 const mailer = createMailer(config);
 const tailroom = createApp({ config, db, mailer, logger });
 

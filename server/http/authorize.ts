@@ -13,6 +13,8 @@ export interface OrgContext {
 declare module 'express-serve-static-core' {
   interface Request {
     orgContext?: OrgContext;
+    /** The user's role in the session's organisation, read with the user when the session was loaded. */
+    sessionRole?: { organizationId: string; role: Role | null };
   }
 }
 
@@ -44,25 +46,28 @@ export const requireUser: RequestHandler = Object.assign<RequestHandler, { [GUAR
 
 /**
  * The one authorisation layer: a signed-in user, a current organisation the user
- * still belongs to (membership is read on every request, so a removal takes
- * effect at once), and a role allowed to do `action`. 401 / 403 otherwise.
+ * still belongs to (membership is read on every request, with the user, so a
+ * removal takes effect at once), and a role allowed to do `action`. 401 / 403 otherwise.
  */
 export function authorize(db: Knex, action: Action): RequestHandler {
   const handler: Guarded = async (req, _res, next) => {
     const user = currentUser(req);
     const organizationId = req.session.organizationId;
-    const membership = organizationId
-      ? await db('memberships')
-          .where({ organization_id: organizationId, user_id: user.id })
-          .first<{ role: Role } | undefined>('role')
-      : undefined;
-    if (!organizationId || !membership) {
+    let role: Role | null = null;
+    if (organizationId) {
+      const known = req.sessionRole;
+      role =
+        known?.organizationId === organizationId
+          ? known.role
+          : ((await db('memberships').where({ organization_id: organizationId, user_id: user.id }).first<{ role: Role } | undefined>('role'))?.role ?? null);
+    }
+    if (!organizationId || !role) {
       throw new HttpError(403, 'no_organization', 'Choose an organisation first');
     }
-    if (!can(membership.role, action)) {
+    if (!can(role, action)) {
       throw new HttpError(403, 'forbidden', 'Your role in this organisation does not allow that');
     }
-    req.orgContext = { user, organizationId, role: membership.role };
+    req.orgContext = { user, organizationId, role };
     next();
   };
   handler[GUARD] = { kind: 'action', action };

@@ -131,6 +131,33 @@ describe('scenarios API', () => {
     assert.notEqual(fifth.inputHash, fourth.inputHash);
   });
 
+  it('sends a cached sweep with an entity tag (304 to a GET that has it), and a renamed site or list gives a new answer', async () => {
+    const f = await fixture(t);
+    const s = await createScenario(f);
+    const url = `${base(f)}/${s.id}/sweep`;
+    const first = await f.agent.post(url).expect(200);
+    assert.equal((first.body as SweepAnswer).cached, false);
+    const cached = await f.agent.get(url).expect(200);
+    const etag = cached.headers['etag'];
+    assert.ok(typeof etag === 'string' && etag.length > 10, 'an entity tag');
+    assert.equal((cached.body as SweepAnswer).cached, true);
+    const again = await f.agent.post(url).expect(200);
+    assert.equal(again.headers['etag'], etag, 'the same answer has the same tag');
+    assert.deepEqual(again.body, cached.body);
+    await f.agent.get(url).set('If-None-Match', etag).expect(304);
+
+    // The names in the answer follow renames, though the figures (and the input hash) do not change.
+    await f.agent.patch(`/api/v1/climate-sites/${f.siteId}`).send({ name: 'Renamed hourly site (invented)' }).expect(200);
+    const renamedSite = await f.agent.get(url).set('If-None-Match', etag).expect(200);
+    assert.equal((renamedSite.body as SweepAnswer).climateSiteName, 'Renamed hourly site (invented)');
+    assert.equal((renamedSite.body as SweepAnswer).inputHash, (cached.body as SweepAnswer).inputHash);
+    assert.notEqual(renamedSite.headers['etag'], etag);
+    await f.agent.patch(`/api/v1/equipment-lists/${f.listId}`).send({ version: 2, name: 'Renamed list' }).expect(200);
+    const renamedList = await f.agent.post(url).expect(200);
+    assert.equal((renamedList.body as SweepAnswer).equipmentListName, 'Renamed list');
+    assert.notEqual(renamedList.headers['etag'], renamedSite.headers['etag']);
+  });
+
   it('a subset of the list, and a typed-in site gives capacity and price with the hour-based figures marked unavailable', async () => {
     const f = await fixture(t);
     const s = await createScenario(f, { climateSiteId: f.publishedSiteId, settings: { optionLabels: ['F 9 kW', 'F 14 kW', 'Gone'] } });

@@ -45,8 +45,13 @@ export function configurePassport(db: Knex): void {
   passport.serializeUser((user, done) => {
     done(null, (user as UserRecord).id);
   });
-  passport.deserializeUser((id: string, done) => {
-    users.findById(db, id).then((u) => done(null, u ?? false), done);
+  // The user and the role in the session's organisation, in one query; `authorize()` uses the role.
+  passport.deserializeUser((req: Request, id: string, done: (err: unknown, user?: UserRecord | false) => void) => {
+    const organizationId = req.session.organizationId;
+    users.findWithRole(db, id, organizationId).then((found) => {
+      if (found && organizationId) req.sessionRole = { organizationId, role: found.role };
+      done(null, found?.user ?? false);
+    }, done);
   });
 }
 

@@ -1,5 +1,7 @@
 import type { Knex } from 'knex';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { Role } from '@shared/auth/roles';
+import { prepared } from '../../db';
 
 export interface UserRecord {
   id: string;
@@ -18,9 +20,24 @@ interface UserRow {
 
 const toUser = (r: UserRow): UserRecord => ({ id: r.id, email: r.email, name: r.name, unitSystem: r.unit_system });
 
-export async function findById(db: Knex, id: string): Promise<UserRecord | undefined> {
-  const row = await db<UserRow>('users').where({ id }).first();
-  return row && toUser(row);
+/**
+ * The user and, in the same query, the user's role in `organizationId` (null when the user is not a
+ * member, or no organisation is chosen): what every signed-in request needs, in one round trip.
+ */
+export async function findWithRole(
+  db: Knex,
+  id: string,
+  organizationId: string | undefined,
+): Promise<{ user: UserRecord; role: Role | null } | undefined> {
+  const row = await prepared(
+    db('users as u')
+      .leftJoin('memberships as m', (j) => {
+        j.on('m.user_id', 'u.id').andOnVal('m.organization_id', organizationId ?? null);
+      })
+      .where('u.id', id)
+      .first<(UserRow & { role: Role | null }) | undefined>('u.id', 'u.email', 'u.name', 'u.unit_system', 'm.role'),
+  );
+  return row && { user: toUser(row), role: organizationId ? row.role : null };
 }
 
 export async function findByEmailWithHash(

@@ -11,6 +11,7 @@ import { projectBuildingPutSchema } from '@shared/building/building-api-schemas'
 import type { Building } from '@shared/building/building-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError, staleUpdate } from '../../http/http-error';
+import { prepared } from '../../db';
 import { assertCanAddProject } from '../billing/plan-limits';
 import { checkReferences } from '../../http/references';
 
@@ -79,7 +80,7 @@ function projectQuery(db: Knex, organizationId: string) {
 }
 
 async function findProject(db: Knex, organizationId: string, id: string): Promise<Project | undefined> {
-  const rows = await projectQuery(db, organizationId).andWhere('p.id', id);
+  const rows = await prepared(projectQuery(db, organizationId).andWhere('p.id', id));
   return rows[0] && toProject(rows[0]);
 }
 

@@ -19,8 +19,9 @@ import {
 } from '@shared/scenarios/scenario-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError, staleUpdate } from '../../http/http-error';
+import { prepared } from '../../db';
 import { checkReferences } from '../../http/references';
-import { computeSweep, prepareSweep, scenarioSweep, type ScenarioRow } from './sweep-service';
+import { computeSweep, joinInputsKey, prepareSweep, scenarioSweep, scenarioSweepJson, type ScenarioRow, type SweepJson } from './sweep-service';
 import type { SweepPool } from './sweep-pool';
 
 const FORMER = 'A former member';
@@ -52,13 +53,15 @@ function toScenario(r: ListedRow): Scenario {
   };
 }
 
+/** A project's scenarios, with the names shown beside them and the key that tells whether their sweep inputs changed. */
 function scenarioQuery(db: Knex, organizationId: string, projectId: string) {
-  return db('scenarios as s')
+  const query = db('scenarios as s')
     .leftJoin('climate_sites as cs', 'cs.id', 's.climate_site_id')
     .leftJoin('equipment_lists as el', 'el.id', 's.equipment_list_id')
     .leftJoin('users as uu', 'uu.id', 's.updated_by')
     .where({ 's.organization_id': organizationId, 's.project_id': projectId })
     .select<ListedRow[]>('s.*', 'cs.name as climate_site_name', 'el.name as equipment_list_name', 'uu.name as updated_by_name');
+  return joinInputsKey(db, query);
 }
 
 const projectParam = z.object({ projectId: z.uuid('Unknown project') });
@@ -66,6 +69,11 @@ const scenarioParams = z.object({ projectId: z.uuid('Unknown project'), scenario
 const scenarioNotFound = () => new HttpError(404, 'not_found', 'That scenario was not found');
 const frozenError = () =>
   new HttpError(409, 'frozen', 'This scenario is frozen for a bid: its inputs and results cannot change. Duplicate it to work on a copy.');
+
+/** A serialised sweep answer; a GET whose If-None-Match names its tag gets 304. */
+function sendSweepJson(res: Response, json: SweepJson): void {
+  res.set('ETag', json.etag).type('json').send(json.bytes);
+}
 
 const bidDate = (d: Date) => d.toISOString().slice(0, 10);
 
@@ -85,7 +93,7 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
   }
 
   async function findScenario(organizationId: string, projectId: string, scenarioId: string): Promise<ListedRow> {
-    const rows = await scenarioQuery(db, organizationId, projectId).andWhere('s.id', scenarioId);
+    const rows = await prepared(scenarioQuery(db, organizationId, projectId).andWhere('s.id', scenarioId));
     const row = rows[0];
     if (!row) throw scenarioNotFound();
     return row;
@@ -216,15 +224,19 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
 
   router.post('/:projectId/scenarios/:scenarioId/sweep', authorize(db, 'org:read'), async (req, res) => {
     const { projectId, scenarioId } = scenarioParams.parse(req.params);
-    res.json(await sweepOf(await findScenario(orgContext(req).organizationId, projectId, scenarioId)));
+    const json = await scenarioSweepJson(db, pool, databaseUrl, await findScenario(orgContext(req).organizationId, projectId, scenarioId));
+    if (!json) throw new Error('sweep missing after a run');
+    sendSweepJson(res, json);
   });
 
   /** The cached sweep only (404 `not_computed` when the current inputs have not been swept yet). */
   router.get('/:projectId/scenarios/:scenarioId/sweep', authorize(db, 'org:read'), async (req, res) => {
     const { projectId, scenarioId } = scenarioParams.parse(req.params);
-    const answer = await sweepOf(await findScenario(orgContext(req).organizationId, projectId, scenarioId), { onlyCached: true });
-    if (!answer) throw new HttpError(404, 'not_computed', 'This scenario has not been swept with its current inputs yet');
-    res.json(answer);
+    const json = await scenarioSweepJson(db, pool, databaseUrl, await findScenario(orgContext(req).organizationId, projectId, scenarioId), {
+      onlyCached: true,
+    });
+    if (!json) throw new HttpError(404, 'not_computed', 'This scenario has not been swept with its current inputs yet');
+    sendSweepJson(res, json);
   });
 
   router.get('/:projectId/scenarios/:scenarioId/sweep.csv', authorize(db, 'org:read'), async (req, res) => {

@@ -37,6 +37,8 @@ export interface ScenarioRow {
   frozen_inputs: unknown;
   frozen_result: SweepAnswerBody | null;
   version: number;
+  /** The sweep inputs' key, when the row was read with `joinInputsKey`. */
+  inputs_key?: string;
 }
 
 /** A sweep answer without what depends on who asks and how (scenario id, cached, frozen). */
@@ -48,6 +50,19 @@ export interface PreparedSweep {
   meta: Omit<SweepAnswerBody, 'inputHash' | 'computedAt' | 'years' | 'timeConstantH' | 'rows' | 'loadDuration'>;
   /** The prices used (the scenario's or the organisation's), kept with a frozen copy. */
   prices: EnergyPrices;
+  /** The cached answer for this scenario as sent, once it has been sent (see `scenarioSweepJson`). */
+  answerJson?: SweepJson;
+}
+
+/** A sweep answer serialised for sending, with an entity tag of its bytes. */
+export interface SweepJson {
+  bytes: Buffer;
+  etag: string;
+}
+
+function toSweepJson(answer: SweepAnswer): SweepJson {
+  const bytes = Buffer.from(JSON.stringify(answer));
+  return { bytes, etag: `"${createHash('sha256').update(bytes).digest('base64url').slice(0, 27)}"` };
 }
 
 /** 422 `scenario_incomplete` with what is missing, field by field. */
@@ -237,26 +252,29 @@ export async function computeSweep(
 /**
  * Everything that can change a scenario's sweep inputs moves one of these: the scenario's, project's,
  * list's and prices' versions, the site's last update and computation, and the references themselves.
+ * `joinInputsKey` adds it as `inputs_key` to a query of `scenarios as s` that left-joins
+ * `climate_sites as cs` and `equipment_lists as el`, so that it comes with the scenario row.
  */
-async function inputsKey(db: Knex, row: ScenarioRow): Promise<string> {
-  const r: unknown = await db('scenarios as s')
+export function joinInputsKey<Q extends Knex.QueryBuilder>(db: Knex, query: Q): Q {
+  return query
     .join('projects as p', 'p.id', 's.project_id')
-    .leftJoin('equipment_lists as el', 'el.id', 's.equipment_list_id')
     .leftJoin('energy_prices as ep', 'ep.organization_id', 's.organization_id')
-    .leftJoin('climate_sites as cs', 'cs.id', 's.climate_site_id')
     .leftJoin('design_conditions as dc', 'dc.climate_site_id', 's.climate_site_id')
-    .where('s.id', row.id)
-    .first(
-      's.version as sv',
-      's.climate_site_id as site',
-      's.equipment_list_id as list',
-      'p.version as pv',
-      'el.version as lv',
-      'ep.version as ev',
-      'cs.updated_at as cu',
-      'dc.computed_at as dc',
-    );
-  return JSON.stringify(r ?? null);
+    .select(
+      db.raw(
+        'json_build_array(s.version, s.climate_site_id, s.equipment_list_id, p.version, el.version, ep.version, cs.updated_at, dc.computed_at)::text as inputs_key',
+      ),
+    ) as Q;
+}
+
+async function inputsKey(db: Knex, row: ScenarioRow): Promise<string> {
+  if (row.inputs_key !== undefined) return row.inputs_key;
+  const query = db('scenarios as s')
+    .leftJoin('climate_sites as cs', 'cs.id', 's.climate_site_id')
+    .leftJoin('equipment_lists as el', 'el.id', 's.equipment_list_id')
+    .where('s.id', row.id);
+  const r = await joinInputsKey(db, query).first<{ inputs_key: string } | undefined>();
+  return r?.inputs_key ?? 'gone';
 }
 
 const PREPARED_MAX = 500;
@@ -291,4 +309,25 @@ export async function scenarioSweep(
   const prepared = await prepareSweepReusing(db, row);
   const out = await computeSweep(db, pool, databaseUrl, prepared, options);
   return out && { ...out.body, scenarioId: row.id, cached: out.cached, frozen: false };
+}
+
+/**
+ * `scenarioSweep` serialised: a cached answer is serialised once per prepared inputs and then sent as
+ * it is, so that reading a cached sweep costs no JSON encoding or hashing of its ~50 kB.
+ */
+export async function scenarioSweepJson(
+  db: Knex,
+  pool: SweepPool,
+  databaseUrl: string,
+  row: ScenarioRow,
+  options: { onlyCached?: boolean } = {},
+): Promise<SweepJson | null> {
+  if (row.frozen_at && row.frozen_result) return toSweepJson({ ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true });
+  const prepared = await prepareSweepReusing(db, row);
+  if (prepared.answerJson) return prepared.answerJson;
+  const out = await computeSweep(db, pool, databaseUrl, prepared, options);
+  if (!out) return null;
+  const json = toSweepJson({ ...out.body, scenarioId: row.id, cached: out.cached, frozen: false });
+  if (out.cached) prepared.answerJson = json;
+  return json;
 }
