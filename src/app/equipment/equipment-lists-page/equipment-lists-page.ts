@@ -16,10 +16,6 @@ import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/c
 import { EnergyPricesForm } from '../energy-prices-form/energy-prices-form';
 import { EquipmentApi } from '../equipment-api';
 import { NameDialog, type NameDialogData } from '../../ui/name-dialog/name-dialog';
-import {
-  RenameEquipmentListDialog,
-  type RenameEquipmentListDialogData,
-} from '../rename-equipment-list-dialog/rename-equipment-list-dialog';
 import { SafetyNote } from '../safety-note';
 
 /** `/equipment-lists`: the organisation's equipment lists, and its energy prices. */
@@ -83,12 +79,25 @@ export class EquipmentListsPage {
   }
 
   protected async rename(list: EquipmentListSummary): Promise<void> {
+    /** The list as last loaded: its version is the one a rename is made from. */
+    let current: EquipmentListSummary = list;
+    const data: NameDialogData<EquipmentList> = {
+      title: 'Rename equipment list',
+      label: 'List name',
+      initial: list.name,
+      submitLabel: 'Rename',
+      maxLength: EQUIPMENT_LIST_NAME_MAX,
+      requiredMessage: 'Enter a list name',
+      testId: 'list-name',
+      closeIfUnchanged: true,
+      save: (name) => this.api.rename(current.id, current.version, name),
+      reload: async () => {
+        current = await this.api.get(current.id);
+      },
+    };
     const renamed = await firstValueFrom(
       this.dialog
-        .open<RenameEquipmentListDialog, RenameEquipmentListDialogData, EquipmentList>(RenameEquipmentListDialog, {
-          data: { list },
-          autoFocus: 'first-tabbable',
-        })
+        .open<NameDialog<EquipmentList>, NameDialogData<EquipmentList>, EquipmentList>(NameDialog, { data, autoFocus: 'first-tabbable' })
         .afterClosed(),
     );
     if (!renamed) return;

@@ -14,13 +14,13 @@ import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
-import type { Project } from '@shared/projects/project-schemas';
+import { PROJECT_NAME_MAX_LENGTH, type Project } from '@shared/projects/project-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage } from '../../core/api-errors';
 import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
 import { NewProjectDialog } from '../new-project-dialog/new-project-dialog';
 import { ProjectsApi } from '../projects-api';
-import { RenameProjectDialog, type RenameProjectDialogData } from '../rename-project-dialog/rename-project-dialog';
+import { NameDialog, type NameDialogData } from '../../ui/name-dialog/name-dialog';
 
 @Component({
   selector: 'app-project-list-page',
@@ -125,12 +125,24 @@ export class ProjectListPage {
   }
 
   protected async rename(project: Project): Promise<void> {
+    /** The project as last loaded: its version is the one a save is made from. */
+    let current = project;
+    const data: NameDialogData<Project> = {
+      title: 'Rename project',
+      label: 'Project name',
+      initial: project.name,
+      submitLabel: 'Rename',
+      maxLength: PROJECT_NAME_MAX_LENGTH,
+      requiredMessage: 'Enter a project name',
+      closeIfUnchanged: true,
+      save: (name) => this.api.update(current.id, { version: current.version, name }),
+      reload: async () => {
+        current = await this.api.get(current.id);
+      },
+    };
     const renamed = await firstValueFrom(
       this.dialog
-        .open<RenameProjectDialog, RenameProjectDialogData, Project>(RenameProjectDialog, {
-          data: { project },
-          autoFocus: 'first-tabbable',
-        })
+        .open<NameDialog<Project>, NameDialogData<Project>, Project>(NameDialog, { data, autoFocus: 'first-tabbable' })
         .afterClosed(),
     );
     if (!renamed) return;

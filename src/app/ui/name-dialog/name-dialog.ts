@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { applyApiErrors, fieldError } from '../../core/api-errors';
+import { apiErrorCode, apiErrorMessage, applyApiErrors, fieldError } from '../../core/api-errors';
 
 export interface NameDialogData<T> {
   title: string;
@@ -25,6 +25,13 @@ export interface NameDialogData<T> {
   autocomplete?: string;
   /** Saves the name; the dialog closes with its answer, or shows the error and stays open. */
   save: (name: string) => Promise<T>;
+  /**
+   * For a rename: loads the thing again after someone else saved it first (409 `stale_update`), so
+   * that the typed name can be saved over the latest version. The dialog then offers "Reload".
+   */
+  reload?: () => Promise<void>;
+  /** Close without saving when the name is left as it was (a rename). */
+  closeIfUnchanged?: boolean;
 }
 
 /** Asks for a name and saves it through the caller's `save`; closes with what `save` answered. */
@@ -41,6 +48,9 @@ export interface NameDialogData<T> {
         @if (formError()) {
           <div class="tr-alert" role="alert">
             <span>{{ formError() }}</span>
+            @if (stale()) {
+              <button mat-button type="button" [disabled]="pending()" (click)="reload()">Reload</button>
+            }
           </div>
         }
         <mat-form-field class="name">
@@ -73,6 +83,9 @@ export interface NameDialogData<T> {
       margin: 0 0 0.75rem;
       max-width: 400px;
     }
+    .tr-alert {
+      align-items: center;
+    }
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -85,6 +98,8 @@ export class NameDialog<T> {
   });
   protected readonly pending = signal(false);
   protected readonly formError = signal('');
+  /** Someone else saved first (a rename with `reload`). */
+  protected readonly stale = signal(false);
   protected readonly fieldError = fieldError;
 
   protected async submit(): Promise<void> {
@@ -95,12 +110,34 @@ export class NameDialog<T> {
       this.form.markAllAsTouched();
       return;
     }
+    if (this.data.closeIfUnchanged && name === this.data.initial) {
+      this.dialogRef.close();
+      return;
+    }
+    await this.run(async () => {
+      this.dialogRef.close(await this.data.save(name));
+    });
+  }
+
+  /** Loads the latest version through the caller's `reload`; the typed name stays. */
+  protected async reload(): Promise<void> {
+    const reload = this.data.reload;
+    if (reload) await this.run(reload);
+  }
+
+  private async run(action: () => Promise<void>): Promise<void> {
     this.pending.set(true);
     this.formError.set('');
+    this.stale.set(false);
     try {
-      this.dialogRef.close(await this.data.save(name));
+      await action();
     } catch (err) {
-      this.formError.set(applyApiErrors(this.form, err));
+      if (this.data.reload && apiErrorCode(err) === 'stale_update') {
+        this.stale.set(true);
+        this.formError.set(apiErrorMessage(err));
+      } else {
+        this.formError.set(applyApiErrors(this.form, err));
+      }
     } finally {
       this.pending.set(false);
       this.cdr.markForCheck();
