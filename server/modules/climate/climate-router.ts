@@ -1,4 +1,4 @@
-import { Router } from 'express';
+import { Router, type RequestHandler } from 'express';
 import type { Knex } from 'knex';
 import multer from 'multer';
 import { z } from 'zod';
@@ -25,6 +25,29 @@ const mappingSchema = z.partialRecord(z.enum(csvFields), z.string().min(1).max(2
 const UPLOAD_HOURS = 24;
 
 const siteNotFound = () => new HttpError(404, 'not_found', 'That climate site was not found');
+
+/** Multipart framing around the files: a request declaring more than this over the upload limit is refused before it is read. */
+const MULTIPART_SLACK_BYTES = 1024 * 1024;
+
+/** 413 at once for an upload whose declared length is over the limit (nothing of it is read or kept). */
+const declaredSizeCheck: RequestHandler = (req, _res, next) => {
+  const declared = Number(req.headers['content-length']);
+  if (Number.isFinite(declared) && declared > CLIMATE_UPLOAD_MAX_BYTES + MULTIPART_SLACK_BYTES) {
+    next(new HttpError(413, 'file_too_large', `An upload can hold at most ${CLIMATE_UPLOAD_MAX_BYTES / 1024 / 1024} MB`));
+    return;
+  }
+  next();
+};
+
+/**
+ * The name of an uploaded file as shown back: its last path part only (whatever folders a client
+ * claims, with / or \\), without control characters, at most 200 characters. Nothing is written to disk.
+ */
+export function baseName(claimed: string): string {
+  const last = claimed.split(/[/\\]/).pop()?.replace(/[\u0000-\u001f\u007f]/g, '').trim() ?? '';
+  const name = last === '.' || last === '..' ? '' : last.slice(0, 200);
+  return name || 'upload';
+}
 
 const upload = multer({
   storage: multer.memoryStorage(),
@@ -101,6 +124,7 @@ export function climateRouter(db: Knex): Router {
   router.post(
     '/climate-sites/:siteId/uploads',
     authorize(db, 'project:write'),
+    declaredSizeCheck,
     upload.array('files', CLIMATE_UPLOAD_MAX_FILES),
     async (req, res) => {
       const { siteId } = siteParam.parse(req.params);
@@ -127,13 +151,13 @@ export function climateRouter(db: Knex): Router {
         throw new HttpError(413, 'file_too_large', `An upload can hold at most ${CLIMATE_UPLOAD_MAX_BYTES / 1024 / 1024} MB`);
       }
       const { series, format, rowCount } = readWeatherFiles(
-        files.map((f) => ({ name: f.originalname, content: f.buffer })),
+        files.map((f) => ({ name: baseName(f.originalname), content: f.buffer })),
         { format: fields.format, mapping },
       );
       const stored = atStoragePrecision(series);
       const analysis = analyse(stored, site.elevationM);
       const { result, quality } = analysis;
-      const fileName = files.length === 1 ? (files[0]?.originalname ?? 'upload') : `${files.length} files`;
+      const fileName = files.length === 1 ? baseName(files[0]?.originalname ?? '') : `${files.length} files`;
       const computed = storedComputation(analysis, { fileName, rowCount });
       const expiresAt = new Date(Date.now() + UPLOAD_HOURS * 3_600_000);
       const summary = qualitySummary(quality);

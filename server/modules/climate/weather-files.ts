@@ -1,4 +1,5 @@
 import { gunzipSync } from 'node:zlib';
+import { CLIMATE_UPLOAD_MAX_BYTES } from '@shared/climate-sites/climate-site-schemas';
 import type { HourlySeries } from '@shared/climate/hourly-series';
 import { createParser, detectFormat, type CsvMapping, type WeatherFileFormat } from '@shared/climate/readers';
 import type { FieldIssue } from '@shared/api/api-error';
@@ -10,7 +11,11 @@ export interface WeatherFile {
   content: Buffer;
 }
 
-const MAX_UNPACKED_BYTES = 400 * 1024 * 1024;
+/** A compressed file may unpack to no more than an uncompressed one may be (a "zip bomb" is refused early). */
+export const MAX_UNPACKED_BYTES = CLIMATE_UPLOAD_MAX_BYTES;
+/** All the files of one upload together, unpacked (30 years of ISD-Lite is about 16 MB). */
+export const MAX_UNPACKED_TOTAL_BYTES = 4 * CLIMATE_UPLOAD_MAX_BYTES;
+const MB = 1024 * 1024;
 const MAX_LISTED_PROBLEMS = 10;
 
 /** Text of an uploaded file: gzip is unpacked; anything that is not text is refused (checked from the content, not the name). */
@@ -19,7 +24,10 @@ export function fileText(file: WeatherFile): string {
   if (bytes.length >= 2 && bytes[0] === 0x1f && bytes[1] === 0x8b) {
     try {
       bytes = gunzipSync(bytes, { maxOutputLength: MAX_UNPACKED_BYTES });
-    } catch {
+    } catch (err) {
+      if ((err as { code?: string }).code === 'ERR_BUFFER_TOO_LARGE') {
+        throw new HttpError(413, 'file_too_large', `${file.name} unpacks to more than ${MAX_UNPACKED_BYTES / MB} MB; nothing was stored`);
+      }
       throw new HttpError(415, 'unsupported_file', `${file.name} looks compressed but could not be unpacked`);
     }
   }
@@ -48,8 +56,13 @@ export function readWeatherFiles(
   let format: WeatherFileFormat | undefined;
   let rowCount = 0;
   let problemCount = 0;
+  let unpacked = 0;
   for (const file of files) {
     const text = fileText(file);
+    unpacked += text.length;
+    if (unpacked > MAX_UNPACKED_TOTAL_BYTES) {
+      throw new HttpError(413, 'file_too_large', `The files of one upload may hold at most ${MAX_UNPACKED_TOTAL_BYTES / MB} MB of text unpacked; nothing was stored`);
+    }
     const firstLine = text.slice(0, !text.includes('\n') ? text.length : text.indexOf('\n')).trim();
     const fileFormat = options.format === 'auto' ? detectFormat(firstLine) : options.format;
     if (format && fileFormat !== format) {
