@@ -7,6 +7,9 @@ const entrySchema = z.object({ id: z.string(), type: z.string(), detail: z.unkno
 const listSchema = z.array(entrySchema);
 
 const LABELS: Record<string, string> = {
+  account_created: 'Created the organisation’s account',
+  member_joined: 'Joined the organisation',
+  password_reset: 'Reset their password',
   sign_in: 'Signed in',
   sign_in_failed: 'Failed sign-in',
   sign_out_everywhere: 'Signed out everywhere',
@@ -74,6 +77,11 @@ const LABELS: Record<string, string> = {
 export class AuditLog {
   private readonly log = httpResource(() => '/api/v1/audit', { parse: listSchema.parse });
   protected readonly entries = computed(() => (this.log.hasValue() ? this.log.value() : []));
+  /** Reads the log again (after a change on the page that it records). */
+  reload(): void {
+    this.log.reload();
+  }
+
   protected label(type: string): string {
     return LABELS[type] ?? type;
   }

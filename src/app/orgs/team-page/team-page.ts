@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, inject, signal, viewChild } from '@angular/core';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -52,6 +52,9 @@ export class TeamPage {
   protected readonly roleLabels = roleLabels;
   protected readonly fieldError = fieldError;
 
+  // queries
+  private readonly auditLog = viewChild(AuditLog);
+
   protected readonly members = this.api.membersResource();
   protected readonly invitations = this.api.invitationsResource();
   protected readonly canManage = computed(() => this.auth.can('member:manage'));
@@ -84,6 +87,7 @@ export class TeamPage {
     });
     // Reload in every case so a refused change puts the select back.
     this.members.reload();
+    this.auditLog()?.reload();
   }
 
   protected async removeMember(member: Member): Promise<void> {
@@ -103,6 +107,7 @@ export class TeamPage {
       if (member.userId === this.auth.user()?.id) await this.auth.refresh();
     });
     this.members.reload();
+    this.auditLog()?.reload();
   }
 
   protected async sendInvitation(formDirective: FormGroupDirective): Promise<void> {
@@ -119,6 +124,7 @@ export class TeamPage {
       this.snackBar.open(`Invitation sent to ${invitation.email}`, 'Close', { duration: 4000 });
       formDirective.resetForm({ email: '', role: 'designer' });
       this.invitations.reload();
+      this.auditLog()?.reload();
     } catch (err) {
       this.inviteError.set(applyApiErrors(this.inviteForm, err));
     } finally {
@@ -133,6 +139,7 @@ export class TeamPage {
       this.snackBar.open(`Invitation for ${invitation.email} revoked`, 'Close', { duration: 4000 });
     });
     this.invitations.reload();
+    this.auditLog()?.reload();
   }
 
   protected roleLabel(role: Role): string {
