@@ -1,5 +1,6 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
+import { createAccountThroughUi } from './support/accounts';
 import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -17,12 +18,11 @@ describe('plans and billing in a real browser', () => {
     const page = await context.newPage();
     guardOffline(page, e2e.baseUrl, offenders);
     const stamp = Date.now().toString(36);
-    await page.goto(e2e.baseUrl + '/create-account');
-    await page.getByLabel(/^Name/).fill('Olive Owner');
-    await page.getByLabel(/^E-mail/).fill(`billing.${stamp}@example.test`);
-    await page.getByLabel(/^Password/).fill('a long enough passphrase');
-    await page.getByRole('button', { name: 'Create account' }).click();
-    await page.waitForURL(/\/projects$/);
+    await createAccountThroughUi(page, e2e.baseUrl, {
+      name: 'Olive Owner',
+      email: `billing.${stamp}@example.test`,
+      password: 'a long enough passphrase',
+    });
     for (const name of ['First house', 'Second house', 'Third house']) {
       const res = await page.request.post(e2e.baseUrl + '/api/v1/projects', { data: { name }, headers: { 'X-Requested-With': 'tailroom' } });
       assert.equal(res.status(), 201);

@@ -3,6 +3,7 @@ import { after, before, describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
 import { buildingSchema } from '../shared/building/building-schemas';
 import { heatLoss } from '../shared/building/heat-loss';
+import { createAccountThroughUi } from './support/accounts';
 import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -41,12 +42,11 @@ describe('a project’s building in a real browser', () => {
     guardOffline(page, e2e.baseUrl, offenders);
     const stamp = Date.now().toString(36);
 
-    await page.goto(e2e.baseUrl + '/create-account');
-    await page.getByLabel(/^Name/).fill('Bea Builder');
-    await page.getByLabel(/^E-mail/).fill(`building.${stamp}@example.test`);
-    await page.getByLabel(/^Password/).fill('a long enough passphrase');
-    await page.getByRole('button', { name: 'Create account' }).click();
-    await page.waitForURL(/\/projects$/);
+    await createAccountThroughUi(page, e2e.baseUrl, {
+      name: 'Bea Builder',
+      email: `building.${stamp}@example.test`,
+      password: 'a long enough passphrase',
+    });
     await page.getByRole('radio', { name: 'IP units (inch-pound)' }).click();
 
     // A site with published values (through the API, with the page's session).

@@ -5,6 +5,7 @@ import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
 import { DEMO_SITES, generateDemoSeries, seriesToCsv } from '../shared/climate/demo-weather';
 import { computeDesignConditions } from '../shared/climate/design-conditions';
+import { createAccountThroughUi } from './support/accounts';
 import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -37,12 +38,11 @@ describe('climate sites in a real browser', () => {
     guardOffline(page, e2e.baseUrl, offenders);
     const stamp = Date.now().toString(36);
 
-    await page.goto(e2e.baseUrl + '/create-account');
-    await page.getByLabel(/^Name/).fill('Cleo Climate');
-    await page.getByLabel(/^E-mail/).fill(`climate.${stamp}@example.test`);
-    await page.getByLabel(/^Password/).fill('a long enough passphrase');
-    await page.getByRole('button', { name: 'Create account' }).click();
-    await page.waitForURL(/\/projects$/);
+    await createAccountThroughUi(page, e2e.baseUrl, {
+      name: 'Cleo Climate',
+      email: `climate.${stamp}@example.test`,
+      password: 'a long enough passphrase',
+    });
 
     await page.getByRole('link', { name: 'Climate sites' }).first().click();
     await page.getByText('No climate sites yet').waitFor();

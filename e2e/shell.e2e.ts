@@ -1,6 +1,7 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
+import { createAccountThroughUi } from './support/accounts';
 import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -28,6 +29,18 @@ async function shippedFontLoaded(page: Page): Promise<boolean> {
   });
 }
 
+/** Screenshots of the page at the desktop width it has and at a phone's, named `<name>-<width>`. */
+async function screenshotAtWidths(page: Page, name: string): Promise<void> {
+  const size = page.viewportSize() ?? { width: 1280, height: 800 };
+  await page.evaluate(async () => {
+    await document.fonts.ready;
+  });
+  await screenshot(page, `${name}-${size.width}`);
+  await page.setViewportSize({ width: 390, height: 844 });
+  await screenshot(page, `${name}-390`);
+  await page.setViewportSize(size);
+}
+
 /** Signs out through the user menu. */
 async function signOut(page: Page): Promise<void> {
   await page.getByRole('button', { name: 'Account' }).click();
@@ -50,20 +63,30 @@ describe('the app shell in a real browser', () => {
     assert.match(await fontFamilyOf(owner, 'body'), /Source Sans 3/);
     await screenshot(owner, 'sign-in-1280');
 
-    // Create account.
+    // Create account: the form, the e-mailed link from the Dev outbox, then the password.
     await owner.getByRole('link', { name: 'Create an account' }).click();
     await owner.waitForURL(/\/create-account/);
-    await owner.getByLabel(/^Name/).fill('Olive Owner');
-    await owner.getByLabel(/^E-mail/).fill(ownerEmail);
-    await owner.getByLabel(/^Password/).fill(password);
-    await owner.getByLabel(/^Organisation name/).fill(orgName);
-    await owner.getByRole('button', { name: 'Create account' }).click();
+    const signUpLink = await createAccountThroughUi(
+      owner,
+      e2e.baseUrl,
+      { name: 'Olive Owner', email: ownerEmail, password, organizationName: orgName },
+      {
+        sent: () => screenshotAtWidths(owner, 'sign-up-sent'),
+        finishing: () => screenshotAtWidths(owner, 'finish-sign-up'),
+      },
+    );
 
     // The empty Projects page is home.
-    await owner.waitForURL(/\/projects$/);
     await owner.getByText('No projects yet').waitFor();
     await owner.getByRole('button', { name: `Organisation: ${orgName}` }).waitFor();
     await screenshot(owner, 'projects-1280');
+
+    // The e-mailed link works once.
+    await owner.goto(signUpLink);
+    await owner.getByTestId('sign-up-link-invalid').getByRole('link', { name: 'Start again' }).waitFor();
+    await screenshot(owner, 'finish-sign-up-used-1280');
+    await owner.goto(e2e.baseUrl + '/projects');
+    await owner.getByText('No projects yet').waitFor();
 
     // Invite a designer.
     await owner.getByRole('link', { name: 'Team' }).first().click();

@@ -4,7 +4,6 @@ import connectPgSimple from 'connect-pg-simple';
 import express, { type Express, type Router } from 'express';
 import session from 'express-session';
 import type { Knex } from 'knex';
-import passport from 'passport';
 import pg from 'pg';
 import { pinoHttp } from 'pino-http';
 import type { Logger } from 'pino';
@@ -13,7 +12,7 @@ import { GUARD, type Guard } from './http/authorize';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import { csrfProtection, rateLimits, securityHeaders } from './http/security';
 import type { Mailer } from './mail/mailer';
-import { authRouter, configurePassport, SESSION_COOKIE } from './modules/auth/auth-router';
+import { authRouter, createPassport, SESSION_COOKIE } from './modules/auth/auth-router';
 import { devOutboxRouter } from './modules/dev/dev-outbox-router';
 import { climateRouter } from './modules/climate/climate-router';
 import { equipmentRouter } from './modules/equipment/equipment-router';
@@ -100,16 +99,17 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
       },
     }),
   );
-  configurePassport(db);
-  app.use('/api', passport.initialize(), passport.session() as express.RequestHandler);
+  const auth = createPassport(db);
+  app.use('/api', auth.initialize(), auth.session() as express.RequestHandler);
 
   // The provider's webhook reads its raw body (the signature covers the exact bytes): before the JSON parser.
   const billing = billingRouter(db, config);
   app.post('/api/v1/billing/webhook', ...billing.webhook);
   app.use('/api/v1', express.json({ limit: '1mb', strict: true }));
   app.use('/api', csrfProtection(config));
-  const limits = rateLimits();
+  const limits = rateLimits(config);
   app.post('/api/v1/auth/sign-in', limits.signIn);
+  app.post('/api/v1/auth/sign-up', ...limits.signUp);
   app.post('/api/v1/auth/password-resets', limits.passwordReset);
   app.post('/api/v1/invitations', limits.invitations);
   const sweepPool = createSweepPool();
@@ -119,7 +119,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
     mounted.push({ prefix, router });
     app.use(prefix, router);
   };
-  mount('/api/v1', authRouter(db, config, mailer));
+  mount('/api/v1', authRouter(db, config, mailer, auth));
   mount('/api/v1', orgsRouter(db, config, mailer));
   mount('/api/v1/projects', projectsRouter(db));
   mount('/api/v1/projects', scenariosRouter(db, sweepPool, config.databaseUrl));

@@ -31,6 +31,8 @@ const envSchema = z.object({
   /** Lifetime of password-reset links, minutes. */
   RESET_LINK_MINUTES: z.coerce.number().int().min(1).default(60),
   /** Lifetime of invitation links, days. */
+  /** Sign-up requests per hour from one network address (each sends an e-mail). */
+  SIGN_UP_PER_HOUR: z.coerce.number().int().min(1).default(20),
   INVITATION_DAYS: z.coerce.number().int().min(1).default(7),
   /** The payment provider: keys, and where its API is (the local fake in development and tests). */
   STRIPE_SECRET_KEY: z.string().optional(),
@@ -59,6 +61,7 @@ export type Config = Readonly<{
   logLevel: string;
   resetLinkMinutes: number;
   invitationDays: number;
+  signUpPerHour: number;
   stripe: { secretKey: string; webhookSecret: string; host?: string; port?: number; protocol?: 'http' | 'https' };
 }>;
 
@@ -90,6 +93,7 @@ export function parseConfig(env: NodeJS.ProcessEnv): Config {
     logLevel: e.LOG_LEVEL,
     resetLinkMinutes: e.RESET_LINK_MINUTES,
     invitationDays: e.INVITATION_DAYS,
+    signUpPerHour: e.SIGN_UP_PER_HOUR,
     stripe: {
       secretKey: e.STRIPE_SECRET_KEY ?? FAKE_STRIPE_SECRET_KEY,
       webhookSecret: e.STRIPE_WEBHOOK_SECRET ?? FAKE_STRIPE_WEBHOOK_SECRET,

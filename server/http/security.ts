@@ -78,7 +78,7 @@ const emailKey = (body: unknown) =>
     : '';
 
 /** Rate limits (in memory: one server process). */
-export function rateLimits() {
+export function rateLimits(config: Config) {
   return {
     /** Failed sign-ins: 10 per 15 minutes per address and e-mail. */
     signIn: limiter({
@@ -95,6 +95,11 @@ export function rateLimits() {
       limit: 5,
       keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${emailKey(req.body)}`,
     }),
+    /** Sign-ups (each sends an e-mail): SIGN_UP_PER_HOUR (20) per hour per network address, and 5 per hour to one e-mail address from anywhere. */
+    signUp: [
+      limiter({ what: 'sign-up requests', windowMs: 60 * 60_000, limit: config.signUpPerHour, keyGenerator: (req) => ipKeyGenerator(req.ip ?? '') }),
+      limiter({ what: 'sign-up requests for this e-mail address', windowMs: 60 * 60_000, limit: 5, keyGenerator: (req) => `email|${emailKey(req.body)}` }),
+    ],
     /** Invitations: 30 per hour per address. */
     invitations: limiter({ what: 'invitations', windowMs: 60 * 60_000, limit: 30, keyGenerator: (req) => ipKeyGenerator(req.ip ?? '') }),
   };

@@ -5,11 +5,16 @@ import type { OutgoingMail } from './mailer';
 const escapeHtml = (s: string) =>
   s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] ?? c);
 
-function layout(paragraphs: string[], link: { href: string; label: string }): string {
+interface MailLink { href: string; label: string }
+
+function layout(paragraphs: string[], link: MailLink | MailLink[]): string {
   const body = paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join('\n');
+  const links = (Array.isArray(link) ? link : [link])
+    .map((l) => `<p><a href="${escapeHtml(l.href)}" style="color: #1D4E5F">${escapeHtml(l.label)}</a></p>`)
+    .join('\n');
   return `<!doctype html><html><body style="font-family: system-ui, sans-serif; color: #1b2a30">
 ${body}
-<p><a href="${escapeHtml(link.href)}" style="color: #1D4E5F">${escapeHtml(link.label)}</a></p>
+${links}
 <p style="color: #5b6b70; font-size: 13px">Tailroom</p>
 </body></html>`;
 }
@@ -24,6 +29,36 @@ export function passwordResetMail(to: string, link: string, minutes: number): Ou
     subject: 'Reset your Tailroom password',
     text: `${lines.join('\n\n')}\n\n${link}\n`,
     html: layout(lines, { href: link, label: 'Choose a new password' }),
+  };
+}
+
+export function finishSignUpMail(to: string, link: string, hours: number): OutgoingMail {
+  const lines = [
+    'Someone asked to create a Tailroom account with this e-mail address.',
+    `To finish, follow the link below and choose your password. It works once, for ${hours} hours. If it was not you, ignore this message: no account is made.`,
+  ];
+  return {
+    to,
+    subject: 'Finish creating your Tailroom account',
+    text: `${lines.join('\n\n')}\n\n${link}\n`,
+    html: layout(lines, { href: link, label: 'Choose a password and finish' }),
+  };
+}
+
+/** To an address that asked to sign up but already has an account (the sign-up page does not say so). */
+export function accountExistsMail(to: string, signInLink: string, resetLink: string): OutgoingMail {
+  const lines = [
+    'Someone asked to create a Tailroom account with this e-mail address, but it already has one.',
+    'Sign in with it, or choose a new password if you have forgotten yours. If it was not you, ignore this message: nothing has changed.',
+  ];
+  return {
+    to,
+    subject: 'You already have a Tailroom account',
+    text: `${lines.join('\n\n')}\n\nSign in: ${signInLink}\nForgotten password: ${resetLink}\n`,
+    html: layout(lines, [
+      { href: signInLink, label: 'Sign in' },
+      { href: resetLink, label: 'Choose a new password' },
+    ]),
   };
 }
 

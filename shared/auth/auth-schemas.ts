@@ -39,17 +39,50 @@ export const unitSystems = ['SI', 'IP'] as const;
 export const unitSystemSchema = z.enum(unitSystems);
 export type UnitSystem = z.infer<typeof unitSystemSchema>;
 
-/** POST /api/v1/auth/sign-up */
+/** Where to go after signing in or finishing an account: a path of this site only. */
+export const returnUrlSchema = z
+  .string()
+  .max(500, 'That return address is too long')
+  .regex(/^\/(?![/\\])[^\s]*$/, 'Use a path of this site');
+
+/**
+ * POST /api/v1/auth/sign-up: the first step of a new account. The answer is the same (202) whether or
+ * not the address already has an account, so that nobody can learn who uses Tailroom: a new address
+ * gets a link to finish (choosing the password there), a known one a note saying it has an account.
+ */
 export const signUpInputSchema = z.strictObject({
   email: emailSchema,
   name: personNameSchema,
-  password: passwordSchema,
-  /** Name of the new organisation; defaults to "<name>'s firm". Ignored with an invitation. */
+  /** Name of the new organisation; defaults to "<name>'s firm". */
   organizationName: organizationNameSchema.optional(),
-  /** When present, the new account joins that invitation's organisation instead of creating one. */
-  invitationToken: linkTokenSchema.optional(),
+  /** Where the e-mailed link leads after the account is made (a path of this site). */
+  returnUrl: returnUrlSchema.optional(),
 });
 export type SignUpInput = z.infer<typeof signUpInputSchema>;
+
+/** The 202 answer to POST /api/v1/auth/sign-up. */
+export const signUpStartedSchema = z.object({ email: z.string(), message: z.string() });
+export type SignUpStarted = z.infer<typeof signUpStartedSchema>;
+
+/** GET /api/v1/auth/sign-ups/:token: what the e-mailed link is for (400 `invalid_sign_up_link` when it is used or expired). */
+export const pendingSignUpSchema = z.object({
+  email: z.string(),
+  name: z.string(),
+  organizationName: z.string().nullable(),
+  expiresAt: z.string(),
+});
+export type PendingSignUp = z.infer<typeof pendingSignUpSchema>;
+
+/** POST /api/v1/auth/sign-ups/:token: the password, which makes the account (201 with the session). */
+export const finishSignUpSchema = z.strictObject({ password: passwordSchema });
+export type FinishSignUp = z.infer<typeof finishSignUpSchema>;
+
+/** POST /api/v1/invitation-links/:token/account: a new account for the invited address (201 with the session). */
+export const invitedAccountInputSchema = z.strictObject({
+  name: personNameSchema,
+  password: passwordSchema,
+});
+export type InvitedAccountInput = z.infer<typeof invitedAccountInputSchema>;
 
 /** POST /api/v1/auth/sign-in */
 export const signInInputSchema = z.strictObject({

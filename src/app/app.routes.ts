@@ -31,6 +31,11 @@ export const routes: Routes = [
     loadComponent: () => import('./auth/reset-password-page/reset-password-page').then((m) => m.ResetPasswordPage),
   },
   {
+    path: 'finish-sign-up/:token',
+    title: 'Finish your account · Tailroom',
+    loadComponent: () => import('./auth/finish-sign-up-page/finish-sign-up-page').then((m) => m.FinishSignUpPage),
+  },
+  {
     path: 'invitations/:token',
     title: 'Invitation · Tailroom',
     loadComponent: () => import('./orgs/invitation-page/invitation-page').then((m) => m.InvitationPage),

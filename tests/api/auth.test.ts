@@ -1,7 +1,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
-import { linkPath, PASSWORD, signUp, uniqueEmail, useTestApp, newAgent } from '../support/test-app';
+import { inviteMember, linkPath, linkToken, PASSWORD, signUp, uniqueEmail, useTestApp, newAgent } from '../support/test-app';
 
 const t = useTestApp();
 
@@ -12,63 +12,126 @@ const cookieOf = (res: request.Response): string => {
   return cookie;
 };
 
+/** Starts a sign-up and returns the token of the e-mailed link (and the 202 answer). */
+async function startSignUp(body: Record<string, unknown>) {
+  const email = String(body['email']).trim().toLowerCase();
+  const mail = t.sink.waitFor((m) => m.to.includes(email));
+  const res = await newAgent(t.app).post('/api/v1/auth/sign-up').send(body).expect(202);
+  const sent = await mail;
+  return { res, mail: sent, token: sent.text.includes('/finish-sign-up/') ? linkToken(sent.text, '/finish-sign-up/') : null };
+}
+
 describe('create account', () => {
-  it('creates the user, an organisation they own, and signs them in', async () => {
+  it('e-mails a link for a new address; the password chosen there makes the user, an organisation they own, and a session', async () => {
+    const { res, mail, token } = await startSignUp({ email: '  Ada@Example.TEST ', name: 'Ada Byrne' });
+    assert.equal(res.body.email, 'ada@example.test');
+    assert.match(res.body.message, /ada@example\.test/);
+    assert.equal(mail.subject, 'Finish creating your Tailroom account');
+    assert.ok(token);
+    assert.equal(await t.db('users').first(), undefined, 'no account before the link is followed');
+
     const agent = newAgent(t.app);
-    const res = await agent
-      .post('/api/v1/auth/sign-up')
-      .send({ email: '  Ada@Example.TEST ', name: 'Ada Byrne', password: PASSWORD })
-      .expect(201);
-    assert.equal(res.body.user.email, 'ada@example.test');
-    assert.equal(res.body.organizations.length, 1);
-    assert.equal(res.body.organizations[0].role, 'owner');
-    assert.equal(res.body.organizations[0].name, "Ada Byrne's firm");
-    assert.equal(res.body.currentOrganizationId, res.body.organizations[0].id);
+    const pending = await agent.get(`/api/v1/auth/sign-ups/${token}`).expect(200);
+    assert.deepEqual({ ...pending.body, expiresAt: undefined }, { email: 'ada@example.test', name: 'Ada Byrne', organizationName: null, expiresAt: undefined });
+    const hours = (Date.parse(pending.body.expiresAt) - Date.now()) / 3_600_000;
+    assert.ok(hours > 23.9 && hours <= 24, `the link works for 24 hours (${hours.toFixed(2)})`);
+
+    const done = await agent.post(`/api/v1/auth/sign-ups/${token}`).send({ password: PASSWORD }).expect(201);
+    assert.equal(done.body.user.email, 'ada@example.test');
+    assert.equal(done.body.organizations.length, 1);
+    assert.equal(done.body.organizations[0].role, 'owner');
+    assert.equal(done.body.organizations[0].name, "Ada Byrne's firm");
+    assert.equal(done.body.currentOrganizationId, done.body.organizations[0].id);
     const session = await agent.get('/api/v1/session').expect(200);
     assert.equal(session.body.user.name, 'Ada Byrne');
+    const events = await t.db('audit_events').where({ type: 'account_created' }).select('organization_id', 'actor_email');
+    assert.deepEqual(events, [{ organization_id: done.body.currentOrganizationId, actor_email: 'ada@example.test' }]);
+
+    // The link works once.
+    const again = await newAgent(t.app).post(`/api/v1/auth/sign-ups/${token}`).send({ password: PASSWORD }).expect(400);
+    assert.equal(again.body.error.code, 'invalid_sign_up_link');
+    await newAgent(t.app).get(`/api/v1/auth/sign-ups/${token}`).expect(400);
   });
 
-  it('stores an argon2id hash with the OWASP parameters (m=19456 KiB, t=2, p=1), never the password', async () => {
-    // OWASP Password Storage Cheat Sheet, "Argon2id": m=19456 (19 MiB), t=2, p=1.
-    const { email } = await signUp(t.app);
-    const row = await t.db('users').where({ email }).first<{ password_hash: string }>('password_hash');
-    assert.match(row.password_hash, /^\$argon2id\$v=19\$m=19456,t=2,p=1\$/);
-    assert.ok(!row.password_hash.includes(PASSWORD));
+  it('answers an address that has an account exactly as a new one, and e-mails it a note with no link to finish', async () => {
+    const { email } = await signUp(t, { name: 'First Owner' });
+    const fresh = await startSignUp({ email: uniqueEmail('fresh'), name: 'Someone' });
+    const taken = await startSignUp({ email: email.toUpperCase(), name: 'Twin' });
+    assert.equal(taken.res.status, fresh.res.status);
+    assert.deepEqual(Object.keys(taken.res.body).sort(), Object.keys(fresh.res.body).sort());
+    assert.equal(taken.res.body.message, fresh.res.body.message.replace(fresh.res.body.email, email));
+    assert.equal(taken.token, null, 'no finishing link to an address that has an account');
+    assert.equal(taken.mail.subject, 'You already have a Tailroom account');
+    assert.match(taken.mail.text, /\/sign-in/);
+    assert.match(taken.mail.text, /\/forgot-password/);
+    const count = await t.db('users').count<{ count: number }[]>('* as count');
+    assert.equal(count[0]?.count, 1);
   });
 
-  it('sets an httpOnly, SameSite=Lax session cookie', async () => {
-    const res = await request(t.app)
-      .post('/api/v1/auth/sign-up')
-      .send({ email: uniqueEmail(), name: 'Cookie Check', password: PASSWORD })
-      .expect(201);
+  it('uses the organisation name given, and carries a return path of this site in the link', async () => {
+    const { token, mail } = await startSignUp({ email: uniqueEmail(), name: 'Bo', organizationName: 'Bo Heating', returnUrl: '/invitations/abc?x=1' });
+    assert.match(mail.text, /\/finish-sign-up\/[A-Za-z0-9_-]+\?returnUrl=%2Finvitations%2Fabc%3Fx%3D1/);
+    const done = await newAgent(t.app).post(`/api/v1/auth/sign-ups/${token}`).send({ password: PASSWORD }).expect(201);
+    assert.equal(done.body.organizations[0].name, 'Bo Heating');
+    for (const returnUrl of ['//elsewhere.example/x', 'https://elsewhere.example/', '/\\elsewhere', 'relative']) {
+      const res = await newAgent(t.app).post('/api/v1/auth/sign-up').send({ email: uniqueEmail(), name: 'X', returnUrl }).expect(400);
+      assert.deepEqual(res.body.error.details.map((d: { path: string }) => d.path), ['returnUrl'], returnUrl);
+    }
+  });
+
+  it('sets an httpOnly, SameSite=Lax session cookie when the account is made', async () => {
+    const { token } = await startSignUp({ email: uniqueEmail(), name: 'Cookie Check' });
+    const res = await request(t.app).post(`/api/v1/auth/sign-ups/${token}`).send({ password: PASSWORD }).expect(201);
     const cookie = cookieOf(res);
     assert.match(cookie, /HttpOnly/i);
     assert.match(cookie, /SameSite=Lax/i);
   });
 
-  it('refuses a password shorter than 12 characters, with a field-level message, and stores nothing', async () => {
+  it('refuses a password shorter than 12 characters with a field-level message, keeping the link usable', async () => {
     const email = uniqueEmail();
-    const res = await request(t.app)
-      .post('/api/v1/auth/sign-up')
-      .send({ email, name: 'Short', password: 'elevenchars' })
-      .expect(400);
+    const { token } = await startSignUp({ email, name: 'Short' });
+    const res = await newAgent(t.app).post(`/api/v1/auth/sign-ups/${token}`).send({ password: 'elevenchars' }).expect(400);
     assert.equal(res.body.error.code, 'invalid_input');
     assert.deepEqual(
       res.body.error.details.map((d: { path: string }) => d.path),
       ['password'],
     );
     assert.equal(await t.db('users').where({ email }).first(), undefined);
+    await newAgent(t.app).post(`/api/v1/auth/sign-ups/${token}`).send({ password: PASSWORD }).expect(201);
   });
 
-  it('refuses a second account with the same e-mail (409)', async () => {
-    const { email } = await signUp(t.app);
-    const res = await request(t.app)
-      .post('/api/v1/auth/sign-up')
-      .send({ email: email.toUpperCase(), name: 'Twin', password: PASSWORD })
-      .expect(409);
-    assert.equal(res.body.error.code, 'email_taken');
-    const count = await t.db('users').count<{ count: number }[]>('* as count');
+  it('makes one account from two open links, and says so (409) to whoever follows the other', async () => {
+    const email = uniqueEmail();
+    const first = await startSignUp({ email, name: 'One' });
+    const second = await startSignUp({ email, name: 'Two' });
+    await newAgent(t.app).post(`/api/v1/auth/sign-ups/${second.token}`).send({ password: PASSWORD }).expect(201);
+    // Finishing ends every open request for the address.
+    const late = await newAgent(t.app).post(`/api/v1/auth/sign-ups/${first.token}`).send({ password: PASSWORD }).expect(400);
+    assert.equal(late.body.error.code, 'invalid_sign_up_link');
+    const count = await t.db('users').where({ email }).count<{ count: number }[]>('* as count');
     assert.equal(count[0]?.count, 1);
+  });
+
+  it('answers 409 email_taken to a link whose address got an account another way meanwhile', async () => {
+    const owner = await signUp(t);
+    const email = uniqueEmail('invitee');
+    const { token } = await startSignUp({ email, name: 'Invitee' });
+    await inviteMember(t, owner, 'viewer', email);
+    const res = await newAgent(t.app).post(`/api/v1/auth/sign-ups/${token}`).send({ password: PASSWORD }).expect(409);
+    assert.equal(res.body.error.code, 'email_taken');
+    const count = await t.db('users').where({ email }).count<{ count: number }[]>('* as count');
+    assert.equal(count[0]?.count, 1);
+  });
+
+  it('refuses an expired, unknown or malformed link with 400 and makes nothing', async () => {
+    const { token } = await startSignUp({ email: uniqueEmail(), name: 'Late' });
+    await t.db('sign_up_requests').update({ expires_at: t.db.raw("now() - interval '1 minute'") });
+    for (const link of [token, 'A'.repeat(43), 'not a token', '..%2F..%2Fetc']) {
+      const res = await newAgent(t.app).post(`/api/v1/auth/sign-ups/${link}`).send({ password: PASSWORD });
+      assert.equal(res.status, 400, String(link));
+      assert.equal(res.body.error.code, 'invalid_sign_up_link');
+    }
+    assert.equal(await t.db('users').first(), undefined);
   });
 });
 
@@ -91,7 +154,7 @@ describe('bad input gets a clear 4xx and stores nothing', () => {
       () =>
         request(t.app)
           .post('/api/v1/auth/sign-up')
-          .send({ email: 'x@example.test', name: 'X', password: PASSWORD, isAdmin: true }),
+          .send({ email: 'x@example.test', name: 'X', isAdmin: true }),
       400,
       'invalid_input',
     ],
@@ -100,7 +163,7 @@ describe('bad input gets a clear 4xx and stores nothing', () => {
       () =>
         request(t.app)
           .post('/api/v1/auth/sign-up')
-          .send({ email: 'x@example.test', name: 'y'.repeat(1_200_000), password: PASSWORD }),
+          .send({ email: 'x@example.test', name: 'y'.repeat(1_200_000) }),
       413,
       'payload_too_large',
     ],
@@ -119,6 +182,8 @@ describe('bad input gets a clear 4xx and stores nothing', () => {
       assert.ok(!JSON.stringify(res.body).includes('    at '), 'no stack trace');
       const users = await t.db('users').count<{ count: number }[]>('* as count');
       assert.equal(users[0]?.count, 0);
+      const requests = await t.db('sign_up_requests').count<{ count: number }[]>('* as count');
+      assert.equal(requests[0]?.count, 0);
     });
   }
 
@@ -138,7 +203,7 @@ describe('bad input gets a clear 4xx and stores nothing', () => {
 
 describe('sign in and sign out', () => {
   it('signs in with the right password and regenerates the session id', async () => {
-    const { email, agent } = await signUp(t.app);
+    const { email, agent } = await signUp(t);
     const first = await agent.post('/api/v1/auth/sign-in').send({ email, password: PASSWORD }).expect(200);
     const second = await agent.post('/api/v1/auth/sign-in').send({ email, password: PASSWORD }).expect(200);
     const id = (res: request.Response) => cookieOf(res).split(';')[0];
@@ -150,7 +215,7 @@ describe('sign in and sign out', () => {
   });
 
   it('answers a wrong password and an unknown e-mail alike', async () => {
-    const { email } = await signUp(t.app);
+    const { email } = await signUp(t);
     const wrong = await request(t.app).post('/api/v1/auth/sign-in').send({ email, password: 'not the password' }).expect(401);
     const unknown = await request(t.app)
       .post('/api/v1/auth/sign-in')
@@ -161,7 +226,7 @@ describe('sign in and sign out', () => {
   });
 
   it('signs out: the session ends on the server', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     await agent.get('/api/v1/members').expect(200);
     await agent.post('/api/v1/auth/sign-out').expect(204);
     await agent.get('/api/v1/members').expect(401);
@@ -170,7 +235,7 @@ describe('sign in and sign out', () => {
   });
 
   it('keeps sessions in PostgreSQL', async () => {
-    const { userId } = await signUp(t.app);
+    const { userId } = await signUp(t);
     const rows = await t.db.raw(`SELECT count(*)::int AS n FROM "session" WHERE (sess -> 'passport' ->> 'user') = ?`, [userId]);
     assert.equal(rows.rows[0].n, 1);
   });
@@ -178,7 +243,7 @@ describe('sign in and sign out', () => {
 
 describe('password reset by e-mail', () => {
   it('e-mails a single-use link whose token is stored only as a hash, and sets the new password', async () => {
-    const { email, agent: oldSession } = await signUp(t.app);
+    const { email, agent: oldSession } = await signUp(t);
     const mail = t.sink.waitFor((m) => m.to.includes(email));
     await request(t.app).post('/api/v1/auth/password-resets').send({ email }).expect(202);
     const message = await mail;
@@ -206,7 +271,7 @@ describe('password reset by e-mail', () => {
   });
 
   it('refuses an expired link', async () => {
-    const { email } = await signUp(t.app);
+    const { email } = await signUp(t);
     const mail = t.sink.waitFor((m) => m.to.includes(email));
     await request(t.app).post('/api/v1/auth/password-resets').send({ email }).expect(202);
     const token = linkPath((await mail).text, '/reset-password/').split('/').pop();
@@ -216,7 +281,7 @@ describe('password reset by e-mail', () => {
   });
 
   it('answers an unknown address exactly as a known one, and sends nothing', async () => {
-    const { email } = await signUp(t.app);
+    const { email } = await signUp(t);
     const known = await request(t.app).post('/api/v1/auth/password-resets').send({ email }).expect(202);
     const unknown = await request(t.app).post('/api/v1/auth/password-resets').send({ email: 'ghost@example.test' }).expect(202);
     assert.deepEqual(known.body, unknown.body);
@@ -235,7 +300,7 @@ describe('password reset by e-mail', () => {
 
 describe('preferences', () => {
   it('persists the unit system per user', async () => {
-    const { agent, email } = await signUp(t.app);
+    const { agent, email } = await signUp(t);
     const res = await agent.patch('/api/v1/me').send({ unitSystem: 'IP' }).expect(200);
     assert.equal(res.body.user.unitSystem, 'IP');
     await agent.post('/api/v1/auth/sign-out').expect(204);
@@ -245,7 +310,7 @@ describe('preferences', () => {
   });
 
   it('refuses an unknown unit system', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const res = await agent.patch('/api/v1/me').send({ unitSystem: 'metric' }).expect(400);
     assert.equal(res.body.error.details[0].path, 'unitSystem');
   });

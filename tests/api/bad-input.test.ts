@@ -9,7 +9,7 @@ const BODIES: unknown[] = [[], 'text', 42, null, {}, { version: 'one' }, { name:
 
 describe('malformed input on every write route', () => {
   it('answers 4xx in the error shape, never 500, and stores nothing', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const site = await agent.post('/api/v1/climate-sites').send({ name: 'S', sourceKind: 'hourly' }).expect(201);
     const project = await agent.post('/api/v1/projects').send({ name: 'P' }).expect(201);
     const list = await agent.post('/api/v1/equipment-lists').send({ name: 'L' }).expect(201);

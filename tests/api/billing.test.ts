@@ -70,7 +70,7 @@ function signed(event: object): { body: string; header: string } {
 
 describe('billing', () => {
   it('refuses the fourth project on the free plan with 402, then allows it once the provider confirms a paid plan', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const from = fake.deliveries().length;
     for (const name of ['One', 'Two', 'Three']) await owner.agent.post('/api/v1/projects').send({ name }).expect(201);
     const refused = await owner.agent.post('/api/v1/projects').send({ name: 'Four' }).expect(402);
@@ -99,7 +99,7 @@ describe('billing', () => {
   });
 
   it('keeps the free plan after a declined card', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const before = fake.deliveries().length;
     const paid = await upgrade(owner, TEST_CARDS.declined);
     assert.equal(paid.status, 402);
@@ -121,7 +121,7 @@ describe('billing', () => {
   });
 
   it('records a replayed event once, and ends in the provider’s state when events arrive out of order', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     await upgrade(owner);
     const account = await t.db('billing_accounts').where({ organization_id: owner.organizationId }).first<{ subscription_id: string }>('subscription_id');
     // The provider cancels the subscription; its own event is delivered and applied.
@@ -157,7 +157,7 @@ describe('billing', () => {
   });
 
   it('retries delivery while Tailroom cannot be reached, and applies each event once when it can', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const from = fake.deliveries().length;
     fake.setWebhookUrl('http://127.0.0.1:9/api/v1/billing/webhook');
     const res = await owner.agent.post('/api/v1/billing/checkout').send({ plan: 'firm', interval: 'year' }).expect(201);
@@ -176,7 +176,7 @@ describe('billing', () => {
   });
 
   it('cancels at the end of the period: the plan stays until then', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     await upgrade(owner);
     await owner.agent.post('/api/v1/billing/cancel').send({}).expect(202);
     await fake.idle();
@@ -189,14 +189,14 @@ describe('billing', () => {
   });
 
   it('holds two members on the free plan, counting open invitations', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('first'), role: 'viewer' }).expect(201);
     const refused = await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('second'), role: 'viewer' }).expect(402);
     assert.match((refused.body as { error: { message: string } }).error.message, /Starter plan holds 2 members/);
   });
 
   it('is for owners only', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const designer = await inviteMember(t, owner, 'designer');
     await designer.agent.get('/api/v1/billing').expect(403);
     await designer.agent.post('/api/v1/billing/checkout').send({ plan: 'crew', interval: 'month' }).expect(403);

@@ -28,7 +28,7 @@ const count = async (table: string) => (await t.db(table).count<{ n: number }[]>
 
 describe('climate sites with published values', () => {
   it('stores typed-in values with their source, and lists them', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const res = await agent
       .post('/api/v1/climate-sites')
       .send({ name: 'Published site', sourceKind: 'published', elevationM: 300, publishedValues: published })
@@ -41,7 +41,7 @@ describe('climate sites with published values', () => {
   });
 
   it('refuses inconsistent values with a field-level message and stores nothing', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const res = await agent
       .post('/api/v1/climate-sites')
       .send({ name: 'Bad', sourceKind: 'published', publishedValues: { ...published, heating: { db99_6: -10, db99: -20 } } })
@@ -53,7 +53,7 @@ describe('climate sites with published values', () => {
   });
 
   it('lets viewers read but not write, and hides other organisations’ sites (404)', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const created = await owner.agent
       .post('/api/v1/climate-sites')
       .send({ name: 'Ours', sourceKind: 'published', publishedValues: published })
@@ -63,7 +63,7 @@ describe('climate sites with published values', () => {
     await viewer.post('/api/v1/climate-sites').send({ name: 'No', sourceKind: 'published', publishedValues: published }).expect(403);
     await viewer.delete(`/api/v1/climate-sites/${created.body.id}`).expect(403);
 
-    const outsider = await signUp(t.app);
+    const outsider = await signUp(t);
     await outsider.agent.get(`/api/v1/climate-sites/${created.body.id}`).expect(404);
     await outsider.agent.patch(`/api/v1/climate-sites/${created.body.id}`).send({ name: 'Taken' }).expect(404);
     await outsider.agent.delete(`/api/v1/climate-sites/${created.body.id}`).expect(404);
@@ -73,7 +73,7 @@ describe('climate sites with published values', () => {
 
 describe('hourly records: upload, check, confirm', () => {
   it('parses and checks an upload without storing it, then stores it on confirmation', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const siteId = await hourlySite(agent);
     const up = await agent
       .post(`/api/v1/climate-sites/${siteId}/uploads`)
@@ -119,7 +119,7 @@ describe('hourly records: upload, check, confirm', () => {
   });
 
   it('accepts several gzipped ISD-Lite yearly files in one upload', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const siteId = await hourlySite(agent);
     const years = [2021, 2022].map((y) => generateDemoSeries(site, { years: 1, endYear: y }));
     let req = agent.post(`/api/v1/climate-sites/${siteId}/uploads`).field('format', 'auto');
@@ -133,7 +133,7 @@ describe('hourly records: upload, check, confirm', () => {
   });
 
   it('refuses a bad file whole, naming its lines, and changes nothing', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const siteId = await hourlySite(agent);
     const good = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', Buffer.from(csv), 'demo.csv').expect(201);
     await agent.post(`/api/v1/climate-uploads/${good.body.id}/confirm`).expect(200);
@@ -154,7 +154,7 @@ describe('hourly records: upload, check, confirm', () => {
   });
 
   it('refuses what is not text (by content, whatever the name) and what is too large', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const siteId = await hourlySite(agent);
     const png = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0x0d]);
     const notText = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', png, 'weather.csv').expect(415);
@@ -168,7 +168,7 @@ describe('hourly records: upload, check, confirm', () => {
   });
 
   it('maps other column names by hand', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const siteId = await hourlySite(agent);
     const renamed = csv.replace('time,dry_bulb_c,dew_point_c,wind_speed_ms', 'Date/Time,Temp,Dew,Wind');
     await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', Buffer.from(renamed), 'x.csv').expect(400);
@@ -187,7 +187,7 @@ describe('hourly records: upload, check, confirm', () => {
   });
 
   it('recomputes the humidity ratio when the elevation changes', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const siteId = await hourlySite(agent, 0);
     const up = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', Buffer.from(csv), 'demo.csv').expect(201);
     const atSea = await agent.post(`/api/v1/climate-uploads/${up.body.id}/confirm`).expect(200);

@@ -18,7 +18,7 @@ async function member(owner: Awaited<ReturnType<typeof signUp>>, role: 'designer
 
 describe('equipment lists', () => {
   it('creates a list, imports a CSV through a preview, saves, exports the same options', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const list = await agent.post('/api/v1/equipment-lists').send({ name: 'Standard line' }).expect(201);
     assert.equal(list.body.version, 1);
     const preview = await agent.post(`/api/v1/equipment-lists/${list.body.id}/csv-preview`).send({ csv: CSV }).expect(200);
@@ -43,7 +43,7 @@ describe('equipment lists', () => {
   });
 
   it('refuses a CSV with one bad line whole, naming the line', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const list = await agent.post('/api/v1/equipment-lists').send({ name: 'L' }).expect(201);
     const bad = CSV + '\nheat-pump,Broken,,,,electricity,ten,3.6,7900,2.4,,,,100,15';
     const res = await agent.post(`/api/v1/equipment-lists/${list.body.id}/csv-preview`).send({ csv: bad }).expect(400);
@@ -52,7 +52,7 @@ describe('equipment lists', () => {
   });
 
   it('validates options field by field and refuses stale saves without losing the other change', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const list = await agent.post('/api/v1/equipment-lists').send({ name: 'L' }).expect(201);
     const invalid = await agent
       .put(`/api/v1/equipment-lists/${list.body.id}/options`)
@@ -78,7 +78,7 @@ describe('equipment lists', () => {
   });
 
   it('lets viewers read, not write; other organisations get 404', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const list = await owner.agent.post('/api/v1/equipment-lists').send({ name: 'L' }).expect(201);
     const project = await owner.agent.post('/api/v1/projects').send({ name: 'Viewer test' }).expect(201);
     const viewer = await member(owner, 'viewer');
@@ -95,7 +95,7 @@ describe('equipment lists', () => {
     ]) {
       assert.equal(res.status, 403);
     }
-    const other = await signUp(t.app);
+    const other = await signUp(t);
     await other.agent.get(`/api/v1/equipment-lists/${list.body.id}`).expect(404);
     await other.agent.put(`/api/v1/equipment-lists/${list.body.id}/options`).send({ version: 1, options: [] }).expect(404);
     await other.agent.delete(`/api/v1/equipment-lists/${list.body.id}`).expect(404);
@@ -108,7 +108,7 @@ describe('equipment lists', () => {
 
 describe('energy prices', () => {
   it('saves money as strings with optimistic concurrency', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     assert.deepEqual((await agent.get('/api/v1/energy-prices').expect(200)).body, { version: 0, prices: null });
     const prices = { currency: 'CAD', electricityPerKwh: '0.1420', gas: { unit: 'm3', price: '0.4310' }, oilPerLitre: '1.6500' };
     const saved = await agent.put('/api/v1/energy-prices').send({ version: 0, prices }).expect(200);
@@ -130,7 +130,7 @@ describe('a project’s building', () => {
   };
 
   it('stores the building in SI with the project version, and refuses stale or invalid saves', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const p = await agent.post('/api/v1/projects').send({ name: 'B' }).expect(201);
     assert.deepEqual((await agent.get(`/api/v1/projects/${p.body.id}/building`).expect(200)).body, { version: 1, building: null });
     const saved = await agent.put(`/api/v1/projects/${p.body.id}/building`).send({ version: 1, building }).expect(200);

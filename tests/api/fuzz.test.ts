@@ -8,7 +8,7 @@ import { describe, it } from 'node:test';
 import fc from 'fast-check';
 import type { Scenario } from '../../shared/scenarios/scenario-schemas';
 import { fixture } from '../support/scenario-fixture';
-import { setPlan, useTestApp } from '../support/test-app';
+import { linkToken, newAgent, setPlan, signUp, uniqueEmail, useTestApp } from '../support/test-app';
 
 const t = useTestApp();
 
@@ -29,6 +29,8 @@ const TABLES = [
   'users',
   'billing_accounts',
   'organization_logos',
+  'sign_up_requests',
+  'password_resets',
 ];
 
 async function rowCounts(): Promise<string> {
@@ -71,6 +73,42 @@ describe('hostile JSON bodies', () => {
           return true;
         }),
         { numRuns: 12 },
+      );
+    }
+    assert.deepEqual(failures, []);
+  });
+
+  it('never get a 500 from the public write routes (sign-up, its link, sign-in, resets, invitation accounts), and a refused one stores nothing', async () => {
+    const owner = await signUp(t);
+    const invitee = uniqueEmail('fuzz.invitee');
+    const inviteMail = t.sink.waitFor((m) => m.to.includes(invitee));
+    await owner.agent.post('/api/v1/invitations').send({ email: invitee, role: 'viewer' }).expect(201);
+    const signUpMail = t.sink.waitFor((m) => m.text.includes('/finish-sign-up/'));
+    await newAgent(t.app).post('/api/v1/auth/sign-up').send({ email: uniqueEmail('fuzz.new'), name: 'Fuzz' }).expect(202);
+    const tokens: Record<string, string> = {
+      '/api/v1/auth/sign-ups/:token': linkToken((await signUpMail).text, '/finish-sign-up/'),
+      '/api/v1/invitation-links/:token/account': linkToken((await inviteMail).text, '/invitations/'),
+    };
+    const routes = t.routes().filter((r) => ['POST', 'PUT', 'PATCH'].includes(r.method) && r.guard === null && !SKIP.test(r.path));
+    assert.ok(routes.length >= 6, `${routes.length} routes`);
+    const body = fc.oneof(
+      fc.anything({ maxDepth: 3 }),
+      fc.dictionary(fc.constantFrom('email', 'name', 'password', 'organizationName', 'returnUrl', 'invitationToken'), fc.anything({ maxDepth: 2 })),
+      fc.record({ email: fc.oneof(fc.emailAddress(), fc.string()), name: fc.string({ maxLength: 200 }), password: fc.string({ maxLength: 20 }) }, { requiredKeys: [] }),
+    );
+    const failures: string[] = [];
+    for (const r of routes) {
+      const url = r.path.replace(':token', tokens[r.path] ?? 'A'.repeat(43));
+      await fc.assert(
+        fc.asyncProperty(body, async (payload) => {
+          const before = await rowCounts();
+          const m = r.method.toLowerCase() as 'post' | 'put' | 'patch';
+          const res = await newAgent(t.app)[m](url).set('content-type', 'application/json').send(JSON.stringify(payload) ?? 'null');
+          if (res.status >= 500) failures.push(`${r.method} ${r.path} → ${res.status} for ${JSON.stringify(payload).slice(0, 200)}`);
+          if (res.status >= 400 && (await rowCounts()) !== before) failures.push(`${r.method} ${r.path} refused (${res.status}) but stored rows`);
+          return true;
+        }),
+        { numRuns: 15 },
       );
     }
     assert.deepEqual(failures, []);

@@ -2,7 +2,7 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
-import { createTestApp, linkPath, PASSWORD, signUp, uniqueEmail, useTestApp, inviteMember, setPlan, newAgent } from '../support/test-app';
+import { createTestApp, linkPath, linkToken, PASSWORD, signUp, uniqueEmail, useTestApp, inviteMember, setPlan, newAgent } from '../support/test-app';
 
 const t = useTestApp();
 
@@ -10,7 +10,7 @@ type Agent = InstanceType<typeof TestAgent>;
 
 /** An owner's organisation with a member of `role` who accepted an e-mailed invitation. */
 async function orgWithMember(role: 'owner' | 'designer' | 'viewer') {
-  const owner = await signUp(t.app, { organizationName: 'Test Heating Ltd' });
+  const owner = await signUp(t, { organizationName: 'Test Heating Ltd' });
   // Room for the member and a further invitation (the free plan holds two places).
   await setPlan(t.db, owner.organizationId);
   const member = await inviteMember(t, owner, role);
@@ -99,8 +99,8 @@ describe('the role × action matrix', () => {
 
 describe('invitations', () => {
   it('lets an existing account accept, then work in both organisations', async () => {
-    const owner = await signUp(t.app, { organizationName: 'Inviting Firm' });
-    const other = await signUp(t.app, { organizationName: 'Own Firm' });
+    const owner = await signUp(t, { organizationName: 'Inviting Firm' });
+    const other = await signUp(t, { organizationName: 'Own Firm' });
     const mail = t.sink.waitFor((m) => m.to.includes(other.email));
     await owner.agent.post('/api/v1/invitations').send({ email: other.email, role: 'designer' }).expect(201);
     const message = await mail;
@@ -126,9 +126,31 @@ describe('invitations', () => {
     await other.agent.post(`/api/v1/invitation-links/${token}/accept`).expect(410);
   });
 
+  it('makes an account for the invited address only once, and says 409 to an address that has one', async () => {
+    const owner = await signUp(t);
+    await setPlan(t.db, owner.organizationId);
+    const email = uniqueEmail('invitee');
+    const joined = await inviteMember(t, owner, 'designer', email);
+    const members = await owner.agent.get('/api/v1/members').expect(200);
+    assert.deepEqual(members.body.map((m: { email: string; role: string }) => [m.email, m.role]).sort(), [[email, 'designer'], [owner.email, 'owner']].sort());
+    const events = await t.db('audit_events').where({ type: 'member_joined' }).select('organization_id', 'actor_email');
+    assert.deepEqual(events, [{ organization_id: owner.organizationId, actor_email: email }]);
+    await newAgent(t.app).post(`/api/v1/invitation-links/${joined.token}/account`).send({ name: 'Again', password: PASSWORD }).expect(410);
+
+    // Someone with an account is invited: the link asks them to sign in rather than making a second account.
+    const other = await signUp(t);
+    const mail = t.sink.waitFor((m) => m.to.includes(other.email));
+    await owner.agent.post('/api/v1/invitations').send({ email: other.email, role: 'viewer' }).expect(201);
+    const token = linkToken((await mail).text, '/invitations/');
+    const taken = await newAgent(t.app).post(`/api/v1/invitation-links/${token}/account`).send({ name: 'Twin', password: PASSWORD }).expect(409);
+    assert.equal(taken.body.error.code, 'email_taken');
+    const bad = await newAgent(t.app).post(`/api/v1/invitation-links/${token}/account`).send({ name: '', password: 'short' }).expect(400);
+    assert.deepEqual(bad.body.error.details.map((d: { path: string }) => d.path).sort(), ['name', 'password']);
+  });
+
   it('refuses the link to another signed-in account', async () => {
-    const owner = await signUp(t.app);
-    const stranger = await signUp(t.app);
+    const owner = await signUp(t);
+    const stranger = await signUp(t);
     const email = uniqueEmail('invitee');
     const mail = t.sink.waitFor((m) => m.to.includes(email));
     await owner.agent.post('/api/v1/invitations').send({ email, role: 'viewer' }).expect(201);
@@ -150,11 +172,11 @@ describe('invitations', () => {
     await t.db('invitations').where({ id: created.body.id }).update({ expires_at: new Date(Date.now() - 1000) });
     const expired = await request(t.app).get(`/api/v1/invitation-links/${late}`).expect(410);
     assert.equal(expired.body.error.code, 'invitation_expired');
-    const refused = await request(t.app)
-      .post('/api/v1/auth/sign-up')
-      .send({ email, name: 'Late', password: PASSWORD, invitationToken: late })
-      .expect(422);
-    assert.equal(refused.body.error.code, 'invitation_mismatch');
+    const refused = await newAgent(t.app)
+      .post(`/api/v1/invitation-links/${late}/account`)
+      .send({ name: 'Late', password: PASSWORD })
+      .expect(410);
+    assert.equal(refused.body.error.code, 'invitation_expired');
     assert.equal(await t.db('users').where({ email }).first(), undefined, 'nothing stored');
 
     const statusesNow = async () => {
@@ -218,7 +240,7 @@ describe('owners and members', () => {
 describe("another organisation's data answers 404", () => {
   it('cannot switch into, manage or revoke in an organisation one is not part of', async () => {
     const a = await orgWithMember('designer');
-    const outsider = await signUp(t.app, { organizationName: 'Outsider Co' });
+    const outsider = await signUp(t, { organizationName: 'Outsider Co' });
     await outsider.agent.put('/api/v1/session/organization').send({ organizationId: a.organizationId }).expect(404);
     // The outsider owns their own organisation; A's member and invitation are not in it.
     await outsider.agent.patch(`/api/v1/members/${a.member.userId}`).send({ role: 'viewer' }).expect(404);
@@ -232,7 +254,7 @@ describe("another organisation's data answers 404", () => {
   });
 
   it('creates a further organisation and switches to it', async () => {
-    const { agent } = await signUp(t.app, { organizationName: 'First' });
+    const { agent } = await signUp(t, { organizationName: 'First' });
     const res = await agent.post('/api/v1/organizations').send({ name: 'Second' }).expect(201);
     assert.deepEqual(res.body.organizations.map((o: { name: string }) => o.name), ['First', 'Second']);
     const second = res.body.organizations.find((o: { name: string }) => o.name === 'Second');
@@ -242,7 +264,7 @@ describe("another organisation's data answers 404", () => {
 
 describe('dev outbox', () => {
   it('lists the e-mails the local sink kept, with their links', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const email = uniqueEmail('outbox');
     const mail = t.sink.waitFor((m) => m.to.includes(email));
     await owner.agent.post('/api/v1/invitations').send({ email, role: 'viewer' }).expect(201);

@@ -10,7 +10,7 @@ async function member(owner: Awaited<ReturnType<typeof signUp>>, role: 'designer
 
 describe('projects', () => {
   it('creates with details, renames, duplicates, archives and deletes', async () => {
-    const { agent } = await signUp(t.app, { name: 'Pat Owner' });
+    const { agent } = await signUp(t, { name: 'Pat Owner' });
     const site = await agent
       .post('/api/v1/climate-sites')
       .send({ name: 'Site', sourceKind: 'published', publishedValues: { source: 'test', heating: { db99_6: -20, db99: -17 } } })
@@ -45,7 +45,7 @@ describe('projects', () => {
   });
 
   it('refuses a stale update with 409 and keeps the other change', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await signUp(t);
     const p = await agent.post('/api/v1/projects').send({ name: 'Shared' }).expect(201);
     await agent.patch(`/api/v1/projects/${p.body.id}`).send({ version: 1, notes: 'first change' }).expect(200);
     const stale = await agent.patch(`/api/v1/projects/${p.body.id}`).send({ version: 1, notes: 'second change' }).expect(409);
@@ -58,8 +58,8 @@ describe('projects', () => {
   });
 
   it("refuses another organisation's climate site as if it did not exist", async () => {
-    const a = await signUp(t.app);
-    const b = await signUp(t.app);
+    const a = await signUp(t);
+    const b = await signUp(t);
     const theirs = await b.agent
       .post('/api/v1/climate-sites')
       .send({ name: 'Theirs', sourceKind: 'published', publishedValues: { source: 'x', heating: { db99_6: -5, db99: -3 } } })
@@ -75,7 +75,7 @@ describe('projects', () => {
   });
 
   it('lets designers write and viewers only read', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     await setPlan(t.db, owner.organizationId);
     const p = await owner.agent.post('/api/v1/projects').send({ name: 'Roles' }).expect(201);
     const designer = await member(owner, 'designer');

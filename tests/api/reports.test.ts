@@ -11,7 +11,7 @@ import type { Scenario } from '../../shared/scenarios/scenario-schemas';
 import { newReportToken, verifyReportToken, hashReportToken } from '../../server/modules/reports/report-tokens';
 import { sanitizeSvg, sniffImage } from '../../server/modules/reports/logo-router';
 import { fixture, type Fixture } from '../support/scenario-fixture';
-import { createTestApp, inviteMember, signUp, useTestApp } from '../support/test-app';
+import { createTestApp, inviteMember, newAgent, PASSWORD, signUp, useTestApp } from '../support/test-app';
 
 const t = useTestApp();
 
@@ -146,9 +146,12 @@ describe('reports API', () => {
     // A mailer that cannot reach its SMTP server: the send is recorded as failed, its link withdrawn.
     const broken = await createTestApp({ SMTP_PORT: '9' });
     try {
-      const g = await fixture(broken);
+      // The account is made where mail works; its owner then signs in on the app that cannot send.
+      const g = await fixture(t);
       const { report: r2 } = await reportOf(g);
-      const res = await g.agent.post(`/api/v1/projects/${g.projectId}/reports/${r2.id}/send`).send({ to: 'client@example.test' }).expect(502);
+      const owner = newAgent(broken.app);
+      await owner.post('/api/v1/auth/sign-in').send({ email: g.email, password: PASSWORD }).expect(200);
+      const res = await owner.post(`/api/v1/projects/${g.projectId}/reports/${r2.id}/send`).send({ to: 'client@example.test' }).expect(502);
       const body = res.body as { error: { code: string }; report: Report };
       assert.equal(body.error.code, 'send_failed');
       assert.equal(body.report.sends[0]?.status, 'failed');
@@ -170,7 +173,7 @@ describe('reports API', () => {
     await viewer.agent.get(`/api/v1/projects/${f.projectId}/reports`).expect(200);
     await viewer.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(403);
     await viewer.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/send`).send({ to: 'x@example.test' }).expect(403);
-    const other = await signUp(t.app);
+    const other = await signUp(t);
     await other.agent.get(`/api/v1/projects/${f.projectId}/reports/${report.id}`).expect(404);
     await other.agent.get(`/api/v1/projects/${f.projectId}/reports/${report.id}/view`).expect(404);
     await other.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(404);

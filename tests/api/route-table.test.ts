@@ -18,6 +18,9 @@ const t = useTestApp();
 /** Routes anyone may call: signing in and up, password resets, invitation and report links, the provider's webhook, the dev outbox (development only). */
 const PUBLIC = new Set([
   'POST /api/v1/auth/sign-up',
+  'GET /api/v1/auth/sign-ups/:token',
+  'POST /api/v1/auth/sign-ups/:token',
+  'POST /api/v1/invitation-links/:token/account',
   'POST /api/v1/auth/sign-in',
   'POST /api/v1/auth/sign-out',
   'POST /api/v1/auth/password-resets',
@@ -71,7 +74,7 @@ describe('the route table', () => {
       token: 'not-a-token',
     };
     const fill = (path: string, values: Record<string, string>) => path.replace(/:(\w+)/g, (_m, name: string) => values[name] ?? randomUUID());
-    const outsider = await signUp(t.app);
+    const outsider = await signUp(t);
     const guarded = t.routes().filter((r) => r.guard !== null);
     const call = (agent: request.Agent | ReturnType<typeof request>, method: string, url: string) => {
       const m = method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';

@@ -234,7 +234,7 @@ describe('scenarios API', () => {
     await viewer.agent.post(`${base(f)}/${s.id}/sweep`).expect(200);
     await viewer.agent.post(base(f)).send({ name: 'No' }).expect(403);
     await viewer.agent.post(`${base(f)}/${s.id}/freeze`).send({}).expect(403);
-    const other = await signUp(t.app);
+    const other = await signUp(t);
     await other.agent.get(`${base(f)}/${s.id}`).expect(404);
     await other.agent.post(`${base(f)}/${s.id}/sweep`).expect(404);
     await other.agent.get(base(f)).expect(404);

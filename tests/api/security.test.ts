@@ -7,7 +7,7 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import { CSRF_HEADER } from '../../shared/api/csrf';
-import { inviteMember, newAgent, PASSWORD, signUp, useTestApp } from '../support/test-app';
+import { createTestApp, inviteMember, newAgent, PASSWORD, signUp, uniqueEmail, useTestApp } from '../support/test-app';
 
 const t = useTestApp();
 
@@ -24,7 +24,7 @@ describe('security', () => {
   });
 
   it('refuses a signed-in state change without the CSRF header, or from another site, and stores nothing', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const cookie = (await t.db('session').count<{ n: number }[]>('sid as n'))[0]?.n;
     assert.ok(cookie);
     const bare = await owner.agent.post('/api/v1/projects').unset(CSRF_HEADER).send({ name: 'No header' }).expect(403);
@@ -36,7 +36,7 @@ describe('security', () => {
   });
 
   it('limits failed sign-ins to 10 in 15 minutes per address and e-mail, with a clear 429', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const email = owner.email;
     for (let i = 0; i < 10; i++) {
       await request(t.app).post('/api/v1/auth/sign-in').send({ email, password: 'wrong password here' }).expect(401);
@@ -46,12 +46,36 @@ describe('security', () => {
     assert.match((limited.body as { error: { message: string } }).error.message, /Too many failed sign-ins/);
     assert.ok(limited.headers['ratelimit'] ?? limited.headers['ratelimit-policy'], 'rate-limit headers');
     // Another address is not held up by it.
-    const other = await signUp(t.app);
+    const other = await signUp(t);
     await request(t.app).post('/api/v1/auth/sign-in').send({ email: other.email, password: PASSWORD }).expect(200);
   });
 
+  it('limits sign-ups to SIGN_UP_PER_HOUR per network address and 5 an hour to one e-mail address, with a clear 429', async () => {
+    const own = await createTestApp({ SIGN_UP_PER_HOUR: '8' });
+    try {
+      const target = uniqueEmail('target');
+      for (let i = 0; i < 5; i++) {
+        await request(own.app).post('/api/v1/auth/sign-up').send({ email: target, name: 'Again' }).expect(202);
+      }
+      const sameAddress = await request(own.app).post('/api/v1/auth/sign-up').send({ email: target, name: 'Again' }).expect(429);
+      assert.match((sameAddress.body as { error: { message: string } }).error.message, /Too many sign-up requests for this e-mail address/);
+      // Refused requests count too: 6 so far from this network address; two more, then the limit.
+      for (let i = 0; i < 2; i++) {
+        await request(own.app).post('/api/v1/auth/sign-up').send({ email: uniqueEmail(), name: 'Other' }).expect(202);
+      }
+      const tooMany = await request(own.app).post('/api/v1/auth/sign-up').send({ email: uniqueEmail(), name: 'Other' }).expect(429);
+      assert.equal((tooMany.body as { error: { code: string } }).error.code, 'rate_limited');
+      assert.match((tooMany.body as { error: { message: string } }).error.message, /Too many sign-up requests;/);
+      const stored = await own.db('sign_up_requests').count<{ count: number }[]>('* as count');
+      assert.equal(stored[0]?.count, 7, 'a refused request stores nothing');
+    } finally {
+      await own.db('sign_up_requests').delete();
+      await own.close();
+    }
+  });
+
   it('signs a user out everywhere: every session of theirs ends', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     const second = newAgent(t.app);
     await second.post('/api/v1/auth/sign-in').send({ email: owner.email, password: PASSWORD }).expect(200);
     await second.get('/api/v1/projects').expect(200);
@@ -61,14 +85,14 @@ describe('security', () => {
   });
 
   it('keeps an audit log of security events that owners can read', async () => {
-    const owner = await signUp(t.app);
+    const owner = await signUp(t);
     await request(t.app).post('/api/v1/auth/sign-in').send({ email: owner.email, password: 'wrong password here' }).expect(401);
     await newAgent(t.app).post('/api/v1/auth/sign-in').send({ email: owner.email, password: PASSWORD }).expect(200);
     const designer = await inviteMember(t, owner, 'designer');
     await owner.agent.patch(`/api/v1/members/${designer.userId}`).send({ role: 'viewer' }).expect(200);
     const log = (await owner.agent.get('/api/v1/audit').expect(200)).body as { type: string; who: string }[];
     const types = log.map((e) => e.type);
-    for (const ty of ['sign_in_failed', 'sign_in', 'invitation_created', 'role_changed']) assert.ok(types.includes(ty), `${ty} in ${types.join(', ')}`);
+    for (const ty of ['account_created', 'sign_in_failed', 'sign_in', 'invitation_created', 'member_joined', 'role_changed']) assert.ok(types.includes(ty), `${ty} in ${types.join(', ')}`);
     await designer.agent.get('/api/v1/audit').expect(403);
   });
 });

@@ -29,6 +29,8 @@ export const BUILDING = buildingSchema.parse({
 
 export interface Fixture {
   agent: request.Agent;
+  /** The owner's address (the password is `PASSWORD`). */
+  email: string;
   organizationId: string;
   projectId: string;
   siteId: string;
@@ -37,7 +39,7 @@ export interface Fixture {
 }
 
 export async function fixture(app: TestApp, withBuilding = true): Promise<Fixture> {
-  const owner = await signUp(app.app);
+  const owner = await signUp(app);
   const demo = DEMO_SITES[1];
   if (!demo) throw new Error('no demo site');
   const series = atStoragePrecision(generateDemoSeries(demo, { years: 4 }));
@@ -55,6 +57,6 @@ export async function fixture(app: TestApp, withBuilding = true): Promise<Fixtur
   const project = await owner.agent.post('/api/v1/projects').send({ name: 'House', climateSiteId: siteId, equipmentListId: listId }).expect(201);
   const projectId = (project.body as { id: string }).id;
   if (withBuilding) await owner.agent.put(`/api/v1/projects/${projectId}/building`).send({ version: 1, building: BUILDING }).expect(200);
-  return { agent: owner.agent, organizationId: owner.organizationId, projectId, siteId, publishedSiteId, listId };
+  return { agent: owner.agent, email: owner.email, organizationId: owner.organizationId, projectId, siteId, publishedSiteId, listId };
 }
 

@@ -34,6 +34,8 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
     DEV_OUTBOX_URL: `http://127.0.0.1:${sink.httpPort}`,
     PUBLIC_URL: 'http://tailroom.test',
     LOG_LEVEL: 'silent',
+    // Many accounts are made from one address in a test file; the limit itself is tested on its own app.
+    SIGN_UP_PER_HOUR: '100000',
     ...overrides,
   });
   const db = createDb(config.databaseUrl);
@@ -57,7 +59,7 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
 
 /** Empties every table the app writes (the schema stays). */
 export async function resetDb(db: Knex): Promise<void> {
-  await db.raw('TRUNCATE users, organizations, memberships, invitations, password_resets, projects, hourly_observations, sweep_results, "session" CASCADE');
+  await db.raw('TRUNCATE users, organizations, memberships, invitations, password_resets, sign_up_requests, projects, hourly_observations, sweep_results, "session" CASCADE');
 }
 
 export const PASSWORD = 'correct horse battery';
@@ -73,19 +75,32 @@ export function uniqueEmail(prefix = 'user'): string {
   return `${prefix}.${Date.now().toString(36)}.${counter}@example.test`;
 }
 
-/** A new account (and its own organisation) signed in on a supertest agent. */
+/**
+ * A new account (and its own organisation) signed in on a supertest agent, made as a person makes
+ * one: the sign-up form (202), the e-mailed link, and the password chosen there (201).
+ */
 export async function signUp(
-  app: Express,
+  t: Pick<TestApp, 'app' | 'sink'>,
   fields: { email?: string; name?: string; organizationName?: string } = {},
 ) {
-  const agent = newAgent(app);
+  const agent = newAgent(t.app);
   const email = fields.email ?? uniqueEmail();
-  const res = await agent
+  const mail = t.sink.waitFor((m) => m.to.includes(email) && m.text.includes('/finish-sign-up/'));
+  await agent
     .post('/api/v1/auth/sign-up')
-    .send({ email, name: fields.name ?? 'Test Person', password: PASSWORD, organizationName: fields.organizationName })
+    .send({ email, name: fields.name ?? 'Test Person', organizationName: fields.organizationName })
+    .expect(202);
+  const res = await agent
+    .post(`/api/v1/auth/sign-ups/${linkToken((await mail).text, '/finish-sign-up/')}`)
+    .send({ password: PASSWORD })
     .expect(201);
   const body = res.body as { user: { id: string }; currentOrganizationId: string };
   return { agent, email, userId: body.user.id, organizationId: body.currentOrganizationId };
+}
+
+/** The token at the end of the first link in an e-mail whose path contains `fragment`. */
+export function linkToken(text: string, fragment: string): string {
+  return linkPath(text, fragment).split('/').pop() ?? '';
 }
 
 /** Extracts the path of the first link in an e-mail that contains `fragment`. */
@@ -123,11 +138,11 @@ export async function inviteMember(
 ): Promise<{ agent: request.Agent; email: string; userId: string; token: string }> {
   const mail = t.sink.waitFor((m) => m.to.includes(email));
   await owner.agent.post('/api/v1/invitations').send({ email, role }).expect(201);
-  const token = linkPath((await mail).text, '/invitations/').split('/').pop() ?? '';
+  const token = linkToken((await mail).text, '/invitations/');
   const agent = newAgent(t.app);
   const res = await agent
-    .post('/api/v1/auth/sign-up')
-    .send({ email, name: `A ${role}`, password: PASSWORD, invitationToken: token })
+    .post(`/api/v1/invitation-links/${token}/account`)
+    .send({ name: `A ${role}`, password: PASSWORD })
     .expect(201);
   return { agent, email, userId: (res.body as { user: { id: string } }).user.id, token };
 }

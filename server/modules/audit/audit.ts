@@ -7,6 +7,9 @@ import type { Knex } from 'knex';
 import { authorize, orgContext } from '../../http/authorize';
 
 export const auditTypes = [
+  'account_created',
+  'member_joined',
+  'password_reset',
   'sign_in',
   'sign_in_failed',
   'sign_out_everywhere',
@@ -53,7 +56,7 @@ export function auditRouter(db: Knex): Router {
       .orWhere((q) =>
         q
           .whereNull('a.organization_id')
-          .whereIn('a.type', ['sign_in', 'sign_in_failed', 'sign_out_everywhere'])
+          .whereIn('a.type', ['sign_in', 'sign_in_failed', 'sign_out_everywhere', 'password_reset'])
           .whereIn('a.user_id', db('memberships').where({ organization_id: organizationId }).select('user_id')),
       )
       .orderBy('a.created_at', 'desc')

@@ -6,8 +6,11 @@ import {
   linkTokenSchema,
   passwordResetConfirmSchema,
   passwordResetRequestSchema,
+  finishSignUpSchema,
   signInInputSchema,
   signUpInputSchema,
+  type PendingSignUp,
+  type SignUpStarted,
   switchOrganizationSchema,
   updateMeSchema,
 } from '@shared/auth/auth-schemas';
@@ -16,20 +19,23 @@ import { currentUser, requireUser } from '../../http/authorize';
 import { audit } from '../audit/audit';
 import { HttpError } from '../../http/http-error';
 import type { Mailer } from '../../mail/mailer';
-import { passwordResetMail } from '../../mail/messages';
-import { addMember, createOrganization, roleOf } from '../orgs/orgs-repo';
-import { findPendingInvitation } from '../orgs/invitations-repo';
+import { accountExistsMail, finishSignUpMail, passwordResetMail } from '../../mail/messages';
+import { createOrganization, roleOf } from '../orgs/orgs-repo';
 import { hashLinkToken, newLinkToken } from './link-tokens';
 import { burnVerification, hashPassword, verifyPassword } from './passwords';
-import { sessionView } from './session-view';
+import { logIn, saveSession, sessionView, startSession } from './session-view';
 import * as users from './users-repo';
 import type { UserRecord } from './users-repo';
 
 const INVALID_CREDENTIALS = new HttpError(401, 'invalid_credentials', 'That e-mail and password do not match an account');
 
-/** passport-local: e-mail and password; unknown e-mail and wrong password answer alike. */
-export function configurePassport(db: Knex): void {
-  passport.use(
+/**
+ * This app's own passport (not the module's shared one, so that two apps in one process never share
+ * a database): passport-local with e-mail and password, where unknown e-mail and wrong password answer alike.
+ */
+export function createPassport(db: Knex): passport.Authenticator {
+  const auth = new passport.Passport();
+  auth.use(
     new LocalStrategy({ usernameField: 'email', passwordField: 'password', session: true }, (email, password, done) => {
       void (async () => {
         const found = await users.findByEmailWithHash(db, email);
@@ -42,22 +48,23 @@ export function configurePassport(db: Knex): void {
       })().catch(done);
     }),
   );
-  passport.serializeUser((user, done) => {
+  auth.serializeUser((user, done) => {
     done(null, (user as UserRecord).id);
   });
   // The user and the role in the session's organisation, in one query; `authorize()` uses the role.
-  passport.deserializeUser((req: Request, id: string, done: (err: unknown, user?: UserRecord | false) => void) => {
+  auth.deserializeUser((req: Request, id: string, done: (err: unknown, user?: UserRecord | false) => void) => {
     const organizationId = req.session.organizationId;
     users.findWithRole(db, id, organizationId).then((found) => {
       if (found && organizationId) req.sessionRole = { organizationId, role: found.role };
       done(null, found?.user ?? false);
     }, done);
   });
+  return auth;
 }
 
-function authenticateLocal(req: Request, res: Response): Promise<UserRecord | false> {
+function authenticateLocal(auth: passport.Authenticator, req: Request, res: Response): Promise<UserRecord | false> {
   return new Promise((resolve, reject) => {
-    const handler = passport.authenticate('local', (err: unknown, user: UserRecord | false) => {
+    const handler = auth.authenticate('local', (err: unknown, user: UserRecord | false) => {
       if (err) reject(err instanceof Error ? err : new Error('authentication failed'));
       else resolve(user);
     }) as (req: Request, res: Response, next: (err?: unknown) => void) => void;
@@ -65,22 +72,32 @@ function authenticateLocal(req: Request, res: Response): Promise<UserRecord | fa
   });
 }
 
-/** Signs in; passport regenerates the session id here (session fixation). */
-function logIn(req: Request, user: UserRecord): Promise<void> {
-  return new Promise((resolve, reject) => {
-    req.logIn(user, (err) => (err ? reject(err as Error) : resolve()));
-  });
+/** How long an e-mailed sign-up link works. */
+export const SIGN_UP_LINK_HOURS = 24;
+
+interface SignUpRow {
+  id: string;
+  email: string;
+  name: string;
+  organization_name: string | null;
+  expires_at: Date;
 }
 
-function saveSession(req: Request): Promise<void> {
-  return new Promise((resolve, reject) => {
-    req.session.save((err) => (err ? reject(err as Error) : resolve()));
-  });
+/** The unused, unexpired sign-up request of a link, or 400 `invalid_sign_up_link`. */
+async function usableSignUp(db: Knex, token: unknown, options: { lock?: boolean } = {}): Promise<SignUpRow> {
+  const invalid = new HttpError(400, 'invalid_sign_up_link', 'This link is not valid any more: it has been used or has expired. Start again to get a new one.');
+  const parsed = linkTokenSchema.safeParse(token);
+  if (!parsed.success) throw invalid;
+  const query = db('sign_up_requests')
+    .where({ token_hash: hashLinkToken(parsed.data) })
+    .whereNull('used_at')
+    .where('expires_at', '>', db.fn.now());
+  const row = await (options.lock ? query.forUpdate() : query).first<SignUpRow | undefined>('id', 'email', 'name', 'organization_name', 'expires_at');
+  if (!row) throw invalid;
+  return row;
 }
 
-const isUniqueViolation = (err: unknown) => (err as { code?: string }).code === '23505';
-
-export function authRouter(db: Knex, config: Config, mailer: Mailer): Router {
+export function authRouter(db: Knex, config: Config, mailer: Mailer, auth: passport.Authenticator): Router {
   const router = Router();
   const devOutbox = Boolean(config.devOutboxUrl);
 
@@ -88,52 +105,84 @@ export function authRouter(db: Knex, config: Config, mailer: Mailer): Router {
     res.json(await sessionView(db, req, devOutbox));
   });
 
+  /**
+   * The first step of a new account. The answer is the same whether or not the address has an account
+   * (no account enumeration), and takes the same work: a request row is written either way. A new
+   * address is e-mailed a link to finish, where the password is chosen (so that nobody can set the
+   * password of an account in someone else's name); a known one is told it has an account.
+   */
   router.post('/auth/sign-up', async (req, res) => {
     const input = signUpInputSchema.parse(req.body);
-    const passwordHash = await hashPassword(input.password);
-    let created: { user: UserRecord; organizationId: string };
-    try {
-      created = await db.transaction(async (trx) => {
-        if (await users.emailExists(trx, input.email)) {
-          throw new HttpError(409, 'email_taken', 'An account with that e-mail already exists; sign in instead', [
-            { path: 'email', message: 'An account with that e-mail already exists' },
-          ]);
-        }
-        const invitation = input.invitationToken
-          ? await findPendingInvitation(trx, hashLinkToken(input.invitationToken), { lock: true })
-          : undefined;
-        if (input.invitationToken && invitation?.email !== input.email) {
-          throw new HttpError(422, 'invitation_mismatch', 'This invitation is not valid for that e-mail address', [
-            { path: 'email', message: 'Use the e-mail address the invitation was sent to' },
-          ]);
-        }
-        const user = await users.insert(trx, { email: input.email, name: input.name, passwordHash });
-        if (invitation) {
-          await addMember(trx, invitation.organizationId, user.id, invitation.role);
-          await trx('invitations').where({ id: invitation.id }).update({ accepted_at: trx.fn.now() });
-          return { user, organizationId: invitation.organizationId };
-        }
-        const orgName = input.organizationName ?? `${input.name}'s firm`;
-        return { user, organizationId: await createOrganization(trx, orgName, user.id) };
+    const { token, hash } = newLinkToken();
+    const expiresAt = new Date(Date.now() + SIGN_UP_LINK_HOURS * 3_600_000);
+    const exists = await db.transaction(async (trx) => {
+      await trx('sign_up_requests').where('expires_at', '<', trx.raw("now() - interval '1 day'")).delete();
+      await trx('sign_up_requests').insert({
+        email: input.email,
+        name: input.name,
+        organization_name: input.organizationName ?? null,
+        token_hash: hash,
+        expires_at: expiresAt,
       });
-    } catch (err) {
-      if (isUniqueViolation(err)) {
-        throw new HttpError(409, 'email_taken', 'An account with that e-mail already exists; sign in instead', [
-          { path: 'email', message: 'An account with that e-mail already exists' },
-        ]);
-      }
-      throw err;
-    }
-    await logIn(req, created.user);
-    req.session.organizationId = created.organizationId;
-    await saveSession(req);
+      return users.emailExists(trx, input.email);
+    });
+    const mail = exists
+      ? accountExistsMail(input.email, `${config.publicUrl}/sign-in`, `${config.publicUrl}/forgot-password`)
+      : finishSignUpMail(
+          input.email,
+          `${config.publicUrl}/finish-sign-up/${token}${input.returnUrl ? `?returnUrl=${encodeURIComponent(input.returnUrl)}` : ''}`,
+          SIGN_UP_LINK_HOURS,
+        );
+    // Not awaited: the answer must not wait on the mail relay, nor differ in time between the two cases.
+    mailer.send(mail).catch((err: unknown) => {
+      req.log.error({ err }, 'sign-up e-mail failed');
+    });
+    const started: SignUpStarted = {
+      email: input.email,
+      message: `We have e-mailed ${input.email}. Follow the link in it to finish; it works for ${SIGN_UP_LINK_HOURS} hours.`,
+    };
+    res.status(202).json(started);
+  });
+
+  /** What a sign-up link is for (the address, name and organisation), to show before the password is chosen. */
+  router.get('/auth/sign-ups/:token', async (req, res) => {
+    const row = await usableSignUp(db, req.params['token']);
+    const pending: PendingSignUp = {
+      email: row.email,
+      name: row.name,
+      organizationName: row.organization_name,
+      expiresAt: row.expires_at.toISOString(),
+    };
+    res.json(pending);
+  });
+
+  /** Finishes a new account with its password: the account, its organisation, and a session. */
+  router.post('/auth/sign-ups/:token', async (req, res) => {
+    const { password } = finishSignUpSchema.parse(req.body);
+    await usableSignUp(db, req.params['token']);
+    const passwordHash = await hashPassword(password);
+    const created = await db
+      .transaction(async (trx) => {
+        const row = await usableSignUp(trx, req.params['token'], { lock: true });
+        if (await users.emailExists(trx, row.email)) throw users.emailTaken();
+        const user = await users.insert(trx, { email: row.email, name: row.name, passwordHash });
+        // Every open request for the address ends with the account.
+        await trx('sign_up_requests').where({ email: row.email }).whereNull('used_at').update({ used_at: trx.fn.now() });
+        const organizationId = await createOrganization(trx, row.organization_name ?? `${row.name}'s firm`, user.id);
+        return { user, organizationId };
+      })
+      .catch((err: unknown) => {
+        throw users.isUniqueViolation(err) ? users.emailTaken() : err;
+      });
+    await startSession(req, created.user, created.organizationId);
+    await audit(db, req, { type: 'account_created', organizationId: created.organizationId, userId: created.user.id, actorEmail: created.user.email });
     req.log.info({ userId: created.user.id }, 'account created');
     res.status(201).json(await sessionView(db, req, devOutbox));
   });
 
   router.post('/auth/sign-in', async (req, res) => {
     req.body = signInInputSchema.parse(req.body);
-    const user = await authenticateLocal(req, res);
+    const user = await authenticateLocal(auth, req, res);
     const email = (req.body as { email: string }).email;
     if (!user) {
       const known = await db('users').whereRaw('lower(email) = lower(?)', [email]).first<{ id: string } | undefined>('id');
@@ -192,7 +241,7 @@ export function authRouter(db: Knex, config: Config, mailer: Mailer): Router {
     const invalid = new HttpError(400, 'invalid_reset_link', 'This reset link is not valid any more; ask for a new one');
     if (!tokenCheck.success) throw invalid;
     const passwordHash = await hashPassword(password);
-    await db.transaction(async (trx) => {
+    const userId = await db.transaction(async (trx) => {
       const row = await trx('password_resets')
         .where({ token_hash: hashLinkToken(tokenCheck.data) })
         .whereNull('used_at')
@@ -204,7 +253,9 @@ export function authRouter(db: Knex, config: Config, mailer: Mailer): Router {
       await trx('password_resets').where({ user_id: row.user_id }).whereNull('used_at').update({ used_at: trx.fn.now() });
       // Every session of that account ends: whoever knew the old password is signed out.
       await trx.raw(`DELETE FROM "session" WHERE (sess -> 'passport' ->> 'user') = ?`, [row.user_id]);
+      return row.user_id;
     });
+    await audit(db, req, { type: 'password_reset', userId });
     res.status(204).end();
   });
 

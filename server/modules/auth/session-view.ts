@@ -31,3 +31,23 @@ export async function sessionView(db: Knex, req: Request, devOutbox: boolean): P
     devOutbox,
   };
 }
+
+/** Signs `user` in on this request; passport regenerates the session id here (no session fixation). */
+export function logIn(req: Request, user: UserRecord): Promise<void> {
+  return new Promise((resolve, reject) => {
+    req.logIn(user, (err) => (err ? reject(err as Error) : resolve()));
+  });
+}
+
+export function saveSession(req: Request): Promise<void> {
+  return new Promise((resolve, reject) => {
+    req.session.save((err) => (err ? reject(err as Error) : resolve()));
+  });
+}
+
+/** A new account's first session: signed in, working in `organizationId`, saved. */
+export async function startSession(req: Request, user: UserRecord, organizationId: string): Promise<void> {
+  await logIn(req, user);
+  req.session.organizationId = organizationId;
+  await saveSession(req);
+}

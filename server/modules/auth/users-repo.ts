@@ -2,6 +2,7 @@ import type { Knex } from 'knex';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { Role } from '@shared/auth/roles';
 import { prepared } from '../../db';
+import { HttpError } from '../../http/http-error';
 
 export interface UserRecord {
   id: string;
@@ -47,6 +48,15 @@ export async function findByEmailWithHash(
   const row = await db<UserRow>('users').where({ email }).first();
   return row && { user: toUser(row), passwordHash: row.password_hash };
 }
+
+/** 409 `email_taken`: said only to someone who has shown the address is theirs (a sign-up or invitation link). */
+export const emailTaken = () =>
+  new HttpError(409, 'email_taken', 'An account with this e-mail address already exists; sign in instead', [
+    { path: 'email', message: 'An account with this e-mail address already exists' },
+  ]);
+
+/** Whether a database error is a unique-constraint violation (two requests made the same account at once). */
+export const isUniqueViolation = (err: unknown) => (err as { code?: string }).code === '23505';
 
 export async function emailExists(db: Knex, email: string): Promise<boolean> {
   return Boolean(await db('users').where({ email }).first('id'));

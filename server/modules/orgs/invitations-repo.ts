@@ -49,16 +49,6 @@ export async function findByTokenHash(
   return row && toRecord(row);
 }
 
-/** The invitation behind a token when it can still be accepted. */
-export async function findPendingInvitation(
-  db: Knex,
-  tokenHash: string,
-  options: { lock?: boolean } = {},
-): Promise<InvitationRecord | undefined> {
-  const found = await findByTokenHash(db, tokenHash, options);
-  return found?.status === 'pending' ? found : undefined;
-}
-
 export async function listForOrganization(db: Knex, organizationId: string): Promise<Invitation[]> {
   const rows = await db('invitations as i')
     .leftJoin('users as u', 'u.id', 'i.invited_by')

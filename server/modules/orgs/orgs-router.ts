@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import type { Knex } from 'knex';
 import { z } from 'zod';
-import { linkTokenSchema } from '@shared/auth/auth-schemas';
+import { invitedAccountInputSchema, linkTokenSchema } from '@shared/auth/auth-schemas';
 import {
   invitationInputSchema,
   organizationInputSchema,
@@ -16,7 +16,9 @@ import { HttpError } from '../../http/http-error';
 import type { Mailer } from '../../mail/mailer';
 import { invitationMail } from '../../mail/messages';
 import { hashLinkToken, newLinkToken } from '../auth/link-tokens';
-import { sessionView } from '../auth/session-view';
+import { hashPassword } from '../auth/passwords';
+import { sessionView, startSession } from '../auth/session-view';
+import * as users from '../auth/users-repo';
 import * as orgs from './orgs-repo';
 import * as invitations from './invitations-repo';
 
@@ -175,6 +177,34 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
     res.json(preview);
   });
 
+  /** A new account for the invited address (the link shows the address is the holder's), joined to the organisation. */
+  router.post('/invitation-links/:token/account', async (req, res) => {
+    const { name, password } = invitedAccountInputSchema.parse(req.body);
+    await usableInvitation(db, req.params['token']);
+    const passwordHash = await hashPassword(password);
+    const created = await db
+      .transaction(async (trx) => {
+        const invitation = await usableInvitation(trx, req.params['token'], true);
+        if (await users.emailExists(trx, invitation.email)) throw users.emailTaken();
+        const user = await users.insert(trx, { email: invitation.email, name, passwordHash });
+        await orgs.addMember(trx, invitation.organizationId, user.id, invitation.role);
+        await trx('invitations').where({ id: invitation.id }).update({ accepted_at: trx.fn.now() });
+        return { user, organizationId: invitation.organizationId, role: invitation.role };
+      })
+      .catch((err: unknown) => {
+        throw users.isUniqueViolation(err) ? users.emailTaken() : err;
+      });
+    await startSession(req, created.user, created.organizationId);
+    await audit(db, req, {
+      type: 'member_joined',
+      organizationId: created.organizationId,
+      userId: created.user.id,
+      actorEmail: created.user.email,
+      detail: { role: created.role, newAccount: true },
+    });
+    res.status(201).json(await sessionView(db, req, devOutbox));
+  });
+
   router.post('/invitation-links/:token/accept', requireUser, async (req, res) => {
     const user = currentUser(req);
     const organizationId = await db.transaction(async (trx) => {
@@ -186,6 +216,7 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
       await trx('invitations').where({ id: invitation.id }).update({ accepted_at: trx.fn.now() });
       return invitation.organizationId;
     });
+    await audit(db, req, { type: 'member_joined', organizationId, userId: user.id, actorEmail: user.email, detail: { newAccount: false } });
     req.session.organizationId = organizationId;
     res.json(await sessionView(db, req, devOutbox));
   });

@@ -1,7 +1,14 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, computed, inject, signal } from '@angular/core';
 import { firstValueFrom, type Observable } from 'rxjs';
-import type { Session, SignInInput, SignUpInput, UnitSystem } from '@shared/auth/auth-schemas';
+import type {
+  InvitedAccountInput,
+  Session,
+  SignInInput,
+  SignUpInput,
+  SignUpStarted,
+  UnitSystem,
+} from '@shared/auth/auth-schemas';
 import { can, type Action } from '@shared/auth/roles';
 
 /** The schemas (and zod with them) load beside the first request, outside the initial bundle. */
@@ -62,8 +69,28 @@ export class AuthStore {
     return this.apply(this.http.post<unknown>('/api/v1/auth/sign-in', input));
   }
 
-  signUp(input: SignUpInput): Promise<Session> {
-    return this.apply(this.http.post<unknown>('/api/v1/auth/sign-up', input));
+  /**
+   * Asks for the e-mail that finishes a new account. The answer is the same whether or not the
+   * address already has an account, and nobody is signed in by it.
+   */
+  async signUp(input: SignUpInput): Promise<SignUpStarted> {
+    const [{ signUpStartedSchema }, body] = await Promise.all([
+      loadAuthSchemas(),
+      firstValueFrom(this.http.post<unknown>('/api/v1/auth/sign-up', input)),
+    ]);
+    return signUpStartedSchema.parse(body);
+  }
+
+  /** Chooses the password behind an e-mailed sign-up link, which makes the account and signs it in. */
+  finishSignUp(token: string, password: string): Promise<Session> {
+    return this.apply(this.http.post<unknown>(`/api/v1/auth/sign-ups/${encodeURIComponent(token)}`, { password }));
+  }
+
+  /** Makes an account for the address of an invitation; it joins the inviting organisation and is signed in. */
+  createInvitedAccount(invitationToken: string, input: InvitedAccountInput): Promise<Session> {
+    return this.apply(
+      this.http.post<unknown>(`/api/v1/invitation-links/${encodeURIComponent(invitationToken)}/account`, input),
+    );
   }
 
   async signOut(): Promise<void> {

@@ -1,16 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { ChangeDetectionStrategy, ChangeDetectorRef, Component, inject, input, signal } from '@angular/core';
-import {
-  type AbstractControl,
-  type FormGroupDirective,
-  type NgForm,
-  NonNullableFormBuilder,
-  ReactiveFormsModule,
-  type ValidationErrors,
-  Validators,
-} from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import type { ErrorStateMatcher } from '@angular/material/core';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
@@ -18,23 +9,8 @@ import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '@shared/auth/auth-schemas';
 import { apiErrorCode, applyApiErrors, fieldError } from '../../core/api-errors';
+import { confirmErrorMatcher, passwordsMatch } from '../../core/validators';
 import { AuthCard } from '../../ui/auth-card/auth-card';
-
-/** Group validator: the confirmation must repeat the new password. */
-export function passwordsMatch(group: AbstractControl): ValidationErrors | null {
-  const password: unknown = group.get('password')?.value;
-  const confirm: unknown = group.get('confirmPassword')?.value;
-  return confirm && password !== confirm ? { mismatch: true } : null;
-}
-
-/** Shows the confirmation field in error when the two passwords differ. */
-const confirmErrorMatcher: ErrorStateMatcher = {
-  isErrorState(control: AbstractControl | null, form: FormGroupDirective | NgForm | null): boolean {
-    if (!control) return false;
-    const shown = control.touched || !!form?.submitted;
-    return shown && (control.invalid || !!form?.hasError('mismatch'));
-  },
-};
 
 @Component({
   selector: 'app-reset-password-page',

@@ -55,6 +55,8 @@ export class InvitationPage implements OnInit {
   protected readonly loadError = signal('');
   protected readonly pending = signal(false);
   protected readonly formError = signal('');
+  /** Set when creating the account finds the address already has one. */
+  private readonly accountFound = signal(false);
   protected readonly passwordMin = PASSWORD_MIN_LENGTH;
   protected readonly fieldError = fieldError;
 
@@ -68,7 +70,7 @@ export class InvitationPage implements OnInit {
     const user = this.auth.user();
     if (!p) return null;
     if (user) return user.email.toLowerCase() === p.email.toLowerCase() ? 'join' : 'wrong-account';
-    return p.accountExists ? 'sign-in' : 'create-account';
+    return p.accountExists || this.accountFound() ? 'sign-in' : 'create-account';
   });
   protected readonly returnUrl = computed(() => `/invitations/${this.token()}`);
 
@@ -129,7 +131,7 @@ export class InvitationPage implements OnInit {
     }
     const { name, password } = this.form.getRawValue();
     await this.run(async () => {
-      await this.auth.signUp({ email: p.email, name: name.trim(), password, invitationToken: this.token() });
+      await this.auth.createInvitedAccount(this.token(), { name: name.trim(), password });
       await this.router.navigateByUrl('/projects');
     });
   }
@@ -141,7 +143,9 @@ export class InvitationPage implements OnInit {
     try {
       await action();
     } catch (err) {
-      this.formError.set(applyApiErrors(this.form, err));
+      // The address has an account by now (made since the page loaded): offer to sign in instead.
+      if (apiErrorCode(err) === 'email_taken') this.accountFound.set(true);
+      else this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
       this.cdr.markForCheck();
