@@ -1,17 +1,15 @@
 import { HttpErrorResponse, httpResource } from '@angular/common/http';
 import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, inject, input, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Router, RouterLink } from '@angular/router';
-import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH, pendingSignUpSchema } from '@shared/auth/auth-schemas';
-import { apiErrorCode, apiErrorMessage, applyApiErrors, fieldError, safeReturnUrl } from '../../core/api-errors';
-import { confirmErrorMatcher, passwordsMatch } from '../../core/validators';
+import { pendingSignUpSchema } from '@shared/auth/auth-schemas';
+import { apiErrorCode, apiErrorMessage, applyApiErrors, safeReturnUrl } from '../../core/api-errors';
 import { AuthCard } from '../../ui/auth-card/auth-card';
 import { AuthStore } from '../auth-store';
+import { NewPasswordFields, newPasswordForm } from '../new-password-fields/new-password-fields';
 
 /** Why the link cannot make an account: used, expired or unknown; or the address has an account by now. */
 type LinkProblem = 'invalid' | 'taken';
@@ -23,11 +21,10 @@ type LinkProblem = 'invalid' | 'taken';
     ReactiveFormsModule,
     RouterLink,
     MatButtonModule,
-    MatFormFieldModule,
     MatIconModule,
-    MatInputModule,
     MatProgressBarModule,
     AuthCard,
+    NewPasswordFields,
   ],
   templateUrl: './finish-sign-up-page.html',
   styleUrl: './finish-sign-up-page.scss',
@@ -47,21 +44,9 @@ export class FinishSignUpPage {
     parse: pendingSignUpSchema.parse,
   });
 
-  protected readonly passwordMin = PASSWORD_MIN_LENGTH;
-  protected readonly confirmErrorMatcher = confirmErrorMatcher;
-  protected readonly form = inject(NonNullableFormBuilder).group(
-    {
-      password: [
-        '',
-        [Validators.required, Validators.minLength(PASSWORD_MIN_LENGTH), Validators.maxLength(PASSWORD_MAX_LENGTH)],
-      ],
-      confirmPassword: ['', [Validators.required]],
-    },
-    { validators: [passwordsMatch] },
-  );
+  protected readonly form = newPasswordForm(inject(NonNullableFormBuilder));
   protected readonly pending = signal(false);
   protected readonly formError = signal('');
-  protected readonly fieldError = fieldError;
 
   /** A problem the server reported when the password was sent. */
   private readonly submitProblem = signal<LinkProblem | null>(null);
@@ -85,12 +70,6 @@ export class FinishSignUpPage {
     const returnUrl = safeReturnUrl(this.returnUrl());
     return returnUrl ? { returnUrl } : {};
   });
-
-  protected confirmError(): string {
-    const control = this.form.controls.confirmPassword;
-    if (control.errors) return fieldError(control, { required: 'Repeat the password' });
-    return this.form.hasError('mismatch') ? 'The passwords do not match' : '';
-  }
 
   protected async createAccount(): Promise<void> {
     if (this.pending()) return;

@@ -1,20 +1,17 @@
 import { HttpClient } from '@angular/common/http';
 import { ChangeDetectionStrategy, ChangeDetectorRef, Component, inject, input, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
-import { PASSWORD_MAX_LENGTH, PASSWORD_MIN_LENGTH } from '@shared/auth/auth-schemas';
-import { apiErrorCode, applyApiErrors, fieldError } from '../../core/api-errors';
-import { confirmErrorMatcher, passwordsMatch } from '../../core/validators';
+import { apiErrorCode, applyApiErrors } from '../../core/api-errors';
 import { AuthCard } from '../../ui/auth-card/auth-card';
+import { NewPasswordFields, newPasswordForm } from '../new-password-fields/new-password-fields';
 
 @Component({
   selector: 'app-reset-password-page',
-  imports: [ReactiveFormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, AuthCard],
+  imports: [ReactiveFormsModule, RouterLink, MatButtonModule, MatIconModule, AuthCard, NewPasswordFields],
   templateUrl: './reset-password-page.html',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
@@ -26,29 +23,11 @@ export class ResetPasswordPage {
   // inputs (route parameter)
   readonly token = input.required<string>();
 
-  protected readonly passwordMin = PASSWORD_MIN_LENGTH;
-  protected readonly confirmErrorMatcher = confirmErrorMatcher;
-  protected readonly form = inject(NonNullableFormBuilder).group(
-    {
-      password: [
-        '',
-        [Validators.required, Validators.minLength(PASSWORD_MIN_LENGTH), Validators.maxLength(PASSWORD_MAX_LENGTH)],
-      ],
-      confirmPassword: ['', [Validators.required]],
-    },
-    { validators: [passwordsMatch] },
-  );
+  protected readonly form = newPasswordForm(inject(NonNullableFormBuilder));
   protected readonly pending = signal(false);
   protected readonly done = signal(false);
   protected readonly linkInvalid = signal(false);
   protected readonly formError = signal('');
-  protected readonly fieldError = fieldError;
-
-  protected confirmError(): string {
-    const control = this.form.controls.confirmPassword;
-    if (control.errors) return fieldError(control, { required: 'Repeat the new password' });
-    return this.form.hasError('mismatch') ? 'The passwords do not match' : '';
-  }
 
   protected async setPassword(): Promise<void> {
     if (this.pending()) return;
