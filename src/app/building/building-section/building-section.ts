@@ -56,11 +56,10 @@ import {
   type BuildingFormValue,
   type ServerIssue,
 } from '../building-form';
-import { displayUnit, type FieldUnit } from '../building-units';
 import { HeatLossPanel } from '../heat-loss-panel/heat-loss-panel';
 import { heatLossModel } from '../heat-loss-panel/heat-loss-model';
 import { NFactorPicker } from '../n-factor-picker/n-factor-picker';
-import { UnitInput } from '../unit-input';
+import { UnitField } from '../unit-field';
 
 /** Which heating design dry-bulb of the site the live heat loss uses. */
 export type DesignPercentile = '99' | '99.6';
@@ -127,7 +126,7 @@ function siteValues(values: DesignConditions | PublishedDesignValues | null | un
     MatSelectModule,
     HeatLossPanel,
     NFactorPicker,
-    UnitInput,
+    UnitField,
   ],
   templateUrl: './building-section.html',
   styleUrl: './building-section.scss',
@@ -328,10 +327,6 @@ export class BuildingSection {
       // The page saved the project's details from the same version: the building is unchanged.
       if (page !== null && own !== null && page > own) this.version.set(page);
     });
-  }
-
-  protected unitText(fieldUnit: FieldUnit): string {
-    return displayUnit(fieldUnit, this.system());
   }
 
   protected get rows() {
