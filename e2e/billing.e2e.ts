@@ -1,7 +1,7 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import { createAccountThroughUi } from './support/accounts';
-import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
+import { newOwnerPage } from './support/accounts';
+import { screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
 before(async () => {
@@ -13,16 +13,7 @@ after(async () => {
 
 describe('plans and billing in a real browser', () => {
   it('an owner at the free plan’s limit upgrades through the provider’s checkout and can then add the project', async () => {
-    const offenders: string[] = [];
-    const context = await e2e.browser.newContext({ viewport: { width: 1280, height: 900 } });
-    const page = await context.newPage();
-    guardOffline(page, e2e.baseUrl, offenders);
-    const stamp = Date.now().toString(36);
-    await createAccountThroughUi(page, e2e.baseUrl, {
-      name: 'Olive Owner',
-      email: `billing.${stamp}@example.test`,
-      password: 'a long enough passphrase',
-    });
+    const { context, page, offenders } = await newOwnerPage(e2e, { name: 'Olive Owner', emailPrefix: 'billing' });
     for (const name of ['First house', 'Second house', 'Third house']) {
       const res = await page.request.post(e2e.baseUrl + '/api/v1/projects', { data: { name }, headers: { 'X-Requested-With': 'tailroom' } });
       assert.equal(res.status(), 201);

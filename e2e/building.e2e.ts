@@ -3,8 +3,8 @@ import { after, before, describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
 import { buildingSchema } from '../shared/building/building-schemas';
 import { heatLoss } from '../shared/building/heat-loss';
-import { createAccountThroughUi } from './support/accounts';
-import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
+import { newOwnerPage } from './support/accounts';
+import { screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
 before(async () => {
@@ -36,17 +36,7 @@ const designLoadBtuh = async (page: Page) => {
 
 describe('a project’s building in a real browser', () => {
   it('is entered in IP units, shows the live heat loss with the heat pumps, and reads the same after a reload', async () => {
-    const offenders: string[] = [];
-    const context = await e2e.browser.newContext({ viewport: { width: 1280, height: 900 } });
-    const page = await context.newPage();
-    guardOffline(page, e2e.baseUrl, offenders);
-    const stamp = Date.now().toString(36);
-
-    await createAccountThroughUi(page, e2e.baseUrl, {
-      name: 'Bea Builder',
-      email: `building.${stamp}@example.test`,
-      password: 'a long enough passphrase',
-    });
+    const { context, page, offenders } = await newOwnerPage(e2e, { name: 'Bea Builder', emailPrefix: 'building' });
     await page.getByRole('radio', { name: 'IP units (inch-pound)' }).click();
 
     // A site with published values (through the API, with the page's session).

@@ -5,8 +5,8 @@ import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
 import { DEMO_SITES, generateDemoSeries, seriesToCsv } from '../shared/climate/demo-weather';
 import { computeDesignConditions } from '../shared/climate/design-conditions';
-import { createAccountThroughUi } from './support/accounts';
-import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
+import { newOwnerPage } from './support/accounts';
+import { screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
 before(async () => {
@@ -32,17 +32,7 @@ describe('climate sites in a real browser', () => {
     );
     assert.ok(expected.ok);
 
-    const offenders: string[] = [];
-    const context = await e2e.browser.newContext({ viewport: { width: 1280, height: 900 } });
-    const page = await context.newPage();
-    guardOffline(page, e2e.baseUrl, offenders);
-    const stamp = Date.now().toString(36);
-
-    await createAccountThroughUi(page, e2e.baseUrl, {
-      name: 'Cleo Climate',
-      email: `climate.${stamp}@example.test`,
-      password: 'a long enough passphrase',
-    });
+    const { context, page, offenders } = await newOwnerPage(e2e, { name: 'Cleo Climate', emailPrefix: 'climate' });
 
     await page.getByRole('link', { name: 'Climate sites' }).first().click();
     await page.getByText('No climate sites yet').waitFor();

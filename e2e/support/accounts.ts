@@ -1,4 +1,5 @@
-import type { Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
+import { guardOffline, type E2eApp } from './e2e-app';
 
 export interface NewAccount {
   name: string;
@@ -64,4 +65,21 @@ async function newestSignUpLink(page: Page, baseUrl: string, email: string): Pro
   const href = await link.getAttribute('href');
   if (!href?.startsWith(baseUrl + '/finish-sign-up/')) throw new Error(`unexpected sign-up link: ${String(href)}`);
   return href;
+}
+
+/**
+ * A fresh browser context (1280 × 900) watched for requests off the machine and CSP violations, with a
+ * new owner account made through the UI (`<prefix>.<stamp>@example.test`): the start of most browser tests.
+ */
+export async function newOwnerPage(
+  e2e: Pick<E2eApp, 'browser' | 'baseUrl'>,
+  owner: { name: string; emailPrefix: string },
+): Promise<{ context: BrowserContext; page: Page; offenders: string[]; email: string }> {
+  const offenders: string[] = [];
+  const context = await e2e.browser.newContext({ viewport: { width: 1280, height: 900 } });
+  const page = await context.newPage();
+  guardOffline(page, e2e.baseUrl, offenders);
+  const email = `${owner.emailPrefix}.${Date.now().toString(36)}@example.test`;
+  await createAccountThroughUi(page, e2e.baseUrl, { name: owner.name, email, password: 'a long enough passphrase' });
+  return { context, page, offenders, email };
 }
