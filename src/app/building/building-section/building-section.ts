@@ -38,7 +38,7 @@ import { formatQuantity as formatBuildingQuantity } from '@shared/building/quant
 import type { DesignConditions, PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
-import { apiErrorCode, apiErrorMessage, readApiError } from '../../core/api-errors';
+import { apiErrorMessage, readApiError, saveFailure } from '../../core/api-errors';
 import { ClimateSitesApi } from '../../climate/climate-sites-api';
 import { BuildingApi } from '../building-api';
 import {
@@ -371,13 +371,10 @@ export class BuildingSection {
       this.saved.emit(answer.version);
       this.snackBar.open('Building saved', 'Close', { duration: 4000 });
     } catch (err) {
-      if (apiErrorCode(err) === 'stale_update') {
-        // The typed values stay; Reload shows the latest saved building and keeps them aside.
-        this.stale.set(true);
-        this.formError.set(apiErrorMessage(err));
-      } else {
-        this.formError.set(this.applyServerErrors(err));
-      }
+      // A stale save keeps the typed values; Reload shows the latest saved building and keeps them aside.
+      const failure = saveFailure(err, (e) => this.applyServerErrors(e));
+      this.stale.set(failure.stale);
+      this.formError.set(failure.message);
     } finally {
       this.pending.set(false);
       this.cdr.markForCheck();

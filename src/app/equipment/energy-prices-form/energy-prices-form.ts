@@ -26,7 +26,7 @@ import type { EnergyPricesAnswer } from '@shared/equipment/equipment-list-schema
 import type { EnergyPrices, GasPriceUnit } from '@shared/money/energy-prices';
 import { UNIT_PRICE_PATTERN } from '@shared/money/money';
 import { AuthStore } from '../../auth/auth-store';
-import { apiErrorCode, apiErrorMessage, applyApiErrors, fieldError } from '../../core/api-errors';
+import { apiErrorMessage, applyApiErrors, fieldError, saveFailure } from '../../core/api-errors';
 import { DEFAULT_CURRENCY, EquipmentApi } from '../equipment-api';
 
 const CURRENCIES = ['USD', 'CAD', 'EUR', 'GBP', 'AUD', 'NZD', 'CHF', 'SEK', 'NOK', 'DKK'] as const;
@@ -142,12 +142,9 @@ export class EnergyPricesForm {
       this.latestSaved.set('');
       this.snackBar.open('Energy prices saved', 'Close', { duration: 4000 });
     } catch (err) {
-      if (apiErrorCode(err) === 'stale_update') {
-        this.stale.set(true);
-        this.formError.set(apiErrorMessage(err));
-      } else {
-        this.formError.set(applyApiErrors(this.form, err));
-      }
+      const failure = saveFailure(err, (e) => applyApiErrors(this.form, e));
+      this.stale.set(failure.stale);
+      this.formError.set(failure.message);
     } finally {
       this.pending.set(false);
       this.cdr.markForCheck();

@@ -26,7 +26,7 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import { EQUIPMENT_OPTIONS_MAX, type EquipmentList } from '@shared/equipment/equipment-list-schemas';
 import { equipmentKinds, type EquipmentKind, type EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../../auth/auth-store';
-import { apiErrorCode, apiErrorMessage, fieldError, readApiError } from '../../core/api-errors';
+import { apiErrorCode, apiErrorMessage, fieldError, readApiError, saveFailure } from '../../core/api-errors';
 import {
   CsvImportDialog,
   type CsvImportDialogData,
@@ -201,12 +201,9 @@ export class EquipmentListPage {
       this.show(saved);
       this.snackBar.open('Equipment list saved', 'Close', { duration: 4000 });
     } catch (err) {
-      if (apiErrorCode(err) === 'stale_update') {
-        this.stale.set(true);
-        this.formError.set(apiErrorMessage(err));
-      } else {
-        this.formError.set(this.placeServerErrors(err));
-      }
+      const failure = saveFailure(err, (e) => this.placeServerErrors(e));
+      this.stale.set(failure.stale);
+      this.formError.set(failure.message);
     } finally {
       this.pending.set(false);
       this.cdr.markForCheck();

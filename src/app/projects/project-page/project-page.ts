@@ -19,7 +19,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
 import type { Project } from '@shared/projects/project-schemas';
 import { AuthStore } from '../../auth/auth-store';
-import { apiErrorCode, apiErrorMessage, applyApiErrors } from '../../core/api-errors';
+import { apiErrorCode, apiErrorMessage, applyApiErrors, saveFailure } from '../../core/api-errors';
 import { BuildingSection } from '../../building/building-section/building-section';
 import { EquipmentListSelect } from '../../building/equipment-list-select/equipment-list-select';
 import { ProjectFields, type ClimateSiteRef } from '../project-fields/project-fields';
@@ -129,13 +129,10 @@ export class ProjectPage {
       this.unsaved.set([]);
       this.snackBar.open('Project saved', 'Close', { duration: 4000 });
     } catch (err) {
-      if (apiErrorCode(err) === 'stale_update') {
-        // The typed values stay in the form; Reload shows the latest version and keeps them aside.
-        this.stale.set(true);
-        this.formError.set(apiErrorMessage(err));
-      } else {
-        this.formError.set(applyApiErrors(this.form, err));
-      }
+      // A stale save keeps the typed values in the form; Reload shows the latest version and keeps them aside.
+      const failure = saveFailure(err, (e) => applyApiErrors(this.form, e));
+      this.stale.set(failure.stale);
+      this.formError.set(failure.message);
     } finally {
       this.pending.set(false);
       this.cdr.markForCheck();

@@ -21,7 +21,7 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { EnergyPrices, GasPriceUnit } from '@shared/money/energy-prices';
 import { EXTRA_DESIGN_TEMPERATURES_MAX, type Scenario, type ScenarioSettings } from '@shared/scenarios/scenario-schemas';
 import { fromSi, toSi, unitLabel } from '@shared/units/units';
-import { apiErrorCode, apiErrorMessage, applyApiErrors, fieldError } from '../../core/api-errors';
+import { applyApiErrors, fieldError, saveFailure } from '../../core/api-errors';
 import { EquipmentApi } from '../../equipment/equipment-api';
 import { ProjectsApi } from '../../projects/projects-api';
 import { ScenariosApi } from '../scenarios-api';
@@ -231,12 +231,9 @@ export class ScenarioSettingsPanel {
       this.form.markAsPristine();
       this.saved.emit(saved);
     } catch (err) {
-      if (apiErrorCode(err) === 'stale_update') {
-        this.stale.set(true);
-        this.formError.set(apiErrorMessage(err));
-      } else {
-        this.formError.set(applyApiErrors(this.form, err));
-      }
+      const failure = saveFailure(err, (e) => applyApiErrors(this.form, e));
+      this.stale.set(failure.stale);
+      this.formError.set(failure.message);
     } finally {
       this.pending.set(false);
       this.cdr.markForCheck();

@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { apiErrorCode, apiErrorMessage, applyApiErrors, fieldError } from '../../core/api-errors';
+import { applyApiErrors, fieldError, saveFailure } from '../../core/api-errors';
 
 export interface NameDialogData<T> {
   title: string;
@@ -132,12 +132,11 @@ export class NameDialog<T> {
     try {
       await action();
     } catch (err) {
-      if (this.data.reload && apiErrorCode(err) === 'stale_update') {
-        this.stale.set(true);
-        this.formError.set(apiErrorMessage(err));
-      } else {
-        this.formError.set(applyApiErrors(this.form, err));
-      }
+      const place = (e: unknown) => applyApiErrors(this.form, e);
+      // Without `reload` there is nothing to offer: a stale save is shown like any other failure.
+      const failure = this.data.reload ? saveFailure(err, place) : { stale: false, message: place(err) };
+      this.stale.set(failure.stale);
+      this.formError.set(failure.message);
     } finally {
       this.pending.set(false);
       this.cdr.markForCheck();
