@@ -295,6 +295,11 @@ async function prepareSweepReusing(db: Knex, row: ScenarioRow): Promise<Prepared
   return prepared;
 }
 
+/** A frozen scenario's answer: the result kept with it, never computed again. */
+function frozenAnswer(row: ScenarioRow): SweepAnswer | null {
+  return row.frozen_at && row.frozen_result ? { ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true } : null;
+}
+
 /** The sweep answer of a scenario: its frozen result, or the cache, or a new run (null: `onlyCached` and not cached). */
 export async function scenarioSweep(
   db: Knex,
@@ -303,9 +308,8 @@ export async function scenarioSweep(
   row: ScenarioRow,
   options: { onlyCached?: boolean } = {},
 ): Promise<SweepAnswer | null> {
-  if (row.frozen_at && row.frozen_result) {
-    return { ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true };
-  }
+  const frozen = frozenAnswer(row);
+  if (frozen) return frozen;
   const prepared = await prepareSweepReusing(db, row);
   const out = await computeSweep(db, pool, databaseUrl, prepared, options);
   return out && { ...out.body, scenarioId: row.id, cached: out.cached, frozen: false };
@@ -322,7 +326,8 @@ export async function scenarioSweepJson(
   row: ScenarioRow,
   options: { onlyCached?: boolean } = {},
 ): Promise<SweepJson | null> {
-  if (row.frozen_at && row.frozen_result) return toSweepJson({ ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true });
+  const frozen = frozenAnswer(row);
+  if (frozen) return toSweepJson(frozen);
   const prepared = await prepareSweepReusing(db, row);
   if (prepared.answerJson) return prepared.answerJson;
   const out = await computeSweep(db, pool, databaseUrl, prepared, options);
