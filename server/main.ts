@@ -34,3 +34,18 @@ function stop(signal: string) {
 }
 process.on('SIGINT', () => stop('SIGINT'));
 process.on('SIGTERM', () => stop('SIGTERM'));
+
+// Anything thrown outside a request's handling leaves the process in an unknown state: log it, stop
+// taking requests and exit non-zero, so that the supervisor (`npm start`, or the host's) starts a clean one.
+function fatal(kind: string, err: unknown) {
+  logger.fatal({ err, kind }, 'unexpected failure; the server stops and is restarted');
+  if (!stopping) {
+    stopping = true;
+    server.close();
+    server.closeIdleConnections();
+  }
+  setTimeout(() => process.exit(70), 3000);
+  void Promise.allSettled([db.destroy(), tailroom.close()]).finally(() => process.exit(70));
+}
+process.on('uncaughtException', (err) => fatal('uncaughtException', err));
+process.on('unhandledRejection', (reason) => fatal('unhandledRejection', reason));
