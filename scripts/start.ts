@@ -131,7 +131,12 @@ async function main(): Promise<void> {
   startChild('e-mail sink', ['server/fakes/smtp-sink-main.ts', String(smtpPort), String(outboxPort)], env);
   supervised = supervise({
     name: 'server',
-    start: () => spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], { env, stdio: 'inherit' }),
+    // A second server is kept loaded, so that one that stops is replaced at once.
+    standby: true,
+    start: (standby) =>
+      standby
+        ? spawn(process.execPath, ['--import', 'tsx', 'server/main.ts', '--standby'], { env, stdio: ['inherit', 'inherit', 'inherit', 'ipc'] })
+        : spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], { env, stdio: 'inherit' }),
     log: (line) => console.error(line),
     onGiveUp: () => shutdown(1),
   });
