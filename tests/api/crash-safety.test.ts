@@ -175,10 +175,11 @@ const ZW = '\u200b';
 const BOM = '\ufeff';
 
 describe('characters a font has no glyph for', () => {
-  it('drops format characters from printed text, keeps line breaks, and shows a lone surrogate as ?', () => {
+  it('drops format characters from printed text, keeps line breaks, prints a thin space as a space and a lone surrogate as ?', () => {
     assert.equal(printable(`Zero${ZW}width${BOM} and\u200dmarks\u202e`), 'Zerowidth andmarks');
     assert.equal(printable('two\nlines\tand tab\u0007'), 'two\nlines\tand tab');
     assert.equal(printable('half \ud83d here, whole \ud83d\ude00'), 'half ? here, whole \ud83d\ude00');
+    assert.equal(printable('21\u2009°C'), '21 °C');
   });
 
   it('prints, exports and e-mails U+200B and U+FEFF in every text field that reaches them', async () => {
