@@ -194,7 +194,7 @@ describe('characters a font has no glyph for', () => {
     const { scenario, report, token } = await sharedReport(f, {
       scenarioName: `Gas${ZW}bid${BOM}`,
       title: `Heating${ZW} options${BOM} for you`,
-      note: `Call${ZW} me${BOM} with questions.`,
+      note: `Call${ZW} me${BOM} with\u2009questions.`,
     });
     const pdf = await request(t.app).get(`/api/v1/public/reports/${token}/pdf`).expect(200);
     const text = await pdfText(pdf.body as Buffer);
