@@ -7,6 +7,7 @@
 import jpeg from 'jpeg-js';
 import { JSDOM } from 'jsdom';
 import { PNG } from 'pngjs';
+import { inflateSync } from 'node:zlib';
 
 export type LogoType = 'image/png' | 'image/jpeg' | 'image/svg+xml';
 
@@ -33,6 +34,16 @@ function checkPng(content: Buffer): LogoCheck {
   const tooBig = sizeReason(content.readUInt32BE(16), content.readUInt32BE(20));
   if (tooBig) return fail(tooBig);
   try {
+    // pngjs does not report every broken zlib stream (it can return uninitialised pixels), so the
+    // image data is inflated here first, where a corrupt stream throws.
+    const idat: Buffer[] = [];
+    for (let at = 8; at + 12 <= content.length; ) {
+      const length = content.readUInt32BE(at);
+      if (content.toString('latin1', at + 4, at + 8) === 'IDAT') idat.push(content.subarray(at + 8, at + 8 + length));
+      at += 12 + length;
+    }
+    const width = content.readUInt32BE(16);
+    inflateSync(Buffer.concat(idat), { maxOutputLength: (width * 8 + 1) * content.readUInt32BE(20) });
     const image = PNG.sync.read(content);
     const clean = new PNG({ width: image.width, height: image.height });
     image.data.copy(clean.data);
