@@ -112,7 +112,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   app.post('/api/v1/auth/sign-up', ...limits.signUp);
   app.post('/api/v1/auth/password-resets', limits.passwordReset);
   app.post('/api/v1/invitations', limits.invitations);
-  const sweepPool = createSweepPool();
+  const sweepPool = createSweepPool({ databaseUrl: config.databaseUrl });
   // The API's routers, kept with their prefixes for `routes()` (the authorisation test walks them).
   const mounted: { prefix: string; router: Router }[] = [];
   const mount = (prefix: string, router: Router) => {
