@@ -9,7 +9,8 @@ import type { Knex } from 'knex';
  * - dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa: float32, NaN where missing
  *   (the precision of the former `real` columns);
  * - sweep_index / sweep_index_key: the record grouped for the sweep (shared/sweep/sweep-index.ts),
- *   built at upload; empty for records moved here, which are indexed on their first sweep.
+ *   built at upload; empty for records moved here, which are indexed on their first sweep. An upload
+ *   waiting in climate_uploads keeps its index in the same two columns.
  *
  * The arrays are stored uncompressed (STORAGE EXTERNAL): floats barely compress and reading them
  * back must not pay for decompression. Nothing else reads hourly_observations, so it is dropped;
@@ -81,6 +82,11 @@ export async function up(knex: Knex): Promise<void> {
   for (const column of ['hours', ...VALUE_COLUMNS, 'sweep_index']) {
     await knex.raw('ALTER TABLE climate_records ALTER COLUMN ?? SET STORAGE EXTERNAL', [column]);
   }
+  // An upload waiting for confirmation keeps the index built when it was read.
+  await knex.schema.alterTable('climate_uploads', (t) => {
+    t.binary('sweep_index');
+    t.text('sweep_index_key');
+  });
 
   const sites = await knex('hourly_observations').distinct<{ climate_site_id: string }[]>('climate_site_id');
   for (const { climate_site_id: siteId } of sites) {
@@ -94,6 +100,10 @@ export async function up(knex: Knex): Promise<void> {
 }
 
 export async function down(knex: Knex): Promise<void> {
+  await knex.schema.alterTable('climate_uploads', (t) => {
+    t.dropColumn('sweep_index');
+    t.dropColumn('sweep_index_key');
+  });
   await createObservationsTable(knex);
   const records = await knex('climate_records').select<
     ({ climate_site_id: string; hour_count: number; hours: Buffer } & Record<(typeof VALUE_COLUMNS)[number], Buffer>)[]

@@ -25,6 +25,7 @@ import { auditRouter } from './modules/audit/audit';
 import { reportsRouter } from './modules/reports/reports-router';
 import { reportLinkHttpStatus } from './modules/reports/report-tokens';
 import { createSweepPool } from './modules/scenarios/sweep-pool';
+import { createUploadPool } from './modules/climate/upload-pool';
 
 export interface AppDeps {
   config: Config;
@@ -113,6 +114,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   app.post('/api/v1/auth/password-resets', limits.passwordReset);
   app.post('/api/v1/invitations', limits.invitations);
   const sweepPool = createSweepPool({ databaseUrl: config.databaseUrl });
+  const uploadPool = createUploadPool(config.uploadParses);
   // The API's routers, kept with their prefixes for `routes()` (the authorisation test walks them).
   const mounted: { prefix: string; router: Router }[] = [];
   const mount = (prefix: string, router: Router) => {
@@ -123,7 +125,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   mount('/api/v1', orgsRouter(db, config, mailer));
   mount('/api/v1/projects', projectsRouter(db));
   mount('/api/v1/projects', scenariosRouter(db, sweepPool, config.databaseUrl));
-  mount('/api/v1', climateRouter(db));
+  mount('/api/v1', climateRouter(db, uploadPool));
   mount('/api/v1', equipmentRouter(db));
   mount('/api/v1', reportsRouter({ db, pool: sweepPool, config, mailer }));
   mount('/api/v1', logoRouter(db));
@@ -150,7 +152,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
     app,
     routes: () => routeTable(mounted),
     close: async () => {
-      await Promise.all([sessionPool.end(), sweepPool.close()]);
+      await Promise.all([sessionPool.end(), sweepPool.close(), uploadPool.close()]);
     },
   };
 }

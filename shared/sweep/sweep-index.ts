@@ -107,7 +107,7 @@ export function unpackSweepIndex(bytes: Uint8Array): SweepRecordIndex {
   const buf = bytes.byteOffset % 8 === 0 ? bytes : new Uint8Array(bytes);
   const headerLength = new DataView(buf.buffer, buf.byteOffset, 4).getUint32(0, true);
   const header = JSON.parse(new TextDecoder().decode(buf.subarray(4, 4 + headerLength))) as Header;
-  if (header.format !== SWEEP_INDEX_FORMAT) throw new Error(`sweep index of format ${String(header.format)}`);
+  if (header.format !== SWEEP_INDEX_FORMAT) throw new Error(`sweep index of format ${header.format}`);
   const arrays = new Map<string, { type: StoredType; view: Float64Array | Float32Array | Int32Array | Uint8Array }>();
   let at = pad8(4 + headerLength);
   for (const a of header.arrays) {

@@ -9,6 +9,8 @@ import type { SweepTask, SweepTaskResult, WarmUpTask } from './sweep-worker';
 
 export interface SweepPool {
   run(hash: string, task: SweepTask): Promise<SweepTaskResult>;
+  /** Resolves once the first worker has started and connected (at once without a database to warm). */
+  ready(): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -21,7 +23,12 @@ export function createSweepPool(options: { maxThreads?: number; databaseUrl?: st
     idleTimeout: 60_000,
   });
   // A failed warm-up (database not up yet) is harmless: the first sweep connects instead.
-  if (options.databaseUrl) piscina.run({ warmUp: true, databaseUrl: options.databaseUrl }).catch(() => undefined);
+  const warm = options.databaseUrl
+    ? piscina.run({ warmUp: true, databaseUrl: options.databaseUrl }).then(
+        () => undefined,
+        () => undefined,
+      )
+    : Promise.resolve();
   const inFlight = new Map<string, Promise<SweepTaskResult>>();
   return {
     run(hash, task) {
@@ -38,6 +45,7 @@ export function createSweepPool(options: { maxThreads?: number; databaseUrl?: st
       }
       return p;
     },
+    ready: () => warm,
     async close() {
       await piscina.destroy();
     },
