@@ -45,6 +45,8 @@ export interface App {
   app: Express;
   /** Every API route of the mounted routers, with its guard. */
   routes(): RouteInfo[];
+  /** Weather files being read in the upload pool right now, and waiting their turn. */
+  uploadsPending(): { running: number; waiting: number };
   /** Closes what the app opened itself (the session store's pool, the sweep workers). */
   close(): Promise<void>;
 }
@@ -151,6 +153,7 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   return {
     app,
     routes: () => routeTable(mounted),
+    uploadsPending: () => uploadPool.pending(),
     close: async () => {
       await Promise.all([sessionPool.end(), sweepPool.close(), uploadPool.close()]);
     },

@@ -1,7 +1,7 @@
 /**
  * The sweep's index of an hourly record, built once when the record is stored and kept with it as
  * bytes, so that the first sweep of a stored record reads it back instead of re-deriving it from the
- * hours (docs/methods.md#stored-sweep-index).
+ * hours (docs/architecture.md#stored-records-and-the-sweep-index).
  *
  * The index is what `sweep` prepares from a record: the valid hours of the qualifying years in time
  * order (`Hours`) and those hours grouped by outdoor temperature (`Bins`). The grouping by

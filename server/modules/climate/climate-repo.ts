@@ -154,7 +154,7 @@ const bytesOf = (a: Int32Array | Float32Array) => Buffer.from(a.buffer, a.byteOf
 
 /**
  * Packs a series into the stored columns: times to whole hours, hours without a finite time left
- * out, a repeated hour keeping its first value, in time order (docs/methods.md#stored-records).
+ * out, a repeated hour keeping its first value, in time order (docs/architecture.md#stored-records-and-the-sweep-index).
  */
 export function packRecord(series: HourlySeries): PackedRecord {
   const n = series.time.length;

@@ -195,6 +195,11 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
     },
   );
 
+  // The organisation's uploads being read and waiting their turn: the upload screen shows it while it waits.
+  router.get('/climate-upload-queue', authorize(db, 'org:read'), (req, res) => {
+    res.json(uploads.pendingFor(orgContext(req).organizationId));
+  });
+
   router.post('/climate-uploads/:uploadId/confirm', authorize(db, 'project:write'), async (req, res) => {
     const { uploadId } = uploadParam.parse(req.params);
     const { organizationId } = orgContext(req);

@@ -11,8 +11,10 @@ import type { UploadParseResult, UploadParseTask } from './upload-worker';
 export interface UploadPool {
   /** Reads an upload in the pool once the organisation's turn comes. */
   parse(organizationId: string, task: UploadParseTask): Promise<UploadParseResult>;
-  /** Uploads being read and waiting (for the bench and the tests). */
+  /** Uploads being read and waiting, over all organisations (for the bench and the tests). */
   pending(): { running: number; waiting: number };
+  /** One organisation's uploads being read and waiting their turn. */
+  pendingFor(organizationId: string): { reading: number; waiting: number };
   close(): Promise<void>;
 }
 
@@ -85,6 +87,10 @@ export function createUploadPool(options: { max: number; perOrganization: number
       running,
       waiting: [...turns.values()].reduce((n, t) => n + t.waiting.length, 0) + piscina.queueSize,
     }),
+    pendingFor: (organizationId) => {
+      const turn = turns.get(organizationId);
+      return { reading: turn?.running ?? 0, waiting: turn?.waiting.length ?? 0 };
+    },
     async close() {
       await piscina.destroy();
     },
