@@ -25,7 +25,8 @@ const RETRY_AFTER_S = 10;
 export function createUploadPool(options: { max: number; perOrganization: number }): UploadPool {
   const piscina = new Piscina<UploadParseTask, UploadParseResult>({
     filename: new URL('./upload-worker.ts', import.meta.url).href,
-    minThreads: 1,
+    // Started on the first upload and kept for a minute: most servers read a file now and then.
+    minThreads: 0,
     maxThreads: options.max,
     maxQueue: options.max * MAX_WAITING_PER_ORG * 4,
     idleTimeout: 60_000,
