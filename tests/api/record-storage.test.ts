@@ -18,7 +18,7 @@ import { storeRecord } from '../../server/modules/climate/climate-service';
 import { atStoragePrecision } from '../../server/modules/climate/series-codec';
 import { benchScenarioInput } from '../../scripts/bench-sweep';
 
-const COLUMNS_MIGRATION = '20261202100000_store_climate_records_as_columns.ts';
+const COLUMNS_MIGRATION = '20261202101000_store_climate_records_as_columns.ts';
 const MS_PER_HOUR = 3_600_000;
 const HOUR_2021 = Date.UTC(2021, 0, 1) / MS_PER_HOUR;
 
