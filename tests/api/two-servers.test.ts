@@ -64,7 +64,7 @@ async function startServer(): Promise<{ port: number; child: ChildProcess }> {
   throw new Error(`the server on port ${port} did not start`);
 }
 
-before(async () => {
+async function startAll(): Promise<void> {
   fake = await startPaymentFake({ secretKey: FAKE_STRIPE_SECRET_KEY, webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET, retryBaseMs: 200 });
   servers.push(await startServer(), await startServer());
   // The provider's webhook goes to both servers at once, with the same signed body.
@@ -82,9 +82,9 @@ before(async () => {
   });
   await new Promise<void>((resolve) => relay.listen(0, '127.0.0.1', resolve));
   fake.setWebhookUrl(`http://127.0.0.1:${(relay.address() as AddressInfo).port}/`);
-});
+}
 
-after(async () => {
+async function stopAll(): Promise<void> {
   await Promise.all(
     servers.map(
       (s) =>
@@ -97,7 +97,7 @@ after(async () => {
   relay.closeAllConnections();
   await new Promise<void>((resolve) => relay.close(() => resolve()));
   await fake.close();
-});
+}
 
 /** A browser-like client of one server process: a session cookie, the CSRF header, JSON. */
 function client(cookie: string) {
@@ -125,6 +125,10 @@ const portA = () => servers[0]?.port ?? 0;
 const portB = () => servers[1]?.port ?? 0;
 
 describe('two server processes on one database', () => {
+  // Inside the suite: after the file's test app (and its configuration) exists.
+  before(startAll);
+  after(stopAll);
+
   it('accepts a session made on one server on the other', async () => {
     const owner = await signUp(t);
     const { status, cookie } = await signInOn(portA(), owner.email);
