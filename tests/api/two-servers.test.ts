@@ -50,9 +50,12 @@ async function startServer(): Promise<{ port: number; child: ChildProcess }> {
       STRIPE_API_PORT: String(fake.port),
       STRIPE_API_PROTOCOL: 'http',
     },
-    stdio: 'ignore',
+    stdio: ['ignore', 'ignore', 'pipe'],
   });
-  for (let i = 0; i < 150; i++) {
+  let stderr = '';
+  child.stderr?.on('data', (c: Buffer) => (stderr += c.toString()));
+  // Generous: on a busy machine compiling the server on start takes a while.
+  for (let i = 0; i < 900 && child.exitCode === null; i++) {
     try {
       if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) return { port, child };
     } catch {
@@ -61,7 +64,7 @@ async function startServer(): Promise<{ port: number; child: ChildProcess }> {
     await new Promise((r) => setTimeout(r, 100));
   }
   child.kill('SIGKILL');
-  throw new Error(`the server on port ${port} did not start`);
+  throw new Error(`the server on port ${port} did not start: ${stderr.slice(-2000)}`);
 }
 
 async function startAll(): Promise<void> {
