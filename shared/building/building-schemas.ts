@@ -16,6 +16,7 @@ export const BUILDING_DEFAULTS = {
   /** METHODS §3.8: load procedures intend loads without arbitrary safety factors [M]. */
   safetyFactorPct: 0,
   internalGainsW: 0,
+  creditGainsAtDesign: false,
 } as const;
 
 /**
@@ -211,6 +212,14 @@ export const buildingSchema = z.strictObject({
   safetyFactorPct: nonNegative('safety factor', '%', 100).default(BUILDING_DEFAULTS.safetyFactorPct),
   /** Internal/solar gains credited against the load, W. */
   internalGainsW: nonNegative('internal-gain credit', 'W', 1_000_000).default(BUILDING_DEFAULTS.internalGainsW),
+  /**
+   * Whether the gains are also credited against the design load (sizing). Off by default: usual
+   * practice sizes without gains, which may be absent on the coldest night (docs/methods.md#design-load).
+   * The hourly load always credits them.
+   */
+  creditGainsAtDesign: z
+    .boolean({ error: 'Credit gains at design is true or false' })
+    .default(BUILDING_DEFAULTS.creditGainsAtDesign),
   thermalMass: thermalMassSchema,
 });
 export type Building = z.infer<typeof buildingSchema>;

@@ -221,7 +221,10 @@ export interface HeatLoss {
   safetyFactorFraction: number;
   /** L = max(0, totalW − internalGainsW), W. */
   loadW: number;
-  /** D = L × (1 + safety factor), W. */
+  /**
+   * D = (totalW, or L when the building credits its gains at design) × (1 + safety factor), W.
+   * Gains are not credited at design unless `creditGainsAtDesign` says so (docs/methods.md#design-load).
+   */
   designLoadW: number;
 }
 
@@ -261,7 +264,7 @@ export function heatLoss(building: Building, outdoorC: number, windMs: number): 
     ductLossFraction,
     safetyFactorFraction,
     loadW,
-    designLoadW: loadW * (1 + safetyFactorFraction),
+    designLoadW: (building.creditGainsAtDesign ? loadW : totalW) * (1 + safetyFactorFraction),
   };
 }
 
