@@ -222,8 +222,21 @@ describe('heat loss: ventilation, duct loss, gains and safety factor', () => {
     assertClose(r.totalW, total, 1e-9, 'total W');
     assert.equal(r.internalGainsW, 500);
     assertClose(r.loadW, total - 500, 1e-9, 'L');
-    assertClose(r.designLoadW, (total - 500) * 1.1, 1e-9, 'D');
+    // Gains are not credited at design by default (docs/methods.md#design-load): D = total × 1.1.
+    assertClose(r.designLoadW, total * 1.1, 1e-9, 'D');
+    assertClose(heatLoss({ ...b, creditGainsAtDesign: true }, -15, 6.7).designLoadW, (total - 500) * 1.1, 1e-9, 'D with gains credited');
     assertClose(total, 5263.98, 0.01, 'total W, by hand'); // 127.14937 W/K × 36 K × 1.15
+  });
+
+  it('without the design credit, the design load never falls when the gains rise', () => {
+    let previous = -Infinity;
+    for (const internalGainsW of [0, 200, 500, 1000, 5000]) {
+      const d = heatLoss({ ...b, internalGainsW }, -15, 6.7).designLoadW;
+      assert.ok(d >= previous, `design load fell to ${d} W with ${internalGainsW} W of gains`);
+      previous = d;
+    }
+    // …and with it, it does fall: the setting is what changes the outcome.
+    assert.ok(heatLoss({ ...b, internalGainsW: 1000, creditGainsAtDesign: true }, -15, 6.7).designLoadW < previous);
   });
 
   it('is zero when it is as warm outside as inside, and gains never make the load negative', () => {
