@@ -128,7 +128,7 @@ describe('tailroom-cli sweep', () => {
       'a COP below 1',
       (s) => ({
         ...s,
-        equipment: s.equipment.map((e) => (e.kind === 'heat-pump' ? { ...e, ratings: [e.ratings[0], { outdoorC: -8.3, capacityW: 7000, cop: 0.8 }] } : e)),
+        equipment: s.equipment.map((e) => (e.kind === 'heat-pump' && e.ratings ? { ...e, ratings: [e.ratings[0], { outdoorC: -8.3, capacityW: 7000, cop: 0.8 }] } : e)),
       }),
       /equipment "hp-3"\.ratings\[1\]\.cop: The COP must be at least 1/,
     ],
