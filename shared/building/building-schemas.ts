@@ -13,7 +13,7 @@ export const BUILDING_DEFAULTS = {
   designWind: { source: 'default' as const },
   ventilation: { flowLps: 0, heatRecoveryEffectiveness: 0 },
   ductLossPct: 0,
-  /** METHODS §3.8: load procedures intend loads without arbitrary safety factors [M]. */
+  /** docs/methods.md#duct-loss-and-margins: load procedures intend loads without arbitrary safety factors [M]. */
   safetyFactorPct: 0,
   internalGainsW: 0,
   creditGainsAtDesign: false,
@@ -21,7 +21,7 @@ export const BUILDING_DEFAULTS = {
 
 /**
  * Default winter design wind speed, m/s (15 mph): a common trade assumption, no source; it is the
- * wind behind the ASHRAE winter outside film value (METHODS §3.2, §9).
+ * wind behind the ASHRAE winter outside film value (docs/methods.md#surface-films, #trade-facts).
  */
 export const DEFAULT_DESIGN_WIND_MS = 6.7;
 
@@ -186,7 +186,7 @@ export const thermalMassSchema = z.discriminatedUnion(
     z.strictObject({
       mode: z.literal('class'),
       class: z.enum(thermalMassClasses, { error: 'Choose a thermal-mass class: light, medium or heavy' }),
-      /** Conditioned floor area, m²: the class gives a capacitance per m² of floor (METHODS §5.1). */
+      /** Conditioned floor area, m²: the class gives a capacitance per m² of floor (docs/methods.md#indoor-temperature). */
       floorAreaM2: positive('floor area', 'm²', 1_000_000),
     }),
   ],
@@ -206,7 +206,7 @@ export const buildingSchema = z.strictObject({
   airLeakage: airLeakageSchema,
   designWind: designWindSchema.default(BUILDING_DEFAULTS.designWind),
   ventilation: ventilationSchema.default(BUILDING_DEFAULTS.ventilation),
-  /** Duct loss as a percentage of the other losses (METHODS §3.8: 10–30 % for ducts outside, ≈ 0 inside [M]). */
+  /** Duct loss as a percentage of the other losses (docs/methods.md#duct-loss-and-margins: 10–30 % for ducts outside, ≈ 0 inside [M]). */
   ductLossPct: nonNegative('duct loss', '%', 100).default(BUILDING_DEFAULTS.ductLossPct),
   /** Safety factor applied to the load after gains, %. */
   safetyFactorPct: nonNegative('safety factor', '%', 100).default(BUILDING_DEFAULTS.safetyFactorPct),

@@ -68,7 +68,7 @@ const common = {
 const rated = {
   /** Rated heating output, W. */
   outputW: power('output').optional(),
-  /** Rated input, W (output = input × efficiency, METHODS §4.1). */
+  /** Rated input, W (output = input × efficiency, docs/methods.md#combustion-output). */
   inputW: power('input').optional(),
 };
 
@@ -117,10 +117,10 @@ export const heatPumpSchema = z.strictObject({
   extrapolate: z.boolean({ error: 'Extrapolate is true or false' }).default(false),
   /**
    * Use the frost/defrost band of the DOE/AHRI method between −8.3 °C and 7.2 °C (45 °F), with the
-   * default 1.7 °C (35 °F) point derived from the two ratings (METHODS §4.3 [M]).
+   * default 1.7 °C (35 °F) point derived from the two ratings (docs/methods.md#heat-pump-capacity [M]).
    */
   defrostBand: z.boolean({ error: 'Defrost band is true or false' }).default(false),
-  /** Low-ambient cut-out, °C: below it the compressor gives nothing (METHODS §4.3 [M]). */
+  /** Low-ambient cut-out, °C: below it the compressor gives nothing (docs/methods.md#heat-pump-capacity [M]). */
   cutoutC: z
     .number({ error: 'Enter the cut-out temperature as a number (°C)' })
     .min(-60, 'The cut-out temperature must be at least −60 °C')

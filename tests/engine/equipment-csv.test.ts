@@ -49,7 +49,7 @@ describe('equipment CSV import', () => {
     assert.ok(r.ok, JSON.stringify(!r.ok && r.problems));
     const [f] = r.options;
     assert.ok(f?.kind === 'furnace');
-    assertClose(f.outputW, 76_000 * 0.2930711, 0.01, 'W'); // 22 273.4 W (METHODS §4.1: 22.27 kW)
+    assertClose(f.outputW, 76_000 * 0.2930711, 0.01, 'W'); // 22 273.4 W (docs/methods.md#combustion-output: 22.27 kW)
   });
 
   it('refuses the whole file when any line is bad, naming each line', () => {
