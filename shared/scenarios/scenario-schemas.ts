@@ -147,7 +147,7 @@ export const sweepRowSchema = z.object({
   unmetDegreeHoursPerYear: nullableNumber,
   lowestIndoorC: nullableNumber.default(null),
   worstDropK: nullableNumber.default(null),
-  /** @deprecated `worstDropK` under its old name; kept for one release. */
+  /** Deprecated (see the README): `worstDropK` under its old name, kept for one release. */
   worstSagC: nullableNumber,
   /** Over the answer's `studyPeriodYears`. */
   lifeCycleCost: z.string().nullable(),

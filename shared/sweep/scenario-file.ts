@@ -258,7 +258,8 @@ export function scenarioFieldName(scenario: unknown, path: readonly PropertyKey[
     const child: unknown = node !== null && typeof node === 'object' ? (node as Record<PropertyKey, unknown>)[key] : undefined;
     if (typeof key === 'number') {
       const itemId: unknown = path[i - 1] === 'equipment' && child !== null && typeof child === 'object' ? (child as Record<string, unknown>)['id'] : undefined;
-      parts[parts.length - 1] += typeof itemId === 'string' && itemId !== '' ? ` "${itemId}"` : `[${key}]`;
+      const suffix = typeof itemId === 'string' && itemId !== '' ? ` "${itemId}"` : `[${key}]`;
+      parts.push(`${parts.pop() ?? ''}${suffix}`);
     } else {
       parts.push(String(key));
     }

@@ -132,7 +132,7 @@ export interface SweepRow {
   lowestIndoorC: number | null;
   /** Set-point minus `lowestIndoorC`, K. */
   worstDropK: number | null;
-  /** @deprecated The same as `worstDropK`; kept for one release. */
+  /** Deprecated (see the README): the same as `worstDropK`, kept for one release. */
   worstSagC: number | null;
   /**
    * Installed price + replacements − residual value + annual cost × UPV*(d, e, N) over the study
