@@ -15,7 +15,8 @@ describe('trade-off model', () => {
     // −17 °C = 1.4 °F; 1.8 K = 3.24 °F shown to 0.1.
     const ip = ladderRows(answer, 'IP');
     expect(ip[0]?.temperature).toBe('1 °F');
-    expect(ip[0]?.sag).toBe('3.2 °F');
+    expect(ip[0]?.drop).toBe('3.2 °F');
+    expect(si[0]?.lowestIndoor).toBe('19.2 °C');
     const none = ladderRows(aSweepAnswer({ rows: [{ ...answer.rows[0]!, selectedOptionId: null, installedPrice: null }] }), 'SI');
     expect(none[0]?.unit).toBe('None large enough');
     expect(none[0]?.installedPrice).toBe('—');
@@ -33,7 +34,7 @@ describe('trade-off model', () => {
     const s = sentenceFor(answer, 0, 'SI');
     // 4600.00 − 4000.00 = 600; life-cycle 15000.00 − 14400.00 = 600.
     expect(s).toContain('Sizing for −17.0 °C (99 %) instead of −32.0 °C (50-year) installs Furnace 9 kW instead of Furnace 12 kW');
-    expect(s).toContain('for $600.00 less to install ($600.00 less over its life)');
+    expect(s).toContain('for $600.00 less to install ($600.00 less over the study period)');
     expect(s).toContain('about 12 hours in an average year and about 40 hours in the worst of the record\'s 4 years');
     expect(s).toContain('cool by up to 1.8 K');
     expect(sentenceFor(answer, 3, 'SI')).toContain('the coldest point of the ladder');

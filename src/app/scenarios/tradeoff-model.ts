@@ -37,6 +37,8 @@ export interface LadderRowText {
   designLoad: string;
   unit: string;
   capacity: string;
+  /** Heat pumps: the compressor's capacity at the design temperature ('—' for other kinds). */
+  compressor: string;
   installedPrice: string;
   annualCost: string;
   lifeCycleCost: string;
@@ -44,7 +46,12 @@ export interface LadderRowText {
   unmetHours: string;
   unmetWorst: string;
   degreeHours: string;
-  sag: string;
+  backupHours: string;
+  backupEnergy: string;
+  lowestIndoor: string;
+  drop: string;
+  /** Return-period rows from a short record: how far to trust the temperature ('' otherwise). */
+  reliability: string;
 }
 
 const hours = (h: number | null) => (h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h));
@@ -66,6 +73,7 @@ export function ladderRows(answer: SweepAnswer, system: UnitSystem): LadderRowTe
     designLoad: formatPower(r.designLoadW, system),
     unit: r.selectedOptionId ? label(r.selectedOptionId) : 'None large enough',
     capacity: r.capacityAtDesignW === null ? '—' : formatPower(r.capacityAtDesignW, system),
+    compressor: r.compressorAtDesignW === null ? '—' : formatPower(r.compressorAtDesignW, system),
     installedPrice: money(r.installedPrice),
     annualCost: money(r.annualCost),
     lifeCycleCost: money(r.lifeCycleCost),
@@ -73,8 +81,36 @@ export function ladderRows(answer: SweepAnswer, system: UnitSystem): LadderRowTe
     unmetHours: hours(r.unmetHoursPerYear),
     unmetWorst: hours(r.unmetHoursWorstYear),
     degreeHours: r.unmetDegreeHoursPerYear === null ? '—' : formatQuantity('temperatureDifference', r.unmetDegreeHoursPerYear, system).replace(/ (K|°F)$/, ' $1·h'),
-    sag: r.worstSagC === null ? '—' : formatQuantity('temperatureDifference', r.worstSagC, system),
+    backupHours: r.compressorAtDesignW === null ? '—' : hours(r.backupHoursPerYear),
+    backupEnergy: r.compressorAtDesignW === null || r.backupEnergyKWh === null ? '—' : `${groupDigits(r.backupEnergyKWh)} kWh`,
+    lowestIndoor: r.lowestIndoorC === null ? '—' : formatQuantity('temperature', r.lowestIndoorC, system),
+    drop: r.worstDropK === null ? '—' : formatQuantity('temperatureDifference', r.worstDropK, system),
+    reliability: r.reliabilityNote ?? '',
   }));
+}
+
+/** What the sweep's rules were, in one sentence each: heat-pump sizing, how the unit was chosen, the study period. */
+export function rulesText(answer: SweepAnswer): string[] {
+  const lines: string[] = [];
+  if (answer.options.some((o) => o.kind === 'heat-pump')) {
+    lines.push(
+      answer.heatPumpSizing === 'compressor'
+        ? 'Heat pumps are sized on the compressor alone: its capacity at the design temperature covers the design load, and backup heat serves colder hours and emergencies.'
+        : 'Heat pumps are sized with their backup heat: compressor and backup together cover the design load.',
+    );
+  }
+  if (answer.selectionRule === 'lowest-life-cycle-cost') {
+    lines.push('The options mix equipment families, so among those that cover the design load the lowest life-cycle cost is installed.');
+  } else if (answer.selectionRule === 'lowest-installed-price') {
+    lines.push('The options mix equipment families and there is no hourly record, so among those that cover the design load the lowest installed price is installed.');
+  }
+  if (answer.studyPeriodYears !== null) {
+    const escalation = answer.energyEscalationPctPerYear === 0 ? '' : `, energy prices rising ${answer.energyEscalationPctPerYear} % a year above inflation`;
+    lines.push(
+      `Life-cycle costs cover one ${answer.studyPeriodYears}-year study period for every option (replacements and remaining value included) at a ${answer.discountRatePct} % real discount rate${escalation}; running costs include cycling losses.`,
+    );
+  }
+  return lines;
 }
 
 /** The row shown first: the 99.6 % rung, or the first named one. */

@@ -35,6 +35,7 @@ import {
   sentenceFor,
   tradeoffChart,
   tradeoffChartSummary,
+  rulesText,
 } from '../tradeoff-model';
 import { ReportList } from '../../reports/report-list/report-list';
 import { TradeoffCautions } from './tradeoff-cautions';
@@ -134,7 +135,14 @@ export class TradeoffPage {
     const r = this.chosenRow();
     if (!s || !r?.selectedOptionId) return '';
     const o = s.options.find((x) => x.id === r.selectedOptionId);
-    return o ? `${o.lifeYears}-year life at ${s.discountRatePct} % real discount rate` : '';
+    if (!o) return '';
+    return s.studyPeriodYears === null
+      ? `${o.lifeYears}-year life at ${s.discountRatePct} % real discount rate`
+      : `over a ${s.studyPeriodYears}-year study period (unit life ${o.lifeYears} years) at ${s.discountRatePct} % real discount rate`;
+  });
+  protected readonly rules = computed(() => {
+    const s = this.sweep();
+    return s ? rulesText(s) : [];
   });
   protected readonly optionLabel = computed(() => {
     const s = this.sweep();
