@@ -34,7 +34,8 @@ const READ_FOCUS = `(() => {
   const labelled = el.getAttribute('aria-labelledby');
   const byLabel = labelled ? text(labelled.split(' ').map((id) => document.getElementById(id)?.textContent ?? '').join(' ')) : '';
   const fieldLabel = el.closest('.mat-mdc-form-field')?.querySelector('mat-label')?.textContent;
-  const name = text(el.getAttribute('aria-label')) || byLabel || text(fieldLabel) || text(el.textContent);
+  const ownLabel = el.labels?.[0]?.textContent;
+  const name = text(el.getAttribute('aria-label')) || byLabel || text(fieldLabel) || text(ownLabel) || text(el.textContent);
   const wide = (w) => parseFloat(w) >= 2;
   let indicator = '';
   const cs = getComputedStyle(el);
@@ -62,6 +63,18 @@ const READ_FOCUS = `(() => {
     box: r.width > 0 ? { x: r.x, y: r.y, width: r.width, height: r.height } : null,
   };
 })()`;
+
+/**
+ * Waits until the expression holds in the page (up to `timeoutMs`). Read through the DevTools protocol:
+ * the app's content-security policy forbids the string evaluation `page.waitForFunction` would need.
+ */
+async function waitUntil(page: Page, expression: string, timeoutMs = 10_000): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  while (!(await page.evaluate<boolean>(`!!(${expression})`))) {
+    if (Date.now() > deadline) throw new Error(`timed out waiting for ${expression}`);
+    await page.waitForTimeout(50);
+  }
+}
 
 async function readFocus(page: Page): Promise<FocusStop> {
   return page.evaluate<FocusStop>(READ_FOCUS);
@@ -116,16 +129,14 @@ const named = (pattern: RegExp) => (s: FocusStop) => pattern.test(s.name);
  * page, and the title was handed to screen readers through the live region.
  */
 async function expectLanded(page: Page, heading: RegExp, title: RegExp): Promise<void> {
-  await page.waitForFunction(`document.activeElement?.tagName === 'H1' && !!document.activeElement.closest('main')`, undefined, {
-    timeout: 10_000,
-  });
+  await waitUntil(page, `document.activeElement?.tagName === 'H1' && !!document.activeElement.closest('main')`);
   const stop = await readFocus(page);
   assert.match(stop.name, heading);
   assert.match(await page.title(), title);
-  await page.waitForFunction(
+  await waitUntil(
+    page,
     `[...document.querySelectorAll('.cdk-live-announcer-element')].some((e) => e.textContent.trim() === document.title)`,
-    undefined,
-    { timeout: 5_000 },
+    5_000,
   );
 }
 
@@ -149,7 +160,7 @@ describe('the journey by keyboard alone', () => {
     assert.ok(skip.indicator, 'the skip link shows its focus');
     await focusScreenshot(page, skip, 'sign-in-skip-link');
     await page.keyboard.press('Enter');
-    await page.waitForFunction(`document.activeElement?.id === 'main'`);
+    await waitUntil(page, `document.activeElement?.id === 'main'`);
     await tabTo(page, 'sign-in', named(/^E-mail/));
     await page.keyboard.type(designer.email);
     await tabTo(page, 'sign-in', named(/^Password/));
@@ -172,7 +183,8 @@ describe('the journey by keyboard alone', () => {
     // The trade-off screen: the slider by keys, then a new client report.
     await page.waitForURL(/\/scenarios\//);
     await expectLanded(page, /^Heat pump bid \(demo\)$/, /Trade-off · Tailroom$/);
-    await page.getByTestId('tradeoff-sentence').waitFor();
+    // The first sweep of a record loads it into a worker: allow for a busy machine.
+    await page.getByTestId('tradeoff-sentence').waitFor({ timeout: 180_000 });
     await tabTo(page, 'tradeoff', (s) => s.tag === 'input' && /^Design temperature$/.test(s.name));
     await page.keyboard.press('Home');
     await page.getByTestId('chosen-temperature').filter({ hasText: '(99 %)' }).waitFor();
@@ -191,7 +203,7 @@ describe('the journey by keyboard alone', () => {
 
     // The composer dialog takes the focus; every stop in it shows its focus.
     await page.getByRole('dialog').waitFor();
-    await page.waitForFunction(`!!document.activeElement?.closest('mat-dialog-container')`);
+    await waitUntil(page, `document.activeElement?.closest('mat-dialog-container')`);
     const first = await readFocus(page);
     if (!first.name.startsWith('Title')) await tabTo(page, 'composer', named(/^Title/));
     await page.keyboard.press('ControlOrMeta+A');

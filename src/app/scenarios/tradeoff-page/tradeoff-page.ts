@@ -268,7 +268,6 @@ export class TradeoffPage {
   }
 
   protected readonly temperature = (c: number) => formatQuantity('temperature', c, this.unitSystem());
-  /** The slider's bubble: the temperature of the row at that position. */
   /**
    * The design point at a slider position as the page shows it, e.g. "−32.5 °C (50-year)". The slider
    * uses it both for its bubble and for the value a screen reader reads out, so the two never differ.
