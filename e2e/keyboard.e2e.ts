@@ -105,7 +105,12 @@ async function focusScreenshot(page: Page, stop: FocusStop, label: string): Prom
  * drawn (an outline or ring of at least 2 px, or Material's focused text field). One close-up per
  * kind of element and page goes to the screenshots. Fails after `maxStops` presses.
  */
-async function tabTo(page: Page, pageName: string, target: (s: FocusStop) => boolean, maxStops = 200): Promise<FocusStop> {
+async function tabTo(
+  page: Page,
+  pageName: string,
+  target: (s: FocusStop) => boolean,
+  maxStops = 200,
+): Promise<FocusStop> {
   const seen = new Set<string>();
   for (let i = 0; i < maxStops; i++) {
     await page.keyboard.press('Tab');
@@ -189,7 +194,11 @@ describe('the journey by keyboard alone', () => {
     await page.keyboard.press('Home');
     await page.getByTestId('chosen-temperature').filter({ hasText: '(99 %)' }).waitFor();
     const valueText = await page.getByTestId('design-slider').getAttribute('aria-valuetext');
-    assert.equal(valueText, await page.getByTestId('chosen-temperature').innerText(), 'the slider reads out the design point as shown');
+    assert.equal(
+      valueText,
+      await page.getByTestId('chosen-temperature').innerText(),
+      'the slider reads out the design point as shown',
+    );
     await page.keyboard.press('End');
     await page.getByTestId('chosen-temperature').filter({ hasText: '(50-year)' }).waitFor();
     assert.equal(

@@ -61,7 +61,8 @@ export class RouteFocus {
     const keptByPage =
       active instanceof HTMLElement &&
       active !== this.document.body &&
-      (!!main?.contains(active) || (!!active.closest('.cdk-overlay-container') && !active.closest('.mdc-dialog--closing')));
+      (!!main?.contains(active) ||
+        (!!active.closest('.cdk-overlay-container') && !active.closest('.mdc-dialog--closing')));
     if (!keptByPage) {
       const target = heading ?? main;
       if (target) this.focus(target);
