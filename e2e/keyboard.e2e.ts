@@ -23,6 +23,8 @@ interface FocusStop {
   indicator: string;
   /** A short signature of the kind of element, to take one screenshot per kind and page. */
   kind: string;
+  /** The ring's or outline's contrast against the nearest background behind the element. */
+  contrast: number | null;
   box: { x: number; y: number; width: number; height: number } | null;
 }
 
@@ -52,9 +54,32 @@ const READ_FOCUS = `(() => {
     }
   }
   if (!indicator && el.closest('.mat-mdc-form-field.mat-focused')) indicator = 'field';
+  // An outline or ring must stand out at 3:1 against what surrounds the element (WCAG 1.4.11).
+  const rgb = (c) => (c.match(/[\d.]+/g) || []).map(Number);
+  const lum = ([r, g, b]) => {
+    const f = (v) => ((v /= 255) <= 0.03928 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4);
+    return 0.2126 * f(r) + 0.7152 * f(g) + 0.0722 * f(b);
+  };
+  let contrast = null;
+  const drawn = /^(outline|ring) (.*)$/.exec(indicator);
+  if (drawn) {
+    let bg = el.parentElement;
+    // The nearest opaque background (a translucent tint is passed over).
+    const translucent = (node) => {
+      const alpha = rgb(getComputedStyle(node).backgroundColor)[3];
+      return alpha !== undefined && alpha < 1;
+    };
+    while (bg && translucent(bg)) bg = bg.parentElement;
+    const back = rgb(bg ? getComputedStyle(bg).backgroundColor : 'rgb(255, 255, 255)');
+    const l1 = lum(rgb(drawn[2]));
+    const l2 = lum(back);
+    contrast = (Math.max(l1, l2) + 0.05) / (Math.min(l1, l2) + 0.05);
+    if (contrast < 3) indicator = '';
+  }
   const r = el.getBoundingClientRect();
   const kind = el.tagName.toLowerCase() + '.' + [...el.classList].filter((c) => !/ng-|cdk-|active|focused|checked|selected/.test(c)).slice(0, 2).join('.');
   return {
+    contrast,
     tag: el.tagName.toLowerCase(),
     role: el.getAttribute('role') ?? '',
     name,
@@ -116,7 +141,10 @@ async function tabTo(
     await page.keyboard.press('Tab');
     const stop = await readFocus(page);
     assert.notEqual(stop.tag, 'body', `${pageName}: Tab stop ${String(i + 1)} left the page (focus on <body>)`);
-    assert.ok(stop.indicator, `${pageName}: no visible focus on ${stop.kind} "${stop.name}" (stop ${String(i + 1)})`);
+    assert.ok(
+      stop.indicator,
+      `${pageName}: no visible focus on ${stop.kind} "${stop.name}" (stop ${String(i + 1)}, contrast ${String(stop.contrast)})`,
+    );
     const hit = target(stop);
     if (hit || !seen.has(stop.kind)) {
       seen.add(stop.kind);
