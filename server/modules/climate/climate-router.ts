@@ -7,6 +7,7 @@ import {
   CLIMATE_UPLOAD_MAX_FILES,
   climateSiteInputSchema,
   climateSitePatchSchema,
+  estimateInputSchema,
   uploadFieldsSchema,
   type ClimateUpload,
 } from '@shared/climate-sites/climate-site-schemas';
@@ -15,7 +16,17 @@ import { csvFields, type CsvMapping } from '@shared/climate/readers/csv-reader';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
 import * as repo from './climate-repo';
-import { analyse, qualitySummary, recompute, storeRecord, storedComputation } from './climate-service';
+import {
+  analyse,
+  estimateIsStale,
+  estimateRecord,
+  qualitySummary,
+  recentYears,
+  recompute,
+  refreshEstimatesFrom,
+  storeRecord,
+  storedComputation,
+} from './climate-service';
 import { atStoragePrecision, decodeSeries, encodeSeries } from './series-codec';
 import { readWeatherFiles } from './weather-files';
 
@@ -80,7 +91,35 @@ export function climateRouter(db: Knex): Router {
       await db.transaction((trx) => recompute(trx, siteId, elevation));
       site = await repo.findSite(db, organizationId, siteId);
     }
+    const referenceId = site?.estimate?.referenceSiteId;
+    if (site && referenceId && estimateIsStale(site, await repo.findSite(db, organizationId, referenceId))) {
+      // The reference's record or the method changed since: estimate again (a refusal keeps the stored estimate).
+      try {
+        await db.transaction((trx) => estimateRecord(trx, organizationId, siteId, referenceId));
+        site = await repo.findSite(db, organizationId, siteId);
+      } catch (err) {
+        if (!(err instanceof HttpError)) throw err;
+      }
+    }
     res.json(site);
+  });
+
+  router.post('/climate-sites/:siteId/estimate', authorize(db, 'project:write'), async (req, res) => {
+    const { siteId } = siteParam.parse(req.params);
+    const { referenceSiteId } = estimateInputSchema.parse(req.body);
+    const { organizationId } = orgContext(req);
+    if (!(await repo.findSite(db, organizationId, siteId))) throw siteNotFound();
+    await db.transaction((trx) => estimateRecord(trx, organizationId, siteId, referenceSiteId));
+    res.json(await repo.findSite(db, organizationId, siteId));
+  });
+
+  router.get('/climate-sites/:siteId/recent-years', authorize(db, 'org:read'), async (req, res) => {
+    const { siteId } = siteParam.parse(req.params);
+    const site = await repo.findSite(db, orgContext(req).organizationId, siteId);
+    if (!site) throw siteNotFound();
+    const answer = await recentYears(db, site);
+    if (!answer) throw new HttpError(404, 'no_record', 'This site has no hourly record yet');
+    res.json(answer);
   });
 
   router.patch('/climate-sites/:siteId', authorize(db, 'project:write'), async (req, res) => {
@@ -99,6 +138,16 @@ export function climateRouter(db: Knex): Router {
       // The station pressure, and so the humidity ratios, follow the elevation.
       if (patch.elevationM !== undefined && patch.elevationM !== before.elevationM && before.computed) {
         await recompute(trx, siteId, patch.elevationM);
+      }
+      // An estimated record follows the published values it was matched to (a refusal undoes the change).
+      const after = await repo.findSite(trx, organizationId, siteId);
+      const referenceId = after?.estimate?.referenceSiteId;
+      if (after && referenceId && estimateIsStale(after, undefined)) {
+        await estimateRecord(trx, organizationId, siteId, referenceId);
+      }
+      // Sites estimated from this one follow its record.
+      if (patch.elevationM !== undefined && patch.elevationM !== before.elevationM && before.computed) {
+        await refreshEstimatesFrom(trx, organizationId, siteId);
       }
     });
     res.json(await repo.findSite(db, organizationId, siteId));
@@ -225,6 +274,8 @@ export function climateRouter(db: Knex): Router {
         computed,
       );
       await trx('climate_uploads').where({ climate_site_id: up.climate_site_id }).delete();
+      // Sites whose records are estimated from this one follow the new record.
+      await refreshEstimatesFrom(trx, organizationId, up.climate_site_id);
       return up.climate_site_id;
     });
     res.json(await repo.findSite(db, organizationId, siteId));

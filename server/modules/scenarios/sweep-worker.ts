@@ -3,7 +3,18 @@
  * the next sweeps of that record, and runs the sweep off the request thread.
  */
 import type { Knex } from 'knex';
-import { loadDuration, indexSweepRecord, sweep, type LoadDurationPoint, type SweepInput, type SweepRecordIndex, type SweepResult } from '@shared/sweep/sweep';
+import { computeDesignConditions } from '@shared/climate/design-conditions';
+import { seriesFromYear } from '@shared/climate/record-window';
+import {
+  loadDuration,
+  indexSweepRecord,
+  sweep,
+  type LoadDurationPoint,
+  type SweepDesignValues,
+  type SweepInput,
+  type SweepRecordIndex,
+  type SweepResult,
+} from '@shared/sweep/sweep';
 import { createDb } from '../../db';
 import { loadObservations } from '../climate/climate-repo';
 
@@ -12,6 +23,14 @@ export interface SweepTaskRecord {
   /** Changes whenever the site's record or its computation changes. */
   key: string;
   qualifyingYears: number[];
+  /** The qualifying years are a recent-years window whose design values replace the whole record's (docs/methods.md#recent-years). */
+  windowDesignValues?: boolean;
+}
+
+interface LoadedRecord {
+  index: SweepRecordIndex;
+  /** The design values of the window, when asked for. */
+  windowDesign: SweepDesignValues | null;
 }
 
 export interface SweepTask {
@@ -28,7 +47,7 @@ export interface SweepTaskResult {
 const KEEP_RECORDS = 4;
 let db: Knex | null = null;
 let dbUrl = '';
-const records = new Map<string, Promise<SweepRecordIndex>>();
+const records = new Map<string, Promise<LoadedRecord>>();
 
 function database(url: string): Knex {
   if (db === null || dbUrl !== url) {
@@ -39,13 +58,18 @@ function database(url: string): Knex {
   return db;
 }
 
-function indexedRecord(url: string, record: SweepTaskRecord): Promise<SweepRecordIndex> {
-  const key = `${record.key}|${record.qualifyingYears.join(',')}`;
+function indexedRecord(url: string, record: SweepTaskRecord): Promise<LoadedRecord> {
+  const key = `${record.key}|${record.qualifyingYears.join(',')}|${record.windowDesignValues ? 'w' : ''}`;
   let entry = records.get(key);
   if (entry === undefined) {
-    entry = loadObservations(database(url), record.siteId).then((series) =>
-      indexSweepRecord({ series, qualifyingYears: record.qualifyingYears }),
-    );
+    entry = loadObservations(database(url), record.siteId).then((series) => {
+      const from = record.qualifyingYears[0];
+      const window = record.windowDesignValues && from !== undefined ? computeDesignConditions(seriesFromYear(series, from)) : null;
+      return {
+        index: indexSweepRecord({ series, qualifyingYears: record.qualifyingYears }),
+        windowDesign: window?.ok ? { heating: window.conditions.heating, extremeMin: window.conditions.extremeMin } : null,
+      };
+    });
     entry.catch(() => records.delete(key));
     records.set(key, entry);
     while (records.size > KEEP_RECORDS) {
@@ -62,8 +86,10 @@ function indexedRecord(url: string, record: SweepTaskRecord): Promise<SweepRecor
 }
 
 export default async function runSweepTask(task: SweepTask): Promise<SweepTaskResult> {
-  const index = task.record ? await indexedRecord(task.databaseUrl, task.record) : null;
-  const result = sweep({ ...task.input, record: index });
+  const loaded = task.record ? await indexedRecord(task.databaseUrl, task.record) : null;
+  const index = loaded?.index ?? null;
+  const designConditions = loaded?.windowDesign ?? task.input.designConditions;
+  const result = sweep({ ...task.input, designConditions, record: index });
   return {
     result,
     loadDuration: index ? loadDuration(task.input.building, index, task.input.designWindMs) : null,

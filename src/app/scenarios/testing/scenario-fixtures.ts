@@ -14,7 +14,7 @@ export function aScenario(fields: Partial<Scenario> = {}): Scenario {
     climateSiteName: 'Lakeview station',
     equipmentListId: SCENARIO_LIST_ID,
     equipmentListName: 'Standard line',
-    settings: { extraDesignC: [], discountRatePct: 3, safetyFactorPct: null, prices: null, optionLabels: null },
+    settings: { extraDesignC: [], discountRatePct: 3, safetyFactorPct: null, prices: null, optionLabels: null, climateBasisYears: null },
     frozenAt: null,
     frozenFromId: null,
     version: 1,
