@@ -67,6 +67,7 @@ export function anHourlySite(overrides: Partial<ClimateSite> = {}): ClimateSite 
       fileName: 'lakeview.csv',
       rowCount: 26280,
     },
+    estimate: null,
     ...overrides,
   };
 }
@@ -79,6 +80,7 @@ export function aPublishedSite(): ClimateSite {
     createdAt: '2026-11-20T09:00:00.000Z',
     publishedValues: { source: 'Regional design table, 2020 edition', heating: { db99_6: -20, db99: -17.5 } },
     computed: null,
+    estimate: null,
   };
 }
 

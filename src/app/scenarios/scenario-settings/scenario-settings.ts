@@ -81,6 +81,8 @@ export class ScenarioSettingsPanel {
     safetyFactorPct: this.fb.control('', [Validators.pattern(/^\d{0,3}(\.\d+)?$/), Validators.max(100)]),
     discountRatePct: this.fb.control('3', [Validators.required, Validators.min(0), Validators.max(30)]),
     extraDesign: this.fb.control(''),
+    /** Climate basis: empty for the whole record, or the number of recent years (8 or more). */
+    climateBasisYears: this.fb.control('', [Validators.pattern(/^\d{0,3}$/), Validators.min(8), Validators.max(200)]),
     ownPrices: this.fb.control(false),
     currency: this.fb.control('USD'),
     electricityPerKwh: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
@@ -121,6 +123,7 @@ export class ScenarioSettingsPanel {
       safetyFactorPct: st.safetyFactorPct === null ? '' : String(st.safetyFactorPct),
       discountRatePct: String(st.discountRatePct),
       extraDesign: formatTemperatures(st.extraDesignC, this.unitSystem()),
+      climateBasisYears: st.climateBasisYears === null ? '' : String(st.climateBasisYears),
       ownPrices: st.prices !== null,
       currency: st.prices?.currency ?? 'USD',
       electricityPerKwh: st.prices?.electricityPerKwh ?? '',
@@ -201,6 +204,7 @@ export class ScenarioSettingsPanel {
       safetyFactorPct: v.safetyFactorPct.trim() === '' ? null : Number(v.safetyFactorPct),
       prices,
       optionLabels: v.wholeList ? null : labels,
+      climateBasisYears: v.climateBasisYears.trim() === '' ? null : Number(v.climateBasisYears),
     };
   }
 
