@@ -5,9 +5,10 @@
  */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import type { ClimateSite, RecentYears } from '../../shared/climate-sites/climate-site-schemas';
+import { gzipSync } from 'node:zlib';
+import type { ClimateSite, ClimateUpload, RecentYears } from '../../shared/climate-sites/climate-site-schemas';
 import { computeDesignConditions } from '../../shared/climate/design-conditions';
-import { DEMO_SITES, generateDemoSeries } from '../../shared/climate/demo-weather';
+import { DEMO_SITES, generateDemoSeries, seriesToIsdLite } from '../../shared/climate/demo-weather';
 import type { Scenario, SweepAnswer } from '../../shared/scenarios/scenario-schemas';
 import { insertSite } from '../../server/modules/climate/climate-repo';
 import { storeRecord } from '../../server/modules/climate/climate-service';
@@ -145,5 +146,36 @@ describe('recent years of a record', () => {
     assertClose(r996?.designC, conditionsFrom(twelveYears, 2017).heating.db99_6, 1e-9, 'recent 99.6 % rung');
     const refused = await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Too few', settings: { climateBasisYears: 5 } }).expect(400);
     assert.equal((refused.body as { error: { details: { path: string }[] } }).error.details[0]?.path, 'settings.climateBasisYears');
+  });
+});
+
+describe('yearly ISD-Lite files in bulk', () => {
+  it('reads the station and years from the file names, names the record after the station and reports the missing year', async () => {
+    const f = await fixture(t);
+    const site = await f.agent.post('/api/v1/climate-sites').send({ name: 'Station upload (invented)', sourceKind: 'hourly' }).expect(201);
+    const siteId = (site.body as ClimateSite).id;
+    let request = f.agent.post(`/api/v1/climate-sites/${siteId}/uploads`);
+    for (const year of [2020, 2021, 2023]) {
+      const one = generateDemoSeries(demo ?? DEMO_SITES[0]!, { years: 1, endYear: year });
+      request = request.attach('files', gzipSync(Buffer.from(seriesToIsdLite(one))), `725090-14739-${year}.gz`);
+    }
+    const res = await request.expect(201);
+    const upload = res.body as ClimateUpload;
+    assert.equal(upload.format, 'isd-lite');
+    assert.deepEqual(upload.station, { id: '725090-14739', years: [2020, 2021, 2023], missingYears: [2022] });
+    assert.equal(upload.fileName, 'ISD-Lite station 725090-14739, 2020–2023 (3 files)');
+    assert.match(upload.warnings[0] ?? '', /^No file for 2022 of ISD-Lite station 725090-14739/);
+    const stored = (await f.agent.post(`/api/v1/climate-uploads/${upload.id}/confirm`).send().expect(200)).body as ClimateSite;
+    assert.equal(stored.computed?.fileName, 'ISD-Lite station 725090-14739, 2020–2023 (3 files)');
+    assert.deepEqual(stored.computed?.conditions.period.qualifyingYears, [2020, 2021, 2023]);
+  });
+
+  it('leaves other names alone', async () => {
+    const f = await fixture(t);
+    const site = await f.agent.post('/api/v1/climate-sites').send({ name: 'Plain upload (invented)', sourceKind: 'hourly' }).expect(201);
+    const one = generateDemoSeries(demo ?? DEMO_SITES[0]!, { years: 1, endYear: 2021 });
+    const res = await f.agent.post(`/api/v1/climate-sites/${(site.body as ClimateSite).id}/uploads`).attach('files', Buffer.from(seriesToIsdLite(one)), 'station.txt').expect(201);
+    assert.equal((res.body as ClimateUpload).station, null);
+    assert.equal((res.body as ClimateUpload).fileName, 'station.txt');
   });
 });

@@ -28,7 +28,7 @@ import {
   storedComputation,
 } from './climate-service';
 import { atStoragePrecision, decodeSeries, encodeSeries } from './series-codec';
-import { readWeatherFiles } from './weather-files';
+import { isdLiteStation, readWeatherFiles } from './weather-files';
 
 const siteParam = z.object({ siteId: z.uuid('Unknown climate site') });
 const uploadParam = z.object({ uploadId: z.uuid('Unknown upload') });
@@ -206,7 +206,13 @@ export function climateRouter(db: Knex): Router {
       const stored = atStoragePrecision(series);
       const analysis = analyse(stored, site.elevationM);
       const { result, quality } = analysis;
-      const fileName = files.length === 1 ? baseName(files[0]?.originalname ?? '') : `${files.length} files`;
+      const names = files.map((f) => baseName(f.originalname));
+      // Yearly ISD-Lite files name their station and year: the station becomes the record's source.
+      const station = format === 'isd-lite' ? isdLiteStation(names) : null;
+      const stationSource = station
+        ? `ISD-Lite station ${station.id}, ${String(station.years[0])}–${String(station.years[station.years.length - 1])} (${station.years.length} file${station.years.length === 1 ? '' : 's'})`
+        : null;
+      const fileName = stationSource ?? (files.length === 1 ? (names[0] ?? 'upload') : `${files.length} files`);
       const computed = storedComputation(analysis, { fileName, rowCount });
       const expiresAt = new Date(Date.now() + UPLOAD_HOURS * 3_600_000);
       const summary = qualitySummary(quality);
@@ -234,7 +240,14 @@ export function climateRouter(db: Knex): Router {
         rowCount,
         quality: summary,
         preview: result.ok ? result.conditions : null,
-        warnings: [...(result.ok ? [] : [result.error.message]), ...result.warnings.map((w) => w.message)],
+        warnings: [
+          ...(station && station.missingYears.length > 0
+            ? [`No file for ${station.missingYears.join(', ')} of ISD-Lite station ${station.id}: ${station.missingYears.length === 1 ? 'that year is' : 'those years are'} missing from the record.`]
+            : []),
+          ...(result.ok ? [] : [result.error.message]),
+          ...result.warnings.map((w) => w.message),
+        ],
+        station,
         expiresAt: expiresAt.toISOString(),
       };
       res.status(201).location(`/api/v1/climate-uploads/${row.id}`).json(answer);
