@@ -21,9 +21,9 @@ export class ClimateSitesApi {
   private readonly auth = inject(AuthStore);
   private readonly url = '/api/v1/climate-sites';
 
-  /** The list; loads again when the organisation changes. */
-  listResource() {
-    return httpResource(() => (this.auth.currentOrganizationId() ? this.url : undefined), {
+  /** The list; loads again when the organisation changes (and only while `when` holds, when given). */
+  listResource(when: () => boolean = () => true) {
+    return httpResource(() => (this.auth.currentOrganizationId() && when() ? this.url : undefined), {
       parse: climateSiteListSchema.parse,
     });
   }

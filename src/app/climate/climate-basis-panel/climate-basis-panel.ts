@@ -48,7 +48,8 @@ export class ClimateBasisPanel {
   /** The site after its record was estimated. */
   readonly estimated = output<ClimateSite>();
 
-  protected readonly sites = this.api.listResource();
+  /** The possible references: read only where an estimate can be made. */
+  protected readonly sites = this.api.listResource(() => this.site().sourceKind === 'published' && this.canWrite());
   protected readonly references = computed(() => {
     const all = this.sites.hasValue() ? this.sites.value() : [];
     return all.filter((s) => s.sourceKind === 'hourly' && s.qualifyingYearCount !== null && s.id !== this.site().id);
@@ -57,7 +58,7 @@ export class ClimateBasisPanel {
   protected readonly estimating = signal(false);
   protected readonly estimateError = signal<string | null>(null);
 
-  protected readonly recent = this.api.recentYearsResource(() => (this.site().computed ? `${this.site().id}` : undefined));
+  protected readonly recent = this.api.recentYearsResource(() => (this.site().computed ? this.site().id : undefined));
   protected readonly recentValue = computed<RecentYears | null>(() => (this.recent.hasValue() ? this.recent.value() : null));
 
   protected temp(c: number | null | undefined): string {

@@ -66,7 +66,8 @@ export class ClimateSitePage {
   protected readonly notFound = computed(() => apiErrorCode(this.site.error()) === 'not_found');
   protected readonly chartData = this.api.chartDataResource(() => {
     const site = this.current();
-    return site?.sourceKind === 'hourly' && site.computed ? site.id : undefined;
+    // A published site with an estimated record has charts of that record too.
+    return site?.computed ? site.id : undefined;
   });
   protected readonly noRecord = computed(() => apiErrorCode(this.chartData.error()) === 'no_record');
 
