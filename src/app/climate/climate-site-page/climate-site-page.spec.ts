@@ -121,7 +121,7 @@ describe('ClimateSitePage', () => {
       },
     };
     const { el } = await render(site);
-    expect(el.querySelector('[data-testid="estimate-panel"] [data-testid="estimate-label"]')?.textContent?.trim()).toBe(label);
+    expect(el.querySelector('[data-testid="estimate-panel"] [data-testid="estimate-label"] span')?.textContent?.trim()).toBe(label);
     expect(el.querySelector('[data-testid="estimate-button"]')).toBeNull(); // a viewer cannot estimate
   });
 
