@@ -51,7 +51,7 @@ describe('a site with published values only, estimated from a demo record', () =
     await page.getByTestId('estimate-reference').click();
     await page.getByRole('option', { name: /^Kettlerun Crossing \(invented\)/ }).click();
     await page.getByTestId('estimate-button').click();
-    await page.getByTestId('estimate-panel').getByTestId('estimate-label').filter({ hasText: LABEL }).waitFor({ timeout: 60_000 });
+    await page.getByTestId('estimate-panel').getByTestId('estimate-label').filter({ hasText: LABEL }).waitFor({ timeout: 120_000 });
     const table = page.getByTestId('recent-years-table');
     await table.waitFor();
     const header = await table.locator('thead').innerText();
@@ -83,7 +83,8 @@ describe('a site with published values only, estimated from a demo record', () =
     assert.equal(copy.status(), 201);
     const copyId = ((await copy.json()) as { id: string }).id;
     await page.goto(e2e.baseUrl + demoUrl.replace(/[^/]+$/, copyId));
-    await page.getByTestId('tradeoff-sentence').waitFor();
+    // The first sweep of a 30-year record loads it into a worker: allow for a busy machine.
+    await page.getByTestId('tradeoff-sentence').waitFor({ timeout: 180_000 });
     await page.getByText('Scenario settings').click();
     await page.getByRole('combobox', { name: 'Climate site' }).click();
     await page.getByRole('option', { name: SITE }).click();
@@ -91,9 +92,9 @@ describe('a site with published values only, estimated from a demo record', () =
 
     // The trade-off: hour-based figures, the basis and the estimate label.
     const label = page.getByTestId('estimate-label').filter({ hasText: LABEL });
-    await label.waitFor({ timeout: 60_000 });
+    await label.waitFor({ timeout: 180_000 });
     assert.match(await page.getByTestId('climate-basis').innerText(), /Whole record \(1995–2024, 30 years\)/);
-    await page.getByTestId('tradeoff-sentence').filter({ hasText: /average year/ }).waitFor();
+    await page.getByTestId('tradeoff-sentence').filter({ hasText: /average year/ }).waitFor({ timeout: 60_000 });
     await page.getByTestId('tradeoff-chart').locator('canvas').first().waitFor();
     await page.getByTestId('load-duration-chart').locator('canvas').first().waitFor();
     await page.waitForTimeout(300);
@@ -126,7 +127,7 @@ describe('a site with published values only, estimated from a demo record', () =
     await page.getByTestId('compare-basis').click();
     await page.waitForURL(/\/compare\?ids=/);
     const compare = page.getByTestId('compare-table');
-    await compare.waitFor();
+    await compare.waitFor({ timeout: 180_000 });
     assert.match(await compare.locator('thead').innerText(), /latest 15 years/);
     await page.getByTestId('compare-chart').locator('canvas').first().waitFor();
     await screenshot(page, 'climate-basis-compare-1280');

@@ -127,7 +127,7 @@ export async function estimateRecord(trx: Knex.Transaction, organizationId: stri
   if (!result.ok) throw refuse(result.message);
   const series = atStoragePrecision(result.series);
   await storeRecord(trx, siteId, series, site.elevationM ?? published.elevation ?? null, {
-    fileName: `estimated from ${reference.name}`,
+    fileName: `${reference.name}'s record, adjusted (an estimate)`,
     rowCount: series.time.length,
   });
   const estimate: SiteEstimate = {
