@@ -10,3 +10,6 @@ export * from './psychrometrics';
 export * from './quality-report';
 export * from './units';
 export * from './readers/index';
+export * from './record-window';
+export * from './shift-stretch';
+export * from './trend';

@@ -112,9 +112,11 @@ export function buildReportView(src: ReportSource): ReportView {
   }
   climate.push(
     a.hasRecord && a.years.length > 0
-      ? `The hour-by-hour figures replay ${a.years.length} years of hourly weather records (${a.years[0] ?? ''}–${a.years.at(-1) ?? ''}) against the house.`
+      ? `The hour-by-hour figures replay ${a.years.length} years of ${a.climateBasis?.estimateLabel ? 'an estimated hourly record' : 'hourly weather records'} (${a.years[0] ?? ''}–${a.years.at(-1) ?? ''}) against the house.`
       : 'This place has published design values only, so running costs and the hours a unit would fall behind are not available.',
   );
+  if (a.climateBasis?.latestYears) climate.push(`These figures use the latest ${a.climateBasis.latestYears} years of the record only, to reflect recent winters.`);
+  if (a.climateBasis?.estimateLabel) climate.push(a.climateBasis.estimateLabel);
 
   const options = report.points.flatMap((t) => {
     const r = nearestRow(a.rows, t);

@@ -303,6 +303,7 @@ const SWEEP_CSV_HEADER = [
   'life_cycle_cost',
   'currency',
   'note',
+  'climate_basis',
 ];
 
 const num = (v: number | null, digits: number) => (v === null ? '' : String(Number(v.toFixed(digits))));
@@ -329,6 +330,7 @@ function sweepCsvRows(scenarioName: string, a: SweepAnswer, namedOnly: boolean):
       r.lifeCycleCost ?? '',
       a.currency,
       csvTextField(r.selectionReason ?? r.costUnavailableReason ?? r.unavailableReason ?? ''),
+      csvTextField([a.climateBasis?.description, a.climateBasis?.estimateLabel].filter(Boolean).join('. ')),
     ]);
 }
 
