@@ -71,7 +71,8 @@ describe('reports API', () => {
     assert.equal(view.title, 'Your heating options');
     assert.equal(view.note, 'Call me with questions.');
     assert.deepEqual(view.options.map((o) => o.rungLabel), ['99 %', '50-year']);
-    assert.ok(view.options.every((o) => o.figures.length === 7));
+    // Every figure by default, less the three that only a heat pump has (this scenario is of furnaces).
+    assert.ok(view.options.every((o) => o.figures.length === 8));
     assert.match(view.options[0]?.sentence ?? '', /instead of/);
     assert.ok(view.climate.some((c) => c.includes('about 88 hours')));
     assert.equal(view.cautions.length, 4);

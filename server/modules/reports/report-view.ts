@@ -75,6 +75,8 @@ function nearestRow(rows: readonly SweepRowAnswer[], t: number): SweepRowAnswer 
   return best;
 }
 
+const HEAT_PUMP_FIGURES: ReadonlySet<ReportFigure> = new Set<ReportFigure>(['compressor', 'backupHours', 'backupEnergy']);
+
 export function buildReportView(src: ReportSource): ReportView {
   const { sweep: a, report } = src;
   const system = report.unitSystem;
@@ -130,7 +132,10 @@ export function buildReportView(src: ReportSource): ReportView {
         temperature: temp(r.designC),
         unit,
         capacity: r.capacityAtDesignW === null ? '—' : power(r.capacityAtDesignW, system),
-        figures: report.figures.map((key) => ({ key, label: reportFigureLabels[key], text: figureText(key, r, a, system) })),
+        // Heat-pump figures are left out for an option that is not a heat pump: a homeowner has no use for "not a heat pump".
+        figures: report.figures
+          .filter((key) => r.compressorAtDesignW !== null || !HEAT_PUMP_FIGURES.has(key))
+          .map((key) => ({ key, label: reportFigureLabels[key], text: figureText(key, r, a, system) })),
         sentence: tradeoffSentence(r, {
           rows: a.rows,
           optionLabel: (id) => labelOf.get(id) ?? id,
