@@ -3,7 +3,7 @@
  *
  *   node --import tsx cli/tailroom-cli.ts conditions <file> [--format csv|isd-lite] [--elevation m]
  *   node --import tsx cli/tailroom-cli.ts demo <site-id> [--years N] [--format csv|isd-lite]
- *   node --import tsx cli/tailroom-cli.ts sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite]
+ *   node --import tsx cli/tailroom-cli.ts sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite] [--uncertainty draws=N,seed=S]
  *
  * `conditions` prints the design conditions JSON of an hourly weather file to stdout.
  * `demo` prints a generated demo file for an invented site to stdout.
@@ -12,7 +12,9 @@
  */
 import { createReadStream, existsSync, readFileSync, statSync } from 'node:fs';
 import { scenarioFileSchema, scenarioToEngine } from '../shared/sweep/scenario-file';
-import { sweep } from '../shared/sweep/sweep';
+import { priceOfComfort } from '../shared/sweep/price-of-comfort';
+import { periodYearsFor, sweepWithOdds } from '../shared/sweep/sweep-odds';
+import { DEFAULT_TOLERANCES, MAX_DRAWS } from '../shared/sweep/tolerances';
 import { createInterface } from 'node:readline';
 import {
   computeDesignConditions,
@@ -32,7 +34,7 @@ import {
 const USAGE = `Usage:
   tailroom-cli conditions <file> [--format csv|isd-lite] [--elevation m]
   tailroom-cli demo <site-id> [--years N] [--format csv|isd-lite]
-  tailroom-cli sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite]
+  tailroom-cli sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite] [--uncertainty draws=N,seed=S]
 
 Demo sites (invented): ${demoSiteIds.join(', ')}`;
 
@@ -49,7 +51,10 @@ function parseArgs(args: readonly string[], allowed: readonly string[]): ParsedA
   for (let i = 0; i < args.length; i++) {
     const arg = args[i] ?? '';
     if (arg.startsWith('--')) {
-      const [name = '', inline] = arg.slice(2).split('=', 2);
+      // --name=value keeps everything after the first '=' (values such as draws=N,seed=S hold more).
+      const eq = arg.indexOf('=');
+      const name = eq < 0 ? arg.slice(2) : arg.slice(2, eq);
+      const inline = eq < 0 ? undefined : arg.slice(eq + 1);
       if (!allowed.includes(name)) throw new UsageError(`Unknown option --${name}`);
       const value = inline ?? args[++i];
       if (value === undefined) throw new UsageError(`Option --${name} needs a value`);
@@ -130,8 +135,32 @@ async function conditionsCommand(args: readonly string[]): Promise<number> {
   return 0;
 }
 
+/** `--uncertainty draws=N,seed=S`: both whole numbers, draws 1–MAX_DRAWS. */
+function uncertaintyFlag(flags: Map<string, string>): { draws: number; seed: number } | null {
+  const value = flags.get('uncertainty');
+  if (value === undefined) return null;
+  const parts = new Map<string, string>();
+  for (const part of value.split(',')) {
+    const [key = '', v, extra] = part.split('=');
+    if (v === undefined || extra !== undefined || !['draws', 'seed'].includes(key.trim()) || parts.has(key.trim())) {
+      throw new UsageError('--uncertainty must be draws=N,seed=S');
+    }
+    parts.set(key.trim(), v.trim());
+  }
+  const whole = (key: string, min: number, max: number): number => {
+    const text = parts.get(key);
+    const n = Number(text);
+    if (text === undefined || !/^\d+$/.test(text) || n < min || n > max) {
+      throw new UsageError(`--uncertainty ${key} must be a whole number from ${min} to ${max}`);
+    }
+    return n;
+  };
+  return { draws: whole('draws', 1, MAX_DRAWS), seed: whole('seed', 0, 4_294_967_295) };
+}
+
 async function sweepCommand(args: readonly string[]): Promise<number> {
-  const { positional, flags } = parseArgs(args, ['weather', 'scenario', 'format']);
+  const { positional, flags } = parseArgs(args, ['weather', 'scenario', 'format', 'uncertainty']);
+  const uncertainty = uncertaintyFlag(flags);
   if (positional.length > 0) throw new UsageError(`Unexpected argument ${positional[0] ?? ''}`);
   const weather = flags.get('weather');
   const scenarioPath = flags.get('scenario');
@@ -171,17 +200,22 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
     process.stderr.write(`${weather}: ${conditions.error.message}\n`);
     return 1;
   }
-  const result = sweep({
+  const input = {
     ...engine,
     economics: scenario.economics,
     designConditions: conditions.conditions,
     designWindMs: scenario.designWindMs ?? 6.7,
     record: { series: parsed.series, qualifyingYears: conditions.conditions.period.qualifyingYears },
     extraDesignC: scenario.extraDesignTemperaturesC ?? [],
+  };
+  const result = sweepWithOdds(input, {
+    uncertainty: uncertainty && { ...uncertainty, tolerances: { ...DEFAULT_TOLERANCES, ...scenario.tolerances } },
   });
-  const rows = result.rows
-    .filter((r) => !r.isGrid)
-    .map((r) => ({
+  // The price of comfort between neighbouring rows of the ladder printed (the named rows).
+  const named = result.rows.filter((r) => !r.isGrid);
+  const comfort = priceOfComfort(named, periodYearsFor(input, null));
+  const rows = named
+    .map((r, i) => ({
       label: r.label,
       designC: r.designC,
       designLoadW: r.designLoadW,
@@ -196,6 +230,19 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
       unmetDegreeHoursPerYear: r.unmetDegreeHoursPerYear,
       worstSagC: r.worstSagC,
       lifeCycleCost: r.lifeCycleCost,
+      annualExceedanceProbability: r.annualExceedanceProbability,
+      recordExceedanceShare: r.recordExceedanceShare,
+      lifetimeExceedanceProbability: r.lifetimeExceedanceProbability,
+      costPerAvoidedUnmetHour: comfort[i]?.costPerAvoidedUnmetHour ?? null,
+      ...(uncertainty
+        ? {
+            unmetHoursPerYearP10: r.unmetHoursPerYearP10,
+            unmetHoursPerYearP90: r.unmetHoursPerYearP90,
+            lifeCycleCostP10: r.lifeCycleCostP10,
+            lifeCycleCostP90: r.lifeCycleCostP90,
+            selectionChangeShare: r.selectionChangeShare,
+          }
+        : {}),
     }));
   process.stdout.write(JSON.stringify({ rows }, null, 2) + '\n');
   return 0;

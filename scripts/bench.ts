@@ -103,6 +103,7 @@ async function main(): Promise<void> {
         databaseUrl: cluster.url('bench'),
         input: { ...scenario, economics: { discountRatePct: rate } },
         record: { siteId: stored.climate_site_id, key: `${stored.climate_site_id}@${stored.computed_at.toISOString()}`, qualifyingYears: stored.conditions.period.qualifyingYears },
+        odds: { uncertainty: null },
       });
       let t = performance.now();
       await pool.run('cold', task(3));

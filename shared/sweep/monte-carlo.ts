@@ -13,19 +13,9 @@ import { quantileOfSorted } from '../climate/percentile';
 import type { EnergyPrices } from '../money/energy-prices';
 import { MoneyDecimal, parseMoney, toMoneyString } from '../money/money';
 import { indexSweepRecord, sweep, type SweepInput, type SweepResult } from './sweep';
+import { MAX_DRAWS, type Tolerances } from './tolerances';
 
-/** Tolerances of the estimated inputs, ± % of the entered value. */
-export interface Tolerances {
-  uaPct: number;
-  airLeakagePct: number;
-  pricesPct: number;
-}
-
-/** Common-practice starting points, no source: the designer sets the project's own. */
-export const DEFAULT_TOLERANCES: Tolerances = { uaPct: 10, airLeakagePct: 25, pricesPct: 15 };
-export const DEFAULT_DRAWS = 300;
-export const DEFAULT_SEED = 1;
-export const MAX_DRAWS = 2000;
+export { DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_TOLERANCES, MAX_DRAWS, type Tolerances } from './tolerances';
 
 /**
  * A seeded generator of uniform numbers in [0, 1): mulberry32 (public-domain algorithm), the one the

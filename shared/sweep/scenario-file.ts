@@ -3,6 +3,7 @@
  * engine's input. Numbers for money are accepted here and turned into decimal strings.
  */
 import { z } from 'zod';
+import { tolerancesSchema } from '../scenarios/scenario-schemas';
 import { buildingSchema, type Building } from '../building/building-schemas';
 import { equipmentOptionSchema } from '../equipment/equipment-schemas';
 import { energyPricesSchema, type EnergyPrices } from '../money/energy-prices';
@@ -79,6 +80,8 @@ export const scenarioFileSchema = z.strictObject({
   designWindMs: nonNegative.optional(),
   elevationM: z.number().optional(),
   extraDesignTemperaturesC: z.array(z.number()).optional(),
+  /** Tolerances of the estimates for `--uncertainty`, ± % (defaults: UA 10, air leakage 25, prices 15). */
+  tolerances: tolerancesSchema.partial().optional(),
 });
 export type ScenarioFile = z.infer<typeof scenarioFileSchema>;
 

@@ -12,7 +12,7 @@ import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import { capacityAt } from '@shared/equipment/capacity';
 import { equipmentOptionSchema, type EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { energyPricesSchema, type EnergyPrices } from '@shared/money/energy-prices';
-import type { ScenarioSettings, SweepAnswer, SweepOptionAnswer } from '@shared/scenarios/scenario-schemas';
+import { scenarioSettingsSchema, type ScenarioSettings, type SweepAnswer, type SweepOptionAnswer } from '@shared/scenarios/scenario-schemas';
 import type { SweepDesignValues, SweepOption } from '@shared/sweep/sweep';
 import { HttpError } from '../../http/http-error';
 import { findSite } from '../climate/climate-repo';
@@ -20,7 +20,7 @@ import type { SweepPool } from './sweep-pool';
 import type { SweepTask } from './sweep-worker';
 
 /** Bumped whenever the sweep's figures or the answer's shape change, so that old cache entries are not used. */
-export const SWEEP_VERSION = 'sweep-1.0.0';
+export const SWEEP_VERSION = 'sweep-1.1.0';
 
 export interface ScenarioRow {
   id: string;
@@ -47,7 +47,7 @@ export type SweepAnswerBody = Omit<SweepAnswer, 'scenarioId' | 'cached' | 'froze
 export interface PreparedSweep {
   hash: string;
   task: Omit<SweepTask, 'databaseUrl'>;
-  meta: Omit<SweepAnswerBody, 'inputHash' | 'computedAt' | 'years' | 'timeConstantH' | 'rows' | 'loadDuration'>;
+  meta: Omit<SweepAnswerBody, 'inputHash' | 'computedAt' | 'years' | 'timeConstantH' | 'rows' | 'loadDuration' | 'odds' | 'uncertainty'>;
   /** The prices used (the scenario's or the organisation's), kept with a frozen copy. */
   prices: EnergyPrices;
   /** The cached answer for this scenario as sent, once it has been sent (see `scenarioSweepJson`). */
@@ -79,7 +79,9 @@ function capacityCurve(option: EquipmentOption): SweepOptionAnswer['capacityCurv
 }
 
 /** Everything a sweep of this scenario depends on, or 422 with what is missing. */
-export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<PreparedSweep> {
+export async function prepareSweep(db: Knex, row: ScenarioRow): Promise<PreparedSweep> {
+  // Settings stored before a field was added get its default.
+  const scenario: ScenarioRow = { ...row, settings: scenarioSettingsSchema.parse(row.settings) };
   const problems: FieldIssue[] = [];
   const orgId = scenario.organization_id;
   const project = await db('projects')
@@ -169,12 +171,13 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     designWindMs: wind.windMs,
     extraDesignC: scenario.settings.extraDesignC,
   };
+  const odds: SweepTask['odds'] = { uncertainty: { ...scenario.settings.uncertainty, tolerances: scenario.settings.tolerances } };
   const hash = createHash('sha256')
-    .update(JSON.stringify({ v: SWEEP_VERSION, m: METHOD_VERSION, input, record }))
+    .update(JSON.stringify({ v: SWEEP_VERSION, m: METHOD_VERSION, input, record, odds }))
     .digest('hex');
   return {
     hash,
-    task: { input, record },
+    task: { input, record, odds },
     prices,
     meta: {
       climateSiteName: site.name,
@@ -240,6 +243,8 @@ export async function computeSweep(
     timeConstantH: result.timeConstantH,
     rows: result.rows,
     loadDuration: loadDuration ? { points: loadDuration } : null,
+    odds: result.odds,
+    uncertainty: result.uncertainty,
   };
   await db('sweep_results')
     .insert({ input_hash: prepared.hash, result: JSON.stringify(body) })

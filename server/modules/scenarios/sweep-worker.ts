@@ -3,7 +3,8 @@
  * the next sweeps of that record, and runs the sweep off the request thread.
  */
 import type { Knex } from 'knex';
-import { loadDuration, indexSweepRecord, sweep, type LoadDurationPoint, type SweepInput, type SweepRecordIndex, type SweepResult } from '@shared/sweep/sweep';
+import { loadDuration, indexSweepRecord, type LoadDurationPoint, type SweepInput, type SweepRecordIndex } from '@shared/sweep/sweep';
+import { sweepWithOdds, type SweepOddsOptions, type SweepWithOdds } from '@shared/sweep/sweep-odds';
 import { createDb } from '../../db';
 import { loadObservations } from '../climate/climate-repo';
 
@@ -18,10 +19,12 @@ export interface SweepTask {
   databaseUrl: string;
   input: Omit<SweepInput, 'record'>;
   record: SweepTaskRecord | null;
+  /** The Monte Carlo of the uncertainty band and the period of the odds. */
+  odds: SweepOddsOptions;
 }
 
 export interface SweepTaskResult {
-  result: SweepResult;
+  result: SweepWithOdds;
   loadDuration: LoadDurationPoint[] | null;
 }
 
@@ -63,7 +66,7 @@ function indexedRecord(url: string, record: SweepTaskRecord): Promise<SweepRecor
 
 export default async function runSweepTask(task: SweepTask): Promise<SweepTaskResult> {
   const index = task.record ? await indexedRecord(task.databaseUrl, task.record) : null;
-  const result = sweep({ ...task.input, record: index });
+  const result = sweepWithOdds({ ...task.input, record: index }, task.odds);
   return {
     result,
     loadDuration: index ? loadDuration(task.input.building, index, task.input.designWindMs) : null,
