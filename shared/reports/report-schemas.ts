@@ -125,6 +125,8 @@ export const reportOptionViewSchema = z.object({
   /** Figure key → display text, for the figures the designer chose. */
   figures: z.array(z.object({ key: z.enum(reportFigureKeys), label: z.string(), text: z.string() })),
   sentence: z.string(),
+  /** Plain sentences on the odds of a colder night, how sure the figures are, and the price of comfort. */
+  odds: z.array(z.string()).default([]),
 });
 export type ReportOptionView = z.infer<typeof reportOptionViewSchema>;
 

@@ -11,6 +11,7 @@ import { formatMoney } from '@shared/money/money';
 import { SIZING_CAUTIONS } from '@shared/reports/cautions';
 import { reportFigureLabels, type ReportFigure, type ReportView } from '@shared/reports/report-schemas';
 import type { SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
+import { oddsBasisSentence, plainBandSentence, plainComfortSentence, plainLifetimeSentence } from '@shared/sweep/odds-words';
 import { tradeoffSentence } from '@shared/sweep/tradeoff-summary';
 import { formatQuantity, fromSi, unitLabel } from '@shared/units/units';
 import { SWEEP_VERSION } from '../scenarios/sweep-service';
@@ -108,9 +109,15 @@ export function buildReportView(src: ReportSource): ReportView {
       : 'This place has published design values only, so running costs and the hours a unit would fall behind are not available.',
   );
 
+  const oddsContext = { rows: a.rows, currency: a.currency, unitSystem: system, odds: a.odds, uncertainty: a.uncertainty };
   const options = report.points.flatMap((t) => {
     const r = nearestRow(a.rows, t);
     if (!r) return [];
+    const odds = [
+      plainLifetimeSentence(r, system),
+      plainBandSentence(r, oddsContext),
+      plainComfortSentence(a.rows.indexOf(r), oddsContext),
+    ].filter((x): x is string => x !== null);
     const unit = r.selectedOptionId ? (labelOf.get(r.selectedOptionId) ?? r.selectedOptionId) : 'No unit on the list is large enough';
     return [
       {
@@ -129,9 +136,11 @@ export function buildReportView(src: ReportSource): ReportView {
           hasRecord: a.hasRecord,
           years: a.years.length,
         }),
+        odds,
       },
     ];
   });
+  if (a.odds?.shortRecord) climate.push(oddsBasisSentence(a.odds) ?? '');
 
   const tUnit = unitLabel('temperature', system);
   const chartT = (c: number) => Math.round(fromSi('temperature', c, system) * 100) / 100;
