@@ -110,7 +110,7 @@ export function plainLifetimeSentence(row: OddsRow, system: UnitSystem): string 
 /** The step into the chosen row's unit (the first row with it) and the step out of it (the next unit colder). */
 function stepsAround(index: number, rows: readonly OddsRow[]): { into: OddsRow | undefined; next: OddsRow | undefined } {
   const row = rows[index];
-  if (!row || row.selectedOptionId === null) return { into: undefined, next: undefined };
+  if (!row?.selectedOptionId) return { into: undefined, next: undefined };
   let first = index;
   while (first > 0 && rows[first - 1]?.selectedOptionId === row.selectedOptionId) first--;
   let last = index;

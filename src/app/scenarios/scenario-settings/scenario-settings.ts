@@ -217,8 +217,8 @@ export class ScenarioSettingsPanel {
       safetyFactorPct: v.safetyFactorPct.trim() === '' ? null : Number(v.safetyFactorPct),
       prices,
       optionLabels: v.wholeList ? null : labels,
-      tolerances: { uaPct: Number(v.uaPct), airLeakagePct: Number(v.airLeakagePct), pricesPct: Number(v.pricesPct) },
-      uncertainty: { draws: Number(v.draws), seed: Number(v.seed) },
+      tolerances: { uaPct: v.uaPct, airLeakagePct: v.airLeakagePct, pricesPct: v.pricesPct },
+      uncertainty: { draws: v.draws, seed: v.seed },
       rule:
         v.ruleMaxWorstHours === null && v.ruleMaxOddsPct === null
           ? null
