@@ -1,6 +1,7 @@
 /**
  * `npm run bench`: speed figures for the README, measured on this machine (not asserted in tests).
- * First the design-temperature sweep (fast path against the naive loop, scripts/bench-sweep.ts); then
+ * First the design-temperature sweep (fast path against the naive loop, scripts/bench-sweep.ts) and its
+ * uncertainty band (300 Monte Carlo draws, scripts/bench-odds.ts); then
  * reading, checking and storing a 30-year hourly record (about 263,000 rows) the way an upload does,
  * against a throwaway PostgreSQL on loopback.
  */
@@ -18,6 +19,7 @@ import { readWeatherFiles } from '../server/modules/climate/weather-files';
 import type { DesignConditions } from '../shared/climate/design-conditions-schema';
 import { createSweepPool } from '../server/modules/scenarios/sweep-pool';
 import type { SweepTask } from '../server/modules/scenarios/sweep-worker';
+import { benchOdds } from './bench-odds';
 import { benchScenarioInput, benchSweep } from './bench-sweep';
 import { ensurePostgresInstalled, PgCluster } from './pg-cluster';
 
@@ -37,6 +39,7 @@ function freePort(): Promise<number> {
 
 async function main(): Promise<void> {
   benchSweep();
+  benchOdds();
   console.log('');
   const dir = mkdtempSync(path.join(tmpdir(), 'tailroom-bench-'));
   chmodSync(dir, 0o755);

@@ -115,12 +115,12 @@ export function oddsOfRows<R extends { designC: number; selectedOptionId: string
 
 /**
  * A probability as plain odds: "about a 1-in-4 chance", "about a 7-in-10 chance", "less than a
- * 1-in-100 chance", "almost certain".
+ * 1-in-100 chance", "a near-certain chance".
  */
 export function plainOdds(probability: number): string {
   if (!(probability > 0)) return 'no chance on this record';
   if (probability < 0.01) return 'less than a 1-in-100 chance';
-  if (probability >= 0.95) return 'an almost certain chance';
+  if (probability >= 0.95) return 'a near-certain chance';
   if (probability <= 0.5) return `about a 1-in-${Math.round(1 / probability)} chance`;
   return `about a ${Math.round(probability * 10)}-in-10 chance`;
 }

@@ -82,7 +82,7 @@ describe('lifetime odds', () => {
     assert.equal(plainOdds(0.2), 'about a 1-in-5 chance');
     assert.equal(plainOdds(0.7), 'about a 7-in-10 chance');
     assert.equal(plainOdds(0.004), 'less than a 1-in-100 chance');
-    assert.equal(plainOdds(0.97), 'an almost certain chance');
+    assert.equal(plainOdds(0.97), 'a near-certain chance');
     assert.equal(
       lifetimeOddsSentence(0.25, 20),
       'There is about a 1-in-4 chance of at least one night colder than this while this unit is in service (20 years).',
