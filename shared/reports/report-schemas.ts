@@ -144,7 +144,16 @@ export const reportViewSchema = z.object({
   chart: z.object({
     temperatureUnit: z.string(),
     currency: z.string(),
-    rows: z.array(z.object({ t: z.number(), lifeCycleCost: z.number().nullable(), unmetHours: z.number().nullable() })),
+    rows: z.array(
+      z.object({
+        t: z.number(),
+        lifeCycleCost: z.number().nullable(),
+        unmetHours: z.number().nullable(),
+        /** 10th and 90th percentiles of the unmet hours over the uncertainty draws (null without them). */
+        unmetLow: z.number().nullable().default(null),
+        unmetHigh: z.number().nullable().default(null),
+      }),
+    ),
     points: z.array(z.object({ t: z.number(), label: z.string() })),
   }),
   cautions: z.array(z.string()),

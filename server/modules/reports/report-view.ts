@@ -10,7 +10,7 @@ import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import { formatMoney } from '@shared/money/money';
 import { SIZING_CAUTIONS } from '@shared/reports/cautions';
 import { reportFigureLabels, type ReportFigure, type ReportView } from '@shared/reports/report-schemas';
-import type { SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
+import { sweepAnswerSchema, type SweepAnswer, type SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
 import { oddsBasisSentence, plainBandSentence, plainComfortSentence, plainLifetimeSentence } from '@shared/sweep/odds-words';
 import { tradeoffSentence } from '@shared/sweep/tradeoff-summary';
 import { formatQuantity, fromSi, unitLabel } from '@shared/units/units';
@@ -69,7 +69,9 @@ function nearestRow(rows: readonly SweepRowAnswer[], t: number): SweepRowAnswer 
 }
 
 export function buildReportView(src: ReportSource): ReportView {
-  const { sweep: a, report } = src;
+  const { report } = src;
+  // A result kept from before a field was added (a frozen one) gets the field's default.
+  const a = sweepAnswerSchema.parse(src.sweep);
   const system = report.unitSystem;
   const temp = (c: number) => formatQuantity('temperature', c, system);
   const named = (label: string) => a.rows.find((r) => !r.isGrid && r.label === label);
@@ -159,7 +161,13 @@ export function buildReportView(src: ReportSource): ReportView {
     chart: {
       temperatureUnit: tUnit,
       currency: a.currency,
-      rows: a.rows.map((r) => ({ t: chartT(r.designC), lifeCycleCost: r.lifeCycleCost === null ? null : Number(r.lifeCycleCost), unmetHours: r.unmetHoursPerYear })),
+      rows: a.rows.map((r) => ({
+        t: chartT(r.designC),
+        lifeCycleCost: r.lifeCycleCost === null ? null : Number(r.lifeCycleCost),
+        unmetHours: r.unmetHoursPerYear,
+        unmetLow: r.unmetHoursPerYearP10,
+        unmetHigh: r.unmetHoursPerYearP90,
+      })),
       points: options.map((o) => ({ t: chartT(o.designC), label: o.rungLabel })),
     },
     cautions: [...SIZING_CAUTIONS],

@@ -46,8 +46,8 @@ export function aReportView(fields: Partial<ReportView> = {}): ReportView {
       temperatureUnit: '°C',
       currency: 'USD',
       rows: [
-        { t: -17, lifeCycleCost: 14400, unmetHours: 12 },
-        { t: -32, lifeCycleCost: 15000, unmetHours: 0 },
+        { t: -17, lifeCycleCost: 14400, unmetHours: 12, unmetLow: 6, unmetHigh: 21 },
+        { t: -32, lifeCycleCost: 15000, unmetHours: 0, unmetLow: 0, unmetHigh: 0 },
       ],
       points: [
         { t: -17, label: '99 %' },
