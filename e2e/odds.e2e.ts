@@ -19,7 +19,8 @@ async function openScenario(page: Page, project: RegExp, scenario: string): Prom
   await page.getByRole('link', { name: project }).click();
   await page.getByTestId('scenario-list').getByRole('link', { name: scenario }).click();
   await page.waitForURL(/\/scenarios\//);
-  await page.getByTestId('odds-sentence').filter({ hasText: 'winter' }).waitFor();
+  // The first sweep of a 30-year record loads it into a worker and runs the band's draws.
+  await page.getByTestId('odds-sentence').waitFor({ timeout: 120_000 });
 }
 
 describe('the odds, the price of comfort and the uncertainty band in a real browser', () => {
@@ -32,8 +33,10 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     await openScenario(page, /Fernbrook Lane/, 'Heat pump bid (demo)');
 
     // The odds of a colder night at the chosen point (99.6 % on opening), the band and its column.
+    await screenshot(page, 'odds-opened-1280');
     const odds = await text(page, 'odds-sentence');
-    assert.match(odds, /A night colder than .*: about a .* chance in any one winter/);
+    // At the 99.6 % value most winters have a colder hour: the odds may read "a near-certain chance".
+    assert.match(odds, /A night colder than .*: .*chance in any one winter/);
     assert.match(odds, /winters on record had one/);
     assert.match(odds, /over the \d+ years the unit is in service/);
     await page.getByTestId('band-sentence').waitFor();
@@ -90,7 +93,10 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     await page.getByTestId('report-document').waitFor();
     const plain = await page.getByTestId('report-odds').allInnerTexts();
     assert.ok(plain.some((s) => /chance of at least one night colder than .* while this unit is in service \(\d+ years\)\./.test(s)), plain.join(' | '));
-    assert.ok(plain.some((s) => /between .* hours a year, depending on how leaky the house turns out to be/.test(s)), plain.join(' | '));
+    assert.ok(
+      plain.some((s) => /between .* hours a year, depending on how leaky the house turns out to be|should keep up in a typical year/.test(s)),
+      plain.join(' | '),
+    );
     await page.getByTestId('report-odds').first().scrollIntoViewIfNeeded();
     await screenshot(page, 'odds-report-1280');
 

@@ -110,8 +110,8 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
               silent: true,
               data: chart.rows.map((r) => [r.t, r.unmetLow === null || r.unmetHigh === null ? null : r.unmetHigh - r.unmetLow]),
               lineStyle: { opacity: 0 },
-              areaStyle: { color: 'rgba(79, 143, 191, 0.3)' },
-              itemStyle: { color: 'rgba(79, 143, 191, 0.5)' },
+              areaStyle: { color: 'rgba(138, 95, 168, 0.22)' },
+              itemStyle: { color: 'rgba(138, 95, 168, 0.55)' },
             },
           ]
         : []),

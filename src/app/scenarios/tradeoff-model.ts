@@ -298,8 +298,8 @@ function unmetBandSeries(answer: SweepAnswer, x: (c: number) => number): LineSer
       showSymbol: false,
       silent: true,
       lineStyle: { opacity: 0 },
-      areaStyle: { color: 'rgba(79, 143, 191, 0.32)' },
-      itemStyle: { color: 'rgba(79, 143, 191, 0.5)' },
+      areaStyle: { color: 'rgba(138, 95, 168, 0.22)' },
+      itemStyle: { color: 'rgba(138, 95, 168, 0.55)' },
     },
   ];
 }
