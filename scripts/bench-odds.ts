@@ -17,6 +17,8 @@ export interface OddsBenchResult {
   rows: number;
   draws: number;
   monteCarloMs: number;
+  /** CPU time of the run, ms: what the draws cost this process whatever else shares the machine. */
+  monteCarloCpuMs: number;
 }
 
 export function benchOdds(runs = 5, draws = 300, log: (line: string) => void = console.log): OddsBenchResult {
@@ -30,19 +32,24 @@ export function benchOdds(runs = 5, draws = 300, log: (line: string) => void = c
   const input = { ...benchScenarioInput(conditions.conditions), record: index };
   const nominal = sweep(input);
   const times: number[] = [];
+  const cpu: number[] = [];
   for (let r = 0; r < runs; r++) {
+    const c = process.cpuUsage();
     const t = performance.now();
     monteCarloSweep(input, { tolerances: DEFAULT_TOLERANCES, draws, seed: r + 1, nominal });
     times.push(performance.now() - t);
+    const used = process.cpuUsage(c);
+    cpu.push((used.user + used.system) / 1000);
   }
   const result: OddsBenchResult = {
     years: qualifyingYears.length,
     rows: designLadder(conditions.conditions).length,
     draws,
     monteCarloMs: median(times),
+    monteCarloCpuMs: median(cpu),
   };
   log(
-    `Uncertainty band: Monte Carlo of ${draws} draws (UA ±${DEFAULT_TOLERANCES.uaPct} %, air leakage ±${DEFAULT_TOLERANCES.airLeakagePct} %, prices ±${DEFAULT_TOLERANCES.pricesPct} %) over ${result.years} years × ${result.rows} ladder rows × ${input.options.length} options, median of ${runs}: ${result.monteCarloMs.toFixed(0)} ms (${(result.monteCarloMs / draws).toFixed(2)} ms a draw)`,
+    `Uncertainty band: Monte Carlo of ${draws} draws (UA ±${DEFAULT_TOLERANCES.uaPct} %, air leakage ±${DEFAULT_TOLERANCES.airLeakagePct} %, prices ±${DEFAULT_TOLERANCES.pricesPct} %) over ${result.years} years × ${result.rows} ladder rows × ${input.options.length} options, median of ${runs}: ${result.monteCarloMs.toFixed(0)} ms (${(result.monteCarloMs / draws).toFixed(2)} ms a draw; CPU time ${result.monteCarloCpuMs.toFixed(0)} ms)`,
   );
   return result;
 }
