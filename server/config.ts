@@ -16,6 +16,9 @@ const envSchema = z.object({
    * database host is usually best; more only make the backends compete for the same cores.
    */
   DATABASE_POOL_MAX: z.coerce.number().int().min(2).max(200).default(8),
+  /** Weather files read and checked at once, over all organisations, and per organisation (the others wait their turn). */
+  UPLOAD_PARSES_MAX: z.coerce.number().int().min(1).max(16).default(2),
+  UPLOAD_PARSES_PER_ORG: z.coerce.number().int().min(1).max(16).default(1),
   SESSION_SECRET: z.string().min(32, 'SESSION_SECRET must be at least 32 characters'),
   SMTP_HOST: z.string().default('127.0.0.1'),
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
@@ -53,6 +56,7 @@ export type Config = Readonly<{
   publicUrl: string;
   databaseUrl: string;
   databasePoolMax: number;
+  uploadParses: { max: number; perOrganization: number };
   sessionSecret: string;
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string };
   mailFrom: string;
@@ -85,6 +89,7 @@ export function parseConfig(env: NodeJS.ProcessEnv): Config {
     publicUrl: (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/$/, ''),
     databaseUrl: e.DATABASE_URL,
     databasePoolMax: e.DATABASE_POOL_MAX,
+    uploadParses: { max: e.UPLOAD_PARSES_MAX, perOrganization: e.UPLOAD_PARSES_PER_ORG },
     sessionSecret: e.SESSION_SECRET,
     smtp: { host: e.SMTP_HOST, port: e.SMTP_PORT, secure: e.SMTP_SECURE, user: e.SMTP_USER, password: e.SMTP_PASSWORD },
     mailFrom: e.MAIL_FROM,

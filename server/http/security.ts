@@ -49,7 +49,7 @@ export function csrfProtection(config: Config): RequestHandler {
     if (SAFE.has(req.method) || req.path === '/v1/billing/webhook') return next();
     const origin = req.headers.origin;
     const host = req.headers.host;
-    if (origin && origin !== 'null' && origin !== ownOrigin && !(host && new URL(origin).host === host)) {
+    if (origin && origin !== 'null' && origin !== ownOrigin && !(host && URL.parse(origin)?.host === host)) {
       return next(new HttpError(403, 'csrf', 'This request came from another site and was refused'));
     }
     const hasSession = (req.headers.cookie ?? '').split(/;\s*/).some((c) => c.startsWith(`${SESSION_COOKIE}=`));

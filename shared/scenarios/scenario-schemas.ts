@@ -4,6 +4,7 @@
  * bid: its inputs and results no longer change.
  */
 import { z } from 'zod';
+import { rowVersionSchema } from '../api/safe-text';
 import { energyPricesSchema } from '../money/energy-prices';
 import { DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_TOLERANCES, MAX_DRAWS } from '../sweep/tolerances';
 
@@ -111,7 +112,7 @@ export type ScenarioInput = z.input<typeof scenarioInputSchema>;
 
 /** PATCH /api/v1/projects/:projectId/scenarios/:scenarioId (409 `stale_update`; 409 `frozen` for inputs of a frozen one) */
 export const scenarioPatchSchema = z.strictObject({
-  version: z.int({ error: 'The version of the scenario being changed is required' }).min(1),
+  version: rowVersionSchema('The version of the scenario being changed is required'),
   name: scenarioName.optional(),
   climateSiteId: z.uuid('Choose a climate site from the list').nullable().optional(),
   equipmentListId: z.uuid('Choose an equipment list from the list').nullable().optional(),

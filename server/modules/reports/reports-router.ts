@@ -27,7 +27,7 @@ import type { SweepPool } from '../scenarios/sweep-pool';
 import { scenarioSweep, type ScenarioRow } from '../scenarios/sweep-service';
 import { audit } from '../audit/audit';
 import { loadLogo, sendLogo } from './logo-router';
-import { reportPdf } from './report-pdf';
+import type { PdfPool } from './pdf-pool';
 import { hashReportToken, newReportToken, verifyReportToken } from './report-tokens';
 import { buildReportView } from './report-view';
 
@@ -74,8 +74,11 @@ const reportParams = projectParam.extend({ reportId: z.uuid('Unknown report') })
 const listQuery = z.strictObject({ scenarioId: z.uuid('Unknown scenario').optional() });
 const reportNotFound = () => new HttpError(404, 'not_found', 'That report was not found');
 
-export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config; mailer: Mailer }): Router {
-  const { db, pool, config, mailer } = deps;
+/** What a send's record says until its e-mail is known to have left (it stays so only if the server stopped meanwhile). */
+const SEND_INTERRUPTED = 'The sending was interrupted; check with the client before sending again';
+
+export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPool; config: Config; mailer: Mailer }): Router {
+  const { db, pool, pdfPool, config, mailer } = deps;
   const router = Router();
 
   function reportQuery(organizationId: string) {
@@ -145,14 +148,14 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
   }
 
   async function sendPdf(res: Response, row: ReportRow, view: ReportView): Promise<void> {
-    const pdf = await reportPdf(view, await loadLogo(db, row.organization_id));
+    const pdf = await pdfPool.render(view, await loadLogo(db, row.organization_id));
     const name = view.title.replace(/[^\w.-]+/g, '-').replace(/-+/g, '-').slice(0, 80) || 'report';
     res.type('application/pdf').set('Content-Disposition', `inline; filename="${name}.pdf"`).send(pdf);
   }
 
-  async function createLink(reportId: string, userId: string, days: number): Promise<{ link: ReportLink; url: string; id: string }> {
+  async function createLink(reportId: string, userId: string, days: number, conn: Knex = db): Promise<{ link: ReportLink; url: string; id: string }> {
     const { token, hash } = newReportToken(config.sessionSecret);
-    const [row] = await db('report_links')
+    const [row] = await conn('report_links')
       .insert({ report_id: reportId, token_hash: hash, expires_at: new Date(Date.now() + days * DAY_MS), created_by: userId })
       .returning<LinkRow[]>('*');
     if (!row) throw new Error('link not created');
@@ -160,8 +163,17 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
   }
 
   async function deliver(row: ReportRow, organizationName: string, senderName: string, input: { to: string; message: string; expiresInDays: number }, userId: string) {
-    const { url, id: linkId, link } = await createLink(row.id, userId, input.expiresInDays);
-    await audit(db, null, { type: 'report_link_created', organizationId: row.organization_id, userId, detail: { report: row.id, title: row.title, link: linkId, emailedTo: input.to } });
+    // The link, the send's record and the audit entry are written together before the e-mail goes
+    // out: a failure before it leaves nothing behind, and nothing after it can make a retry send twice.
+    const { url, linkId, link, sendId } = await db.transaction(async (trx) => {
+      const made = await createLink(row.id, userId, input.expiresInDays, trx);
+      await audit(trx, null, { type: 'report_link_created', organizationId: row.organization_id, userId, detail: { report: row.id, title: row.title, link: made.id, emailedTo: input.to } });
+      const [send] = await trx('report_sends')
+        .insert({ report_id: row.id, link_id: made.id, recipient: input.to, message: input.message, status: 'failed', error: SEND_INTERRUPTED, sent_by: userId })
+        .returning<{ id: string }[]>('id');
+      if (!send) throw new Error('send not recorded');
+      return { url: made.url, linkId: made.id, link: made.link, sendId: send.id };
+    });
     let error: string | null = null;
     try {
       await mailer.send(reportMail(input.to, url, { organizationName, senderName, title: row.title, message: input.message, expiresAt: new Date(link.expiresAt) }));
@@ -170,10 +182,8 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
       // The link of a failed send was never delivered: revoke it.
       await db('report_links').where({ id: linkId }).update({ revoked_at: db.fn.now() });
     }
-    const [send] = await db('report_sends')
-      .insert({ report_id: row.id, link_id: linkId, recipient: input.to, message: input.message, status: error ? 'failed' : 'sent', error, sent_by: userId })
-      .returning<{ id: string }[]>('id');
-    return { sendId: send?.id ?? '', error };
+    await db('report_sends').where({ id: sendId }).update({ status: error ? 'failed' : 'sent', error });
+    return { sendId, error };
   }
 
   router.get('/projects/:projectId/reports', authorize(db, 'org:read'), async (req, res) => {
