@@ -126,6 +126,9 @@ async function main(): Promise<void> {
     STRIPE_API_HOST: '127.0.0.1',
     STRIPE_API_PORT: String(paymentsPort),
     STRIPE_API_PROTOCOL: 'http',
+    // New on every start, never written down: the fake provider's signing secret and the Dev outbox's token.
+    STRIPE_WEBHOOK_SECRET: `whsec_${randomBytes(24).toString('base64url')}`,
+    DEV_OUTBOX_TOKEN: randomBytes(24).toString('base64url'),
   };
   startChild('payment provider (fake)', ['server/fakes/payment-fake-main.ts', String(paymentsPort), `http://127.0.0.1:${port}/api/v1/billing/webhook`], env);
   startChild('e-mail sink', ['server/fakes/smtp-sink-main.ts', String(smtpPort), String(outboxPort)], env);
@@ -156,7 +159,7 @@ async function main(): Promise<void> {
     log(`  Demo sign-in (${DEMO_ORGANIZATION}, invented data):`);
     for (const a of DEMO_ACCOUNTS) log(`    ${a.role.padEnd(8)} ${a.email}`);
     log(`    password  ${DEMO_PASSWORD}`);
-    log(`  Dev outbox (e-mails sent locally): ${url}/dev/outbox`);
+    log(`  Dev outbox (e-mails sent locally; this link holds a token new on every start): ${url}/dev/outbox?token=${env['DEV_OUTBOX_TOKEN'] ?? ''}`);
     log(`  Payments: a local fake of the provider on 127.0.0.1:${paymentsPort}; test card 4242 4242 4242 4242`);
     log('  Press Ctrl-C to stop.');
     log('');

@@ -10,7 +10,7 @@ import type { Logger } from 'pino';
 import type { Config } from './config';
 import { GUARD, type Guard } from './http/authorize';
 import { apiNotFound, errorHandler } from './http/error-handler';
-import { csrfProtection, rateLimits, securityHeaders } from './http/security';
+import { csrfProtection, ownHostOnly, rateLimits, refuseDeclaredOversizeJson, securityHeaders } from './http/security';
 import { textSafety } from './http/text-safety';
 import type { Mailer } from './mail/mailer';
 import { authRouter, createPassport, SESSION_COOKIE } from './modules/auth/auth-router';
@@ -54,10 +54,13 @@ export interface App {
 }
 
 const SESSION_DAYS = 14;
+/** The largest JSON body the API reads. */
+const JSON_BODY_LIMIT_BYTES = 1024 * 1024;
 
 export function createApp({ config, db, mailer, logger }: AppDeps): App {
   const app = express();
   app.disable('x-powered-by');
+  if (config.env === 'development') app.use(ownHostOnly(config));
   app.use(securityHeaders(config));
   if (config.env === 'production') app.set('trust proxy', 1);
 
@@ -110,11 +113,11 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   // The provider's webhook reads its raw body (the signature covers the exact bytes): before the JSON parser.
   const billing = billingRouter(db, config);
   app.post('/api/v1/billing/webhook', ...billing.webhook);
-  app.use('/api/v1', express.json({ limit: '1mb', strict: true }));
+  app.use('/api/v1', refuseDeclaredOversizeJson(JSON_BODY_LIMIT_BYTES), express.json({ limit: JSON_BODY_LIMIT_BYTES, strict: true }));
   app.use('/api/v1', textSafety);
   app.use('/api', csrfProtection(config));
-  const limits = rateLimits(config);
-  app.post('/api/v1/auth/sign-in', limits.signIn);
+  const limits = rateLimits(config, db);
+  app.post('/api/v1/auth/sign-in', ...limits.signIn);
   app.post('/api/v1/auth/sign-up', ...limits.signUp);
   app.post('/api/v1/auth/password-resets', limits.passwordReset);
   app.post('/api/v1/invitations', limits.invitations);
@@ -133,11 +136,11 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   mount('/api/v1/projects', scenariosRouter(db, sweepPool, config.databaseUrl));
   mount('/api/v1', climateRouter(db, uploadPool));
   mount('/api/v1', equipmentRouter(db));
-  mount('/api/v1', reportsRouter({ db, pool: sweepPool, pdfPool, config, mailer }));
+  mount('/api/v1', reportsRouter({ db, pool: sweepPool, pdfPool, config, mailer, sendLimits: limits.reportSends }));
   mount('/api/v1', logoRouter(db));
   mount('/api/v1', billing.router);
   mount('/api/v1', auditRouter(db));
-  if (config.devOutboxUrl) mount('/api/v1/dev', devOutboxRouter(config.devOutboxUrl));
+  if (config.devOutboxUrl) mount('/api/v1/dev', devOutboxRouter(db, config.devOutboxUrl, config.devOutboxToken));
   app.use('/api', apiNotFound);
 
   if (config.clientDist && existsSync(path.join(config.clientDist, 'index.html'))) {

@@ -3,6 +3,7 @@ import { MulterError } from 'multer';
 import { ZodError } from 'zod';
 import type { FieldIssue } from '@shared/api/api-error';
 import { HttpError } from './http-error';
+import { RateLimitedError } from './rate-limit-store';
 
 /** zod issues → one field-level detail each, with dotted paths ('' for the whole body). */
 export function zodDetails(err: ZodError): FieldIssue[] {
@@ -61,6 +62,7 @@ export function errorHandler(): ErrorRequestHandler {
       return;
     }
     if (err instanceof HttpError) {
+      if (err instanceof RateLimitedError) res.set('Retry-After', String(err.retryAfterSeconds));
       res.status(err.status).json({
         error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) },
       });

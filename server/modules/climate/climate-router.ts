@@ -51,6 +51,8 @@ export function baseName(claimed: string): string {
 
 const upload = multer({
   storage: multer.memoryStorage(),
+  // File names are UTF-8 (as browsers send them): café.csv stays café.csv.
+  defParamCharset: 'utf8',
   limits: { fileSize: CLIMATE_UPLOAD_MAX_BYTES, files: CLIMATE_UPLOAD_MAX_FILES, fields: 5, fieldSize: 8000 },
 });
 

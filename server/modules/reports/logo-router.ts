@@ -14,7 +14,7 @@ import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
 import { checkLogo } from './logo-check';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: LOGO_MAX_BYTES, files: 1, fields: 0 } });
+const upload = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: LOGO_MAX_BYTES, files: 1, fields: 0 } });
 
 export async function loadLogo(db: Knex, organizationId: string): Promise<{ contentType: string; content: Buffer } | null> {
   const row = await db('organization_logos')

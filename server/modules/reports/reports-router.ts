@@ -21,6 +21,8 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { Config } from '../../config';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
+import { consume } from '../../http/rate-limit-store';
+import type { ReportSendLimits } from '../../http/security';
 import type { Mailer } from '../../mail/mailer';
 import { reportMail } from '../../mail/messages';
 import type { SweepPool } from '../scenarios/sweep-pool';
@@ -77,8 +79,8 @@ const reportNotFound = () => new HttpError(404, 'not_found', 'That report was no
 /** What a send's record says until its e-mail is known to have left (it stays so only if the server stopped meanwhile). */
 const SEND_INTERRUPTED = 'The sending was interrupted; check with the client before sending again';
 
-export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPool; config: Config; mailer: Mailer }): Router {
-  const { db, pool, pdfPool, config, mailer } = deps;
+export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPool; config: Config; mailer: Mailer; sendLimits: ReportSendLimits }): Router {
+  const { db, pool, pdfPool, config, mailer, sendLimits } = deps;
   const router = Router();
 
   function reportQuery(organizationId: string) {
@@ -279,8 +281,12 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPoo
 
   async function sendAnswer(req: Request, res: Response, row: ReportRow, input: { to: string; message: string; expiresInDays: number }) {
     const { organizationId, user } = orgContext(req);
+    // Mail abuse: a limit per organisation and one per recipient (from every organisation), 429 past them.
+    await consume(sendLimits.perOrganization, organizationId);
+    await consume(sendLimits.perRecipient, input.to.trim().toLowerCase());
     const org = await db('organizations').where({ id: organizationId }).first<{ name: string }>('name');
     const { sendId, error } = await deliver(row, org.name, user.name, input, user.id);
+    await audit(db, req, { type: 'report_sent', organizationId, userId: user.id, detail: { report: row.id, title: row.title, to: input.to, send: sendId, status: error ? 'failed' : 'sent' } });
     const [report] = await toReports([row]);
     if (error) {
       res.status(502).json({
