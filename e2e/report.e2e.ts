@@ -2,6 +2,7 @@ import assert from 'node:assert/strict';
 import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
+import { checkA11y } from './support/a11y';
 import { SCREENSHOTS, guardOffline, pdfFirstPageScreenshot, screenshot, seedDemoData, signInAsDemo, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -34,6 +35,7 @@ describe('a client report in a real browser', () => {
     await page.getByRole('button', { name: 'New client report' }).click();
     await page.getByLabel(/^Title/).fill('Heat pump options for the Old Mill duplex');
     await page.getByLabel(/^Note to the client/).fill('The smaller unit keeps up on all but the coldest few hours; the backup heater covers them.');
+    await checkA11y(page, 'report-composer');
     await page.getByRole('button', { name: 'Create report' }).click();
     await page.waitForURL(/\/reports\//);
     await page.getByTestId('report-document').waitFor();
@@ -44,6 +46,7 @@ describe('a client report in a real browser', () => {
     await page.getByLabel(/^Message/).fill('Here are the two options we talked about.');
     await page.getByRole('button', { name: 'Send' }).click();
     await page.getByTestId('report-sends').getByText(client).waitFor();
+    await checkA11y(page, 'report-page');
     const reportPage = page.url();
     await page.goto(e2e.baseUrl + '/dev/outbox');
     const link = page.locator('a[href*="/r/"]').first();
@@ -67,6 +70,7 @@ describe('a client report in a real browser', () => {
     assert.match(await doc.innerText(), /smaller unit keeps up/);
     await home.locator('.report canvas').first().waitFor();
     await screenshot(home, 'report-1280');
+    await checkA11y(home, 'public-report');
     await home.setViewportSize({ width: 390, height: 844 });
     await home.reload();
     await home.getByTestId('report-document').waitFor();
@@ -94,6 +98,7 @@ describe('a client report in a real browser', () => {
     const api = await home.request.get(e2e.baseUrl + '/api/v1/public/reports/' + (href.split('/r/')[1] ?? ''));
     assert.equal(api.status(), 410);
     await screenshot(home, 'report-withdrawn-390');
+    await checkA11y(home, 'public-report-withdrawn');
 
     assert.deepEqual(offenders, []);
     await homeContext.close();

@@ -16,19 +16,27 @@ export const reportFigureKeys = [
   'installedPrice',
   'annualCost',
   'lifeCycleCost',
+  'compressor',
   'runHours',
+  'backupHours',
+  'backupEnergy',
   'unmetHours',
   'unmetWorstYear',
+  'lowestIndoor',
   'sag',
 ] as const;
 export type ReportFigure = (typeof reportFigureKeys)[number];
 export const reportFigureLabels: Record<ReportFigure, string> = {
   installedPrice: 'Installed price',
-  annualCost: 'Running cost per year',
-  lifeCycleCost: 'Life-cycle cost',
-  runHours: 'Hours it runs per year',
+  annualCost: 'Running cost per year, with cycling losses',
+  lifeCycleCost: 'Life-cycle cost over the study period',
+  compressor: 'Heat pump’s own capacity at the design temperature',
+  runHours: 'Equivalent full-load hours per year',
+  backupHours: 'Hours a year the backup heat runs',
+  backupEnergy: 'Backup heat energy per year',
   unmetHours: 'Hours it falls behind, average year',
   unmetWorstYear: 'Hours it falls behind, worst year of record',
+  lowestIndoor: 'Lowest indoor temperature over the record',
   sag: 'How far the house could cool',
 };
 

@@ -58,7 +58,8 @@ export function sweepWithOdds(input: SweepInput, options: SweepOddsOptions): Swe
   const nominal = sweep(base);
   const minima = record ? recordYearlyMinima(record) : [];
   const stats = extremeStatsOf(base, minima);
-  const periodOf = periodYearsFor(input, options.periodYears);
+  // L: the study period of the life-cycle cost when there is one, otherwise the unit's life.
+  const periodOf = periodYearsFor(input, options.periodYears ?? nominal.studyPeriodYears);
   const odds = oddsOfRows(nominal.rows, stats, minima, periodOf);
   const comfort = priceOfComfort(nominal.rows, periodOf);
   const mc =

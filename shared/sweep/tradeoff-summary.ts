@@ -88,7 +88,7 @@ export function tradeoffSentence(chosen: Row, ctx: SummaryContext): string {
     let lcc = '';
     if (chosen.lifeCycleCost !== null && coldest.lifeCycleCost !== null) {
       const l = parseMoney(coldest.lifeCycleCost).minus(parseMoney(chosen.lifeCycleCost));
-      lcc = l.isZero() ? ', the same over its life' : l.gt(0) ? ` (${money(l.toString())} less over its life)` : ` (${money(l.abs().toString())} more over its life)`;
+      lcc = l.isZero() ? ', the same over the study period' : l.gt(0) ? ` (${money(l.toString())} less over the study period)` : ` (${money(l.abs().toString())} more over the study period)`;
     }
     cost = `Sizing for ${rung(chosen, system)} instead of ${rung(coldest, system)} installs ${unit} instead of ${coldUnit}, ${priceText}${lcc}.`;
   }

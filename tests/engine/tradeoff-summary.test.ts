@@ -44,7 +44,7 @@ describe('trade-off sentence', () => {
     // 5180.00 − 4290.00 = 890.00; 24636.15 − 23739.01 = 897.14 (by hand).
     assert.equal(
       s,
-      'Sizing for −17.0 °C (99 %) instead of −32.5 °C (50-year) installs Small furnace instead of Large furnace, for $890.00 less to install ($897.14 less over its life). ' +
+      'Sizing for −17.0 °C (99 %) instead of −32.5 °C (50-year) installs Small furnace instead of Large furnace, for $890.00 less to install ($897.14 less over the study period). ' +
         "It would fall behind the load for about 23 hours in an average year and about 110 hours in the worst of the record's 30 years; in the worst spell the house would cool by up to 2.2 K below the set-point.",
     );
   });

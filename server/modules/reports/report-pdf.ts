@@ -45,7 +45,8 @@ export function reportChartSvg(view: ReportView, width = 515, height = 230): str
 }
 
 const INK = '#1D4E5F';
-const EMBER = '#C9583A';
+/** Ember's darker text tone (4.8:1 on white paper); the base ember is for marks and lines only. */
+const EMBER_TEXT = '#B44E33';
 
 export async function reportPdf(view: ReportView, logo: { contentType: string; content: Buffer } | null): Promise<Buffer> {
   const header: unknown[] = [];
@@ -59,7 +60,7 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
   const optionBlocks = view.options.map((o) => ({
     stack: [
       { text: o.heading, style: 'h3' },
-      { text: o.unit, bold: true, color: EMBER, margin: [0, 2, 0, 2] },
+      { text: o.unit, bold: true, color: EMBER_TEXT, margin: [0, 2, 0, 2] },
       { text: `Capacity at ${o.temperature}: ${o.capacity}`, fontSize: 9, color: '#555' },
       {
         table: { widths: ['*', 'auto'], body: o.figures.map((f) => [{ text: f.label, fontSize: 9 }, { text: f.text, fontSize: 9, bold: true, alignment: 'right' }]) },
@@ -94,7 +95,7 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
       ...view.options.flatMap((o) => [o.sentence, ...o.odds].map((text) => ({ text, margin: [0, 2, 0, 4] }))),
       { stack: [{ text: 'Cost against cold hours', style: 'h2' }, { svg: reportChartSvg(view), width: 515 }], unbreakable: true },
       ...(view.note ? [{ text: 'From your contractor', style: 'h2' }, { text: view.note }] : []),
-      { text: SIZING_CAUTIONS_TITLE, style: 'h2', color: EMBER },
+      { text: SIZING_CAUTIONS_TITLE, style: 'h2', color: EMBER_TEXT },
       { ul: view.cautions, fontSize: 9.5 },
       { text: `Prepared ${view.preparedAt.slice(0, 10)}. ${view.provenance}`, style: 'small', margin: [0, 12, 0, 0] },
     ],

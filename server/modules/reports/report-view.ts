@@ -48,9 +48,17 @@ function figureText(key: ReportFigure, r: SweepRowAnswer, a: SweepAnswer, system
     case 'annualCost':
       return money(r.annualCost);
     case 'lifeCycleCost':
-      return money(r.lifeCycleCost);
+      return r.lifeCycleCost === null || a.studyPeriodYears === null ? money(r.lifeCycleCost) : `${money(r.lifeCycleCost)} over ${a.studyPeriodYears} years`;
+    case 'compressor':
+      return r.compressorAtDesignW === null ? 'not a heat pump' : power(r.compressorAtDesignW, system);
     case 'runHours':
       return hours(r.runHoursPerYear);
+    case 'backupHours':
+      return r.compressorAtDesignW === null ? 'not a heat pump' : hours(r.backupHoursPerYear);
+    case 'backupEnergy':
+      return r.compressorAtDesignW === null ? 'not a heat pump' : r.backupEnergyKWh === null ? 'not available (needs an hourly record)' : `${Math.round(r.backupEnergyKWh).toLocaleString('en-US')} kWh`;
+    case 'lowestIndoor':
+      return r.lowestIndoorC === null ? 'not available (needs an hourly record)' : formatQuantity('temperature', r.lowestIndoorC, system);
     case 'unmetHours':
       return hours(r.unmetHoursPerYear);
     case 'unmetWorstYear':
@@ -174,7 +182,10 @@ export function buildReportView(src: ReportSource): ReportView {
     provenance:
       `Scenario “${src.scenarioName}”, ` +
       (src.frozenAt ? `frozen for a bid on ${src.frozenAt.toISOString().slice(0, 10)}` : `live; last computed ${computed.toISOString().slice(0, 16).replace('T', ' ')} UTC`) +
-      `. Indoor ${temp(a.indoorDesignC)}, design wind ${a.designWindMs.toFixed(1)} m/s, real discount rate ${a.discountRatePct} %, prices in ${a.currency}. ` +
+      `. Indoor ${temp(a.indoorDesignC)}, design wind ${a.designWindMs.toFixed(1)} m/s, real discount rate ${a.discountRatePct} %` +
+      (a.studyPeriodYears === null ? '' : `, life-cycle costs over one ${a.studyPeriodYears}-year study period`) +
+      (a.options.some((o) => o.kind === 'heat-pump') ? (a.heatPumpSizing === 'compressor' ? ', heat pumps sized on the compressor alone' : ', heat pumps sized with their backup heat') : '') +
+      `, prices in ${a.currency}. ` +
       `Methods ${SWEEP_VERSION} and ${METHOD_VERSION}; inputs ${a.inputHash.slice(0, 12)}.`,
     unitSystem: system,
     expiresAt: src.expiresAt ? src.expiresAt.toISOString() : null,

@@ -1,6 +1,6 @@
 import type { SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { aSweepAnswer } from './testing/scenario-fixtures';
-import { capacityAtC, comparisonRows, defaultIndex, ladderRows, nearestIndex, sentenceFor, tradeoffChart } from './tradeoff-model';
+import { capacityAtC, comparisonRows, defaultIndex, ladderRows, loadDurationTable, nearestIndex, sentenceFor, tradeoffChart } from './tradeoff-model';
 
 describe('trade-off model', () => {
   const answer = aSweepAnswer();
@@ -15,10 +15,27 @@ describe('trade-off model', () => {
     // −17 °C = 1.4 °F; 1.8 K = 3.24 °F shown to 0.1.
     const ip = ladderRows(answer, 'IP');
     expect(ip[0]?.temperature).toBe('1 °F');
-    expect(ip[0]?.sag).toBe('3.2 °F');
+    expect(ip[0]?.drop).toBe('3.2 °F');
+    expect(si[0]?.lowestIndoor).toBe('19.2 °C');
     const none = ladderRows(aSweepAnswer({ rows: [{ ...answer.rows[0]!, selectedOptionId: null, installedPrice: null }] }), 'SI');
     expect(none[0]?.unit).toBe('None large enough');
     expect(none[0]?.installedPrice).toBe('—');
+  });
+
+  it('reads the load-duration chart out as a table: load at 1, 10, 50 … hours a year against the chosen unit', () => {
+    // Fixture points (hours a year at or above, load, outdoor): 1 h 11.5 kW −30 °C; 20 h 9.2 kW −19 °C;
+    // 2,000 h 4.0 kW 0 °C; 5,000 h 500 W 15 °C. The 99 % rung installs the flat 9 kW furnace.
+    const mild = loadDurationTable(answer, 0, 'SI');
+    expect(mild.map((r) => r.hours)).toEqual(['1.0', '20', '2,000', '5,000']);
+    expect(mild.map((r) => r.load)).toEqual(['11.5 kW', '9.2 kW', '4.0 kW', '500 W']);
+    expect(mild.map((r) => r.outdoor)).toEqual(['−30.0 °C', '−19.0 °C', '0.0 °C', '15.0 °C']);
+    expect(mild.map((r) => r.capacity)).toEqual(['9.0 kW', '9.0 kW', '9.0 kW', '9.0 kW']);
+    expect(mild.map((r) => r.keepsUp)).toEqual(['No', 'No', 'Yes', 'Yes']);
+    // The 50-year rung installs the 12 kW furnace, which meets every hour.
+    expect(loadDurationTable(answer, 3, 'SI').map((r) => r.keepsUp)).toEqual(['Yes', 'Yes', 'Yes', 'Yes']);
+    // 11,500 W × 3.41214 = 39,240 Btu/h, shown to the 100.
+    expect(loadDurationTable(answer, 0, 'IP')[0]?.load).toBe('39,200 Btu/h');
+    expect(loadDurationTable(aSweepAnswer({ loadDuration: null }), 0, 'SI')).toEqual([]);
   });
 
   it('opens on the 99.6 % rung when there is one, else on the first named rung; finds the nearest rung to a temperature', () => {
@@ -33,7 +50,7 @@ describe('trade-off model', () => {
     const s = sentenceFor(answer, 0, 'SI');
     // 4600.00 − 4000.00 = 600; life-cycle 15000.00 − 14400.00 = 600.
     expect(s).toContain('Sizing for −17.0 °C (99 %) instead of −32.0 °C (50-year) installs Furnace 9 kW instead of Furnace 12 kW');
-    expect(s).toContain('for $600.00 less to install ($600.00 less over its life)');
+    expect(s).toContain('for $600.00 less to install ($600.00 less over the study period)');
     expect(s).toContain('about 12 hours in an average year and about 40 hours in the worst of the record\'s 4 years');
     expect(s).toContain('cool by up to 1.8 K');
     expect(sentenceFor(answer, 3, 'SI')).toContain('the coldest point of the ladder');

@@ -38,6 +38,8 @@ export interface LadderRowText {
   designLoad: string;
   unit: string;
   capacity: string;
+  /** Heat pumps: the compressor's capacity at the design temperature ('—' for other kinds). */
+  compressor: string;
   installedPrice: string;
   annualCost: string;
   lifeCycleCost: string;
@@ -45,7 +47,12 @@ export interface LadderRowText {
   unmetHours: string;
   unmetWorst: string;
   degreeHours: string;
-  sag: string;
+  backupHours: string;
+  backupEnergy: string;
+  lowestIndoor: string;
+  drop: string;
+  /** Return-period rows from a short record: how far to trust the temperature ('' otherwise). */
+  reliability: string;
   /** Unmet hours per average year, 10th–90th percentile of the draws. */
   unmetRange: string;
   /** Annual odds of a colder night, "1-in-8". */
@@ -75,6 +82,7 @@ export function ladderRows(answer: SweepAnswer, system: UnitSystem): LadderRowTe
     designLoad: formatPower(r.designLoadW, system),
     unit: r.selectedOptionId ? label(r.selectedOptionId) : 'None large enough',
     capacity: r.capacityAtDesignW === null ? '—' : formatPower(r.capacityAtDesignW, system),
+    compressor: r.compressorAtDesignW === null ? '—' : formatPower(r.compressorAtDesignW, system),
     installedPrice: money(r.installedPrice),
     annualCost: money(r.annualCost),
     lifeCycleCost: money(r.lifeCycleCost),
@@ -82,12 +90,40 @@ export function ladderRows(answer: SweepAnswer, system: UnitSystem): LadderRowTe
     unmetHours: hours(r.unmetHoursPerYear),
     unmetWorst: hours(r.unmetHoursWorstYear),
     degreeHours: r.unmetDegreeHoursPerYear === null ? '—' : formatQuantity('temperatureDifference', r.unmetDegreeHoursPerYear, system).replace(/ (K|°F)$/, ' $1·h'),
-    sag: r.worstSagC === null ? '—' : formatQuantity('temperatureDifference', r.worstSagC, system),
+    backupHours: r.compressorAtDesignW === null ? '—' : hours(r.backupHoursPerYear),
+    backupEnergy: r.compressorAtDesignW === null || r.backupEnergyKWh === null ? '—' : `${groupDigits(r.backupEnergyKWh)} kWh`,
+    lowestIndoor: r.lowestIndoorC === null ? '—' : formatQuantity('temperature', r.lowestIndoorC, system),
+    drop: r.worstDropK === null ? '—' : formatQuantity('temperatureDifference', r.worstDropK, system),
+    reliability: r.reliabilityNote ?? '',
     unmetRange: hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90),
     annualOdds: oneIn(r.annualExceedanceProbability),
     lifetimeOdds: oneIn(r.lifetimeExceedanceProbability),
     comfortPrice: perHour(r.costPerAvoidedUnmetHour, answer.currency),
   }));
+}
+
+/** What the sweep's rules were, in one sentence each: heat-pump sizing, how the unit was chosen, the study period. */
+export function rulesText(answer: SweepAnswer): string[] {
+  const lines: string[] = [];
+  if (answer.options.some((o) => o.kind === 'heat-pump')) {
+    lines.push(
+      answer.heatPumpSizing === 'compressor'
+        ? 'Heat pumps are sized on the compressor alone: its capacity at the design temperature covers the design load, and backup heat serves colder hours and emergencies.'
+        : 'Heat pumps are sized with their backup heat: compressor and backup together cover the design load.',
+    );
+  }
+  if (answer.selectionRule === 'lowest-life-cycle-cost') {
+    lines.push('The options mix equipment families, so among those that cover the design load the lowest life-cycle cost is installed.');
+  } else if (answer.selectionRule === 'lowest-installed-price') {
+    lines.push('The options mix equipment families and there is no hourly record, so among those that cover the design load the lowest installed price is installed.');
+  }
+  if (answer.studyPeriodYears !== null) {
+    const escalation = answer.energyEscalationPctPerYear === 0 ? '' : `, energy prices rising ${answer.energyEscalationPctPerYear} % a year above inflation`;
+    lines.push(
+      `Life-cycle costs cover one ${answer.studyPeriodYears}-year study period for every option (replacements and remaining value included) at a ${answer.discountRatePct} % real discount rate${escalation}; running costs include cycling losses.`,
+    );
+  }
+  return lines;
 }
 
 /** The row shown first: the 99.6 % rung, or the first named one. */
@@ -380,6 +416,44 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
     yAxis: { type: 'value', name: `Load (${unit})`, axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT },
     series,
   };
+}
+
+/** One line of the load-duration chart's table: a share of the year, its load and the chosen unit's capacity. */
+export interface LoadDurationRowText {
+  hours: string;
+  outdoor: string;
+  load: string;
+  capacity: string;
+  keepsUp: string;
+}
+
+/** The durations (hours per average year) the load-duration table reads the chart at. */
+const DURATION_STEPS = [1, 10, 50, 100, 500, 1000, 2000, 4000, 8000];
+
+/**
+ * The load-duration chart as a table, for those who cannot see the chart: the load reached for at least
+ * 1, 10, 50 … hours of an average year, the outdoor temperature of that hour, and what the chosen unit
+ * gives there. Empty without a record.
+ */
+export function loadDurationTable(answer: SweepAnswer, index: number, system: UnitSystem): LoadDurationRowText[] {
+  const points = answer.loadDuration?.points ?? [];
+  const row = answer.rows[index];
+  const option = row?.selectedOptionId ? answer.options.find((o) => o.id === row.selectedOptionId) : undefined;
+  const picked = new Set<(typeof points)[number]>();
+  for (const step of DURATION_STEPS) {
+    const p = points.find((q) => q.hoursPerYear >= step);
+    if (p) picked.add(p);
+  }
+  return [...picked].map((p) => {
+    const capacityW = option ? capacityAtC(option.capacityCurve, p.outdoorC) : null;
+    return {
+      hours: groupDigits(p.hoursPerYear, p.hoursPerYear < 10 ? 1 : 0),
+      outdoor: formatQuantity('temperature', p.outdoorC, system),
+      load: formatPower(p.loadW, system),
+      capacity: capacityW === null ? '—' : formatPower(capacityW, system),
+      keepsUp: capacityW === null ? 'No unit' : capacityW >= p.loadW ? 'Yes' : 'No',
+    };
+  });
 }
 
 /** A text alternative for the trade-off chart. */

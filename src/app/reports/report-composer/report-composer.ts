@@ -79,7 +79,7 @@ export class ReportComposer {
       .map((r) => ({ designC: r.designC, text: `${r.isGrid ? 'Chosen point' : r.label}: ${formatQuantity('temperature', r.designC, this.data.unitSystem)}` })),
   );
   protected readonly points = signal<ReadonlySet<number>>(this.defaultPoints());
-  protected readonly figures = signal<ReadonlySet<ReportFigure>>(new Set(reportFigureKeys));
+  protected readonly figures = signal<ReadonlySet<ReportFigure>>(new Set(reportFigureKeys.filter((k) => k !== 'sag')));
   protected readonly figureKeys = reportFigureKeys;
   protected readonly figureLabels = reportFigureLabels;
   protected readonly pending = signal(false);

@@ -43,7 +43,7 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
             <p class="tr-note" role="note"><mat-icon aria-hidden="true">info</mat-icon><span><strong>{{ e.scenario.name }}:</strong> {{ e.problem }}</span></p>
           }
         }
-        <div class="table-wrap" tabindex="0" aria-label="Comparison table, scrolls sideways">
+        <div class="table-wrap" tabindex="0" role="region" aria-label="Comparison table, scrolls sideways">
           <table class="compare-table" data-testid="compare-table">
             <thead>
               <tr>

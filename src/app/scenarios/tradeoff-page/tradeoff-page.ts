@@ -20,7 +20,7 @@ import { SCENARIO_NAME_MAX, type Scenario, type SweepAnswer } from '@shared/scen
 import { formatMoney } from '@shared/money/money';
 import { applyDesignRule } from '@shared/sweep/design-rule';
 import { bandSentence, comfortSentence, oddsBasisSentence, oddsSentence, type OddsContext } from '@shared/sweep/odds-words';
-import { formatQuantity, fromSi } from '@shared/units/units';
+import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';
 import { provideCharts } from '../../charts/provide-charts';
@@ -32,11 +32,13 @@ import {
   formatPower,
   ladderRows,
   loadDurationChart,
+  loadDurationTable,
   nearestIndex,
   optionLabelOf,
   sentenceFor,
   tradeoffChart,
   tradeoffChartSummary,
+  rulesText,
 } from '../tradeoff-model';
 import { ReportList } from '../../reports/report-list/report-list';
 import { TradeoffCautions } from './tradeoff-cautions';
@@ -144,11 +146,12 @@ export class TradeoffPage {
     const s = this.sweep();
     return s ? loadDurationChart(s, this.index(), this.unitSystem(), this.compact()) : null;
   });
-  protected readonly sliderMax = computed(() => Math.max(0, (this.sweep()?.rows.length ?? 1) - 1));
-  protected readonly sliderText = computed(() => {
-    const r = this.chosenRow();
-    return r ? `${formatQuantity('temperature', r.designC, this.unitSystem())}${r.isGrid ? '' : ` (${r.label})`}` : '';
+  protected readonly durationRows = computed(() => {
+    const s = this.sweep();
+    return s ? loadDurationTable(s, this.index(), this.unitSystem()) : [];
   });
+  protected readonly sliderMax = computed(() => Math.max(0, (this.sweep()?.rows.length ?? 1) - 1));
+  protected readonly sliderText = computed(() => this.designPointText(this.index()));
   protected readonly capacityText = computed(() => {
     const r = this.chosenRow();
     return r?.capacityAtDesignW == null ? '—' : formatPower(r.capacityAtDesignW, this.unitSystem());
@@ -159,7 +162,14 @@ export class TradeoffPage {
     const r = this.chosenRow();
     if (!s || !r?.selectedOptionId) return '';
     const o = s.options.find((x) => x.id === r.selectedOptionId);
-    return o ? `${o.lifeYears}-year life at ${s.discountRatePct} % real discount rate` : '';
+    if (!o) return '';
+    return s.studyPeriodYears === null
+      ? `${o.lifeYears}-year life at ${s.discountRatePct} % real discount rate`
+      : `over a ${s.studyPeriodYears}-year study period (unit life ${o.lifeYears} years) at ${s.discountRatePct} % real discount rate`;
+  });
+  protected readonly rules = computed(() => {
+    const s = this.sweep();
+    return s ? rulesText(s) : [];
   });
   protected readonly optionLabel = computed(() => {
     const s = this.sweep();
@@ -296,10 +306,12 @@ export class TradeoffPage {
   }
 
   protected readonly temperature = (c: number) => formatQuantity('temperature', c, this.unitSystem());
-  /** The slider's bubble: the temperature of the row at that position. */
-  protected readonly temperatureAtIndex = (i: number): string => {
+  /**
+   * The design point at a slider position as the page shows it, e.g. "−32.5 °C (50-year)". The slider
+   * uses it both for its bubble and for the value a screen reader reads out, so the two never differ.
+   */
+  protected readonly designPointText = (i: number): string => {
     const r = this.sweep()?.rows[i];
-    // The bubble holds about four characters: whole degrees.
-    return r ? `${Math.round(fromSi('temperature', r.designC, this.unitSystem()))}°`.replace('-', '−') : '';
+    return r ? `${formatQuantity('temperature', r.designC, this.unitSystem())}${r.isGrid ? '' : ` (${r.label})`}` : '';
   };
 }
