@@ -5,7 +5,7 @@
  *   node --import tsx cli/tailroom-cli.ts adjust --weather <reference file> --target <target.json> [--format csv|isd-lite]
  *   node --import tsx cli/tailroom-cli.ts trend <file> [--format csv|isd-lite]
  *   node --import tsx cli/tailroom-cli.ts demo <site-id> [--years N] [--format csv|isd-lite]
- *   node --import tsx cli/tailroom-cli.ts sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite]
+ *   node --import tsx cli/tailroom-cli.ts sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite] [--uncertainty draws=N,seed=S]
  *
  * `conditions` prints the design conditions JSON of an hourly weather file to stdout.
  * `demo` prints a generated demo file for an invented site to stdout.
@@ -16,7 +16,9 @@
  */
 import { createReadStream, existsSync, readFileSync, statSync } from 'node:fs';
 import { readScenarioFile } from '../shared/sweep/scenario-file';
-import { sweep } from '../shared/sweep/sweep';
+import { priceOfComfort } from '../shared/sweep/price-of-comfort';
+import { periodYearsFor, sweepWithOdds } from '../shared/sweep/sweep-odds';
+import { DEFAULT_TOLERANCES, MAX_DRAWS } from '../shared/sweep/tolerances';
 import { createInterface } from 'node:readline';
 import { z } from 'zod';
 import {
@@ -43,7 +45,7 @@ const USAGE = `Usage:
   tailroom-cli adjust --weather <reference file> --target <target.json> [--format csv|isd-lite]
   tailroom-cli trend <file> [--format csv|isd-lite]
   tailroom-cli demo <site-id> [--years N] [--format csv|isd-lite]
-  tailroom-cli sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite]
+  tailroom-cli sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite] [--uncertainty draws=N,seed=S]
 
 Demo sites (invented): ${demoSiteIds.join(', ')}`;
 
@@ -60,7 +62,10 @@ function parseArgs(args: readonly string[], allowed: readonly string[]): ParsedA
   for (let i = 0; i < args.length; i++) {
     const arg = args[i] ?? '';
     if (arg.startsWith('--')) {
-      const [name = '', inline] = arg.slice(2).split('=', 2);
+      // --name=value keeps everything after the first '=' (values such as draws=N,seed=S hold more).
+      const eq = arg.indexOf('=');
+      const name = eq < 0 ? arg.slice(2) : arg.slice(2, eq);
+      const inline = eq < 0 ? undefined : arg.slice(eq + 1);
       if (!allowed.includes(name)) throw new UsageError(`Unknown option --${name}`);
       const value = inline ?? args[++i];
       if (value === undefined) throw new UsageError(`Option --${name} needs a value`);
@@ -220,8 +225,32 @@ async function conditionsCommand(args: readonly string[]): Promise<number> {
   return 0;
 }
 
+/** `--uncertainty draws=N,seed=S`: both whole numbers, draws 1–MAX_DRAWS. */
+function uncertaintyFlag(flags: Map<string, string>): { draws: number; seed: number } | null {
+  const value = flags.get('uncertainty');
+  if (value === undefined) return null;
+  const parts = new Map<string, string>();
+  for (const part of value.split(',')) {
+    const [key = '', v, extra] = part.split('=');
+    if (v === undefined || extra !== undefined || !['draws', 'seed'].includes(key.trim()) || parts.has(key.trim())) {
+      throw new UsageError('--uncertainty must be draws=N,seed=S');
+    }
+    parts.set(key.trim(), v.trim());
+  }
+  const whole = (key: string, min: number, max: number): number => {
+    const text = parts.get(key);
+    const n = Number(text);
+    if (text === undefined || !/^\d+$/.test(text) || n < min || n > max) {
+      throw new UsageError(`--uncertainty ${key} must be a whole number from ${min} to ${max}`);
+    }
+    return n;
+  };
+  return { draws: whole('draws', 1, MAX_DRAWS), seed: whole('seed', 0, 4_294_967_295) };
+}
+
 async function sweepCommand(args: readonly string[]): Promise<number> {
-  const { positional, flags } = parseArgs(args, ['weather', 'scenario', 'format']);
+  const { positional, flags } = parseArgs(args, ['weather', 'scenario', 'format', 'uncertainty']);
+  const uncertainty = uncertaintyFlag(flags);
   if (positional.length > 0) throw new UsageError(`Unexpected argument ${positional[0] ?? ''}`);
   const weather = flags.get('weather');
   const scenarioPath = flags.get('scenario');
@@ -254,7 +283,7 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
     process.stderr.write(`${weather}: ${conditions.error.message}\n`);
     return 1;
   }
-  const result = sweep({
+  const input = {
     ...engine,
     economics: scenario.economics,
     heatPumpSizing: scenario.heatPumpSizing ?? 'compressor',
@@ -262,10 +291,15 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
     designWindMs: scenario.designWindMs ?? 6.7,
     record: { series: parsed.series, qualifyingYears: conditions.conditions.period.qualifyingYears },
     extraDesignC: scenario.extraDesignTemperaturesC ?? [],
+  };
+  const result = sweepWithOdds(input, {
+    uncertainty: uncertainty && { ...uncertainty, tolerances: { ...DEFAULT_TOLERANCES, ...scenario.tolerances } },
   });
-  const rows = result.rows
-    .filter((r) => !r.isGrid)
-    .map((r) => ({
+  // The price of comfort between neighbouring rows of the ladder printed (the named rows).
+  const named = result.rows.filter((r) => !r.isGrid);
+  const comfort = priceOfComfort(named, periodYearsFor(input, result.studyPeriodYears));
+  const rows = named
+    .map((r, i) => ({
       label: r.label,
       designC: r.designC,
       designLoadW: r.designLoadW,
@@ -286,6 +320,19 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
       worstSagC: r.worstSagC,
       lifeCycleCost: r.lifeCycleCost,
       reliabilityNote: r.reliabilityNote,
+      annualExceedanceProbability: r.annualExceedanceProbability,
+      recordExceedanceShare: r.recordExceedanceShare,
+      lifetimeExceedanceProbability: r.lifetimeExceedanceProbability,
+      costPerAvoidedUnmetHour: comfort[i]?.costPerAvoidedUnmetHour ?? null,
+      ...(uncertainty
+        ? {
+            unmetHoursPerYearP10: r.unmetHoursPerYearP10,
+            unmetHoursPerYearP90: r.unmetHoursPerYearP90,
+            lifeCycleCostP10: r.lifeCycleCostP10,
+            lifeCycleCostP90: r.lifeCycleCostP90,
+            selectionChangeShare: r.selectionChangeShare,
+          }
+        : {}),
     }));
   for (const w of result.warnings) process.stderr.write(`warning (${w.code}): ${w.message}\n`);
   const { heatPumpSizing, selectionRule, studyPeriodYears, energyEscalationPctPerYear, warnings } = result;

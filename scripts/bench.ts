@@ -1,7 +1,8 @@
 /**
  * `npm run bench`: speed figures for the README, measured on this machine (not asserted in tests).
  *
- * 1. The design-temperature sweep: fast path against the naive loop (scripts/bench-sweep.ts).
+ * 1. The design-temperature sweep: fast path against the naive loop (scripts/bench-sweep.ts), and its
+ *    uncertainty band: 300 Monte Carlo draws (scripts/bench-odds.ts).
  * 2. Uploading a 30-year hourly record (about 263,000 rows) as CSV and as ISD-Lite: read, checked and
  *    previewed in the upload pool, then stored (one row of columns with its sweep index).
  * 3. Sweeps in the worker pool over a stored record: the first of a record (load + sweep, the worker
@@ -30,6 +31,7 @@ import { createUploadPool } from '../server/modules/climate/upload-pool';
 import { createSweepPool } from '../server/modules/scenarios/sweep-pool';
 import type { SweepTask } from '../server/modules/scenarios/sweep-worker';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from '../server/seed/demo-seed';
+import { benchOdds } from './bench-odds';
 import { benchScenarioInput, benchSweep } from './bench-sweep';
 import { ensurePostgresInstalled, PgCluster } from './pg-cluster';
 import { freePort, startServerProcess } from './server-process';
@@ -43,6 +45,9 @@ export interface BenchFigures {
   sweepFastMs: number;
   sweepNaiveMs: number;
   indexMs: number;
+  /** The Monte Carlo of 300 draws over the 30-year record (wall time; CPU time beside it). */
+  uncertaintyBandMs: number;
+  uncertaintyBandCpuMs: number;
   uploadCsvMs: number;
   uploadIsdLiteMs: number;
   coldSweepMs: number;
@@ -117,6 +122,7 @@ async function benchPoolSweeps(databaseUrl: string, siteIds: string[]): Promise<
       databaseUrl,
       input: { ...benchScenarioInput(r.conditions), economics: { discountRatePct: rate } },
       record: { siteId: r.climate_site_id, key: `${r.climate_site_id}@${r.computed_at.toISOString()}`, qualifyingYears: r.conditions.period.qualifyingYears },
+      odds: { uncertainty: null },
     });
     const cold: number[] = [];
     for (const [k, r] of rows.entries()) {
@@ -233,6 +239,12 @@ export function readmeTable(f: BenchFigures, date: string): string {
     row('`/api/health` p95 while a 50 MB upload is read', `${f.healthP95DuringUploadMs.toFixed(1)} ms`, '≤ 100 ms', f.healthP95DuringUploadMs <= 100),
     row('sweep, naive loop ÷ fast path', `${f.sweepNaiveMs.toFixed(0)} ms ÷ ${f.sweepFastMs.toFixed(1)} ms = ${(f.sweepNaiveMs / f.sweepFastMs).toFixed(0)}×`, '≥ 100×', f.sweepNaiveMs / f.sweepFastMs >= 100),
     row('indexing a 30-year record (at upload)', `${f.indexMs.toFixed(0)} ms`, '', true),
+    row(
+      'uncertainty band: 300 Monte Carlo draws over a 30-year record (CPU time beside)',
+      `${f.uncertaintyBandMs.toFixed(0)} ms (${f.uncertaintyBandCpuMs.toFixed(0)} ms CPU)`,
+      '< 1,000 ms',
+      f.uncertaintyBandMs < 1000,
+    ),
     row('initial client bundle, gzip', `${f.initialBundleGzipKB.toFixed(0)} kB`, '< 300 kB', f.initialBundleGzipKB < 300),
     README_END,
   ].join('\n');
@@ -244,6 +256,7 @@ async function main(): Promise<void> {
   const loadAverage1m = loadavg()[0] ?? NaN;
   console.log(`Machine: ${cpus().length} cores, Node ${process.version}, load average ${loadavg().map((x) => x.toFixed(2)).join(' ')}\n`);
   const sweep = benchSweep();
+  const band = benchOdds();
   const dir = mkdtempSync(path.join(tmpdir(), 'tailroom-bench-'));
   chmodSync(dir, 0o755);
   const cluster = new PgCluster(path.join(dir, 'pg'), await freePort(), randomBytes(12).toString('hex'), ensurePostgresInstalled(console.log));
@@ -263,6 +276,8 @@ async function main(): Promise<void> {
       sweepFastMs: round1(sweep.fastMs),
       sweepNaiveMs: round1(sweep.naiveMs),
       indexMs: round1(sweep.indexMs),
+      uncertaintyBandMs: round1(band.monteCarloMs),
+      uncertaintyBandCpuMs: round1(band.monteCarloCpuMs),
       uploadCsvMs: round1(uploads.csv),
       uploadIsdLiteMs: round1(uploads.isdLite),
       coldSweepMs: round1(sweeps.cold),

@@ -21,12 +21,18 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
   const { chart } = view;
   const ts = chart.rows.map((r) => r.t);
   const hasHours = chart.rows.some((r) => r.unmetHours !== null);
+  const hasBand = chart.rows.some((r) => r.unmetLow !== null && r.unmetHigh !== null);
   const small = options.compact || options.forPrint === true;
   return {
     animation: false,
     textStyle: { fontFamily: options.forPrint ? PRINT_FONT : FONT, color: TEXT, fontSize: small ? 10 : 12 },
     grid: { left: small ? 56 : 72, right: hasHours ? (small ? 40 : 56) : 16, top: small ? 40 : 48, bottom: small ? 36 : 48 },
-    legend: { top: 0, left: 'center', textStyle: { fontSize: small ? 10 : 12, fontFamily: options.forPrint ? PRINT_FONT : FONT } },
+    legend: {
+      top: 0,
+      left: 'center',
+      data: ['Life-cycle cost', ...(hasHours ? ['Hours short per year'] : []), ...(hasBand ? ['Likely range of hours short'] : [])],
+      textStyle: { fontSize: small ? 10 : 12, fontFamily: options.forPrint ? PRINT_FONT : FONT },
+    },
     tooltip: options.forPrint ? undefined : { trigger: 'axis' },
     xAxis: {
       type: 'value',
@@ -79,6 +85,35 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
               areaStyle: { color: 'rgba(79, 143, 191, 0.18)' },
               lineStyle: { color: COLD, width: 2 },
               itemStyle: { color: COLD },
+            },
+          ]
+        : []),
+      // The range of the hours short, depending on how the estimates turn out: an invisible lower
+      // edge with the width stacked on it as a shaded area (docs/methods.md#uncertainty-band).
+      ...(hasBand
+        ? [
+            {
+              name: 'band-low',
+              type: 'line',
+              yAxisIndex: 1,
+              stack: 'band',
+              showSymbol: false,
+              silent: true,
+              data: chart.rows.map((r) => [r.t, r.unmetLow]),
+              lineStyle: { opacity: 0 },
+              tooltip: { show: false },
+            },
+            {
+              name: 'Likely range of hours short',
+              type: 'line',
+              yAxisIndex: 1,
+              stack: 'band',
+              showSymbol: false,
+              silent: true,
+              data: chart.rows.map((r) => [r.t, r.unmetLow === null || r.unmetHigh === null ? null : r.unmetHigh - r.unmetLow]),
+              lineStyle: { opacity: 0 },
+              areaStyle: { color: 'rgba(138, 95, 168, 0.22)' },
+              itemStyle: { color: 'rgba(138, 95, 168, 0.55)' },
             },
           ]
         : []),

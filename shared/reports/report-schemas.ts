@@ -133,6 +133,8 @@ export const reportOptionViewSchema = z.object({
   /** Figure key → display text, for the figures the designer chose. */
   figures: z.array(z.object({ key: z.enum(reportFigureKeys), label: z.string(), text: z.string() })),
   sentence: z.string(),
+  /** Plain sentences on the odds of a colder night, how sure the figures are, and the price of comfort. */
+  odds: z.array(z.string()).default([]),
 });
 export type ReportOptionView = z.infer<typeof reportOptionViewSchema>;
 
@@ -150,7 +152,16 @@ export const reportViewSchema = z.object({
   chart: z.object({
     temperatureUnit: z.string(),
     currency: z.string(),
-    rows: z.array(z.object({ t: z.number(), lifeCycleCost: z.number().nullable(), unmetHours: z.number().nullable() })),
+    rows: z.array(
+      z.object({
+        t: z.number(),
+        lifeCycleCost: z.number().nullable(),
+        unmetHours: z.number().nullable(),
+        /** 10th and 90th percentiles of the unmet hours over the uncertainty draws (null without them). */
+        unmetLow: z.number().nullable().default(null),
+        unmetHigh: z.number().nullable().default(null),
+      }),
+    ),
     points: z.array(z.object({ t: z.number(), label: z.string() })),
   }),
   cautions: z.array(z.string()),

@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { rowVersionSchema } from '../api/safe-text';
 import { energyPricesSchema } from '../money/energy-prices';
 import { DEFAULT_HEAT_PUMP_SIZING, DEFAULT_STUDY_PERIOD_YEARS, equipmentFamilies, heatPumpSizings } from '../sweep/sweep';
+import { DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_TOLERANCES, MAX_DRAWS } from '../sweep/tolerances';
 
 export const SCENARIO_NAME_MAX = 160;
 export const EXTRA_DESIGN_TEMPERATURES_MAX = 10;
@@ -19,6 +20,46 @@ const scenarioName = z
   .trim()
   .min(1, 'Enter a scenario name')
   .max(SCENARIO_NAME_MAX, `Use at most ${SCENARIO_NAME_MAX} characters`);
+
+const tolerance = (label: string, max: number) =>
+  z
+    .number({ error: `Enter the ${label} tolerance as a number (%)` })
+    .min(0, `The ${label} tolerance cannot be negative`)
+    .max(max, `The ${label} tolerance must be at most ${max} %`);
+
+/** How far the estimated inputs may be off, ± % (docs/methods.md#uncertainty-band). */
+export const tolerancesSchema = z.strictObject({
+  uaPct: tolerance('UA', 90),
+  airLeakagePct: tolerance('air leakage', 90),
+  pricesPct: tolerance('energy price', 90),
+});
+
+/** The Monte Carlo's size and seed: the same seed gives the same band. */
+export const uncertaintySettingsSchema = z.strictObject({
+  /** Draws; 0 leaves the band out. */
+  draws: z
+    .int({ error: 'Enter the number of draws as a whole number' })
+    .min(0, 'The number of draws cannot be negative')
+    .max(MAX_DRAWS, `Use at most ${MAX_DRAWS} draws`),
+  seed: z
+    .int({ error: 'Enter the seed as a whole number' })
+    .min(0, 'The seed cannot be negative')
+    .max(4_294_967_295, 'The seed must be at most 4294967295'),
+});
+
+/** The designer's rule for the suggested design point (docs/methods.md#stated-rule); null: no rule stated. */
+export const designRuleSchema = z.strictObject({
+  maxUnmetHoursWorstYear: z
+    .number({ error: 'Enter the most unmet hours in the worst year as a number' })
+    .min(0, 'The unmet hours cannot be negative')
+    .max(8784, 'A year has at most 8784 hours')
+    .nullable(),
+  maxLifetimeOddsPct: z
+    .number({ error: 'Enter the highest lifetime odds as a number (%)' })
+    .min(0, 'The odds cannot be negative')
+    .max(100, 'The odds must be at most 100 %')
+    .nullable(),
+});
 
 export const scenarioSettingsSchema = z.strictObject({
   /** Design temperatures to add to the ladder, °C. */
@@ -84,6 +125,10 @@ export const scenarioSettingsSchema = z.strictObject({
     .max(200, 'Use at most 200 years')
     .nullable()
     .default(null),
+  /** Tolerances of the estimated inputs for the uncertainty band. */
+  tolerances: tolerancesSchema.default({ ...DEFAULT_TOLERANCES }),
+  uncertainty: uncertaintySettingsSchema.default({ draws: DEFAULT_DRAWS, seed: DEFAULT_SEED }),
+  rule: designRuleSchema.nullable().default(null),
 });
 export type ScenarioSettings = z.infer<typeof scenarioSettingsSchema>;
 export type ScenarioSettingsInput = z.input<typeof scenarioSettingsSchema>;
@@ -163,6 +208,21 @@ export const sweepRowSchema = z.object({
   unavailableReason: z.string().nullable(),
   costUnavailableReason: z.string().nullable(),
   reliabilityNote: z.string().nullable().default(null),
+  // The odds of a colder night, the price of comfort and the uncertainty band (null where not
+  // defined, and in results kept from before they were computed).
+  annualExceedanceProbability: nullableNumber.default(null),
+  recordExceedanceShare: nullableNumber.default(null),
+  lifetimeExceedanceProbability: nullableNumber.default(null),
+  lifetimeYears: nullableNumber.default(null),
+  costPerAvoidedUnmetHour: nullableNumber.default(null),
+  costPerAvoidedWorstYearHour: nullableNumber.default(null),
+  unmetHoursPerYearP10: nullableNumber.default(null),
+  unmetHoursPerYearP90: nullableNumber.default(null),
+  unmetHoursWorstYearP10: nullableNumber.default(null),
+  unmetHoursWorstYearP90: nullableNumber.default(null),
+  lifeCycleCostP10: z.string().nullable().default(null),
+  lifeCycleCostP90: z.string().nullable().default(null),
+  selectionChangeShare: nullableNumber.default(null),
 });
 export type SweepRowAnswer = z.infer<typeof sweepRowSchema>;
 
@@ -228,6 +288,22 @@ export const sweepAnswerSchema = z.object({
       estimateLabel: z.string().nullable(),
     })
     .optional(),
+  /** The yearly minima behind the odds (null: neither a record nor a published mean and SD). */
+  odds: z
+    .object({
+      meanC: z.number(),
+      sdK: z.number(),
+      source: z.enum(['record', 'published']),
+      years: z.int().nullable(),
+      shortRecord: z.boolean(),
+    })
+    .nullable()
+    .default(null),
+  /** The Monte Carlo behind the band (null: no record, or no draws). */
+  uncertainty: z
+    .object({ draws: z.int(), seed: z.int(), tolerances: tolerancesSchema })
+    .nullable()
+    .default(null),
 });
 export type SweepAnswer = z.infer<typeof sweepAnswerSchema>;
 

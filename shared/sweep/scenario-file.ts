@@ -3,6 +3,7 @@
  * engine's input. Numbers for money are accepted here and turned into decimal strings.
  */
 import { z } from 'zod';
+import { tolerancesSchema } from '../scenarios/scenario-schemas';
 import { buildingSchema, type Building } from '../building/building-schemas';
 import { equipmentOptionSchema } from '../equipment/equipment-schemas';
 import { energyPricesSchema, type EnergyPrices } from '../money/energy-prices';
@@ -142,6 +143,8 @@ export const scenarioFileSchema = z
     designWindMs: range('the design wind speed', 'm/s', 0, 75).optional(),
     elevationM: range('the elevation', 'm', -500, 9000).optional(),
     extraDesignTemperaturesC: z.array(num('a design temperature', '°C'), { error: 'List extra design temperatures as numbers (°C)' }).max(10, 'Give at most 10 extra design temperatures').optional(),
+    /** Tolerances of the estimates for `--uncertainty`, ± % (defaults: UA 10, air leakage 25, prices 15). */
+    tolerances: tolerancesSchema.partial().optional(),
   })
   .check((ctx) => {
     const s = ctx.value;

@@ -66,6 +66,8 @@ export interface SweepDesignValues {
   heating: { db99: number; db99_6: number };
   extremeMin?: {
     mean?: number | null;
+    /** Sample standard deviation of the yearly minima, K (for the odds of a colder night). */
+    sd?: number | null;
     returnPeriod?: { '5'?: number | null; '10'?: number | null; '20'?: number | null; '50'?: number | null };
   };
 }

@@ -92,7 +92,7 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
       ...view.climate.map((t) => ({ text: t, margin: [0, 0, 0, 4] })),
       { text: 'The options', style: 'h2' },
       { columns: optionBlocks, columnGap: 14 },
-      ...view.options.map((o) => ({ text: o.sentence, margin: [0, 2, 0, 4] })),
+      ...view.options.flatMap((o) => [o.sentence, ...o.odds].map((text) => ({ text, margin: [0, 2, 0, 4] }))),
       { stack: [{ text: 'Cost against cold hours', style: 'h2' }, { svg: reportChartSvg(view), width: 515 }], unbreakable: true },
       ...(view.note ? [{ text: 'From your contractor', style: 'h2' }, { text: view.note }] : []),
       { text: SIZING_CAUTIONS_TITLE, style: 'h2', color: EMBER_TEXT },

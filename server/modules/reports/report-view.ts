@@ -10,7 +10,8 @@ import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import { formatMoney } from '@shared/money/money';
 import { SIZING_CAUTIONS } from '@shared/reports/cautions';
 import { reportFigureLabels, type ReportFigure, type ReportView } from '@shared/reports/report-schemas';
-import type { SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
+import { sweepAnswerSchema, type SweepAnswer, type SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
+import { oddsBasisSentence, plainBandSentence, plainComfortSentence, plainLifetimeSentence } from '@shared/sweep/odds-words';
 import { tradeoffSentence } from '@shared/sweep/tradeoff-summary';
 import { formatQuantity, fromSi, unitLabel } from '@shared/units/units';
 import { SWEEP_VERSION } from '../scenarios/sweep-service';
@@ -78,7 +79,9 @@ function nearestRow(rows: readonly SweepRowAnswer[], t: number): SweepRowAnswer 
 const HEAT_PUMP_FIGURES: ReadonlySet<ReportFigure> = new Set<ReportFigure>(['compressor', 'backupHours', 'backupEnergy']);
 
 export function buildReportView(src: ReportSource): ReportView {
-  const { sweep: a, report } = src;
+  const { report } = src;
+  // A result kept from before a field was added (a frozen one) gets the field's default.
+  const a = sweepAnswerSchema.parse(src.sweep);
   const system = report.unitSystem;
   const temp = (c: number) => formatQuantity('temperature', c, system);
   const named = (label: string) => a.rows.find((r) => !r.isGrid && r.label === label);
@@ -120,9 +123,15 @@ export function buildReportView(src: ReportSource): ReportView {
   if (a.climateBasis?.latestYears) climate.push(`These figures use the latest ${a.climateBasis.latestYears} years of the record only, to reflect recent winters.`);
   if (a.climateBasis?.estimateLabel) climate.push(a.climateBasis.estimateLabel);
 
+  const oddsContext = { rows: a.rows, currency: a.currency, unitSystem: system, odds: a.odds, uncertainty: a.uncertainty };
   const options = report.points.flatMap((t) => {
     const r = nearestRow(a.rows, t);
     if (!r) return [];
+    const odds = [
+      plainLifetimeSentence(r, system),
+      plainBandSentence(r, oddsContext),
+      plainComfortSentence(a.rows.indexOf(r), oddsContext),
+    ].filter((x): x is string => x !== null);
     const unit = r.selectedOptionId ? (labelOf.get(r.selectedOptionId) ?? r.selectedOptionId) : 'No unit on the list is large enough';
     return [
       {
@@ -144,9 +153,11 @@ export function buildReportView(src: ReportSource): ReportView {
           hasRecord: a.hasRecord,
           years: a.years.length,
         }),
+        odds,
       },
     ];
   });
+  if (a.odds?.shortRecord) climate.push(oddsBasisSentence(a.odds) ?? '');
 
   const tUnit = unitLabel('temperature', system);
   const chartT = (c: number) => Math.round(fromSi('temperature', c, system) * 100) / 100;
@@ -165,7 +176,13 @@ export function buildReportView(src: ReportSource): ReportView {
     chart: {
       temperatureUnit: tUnit,
       currency: a.currency,
-      rows: a.rows.map((r) => ({ t: chartT(r.designC), lifeCycleCost: r.lifeCycleCost === null ? null : Number(r.lifeCycleCost), unmetHours: r.unmetHoursPerYear })),
+      rows: a.rows.map((r) => ({
+        t: chartT(r.designC),
+        lifeCycleCost: r.lifeCycleCost === null ? null : Number(r.lifeCycleCost),
+        unmetHours: r.unmetHoursPerYear,
+        unmetLow: r.unmetHoursPerYearP10,
+        unmetHigh: r.unmetHoursPerYearP90,
+      })),
       points: options.map((o) => ({ t: chartT(o.designC), label: o.rungLabel })),
     },
     cautions: [...SIZING_CAUTIONS],

@@ -21,7 +21,7 @@ import type { SweepPool } from './sweep-pool';
 import type { SweepTask } from './sweep-worker';
 
 /** Bumped whenever the sweep's figures or the answer's shape change, so that old cache entries are not used. */
-export const SWEEP_VERSION = 'sweep-2.0.0';
+export const SWEEP_VERSION = 'sweep-2.1.0';
 
 export interface ScenarioRow {
   id: string;
@@ -61,6 +61,8 @@ export interface PreparedSweep {
     | 'heatPumpSizing'
     | 'selectionRule'
     | 'warnings'
+    | 'odds'
+    | 'uncertainty'
   >;
   /** The prices used (the scenario's or the organisation's), kept with a frozen copy. */
   prices: EnergyPrices;
@@ -254,12 +256,13 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     extraDesignC: settings.extraDesignC,
     heatPumpSizing: settings.heatPumpSizing,
   };
+  const odds: SweepTask['odds'] = { uncertainty: { ...settings.uncertainty, tolerances: settings.tolerances }, periodYears: settings.studyPeriodYears };
   const hash = createHash('sha256')
-    .update(JSON.stringify({ v: SWEEP_VERSION, m: METHOD_VERSION, input, record }))
+    .update(JSON.stringify({ v: SWEEP_VERSION, m: METHOD_VERSION, input, record, odds }))
     .digest('hex');
   return {
     hash,
-    task: { input, record },
+    task: { input, record, odds },
     prices,
     meta: {
       climateSiteName: site.name,
@@ -331,6 +334,8 @@ export async function computeSweep(
     warnings: result.warnings,
     rows: result.rows,
     loadDuration: loadDuration ? { points: loadDuration } : null,
+    odds: result.odds,
+    uncertainty: result.uncertainty,
   };
   await db('sweep_results')
     .insert({ input_hash: prepared.hash, result: JSON.stringify(body) })

@@ -6,15 +6,8 @@
 import type { Knex } from 'knex';
 import { computeDesignConditions } from '@shared/climate/design-conditions';
 import { seriesFromYear } from '@shared/climate/record-window';
-import {
-  loadDuration,
-  sweep,
-  type LoadDurationPoint,
-  type SweepDesignValues,
-  type SweepInput,
-  type SweepRecordIndex,
-  type SweepResult,
-} from '@shared/sweep/sweep';
+import { loadDuration, type LoadDurationPoint, type SweepDesignValues, type SweepInput, type SweepRecordIndex } from '@shared/sweep/sweep';
+import { sweepWithOdds, type SweepOddsOptions, type SweepWithOdds } from '@shared/sweep/sweep-odds';
 import { createDb } from '../../db';
 import { buildSweepIndex, sweepIndexKey, unpackSweepIndex } from '@shared/sweep/sweep-index';
 import { loadRecord, loadRecordForSweep } from '../climate/climate-repo';
@@ -38,6 +31,8 @@ export interface SweepTask {
   databaseUrl: string;
   input: Omit<SweepInput, 'record'>;
   record: SweepTaskRecord | null;
+  /** The Monte Carlo of the uncertainty band and the period of the odds. */
+  odds: SweepOddsOptions;
 }
 
 /** Sent once when the pool starts: opens the worker's connection so that the first sweep finds it ready. */
@@ -47,7 +42,7 @@ export interface WarmUpTask {
 }
 
 export interface SweepTaskResult {
-  result: SweepResult;
+  result: SweepWithOdds;
   loadDuration: LoadDurationPoint[] | null;
 }
 
@@ -111,7 +106,7 @@ export default async function runSweepTask(task: SweepTask | WarmUpTask): Promis
   const loaded = task.record ? await indexedRecord(task.databaseUrl, task.record) : null;
   const index = loaded?.index ?? null;
   const designConditions = loaded?.windowDesign ?? task.input.designConditions;
-  const result = sweep({ ...task.input, designConditions, record: index });
+  const result = sweepWithOdds({ ...task.input, designConditions, record: index }, task.odds);
   return {
     result,
     loadDuration: index ? loadDuration(task.input.building, index, task.input.designWindMs) : null,

@@ -87,4 +87,36 @@ describe('trade-off model', () => {
     const noRecord = tradeoffChart(aSweepAnswer({ hasRecord: false }), 0, 'SI', false);
     expect((noRecord.series as unknown[]).length).toBe(2);
   });
+
+  it('draws the 10–90 % band of the unmet hours and the stated rule’s point, and lists the range, odds and price per row', () => {
+    const rows = answer.rows.map((r, i) =>
+      i === 0
+        ? { ...r, unmetHoursPerYearP10: 6, unmetHoursPerYearP90: 21, annualExceedanceProbability: 0.125, lifetimeExceedanceProbability: 0.93, lifetimeYears: 20 }
+        : i === 1
+          ? { ...r, unmetHoursPerYearP10: 0, unmetHoursPerYearP90: 2.5, costPerAvoidedUnmetHour: 12.5 }
+          : r,
+    );
+    const banded = aSweepAnswer({ rows, uncertainty: { draws: 300, seed: 1, tolerances: { uaPct: 10, airLeakagePct: 25, pricesPct: 15 } } });
+    const option = tradeoffChart(banded, 0, 'SI', false, 3);
+    const series = option.series as { name: string; stack?: string; data: [number, number | null][]; markLine?: { data: { xAxis: number; label: { formatter?: string } }[] } }[];
+    const band = series.find((x) => x.name === 'Unmet h/yr, 10–90 % range');
+    // Stacked on the 10th percentile, the shaded width is P90 − P10: 21 − 6 = 15 and 2.5 − 0 = 2.5.
+    expect(band?.stack).toBe('unmet-band');
+    expect(band?.data.slice(0, 2)).toEqual([[-17, 15], [-20.5, 2.5]]);
+    expect(band?.data[2]).toEqual([-24, null]);
+    expect(series[0]?.markLine?.data.some((m) => m.label.formatter === 'Rule' && m.xAxis === -32)).toBeTrue();
+    const legend = (option.legend as { data: string[] }).data;
+    expect(legend).not.toContain('band-base');
+    const text = ladderRows(banded, 'SI');
+    expect(text[0]?.unmetRange).toBe('6–21');
+    expect(text[0]?.annualOdds).toBe('1-in-8');
+    expect(text[0]?.lifetimeOdds).toBe('9-in-10');
+    expect(text[1]?.comfortPrice).toBe('$12.50/h');
+    expect(text[2]?.unmetRange).toBe('—');
+    const compared = comparisonRows([banded], 'SI');
+    expect(compared[0]?.cells[0]?.odds).toBe('1-in-8 a year, 9-in-10 over 20 years');
+    expect(compared[0]?.cells[0]?.unmetRange).toBe('6–21 unmet h/yr (10–90 %)');
+    // Without draws there is no band series.
+    expect((tradeoffChart(answer, 0, 'SI', false).series as { name: string }[]).some((x) => x.name.includes('10–90'))).toBeFalse();
+  });
 });

@@ -13,6 +13,7 @@ import type { ComposeOption } from 'echarts/core';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
 import { formatMoney } from '@shared/money/money';
 import type { SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
+import { hoursRange, oneIn, perHour } from '@shared/sweep/odds-words';
 import { tradeoffSentence } from '@shared/sweep/tradeoff-summary';
 import { formatQuantity, unitLabel } from '@shared/units/units';
 import { formatPower, groupDigits, powerInChartUnit, temperatureForChart } from '../building/building-units';
@@ -52,6 +53,14 @@ export interface LadderRowText {
   drop: string;
   /** Return-period rows from a short record: how far to trust the temperature ('' otherwise). */
   reliability: string;
+  /** Unmet hours per average year, 10th–90th percentile of the draws. */
+  unmetRange: string;
+  /** Annual odds of a colder night, "1-in-8". */
+  annualOdds: string;
+  /** Odds over the unit's life (or the study period). */
+  lifetimeOdds: string;
+  /** Price of comfort against the milder neighbour, per avoided cold hour. */
+  comfortPrice: string;
 }
 
 const hours = (h: number | null) => (h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h));
@@ -86,6 +95,10 @@ export function ladderRows(answer: SweepAnswer, system: UnitSystem): LadderRowTe
     lowestIndoor: r.lowestIndoorC === null ? '—' : formatQuantity('temperature', r.lowestIndoorC, system),
     drop: r.worstDropK === null ? '—' : formatQuantity('temperatureDifference', r.worstDropK, system),
     reliability: r.reliabilityNote ?? '',
+    unmetRange: hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90),
+    annualOdds: oneIn(r.annualExceedanceProbability),
+    lifetimeOdds: oneIn(r.lifetimeExceedanceProbability),
+    comfortPrice: perHour(r.costPerAvoidedUnmetHour, answer.currency),
   }));
 }
 
@@ -154,7 +167,13 @@ const moneyNumber = (v: string | null) => (v === null ? null : Number(v));
  * Design temperature across; installed price and life-cycle cost on the left axis, unmet hours per
  * average year on the right; named rungs marked; the chosen point drawn as a vertical line.
  */
-export function tradeoffChart(answer: SweepAnswer, index: number, system: UnitSystem, compact: boolean): ChartOption {
+export function tradeoffChart(
+  answer: SweepAnswer,
+  index: number,
+  system: UnitSystem,
+  compact: boolean,
+  ruleIndex: number | null = null,
+): ChartOption {
   const x = (c: number) => temperatureForChart(c, system);
   const rows = answer.rows;
   const chosen = rows[index];
@@ -191,6 +210,7 @@ export function tradeoffChart(answer: SweepAnswer, index: number, system: UnitSy
                 },
               ]
             : []),
+          ...ruleMark(answer, ruleIndex, x, compact),
         ],
       },
     },
@@ -215,21 +235,34 @@ export function tradeoffChart(answer: SweepAnswer, index: number, system: UnitSy
       lineStyle: { color: COLD, width: 2 },
       itemStyle: { color: COLD },
     });
+    series.push(...unmetBandSeries(answer, x));
   }
   return {
     animation: false,
     textStyle: { fontFamily: FONT, color: TEXT },
     grid: { left: compact ? 58 : 80, right: answer.hasRecord ? (compact ? 44 : 64) : 16, top: compact ? 64 : 48, bottom: compact ? 44 : 52 },
-    legend: { top: 0, left: 'center', type: compact ? 'scroll' : 'plain', textStyle: { fontSize: compact ? 11 : 13 } },
+    legend: {
+      top: 0,
+      left: 'center',
+      type: compact ? 'scroll' : 'plain',
+      textStyle: { fontSize: compact ? 11 : 13 },
+      data: series.map((x) => String(x.name)).filter((n) => n !== BAND_BASE),
+    },
     tooltip: {
       trigger: 'axis',
       axisPointer: { type: 'line' },
       formatter: (params: unknown) => {
-        const list = Array.isArray(params) ? (params as { seriesName: string; value: [number, number | null] }[]) : [];
+        const list = Array.isArray(params) ? (params as { seriesName: string; dataIndex: number; value: [number, number | null] }[]) : [];
         const t = list[0]?.value[0];
-        const lines = list.map((p) =>
-          p.value[1] === null ? `${p.seriesName}: —` : `${p.seriesName}: ${p.seriesName.startsWith('Unmet') ? groupDigits(p.value[1], 1) : money(p.value[1])}`,
-        );
+        const lines = list
+          .filter((p) => p.seriesName !== BAND_BASE)
+          .map((p) => {
+            if (p.seriesName === BAND_NAME) {
+              const r = rows[p.dataIndex];
+              return `${BAND_NAME}: ${r ? hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90) : '—'}`;
+            }
+            return p.value[1] === null ? `${p.seriesName}: —` : `${p.seriesName}: ${p.seriesName.startsWith('Unmet') ? groupDigits(p.value[1], 1) : money(p.value[1])}`;
+          });
         return [`${t === undefined ? '' : groupDigits(t, 1)} ${tUnit}`, ...lines].join('<br>');
       },
     },
@@ -264,6 +297,60 @@ export function tradeoffChart(answer: SweepAnswer, index: number, system: UnitSy
     ],
     series,
   };
+}
+
+/** Legend name of the uncertainty band, and of its invisible lower edge. */
+export const BAND_NAME = 'Unmet h/yr, 10–90 % range';
+const BAND_BASE = 'band-base';
+
+/**
+ * The uncertainty band of the unmet hours per year: an invisible series at the 10th percentile with
+ * the 90th-minus-10th stacked on it as a shaded area (echarts' stacked-area idiom).
+ */
+function unmetBandSeries(answer: SweepAnswer, x: (c: number) => number): LineSeriesOption[] {
+  if (!answer.uncertainty) return [];
+  const rows = answer.rows;
+  return [
+    {
+      name: BAND_BASE,
+      type: 'line',
+      yAxisIndex: 1,
+      stack: 'unmet-band',
+      data: rows.map((r) => [x(r.designC), r.unmetHoursPerYearP10]),
+      showSymbol: false,
+      silent: true,
+      lineStyle: { opacity: 0 },
+      tooltip: { show: false },
+    },
+    {
+      name: BAND_NAME,
+      type: 'line',
+      yAxisIndex: 1,
+      stack: 'unmet-band',
+      data: rows.map((r) => [
+        x(r.designC),
+        r.unmetHoursPerYearP10 === null || r.unmetHoursPerYearP90 === null ? null : r.unmetHoursPerYearP90 - r.unmetHoursPerYearP10,
+      ]),
+      showSymbol: false,
+      silent: true,
+      lineStyle: { opacity: 0 },
+      areaStyle: { color: 'rgba(138, 95, 168, 0.22)' },
+      itemStyle: { color: 'rgba(138, 95, 168, 0.55)' },
+    },
+  ];
+}
+
+/** The design point the stated rule picks, as a dashed green line labelled "Rule". */
+function ruleMark(answer: SweepAnswer, ruleIndex: number | null, x: (c: number) => number, compact: boolean) {
+  const r = ruleIndex === null ? undefined : answer.rows[ruleIndex];
+  if (!r) return [];
+  return [
+    {
+      xAxis: x(r.designC),
+      lineStyle: { color: '#3E7B3A', type: 'dashed' as const, width: 2 },
+      label: { formatter: 'Rule', color: '#2F5F2C', fontSize: compact ? 10 : 12, position: 'end' as const, fontWeight: 'bold' as const },
+    },
+  ];
 }
 
 /** Capacity (W) of an option at an outdoor temperature, interpolated on its curve (held at the ends). */
@@ -376,7 +463,7 @@ export function tradeoffChartSummary(answer: SweepAnswer, system: UnitSystem): s
   const last = named.at(-1);
   if (!first || !last) return 'Trade-off chart';
   return (
-    `Installed price, life-cycle cost${answer.hasRecord ? ' and unmet hours per year' : ''} against the design temperature, ` +
+    `Installed price, life-cycle cost${answer.hasRecord ? ' and unmet hours per year' : ''}${answer.uncertainty ? ' with its 10–90 % range' : ''} against the design temperature, ` +
     `from ${formatQuantity('temperature', first.designC, system)} (${first.label}) to ${formatQuantity('temperature', last.designC, system)} (${last.label}). ` +
     'The ladder table below lists the same figures.'
   );
@@ -392,6 +479,12 @@ export interface ComparisonCell {
   installedPrice: string;
   lifeCycleCost: string;
   unmetHours: string;
+  /** "5–30 unmet h/yr (10–90 %)", null without a band. */
+  unmetRange: string | null;
+  /** "1-in-8 a year, 7-in-10 over its 20 years", null without odds. */
+  odds: string | null;
+  /** "$12.40 per cold hour avoided", null where not defined. */
+  comfort: string | null;
 }
 
 export interface ComparisonRow {
@@ -415,6 +508,15 @@ export function comparisonRows(sweeps: readonly (SweepAnswer | null)[], system: 
         installedPrice: money(r.installedPrice),
         lifeCycleCost: money(r.lifeCycleCost),
         unmetHours: r.unmetHoursPerYear === null ? '—' : groupDigits(r.unmetHoursPerYear, r.unmetHoursPerYear < 10 && r.unmetHoursPerYear > 0 ? 1 : 0),
+        unmetRange: r.unmetHoursPerYearP10 === null ? null : `${hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90)} unmet h/yr (10–90 %)`,
+        odds:
+          r.annualExceedanceProbability === null
+            ? null
+            : `${oneIn(r.annualExceedanceProbability)} a year` +
+              (r.lifetimeExceedanceProbability === null || r.lifetimeYears === null
+                ? ''
+                : `, ${oneIn(r.lifetimeExceedanceProbability)} over ${Math.round(r.lifetimeYears)} years`),
+        comfort: r.costPerAvoidedUnmetHour === null ? null : `${perHour(r.costPerAvoidedUnmetHour, s.currency)} per cold hour avoided`,
       };
     }),
   }));

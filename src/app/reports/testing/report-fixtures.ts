@@ -25,6 +25,7 @@ export function aReportView(fields: Partial<ReportView> = {}): ReportView {
           { key: 'unmetHours', label: 'Hours it falls behind, average year', text: 'about 12' },
         ],
         sentence: 'Sizing for −17.0 °C (99 %) instead of −32.0 °C (50-year) installs Furnace 9 kW instead of Furnace 12 kW.',
+        odds: [],
       },
       {
         heading: 'Sized for the 50-year design temperature (−32.0 °C)',
@@ -38,14 +39,15 @@ export function aReportView(fields: Partial<ReportView> = {}): ReportView {
           { key: 'unmetHours', label: 'Hours it falls behind, average year', text: 'none' },
         ],
         sentence: 'Sizing for −32.0 °C (50-year), the coldest point of the ladder, installs Furnace 12 kW.',
+        odds: [],
       },
     ],
     chart: {
       temperatureUnit: '°C',
       currency: 'USD',
       rows: [
-        { t: -17, lifeCycleCost: 14400, unmetHours: 12 },
-        { t: -32, lifeCycleCost: 15000, unmetHours: 0 },
+        { t: -17, lifeCycleCost: 14400, unmetHours: 12, unmetLow: 6, unmetHigh: 21 },
+        { t: -32, lifeCycleCost: 15000, unmetHours: 0, unmetLow: 0, unmetHigh: 0 },
       ],
       points: [
         { t: -17, label: '99 %' },

@@ -70,6 +70,15 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
                         <span>{{ cell.installedPrice }} installed</span>
                         <span>{{ cell.lifeCycleCost }} life-cycle</span>
                         <span>{{ cell.unmetHours }} unmet h/yr</span>
+                        @if (cell.unmetRange) {
+                          <span class="range" data-testid="compare-range">{{ cell.unmetRange }}</span>
+                        }
+                        @if (cell.odds) {
+                          <span class="odds" data-testid="compare-odds">Colder night: {{ cell.odds }}</span>
+                        }
+                        @if (cell.comfort) {
+                          <span>{{ cell.comfort }}</span>
+                        }
                       } @else {
                         —
                       }

@@ -21,6 +21,7 @@ import { MatSelectModule } from '@angular/material/select';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { EnergyPrices, GasPriceUnit } from '@shared/money/energy-prices';
 import { EXTRA_DESIGN_TEMPERATURES_MAX, type Scenario, type ScenarioSettings } from '@shared/scenarios/scenario-schemas';
+import { MAX_DRAWS } from '@shared/sweep/tolerances';
 import { fromSi, toSi, unitLabel } from '@shared/units/units';
 import { applyApiErrors, fieldError, saveFailure } from '../../core/api-errors';
 import { EquipmentApi } from '../../equipment/equipment-api';
@@ -95,6 +96,13 @@ export class ScenarioSettingsPanel {
     gasPrice: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
     oilPerLitre: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
     propanePerLitre: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
+    uaPct: this.fb.control(10, [Validators.required, Validators.min(0), Validators.max(90)]),
+    airLeakagePct: this.fb.control(25, [Validators.required, Validators.min(0), Validators.max(90)]),
+    pricesPct: this.fb.control(15, [Validators.required, Validators.min(0), Validators.max(90)]),
+    draws: this.fb.control(300, [Validators.required, Validators.min(0), Validators.max(MAX_DRAWS), Validators.pattern(/^\d+$/)]),
+    seed: this.fb.control(1, [Validators.required, Validators.min(0), Validators.max(4_294_967_295), Validators.pattern(/^\d+$/)]),
+    ruleMaxWorstHours: this.fb.control<number | null>(null, [Validators.min(0), Validators.max(8784)]),
+    ruleMaxOddsPct: this.fb.control<number | null>(null, [Validators.min(0), Validators.max(100)]),
   });
   protected readonly chosenLabels = signal<ReadonlySet<string>>(new Set());
   protected readonly listOptions = signal<string[]>([]);
@@ -103,6 +111,7 @@ export class ScenarioSettingsPanel {
   protected readonly stale = signal(false);
   protected readonly temperatureUnit = computed(() => unitLabel('temperature', this.unitSystem()));
   protected readonly extraMax = EXTRA_DESIGN_TEMPERATURES_MAX;
+  protected readonly maxDraws = MAX_DRAWS;
   protected readonly fieldError = fieldError;
   private current: Scenario | null = null;
 
@@ -140,6 +149,13 @@ export class ScenarioSettingsPanel {
       gasPrice: st.prices?.gas?.price ?? '',
       oilPerLitre: st.prices?.oilPerLitre ?? '',
       propanePerLitre: st.prices?.propanePerLitre ?? '',
+      uaPct: st.tolerances.uaPct,
+      airLeakagePct: st.tolerances.airLeakagePct,
+      pricesPct: st.tolerances.pricesPct,
+      draws: st.uncertainty.draws,
+      seed: st.uncertainty.seed,
+      ruleMaxWorstHours: st.rule?.maxUnmetHoursWorstYear ?? null,
+      ruleMaxOddsPct: st.rule?.maxLifetimeOddsPct ?? null,
     }, { emitEvent: false });
     void this.loadOptions(s.equipmentListId, st.optionLabels);
   }
@@ -218,6 +234,12 @@ export class ScenarioSettingsPanel {
       prices,
       optionLabels: v.wholeList ? null : labels,
       climateBasisYears: v.climateBasisYears.trim() === '' ? null : Number(v.climateBasisYears),
+      tolerances: { uaPct: v.uaPct, airLeakagePct: v.airLeakagePct, pricesPct: v.pricesPct },
+      uncertainty: { draws: v.draws, seed: v.seed },
+      rule:
+        v.ruleMaxWorstHours === null && v.ruleMaxOddsPct === null
+          ? null
+          : { maxUnmetHoursWorstYear: v.ruleMaxWorstHours, maxLifetimeOddsPct: v.ruleMaxOddsPct },
     };
   }
 

@@ -25,6 +25,9 @@ export function aScenario(fields: Partial<Scenario> = {}): Scenario {
       prices: null,
       optionLabels: null,
       climateBasisYears: null,
+      tolerances: { uaPct: 10, airLeakagePct: 25, pricesPct: 15 },
+      uncertainty: { draws: 300, seed: 1 },
+      rule: null,
     },
     frozenAt: null,
     frozenFromId: null,
@@ -61,6 +64,19 @@ function row(fields: Partial<SweepRowAnswer> & Pick<SweepRowAnswer, 'label' | 'd
     unavailableReason: null,
     costUnavailableReason: null,
     reliabilityNote: null,
+    annualExceedanceProbability: null,
+    recordExceedanceShare: null,
+    lifetimeExceedanceProbability: null,
+    lifetimeYears: null,
+    costPerAvoidedUnmetHour: null,
+    costPerAvoidedWorstYearHour: null,
+    unmetHoursPerYearP10: null,
+    unmetHoursPerYearP90: null,
+    unmetHoursWorstYearP10: null,
+    unmetHoursWorstYearP90: null,
+    lifeCycleCostP10: null,
+    lifeCycleCostP90: null,
+    selectionChangeShare: null,
     ...fields,
   };
 }
@@ -109,6 +125,8 @@ export function aSweepAnswer(fields: Partial<SweepAnswer> = {}): SweepAnswer {
       ],
     },
     notes: [],
+    odds: null,
+    uncertainty: null,
     ...fields,
   };
 }

@@ -18,6 +18,8 @@ import { firstValueFrom, map } from 'rxjs';
 import type { FieldIssue } from '@shared/api/api-error';
 import { SCENARIO_NAME_MAX, type Scenario, type SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { formatMoney } from '@shared/money/money';
+import { applyDesignRule } from '@shared/sweep/design-rule';
+import { bandSentence, comfortSentence, oddsBasisSentence, oddsSentence, type OddsContext } from '@shared/sweep/odds-words';
 import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';
@@ -109,9 +111,32 @@ export class TradeoffPage {
     const s = this.sweep();
     return s ? sentenceFor(s, this.index(), this.unitSystem()) : '';
   });
+  private readonly oddsContext = computed((): OddsContext | null => {
+    const s = this.sweep();
+    return s ? { rows: s.rows, currency: s.currency, unitSystem: this.unitSystem(), odds: s.odds, uncertainty: s.uncertainty } : null;
+  });
+  protected readonly oddsText = computed(() => {
+    const ctx = this.oddsContext();
+    return ctx ? oddsSentence(this.index(), ctx) : '';
+  });
+  protected readonly oddsBasis = computed(() => oddsBasisSentence(this.sweep()?.odds ?? null));
+  protected readonly comfortText = computed(() => {
+    const ctx = this.oddsContext();
+    return ctx ? comfortSentence(this.index(), ctx) : '';
+  });
+  protected readonly bandText = computed(() => {
+    const ctx = this.oddsContext();
+    return ctx ? bandSentence(this.index(), ctx) : '';
+  });
+  /** The design point the scenario's stated rule picks, and why (null: no rule stated). */
+  protected readonly rulePick = computed(() => {
+    const rule = this.scenario()?.settings.rule ?? null;
+    const s = this.sweep();
+    return rule && s ? applyDesignRule(s.rows, rule) : null;
+  });
   protected readonly chartOptions = computed(() => {
     const s = this.sweep();
-    return s ? tradeoffChart(s, this.index(), this.unitSystem(), this.compact()) : null;
+    return s ? tradeoffChart(s, this.index(), this.unitSystem(), this.compact(), this.rulePick()?.index ?? null) : null;
   });
   protected readonly chartSummary = computed(() => {
     const s = this.sweep();
@@ -206,6 +231,11 @@ export class TradeoffPage {
   protected settingsSaved(s: Scenario): void {
     this.scenario.set(s);
     void this.runSweep();
+  }
+
+  protected selectRulePick(): void {
+    const i = this.rulePick()?.index;
+    if (typeof i === 'number') this.select(i);
   }
 
   protected select(index: number): void {
