@@ -1,5 +1,5 @@
 /**
- * What the trade-off screen shows of a sweep answer, in the user's units: ladder rows as text, the
+ * What the trade-off screen shows of a sweep answer, in the user's units: design temperatures as text, the
  * chosen point's figures and sentence, and the chart options. Pure functions, tested on their own.
  */
 import type { LineSeriesOption, BarSeriesOption } from 'echarts/charts';
@@ -11,12 +11,12 @@ import type {
 } from 'echarts/components';
 import type { ComposeOption } from 'echarts/core';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { formatMoney } from '@shared/money/money';
+import { designValueTag, term } from '@shared/glossary/glossary';
+import { formatMoneyWhole } from '@shared/money/money';
 import type { SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
-import { tradeoffSentence } from '@shared/sweep/tradeoff-summary';
+import { defaultRowIndex, lowestIndoorC, nearestRowIndex, tradeoffSentence } from '@shared/sweep/tradeoff-summary';
 import { formatQuantity, unitLabel } from '@shared/units/units';
-import { formatPower, groupDigits, powerInChartUnit, temperatureForChart } from '../building/building-units';
-import { unitLabel as powerUnitLabel } from '@shared/building/quantities';
+import { formatPower, groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building/building-units';
 
 export type ChartOption = ComposeOption<
   LineSeriesOption | BarSeriesOption | GridComponentOption | TooltipComponentOption | LegendComponentOption | MarkLineComponentOption
@@ -29,9 +29,11 @@ export const TEXT = '#2A3A40';
 const FONT = '"Source Sans 3", system-ui, sans-serif';
 const SPLIT = { lineStyle: { color: '#E3E8E6' } };
 
-export interface LadderRowText {
+export interface DesignRowText {
   index: number;
   label: string;
+  /** The short tag of a named design value ("99 %", "Annual min.", "50-yr"). */
+  tag: string;
   isGrid: boolean;
   temperature: string;
   designLoad: string;
@@ -44,23 +46,25 @@ export interface LadderRowText {
   unmetHours: string;
   unmetWorst: string;
   degreeHours: string;
-  sag: string;
+  lowestIndoor: string;
 }
-
-const hours = (h: number | null) => (h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h));
 
 export function optionLabelOf(answer: SweepAnswer): (id: string) => string {
   const labels = new Map(answer.options.map((o) => [o.id, o.label]));
   return (id) => labels.get(id) ?? `Option ${id}`;
 }
 
-/** The ladder as the table shows it. */
-export function ladderRows(answer: SweepAnswer, system: UnitSystem): LadderRowText[] {
+/** Unmet hours in one format everywhere: one decimal below 10, whole hours from 10 up. */
+export const hours = (h: number | null): string => (h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h));
+
+/** The design temperatures as the table shows them (money to whole units: a summary). */
+export function designRows(answer: SweepAnswer, system: UnitSystem): DesignRowText[] {
   const label = optionLabelOf(answer);
-  const money = (v: string | null) => (v === null ? '—' : formatMoney(v, answer.currency));
+  const money = (v: string | null) => (v === null ? '—' : formatMoneyWhole(v, answer.currency));
   return answer.rows.map((r, index) => ({
     index,
     label: r.label,
+    tag: designValueTag(r.label),
     isGrid: r.isGrid,
     temperature: formatQuantity('temperature', r.designC, system),
     designLoad: formatPower(r.designLoadW, system),
@@ -72,17 +76,12 @@ export function ladderRows(answer: SweepAnswer, system: UnitSystem): LadderRowTe
     runHours: hours(r.runHoursPerYear),
     unmetHours: hours(r.unmetHoursPerYear),
     unmetWorst: hours(r.unmetHoursWorstYear),
-    degreeHours: r.unmetDegreeHoursPerYear === null ? '—' : formatQuantity('temperatureDifference', r.unmetDegreeHoursPerYear, system).replace(/ (K|°F)$/, ' $1·h'),
-    sag: r.worstSagC === null ? '—' : formatQuantity('temperatureDifference', r.worstSagC, system),
+    degreeHours: formatQuantity('degreeHours', r.unmetDegreeHoursPerYear, system),
+    lowestIndoor: formatQuantity('temperature', lowestIndoorC(r, answer.indoorDesignC), system),
   }));
 }
 
-/** The row shown first: the 99.6 % rung, or the first named one. */
-export function defaultIndex(rows: readonly SweepRowAnswer[]): number {
-  const i = rows.findIndex((r) => r.label === '99.6 %');
-  if (i >= 0) return i;
-  return Math.max(0, rows.findIndex((r) => !r.isGrid));
-}
+export { defaultRowIndex as defaultIndex, nearestRowIndex as nearestIndex };
 
 /** The plain sentence for the chosen row. */
 export function sentenceFor(answer: SweepAnswer, index: number, system: UnitSystem): string {
@@ -95,40 +94,27 @@ export function sentenceFor(answer: SweepAnswer, index: number, system: UnitSyst
     unitSystem: system,
     hasRecord: answer.hasRecord,
     years: answer.years.length,
+    indoorC: answer.indoorDesignC,
   });
-}
-
-/** The row nearest to a design temperature (°C). */
-export function nearestIndex(rows: readonly SweepRowAnswer[], designC: number): number {
-  let best = 0;
-  let bestD = Infinity;
-  rows.forEach((r, i) => {
-    const d = Math.abs(r.designC - designC);
-    if (d < bestD || (d === bestD && !r.isGrid)) {
-      best = i;
-      bestD = d;
-    }
-  });
-  return best;
 }
 
 const moneyNumber = (v: string | null) => (v === null ? null : Number(v));
 
 /**
  * Design temperature across; installed price and life-cycle cost on the left axis, unmet hours per
- * average year on the right; named rungs marked; the chosen point drawn as a vertical line.
+ * average year on the right (money from zero); named values marked; the chosen point drawn as a vertical line.
  */
 export function tradeoffChart(answer: SweepAnswer, index: number, system: UnitSystem, compact: boolean): ChartOption {
   const x = (c: number) => temperatureForChart(c, system);
   const rows = answer.rows;
   const chosen = rows[index];
   const tUnit = unitLabel('temperature', system);
-  const money = (v: number) => formatMoney(v.toFixed(2), answer.currency).replace(/\.00$/, '');
+  const money = (v: number) => formatMoneyWhole(v.toFixed(2), answer.currency);
   const named = rows.filter((r) => !r.isGrid);
   const xs = rows.map((r) => x(r.designC));
   const series: (LineSeriesOption | BarSeriesOption)[] = [
     {
-      name: 'Installed price',
+      name: term('installedPrice'),
       type: 'line',
       step: 'middle',
       yAxisIndex: 0,
@@ -144,7 +130,7 @@ export function tradeoffChart(answer: SweepAnswer, index: number, system: UnitSy
           ...named.map((r) => ({
             xAxis: x(r.designC),
             lineStyle: { color: '#9AA7AB', type: 'dotted' as const, width: 1 },
-            label: { formatter: r.label, color: TEXT, fontSize: compact ? 9 : 11, position: 'insideEndTop' as const, rotate: 90 },
+            label: { formatter: designValueTag(r.label), color: TEXT, fontSize: compact ? 9 : 11, position: 'insideEndTop' as const, rotate: 90 },
           })),
           ...(chosen
             ? [
@@ -159,7 +145,7 @@ export function tradeoffChart(answer: SweepAnswer, index: number, system: UnitSy
       },
     },
     {
-      name: 'Life-cycle cost',
+      name: term('lifeCycleCost'),
       type: 'line',
       yAxisIndex: 0,
       data: rows.map((r) => [x(r.designC), moneyNumber(r.lifeCycleCost)]),
@@ -170,7 +156,7 @@ export function tradeoffChart(answer: SweepAnswer, index: number, system: UnitSy
   ];
   if (answer.hasRecord) {
     series.push({
-      name: 'Unmet hours per year',
+      name: term('unmetHours'),
       type: 'line',
       yAxisIndex: 1,
       data: rows.map((r) => [x(r.designC), r.unmetHoursPerYear]),
@@ -213,13 +199,13 @@ export function tradeoffChart(answer: SweepAnswer, index: number, system: UnitSy
         type: 'value',
         name: `Cost (${answer.currency})`,
         nameTextStyle: { align: 'left' },
-        scale: true,
+        min: 0,
         axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v) },
         splitLine: SPLIT,
       },
       {
         type: 'value',
-        name: answer.hasRecord ? 'Unmet h/yr' : '',
+        name: answer.hasRecord ? 'Unmet hours / yr' : '',
         min: 0,
         show: answer.hasRecord,
         axisLabel: { fontSize: compact ? 10 : 12 },
@@ -250,8 +236,8 @@ export function capacityAtC(curve: readonly { outdoorC: number; capacityW: numbe
 export function loadDurationChart(answer: SweepAnswer, index: number, system: UnitSystem, compact: boolean): ChartOption | null {
   const points = answer.loadDuration?.points;
   if (!points || points.length === 0) return null;
-  const unit = powerUnitLabel('power', system);
-  const y = (w: number) => Math.round(powerInChartUnit(w, system));
+  const unit = powerChartUnit(system);
+  const y = (w: number) => Math.round(powerInChartUnit(w, system) * 100) / 100;
   const row = answer.rows[index];
   const option = row?.selectedOptionId ? answer.options.find((o) => o.id === row.selectedOptionId) : undefined;
   const series: LineSeriesOption[] = [
@@ -280,7 +266,7 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
     textStyle: { fontFamily: FONT, color: TEXT },
     grid: { left: compact ? 58 : 80, right: 16, top: compact ? 56 : 40, bottom: compact ? 44 : 52 },
     legend: { top: 0, left: 'center', type: compact ? 'scroll' : 'plain', textStyle: { fontSize: compact ? 11 : 13 } },
-    tooltip: { trigger: 'axis', valueFormatter: (v) => `${groupDigits(Number(v))} ${unit}` },
+    tooltip: { trigger: 'axis', valueFormatter: (v) => `${groupDigits(Number(v), 1)} ${unit}` },
     xAxis: {
       type: 'log',
       min: 1,
@@ -290,7 +276,7 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
       axisLabel: { fontSize: compact ? 10 : 12 },
       splitLine: SPLIT,
     },
-    yAxis: { type: 'value', name: `Load (${unit})`, axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT },
+    yAxis: { type: 'value', name: `Load (${unit})`, axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) }, splitLine: SPLIT },
     series,
   };
 }
@@ -303,8 +289,8 @@ export function tradeoffChartSummary(answer: SweepAnswer, system: UnitSystem): s
   if (!first || !last) return 'Trade-off chart';
   return (
     `Installed price, life-cycle cost${answer.hasRecord ? ' and unmet hours per year' : ''} against the design temperature, ` +
-    `from ${formatQuantity('temperature', first.designC, system)} (${first.label}) to ${formatQuantity('temperature', last.designC, system)} (${last.label}). ` +
-    'The ladder table below lists the same figures.'
+    `from ${formatQuantity('temperature', first.designC, system)} (${designValueTag(first.label)}) to ${formatQuantity('temperature', last.designC, system)} (${designValueTag(last.label)}). ` +
+    'The table of design temperatures below lists the same figures.'
   );
 }
 

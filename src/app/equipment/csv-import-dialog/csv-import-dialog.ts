@@ -9,7 +9,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
 import type { FieldIssue } from '@shared/api/api-error';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { unitLabel } from '@shared/building/quantities';
+import { unitLabel } from '@shared/units/units';
 import { EQUIPMENT_CSV_MAX_CHARS } from '@shared/equipment/equipment-list-schemas';
 import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { formatMoney } from '@shared/money/money';

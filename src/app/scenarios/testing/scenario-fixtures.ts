@@ -17,6 +17,8 @@ export function aScenario(fields: Partial<Scenario> = {}): Scenario {
     settings: { extraDesignC: [], discountRatePct: 3, safetyFactorPct: null, prices: null, optionLabels: null },
     frozenAt: null,
     frozenFromId: null,
+    chosenDesignC: null,
+    chosenPoint: null,
     version: 1,
     updatedByName: 'Sam Reed',
     createdAt: '2026-11-30T09:00:00.000Z',
