@@ -11,11 +11,12 @@ import type {
 } from 'echarts/components';
 import type { ComposeOption } from 'echarts/core';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { designValueTag, term } from '@shared/glossary/glossary';
-import { formatMoneyWhole } from '@shared/money/money';
+import { designValueName, designValueTag, explain, term, type TermKey } from '@shared/glossary/glossary';
+import type { EnergyPrices } from '@shared/money/energy-prices';
+import { formatMoneyWhole, parseMoney } from '@shared/money/money';
 import type { SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
-import { defaultRowIndex, lowestIndoorC, nearestRowIndex, tradeoffSentence } from '@shared/sweep/tradeoff-summary';
-import { formatQuantity, unitLabel } from '@shared/units/units';
+import { chosenRowIndex, defaultRowIndex, lowestIndoorC, nearestRowIndex, tradeoffSentence } from '@shared/sweep/tradeoff-summary';
+import { convertUnits, formatQuantity, unitLabel } from '@shared/units/units';
 import { formatPower, groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building/building-units';
 
 export type ChartOption = ComposeOption<
@@ -298,38 +299,137 @@ export { formatPower };
 
 const SCENARIO_COLOURS = [EMBER, INK, '#6F8F3A', '#8A5FA8', '#B8860B'];
 
-export interface ComparisonCell {
-  temperature: string;
-  unit: string;
-  installedPrice: string;
-  lifeCycleCost: string;
-  unmetHours: string;
+/** Which design point the comparison lines up: each scenario's chosen one, or a named design value. */
+export type ComparePoint = 'chosen' | string;
+
+export interface ComparisonColumn {
+  scenarioId: string;
+  name: string;
+  frozen: boolean;
+  /** The row compared (null: no sweep, or the scenario lacks that named value). */
+  row: SweepRowAnswer | null;
+  currency: string;
 }
 
-export interface ComparisonRow {
-  label: string;
-  cells: (ComparisonCell | null)[];
+export interface ComparisonFigureRow {
+  key: TermKey | 'prices';
+  name: string;
+  explain: string;
+  cells: string[];
 }
 
-/** The named rungs of each compared sweep side by side (a rung a scenario lacks is null in its column). */
-export function comparisonRows(sweeps: readonly (SweepAnswer | null)[], system: UnitSystem): ComparisonRow[] {
-  const labels: string[] = [];
-  for (const s of sweeps) for (const r of s?.rows ?? []) if (!r.isGrid && !labels.includes(r.label)) labels.push(r.label);
-  return labels.map((label) => ({
-    label,
-    cells: sweeps.map((s) => {
-      const r = s?.rows.find((x) => !x.isGrid && x.label === label);
-      if (!s || !r) return null;
-      const money = (v: string | null) => (v === null ? '—' : formatMoney(v, s.currency));
-      return {
-        temperature: formatQuantity('temperature', r.designC, system),
-        unit: r.selectedOptionId ? optionLabelOf(s)(r.selectedOptionId) : 'None large enough',
-        installedPrice: money(r.installedPrice),
-        lifeCycleCost: money(r.lifeCycleCost),
-        unmetHours: r.unmetHoursPerYear === null ? '—' : groupDigits(r.unmetHoursPerYear, r.unmetHoursPerYear < 10 && r.unmetHoursPerYear > 0 ? 1 : 0),
-      };
+export interface ComparisonTable {
+  columns: ComparisonColumn[];
+  rows: ComparisonFigureRow[];
+}
+
+export interface CompareEntry {
+  scenario: { id: string; name: string; frozenAt: string | null; chosenDesignC: number | null };
+  sweep: SweepAnswer | null;
+  prices: EnergyPrices | null;
+}
+
+/** The named design values of the compared sweeps, mildest first (the choices of the comparison's point). */
+export function comparePointChoices(entries: readonly CompareEntry[]): { value: ComparePoint; text: string }[] {
+  const labels: { label: string; designC: number }[] = [];
+  for (const e of entries) for (const r of e.sweep?.rows ?? []) if (!r.isGrid && !labels.some((l) => l.label === r.label)) labels.push({ label: r.label, designC: r.designC });
+  labels.sort((a, b) => b.designC - a.designC);
+  return [{ value: 'chosen', text: 'The point chosen in each scenario' }, ...labels.map((l) => ({ value: l.label, text: designValueName(l.label) }))];
+}
+
+/** Energy prices as an estimator reads them; oil and propane per US gallon in IP (1 gal = 3.785411784 L, exact). */
+export function pricesText(p: EnergyPrices | null, system: UnitSystem): string {
+  if (!p) return '—';
+  const unitPrice = new Intl.NumberFormat('en-US', { style: 'currency', currency: p.currency, minimumFractionDigits: 2, maximumFractionDigits: 4 });
+  const m = (v: string, unit: string) => `${unitPrice.format(parseMoney(v).toFixed(4) as `${number}`)}/${unit}`;
+  const perVolume = (perLitre: string) => (system === 'IP' ? m(parseMoney(perLitre).times(convertUnits(1, 'gal', 'L')).toFixed(6), 'gal') : m(perLitre, 'L'));
+  const parts = [`electricity ${m(p.electricityPerKwh, 'kWh')}`];
+  if (p.gas) parts.push(`gas ${m(p.gas.price, p.gas.unit === 'm3' ? 'm³' : p.gas.unit)}`);
+  if (p.oilPerLitre) parts.push(`oil ${perVolume(p.oilPerLitre)}`);
+  if (p.propanePerLitre) parts.push(`propane ${perVolume(p.propanePerLitre)}`);
+  return parts.join(' · ');
+}
+
+/**
+ * The estimator's comparison: one column per scenario at the chosen design point (or a named
+ * value), with the figures a bid needs, named and explained from the glossary; money to whole units.
+ */
+export function comparisonTable(entries: readonly CompareEntry[], point: ComparePoint, system: UnitSystem): ComparisonTable {
+  const columns: ComparisonColumn[] = entries.map((e) => {
+    const rows = e.sweep?.rows ?? [];
+    const row = point === 'chosen' ? (rows[chosenRowIndex(rows, e.scenario.chosenDesignC)] ?? null) : (rows.find((r) => !r.isGrid && r.label === point) ?? null);
+    return { scenarioId: e.scenario.id, name: e.scenario.name, frozen: e.scenario.frozenAt !== null, row, currency: e.sweep?.currency ?? '' };
+  });
+  const cell = (k: number, f: (r: SweepRowAnswer, a: SweepAnswer, e: CompareEntry) => string) => {
+    const e = entries[k];
+    const r = columns[k]?.row;
+    return e?.sweep && r ? f(r, e.sweep, e) : '—';
+  };
+  const money = (v: string | null, a: SweepAnswer) => (v === null ? '—' : formatMoneyWhole(v, a.currency));
+  const option = (r: SweepRowAnswer, a: SweepAnswer) => (r.selectedOptionId ? a.options.find((o) => o.id === r.selectedOptionId) : undefined);
+  const figure = (key: TermKey, f: (r: SweepRowAnswer, a: SweepAnswer, e: CompareEntry) => string): ComparisonFigureRow => ({
+    key,
+    name: term(key),
+    explain: explain(key),
+    cells: entries.map((_, k) => cell(k, f)),
+  });
+  const rows: ComparisonFigureRow[] = [
+    figure('designTemperature', (r) => `${formatQuantity('temperature', r.designC, system)}${r.isGrid ? '' : ` (${designValueTag(r.label)})`}`),
+    figure('designLoad', (r) => formatPower(r.designLoadW, system)),
+    figure('unit', (r, a) => option(r, a)?.label ?? 'None large enough'),
+    figure('capacityAtDesign', (r) => (r.capacityAtDesignW === null ? '—' : formatPower(r.capacityAtDesignW, system))),
+    figure('installedPrice', (r, a) => money(r.installedPrice, a)),
+    figure('annualCost', (r, a) => money(r.annualCost, a)),
+    figure('equipmentLife', (r, a) => {
+      const o = option(r, a);
+      return o ? `${o.lifeYears} years` : '—';
     }),
-  }));
+    figure('lifeCycleCost', (r, a) => {
+      const o = option(r, a);
+      return r.lifeCycleCost === null ? '—' : `${money(r.lifeCycleCost, a)}${o ? ` over ${o.lifeYears} years` : ''}`;
+    }),
+    figure('unmetHours', (r) => hours(r.unmetHoursPerYear)),
+    figure('unmetHoursWorstYear', (r) => hours(r.unmetHoursWorstYear)),
+    figure('lowestIndoor', (r, a) => formatQuantity('temperature', lowestIndoorC(r, a.indoorDesignC), system)),
+    figure('discountRate', (_r, a) => `${a.discountRatePct} %`),
+    { key: 'prices', name: 'Energy prices', explain: 'The prices the scenario was swept with: its own, or the organisation’s.', cells: entries.map((e) => pricesText(e.prices, system)) },
+  ];
+  return { columns, rows };
+}
+
+/** The difference of each scenario from the baseline column, for the money figures and the unmet hours. */
+export function differenceRows(table: ComparisonTable, baseline: number): ComparisonFigureRow[] {
+  const base = table.columns[baseline]?.row;
+  const diffMoney = (pick: (r: SweepRowAnswer) => string | null, currency: string, k: number) => {
+    const r = table.columns[k]?.row;
+    const a = r ? pick(r) : null;
+    const b = base ? pick(base) : null;
+    if (k === baseline) return 'baseline';
+    if (a === null || b === null) return '—';
+    const d = parseMoney(a).minus(parseMoney(b));
+    if (d.isZero()) return 'same';
+    return `${d.gt(0) ? '+' : '−'}${formatMoneyWhole(d.abs().toString(), currency)}`;
+  };
+  const diffHours = (k: number) => {
+    const r = table.columns[k]?.row;
+    if (k === baseline) return 'baseline';
+    if (r?.unmetHoursPerYear == null || base?.unmetHoursPerYear == null) return '—';
+    const d = r.unmetHoursPerYear - base.unmetHoursPerYear;
+    if (Math.abs(d) < 0.05) return 'same';
+    return `${d > 0 ? '+' : '−'}${hours(Math.abs(d))} h`;
+  };
+  const money = (key: TermKey, pick: (r: SweepRowAnswer) => string | null): ComparisonFigureRow => ({
+    key,
+    name: `${term(key)}, difference`,
+    explain: `${explain(key)} Shown against the baseline scenario.`,
+    cells: table.columns.map((c, k) => diffMoney(pick, c.currency, k)),
+  });
+  return [
+    money('installedPrice', (r) => r.installedPrice),
+    money('annualCost', (r) => r.annualCost),
+    money('lifeCycleCost', (r) => r.lifeCycleCost),
+    { key: 'unmetHours', name: `${term('unmetHours')}, difference`, explain: `${explain('unmetHours')} Shown against the baseline scenario.`, cells: table.columns.map((_, k) => diffHours(k)) },
+  ];
 }
 
 /** One chart of the compared scenarios: life-cycle cost (solid) and unmet hours per year (dotted) against the design temperature. */
@@ -351,7 +451,7 @@ export function comparisonChart(entries: readonly { name: string; sweep: SweepAn
     });
     if (e.sweep.hasRecord) {
       series.push({
-        name: `${e.name}: unmet h/yr`,
+        name: `${e.name}: unmet hours / yr`,
         type: 'line',
         yAxisIndex: 1,
         data: e.sweep.rows.map((r) => [x(r.designC), r.unmetHoursPerYear]),
@@ -380,8 +480,8 @@ export function comparisonChart(entries: readonly { name: string; sweep: SweepAn
       splitLine: SPLIT,
     },
     yAxis: [
-      { type: 'value', name: `Life-cycle cost (${currency})`, scale: true, axisLabel: { formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT },
-      { type: 'value', name: 'Unmet h/yr', min: 0, splitLine: { show: false } },
+      { type: 'value', name: `Life-cycle cost (${currency})`, min: 0, axisLabel: { formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT },
+      { type: 'value', name: 'Unmet hours / yr', min: 0, splitLine: { show: false } },
     ],
     series,
   };
