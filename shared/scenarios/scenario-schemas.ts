@@ -37,9 +37,9 @@ export const scenarioSettingsSchema = z.strictObject({
     .default(DEFAULT_DISCOUNT_RATE_PCT),
   /** Sizing margin over the design load, %; null uses the building's own safety factor. */
   safetyFactorPct: z
-    .number({ error: 'Enter the safety factor as a number (%)' })
-    .min(0, 'The safety factor cannot be negative')
-    .max(100, 'The safety factor must be at most 100 %')
+    .number({ error: 'Enter the sizing margin as a number (%)' })
+    .min(0, 'The sizing margin cannot be negative')
+    .max(100, 'The sizing margin must be at most 100 %')
     .nullable()
     .default(null),
   /** Energy prices for this scenario; null uses the organisation's prices. */

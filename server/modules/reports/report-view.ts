@@ -157,7 +157,7 @@ export function buildReportView(src: ReportSource): ReportView {
       temperatureUnit: tUnit,
       currency: a.currency,
       rows: a.rows.map((r) => ({ t: chartT(r.designC), lifeCycleCost: r.lifeCycleCost === null ? null : Number(r.lifeCycleCost), unmetHours: r.unmetHoursPerYear })),
-      points: options.map((o, k) => ({ t: chartT(o.designC), label: `${letters[k] ?? String(k + 1)}` })),
+      points: options.map((o, k) => ({ t: chartT(o.designC), label: letters[k] ?? String(k + 1) })),
     },
     cautionsTitle: HOMEOWNER_CAUTIONS_TITLE,
     cautions: [...HOMEOWNER_CAUTIONS],

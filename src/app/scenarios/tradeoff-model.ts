@@ -299,8 +299,8 @@ export { formatPower };
 
 const SCENARIO_COLOURS = [EMBER, INK, '#6F8F3A', '#8A5FA8', '#B8860B'];
 
-/** Which design point the comparison lines up: each scenario's chosen one, or a named design value. */
-export type ComparePoint = 'chosen' | string;
+/** Which design point the comparison lines up: 'chosen' (each scenario's own), or a named design value's label. */
+export type ComparePoint = string;
 
 export interface ComparisonColumn {
   scenarioId: string;

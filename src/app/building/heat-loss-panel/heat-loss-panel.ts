@@ -183,7 +183,7 @@ export class HeatLossPanel {
     ];
     if (m.designCurve) {
       series.push({
-        name: 'With safety factor',
+        name: 'With sizing margin',
         type: 'line',
         data: pts(m.designCurve),
         showSymbol: false,

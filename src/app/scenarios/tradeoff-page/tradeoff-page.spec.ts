@@ -83,6 +83,11 @@ describe('TradeoffPage', () => {
     expect(patch.request.body).toEqual({ version: 1, chosenDesignC: -32 });
     patch.flush(aScenario({ chosenDesignC: -32, version: 2 }));
     await settle();
+    fixture.detectChanges();
+    // The settings panel reads its lists again for the newer version; nothing is swept again.
+    flushSettingsLoads();
+    await settle();
+    expect(http.match({ method: 'POST', url: `${URL}/sweep` }).length).toBe(0);
     http.verify();
   });
 
