@@ -228,5 +228,5 @@ export function designValueExplain(label: string): string {
 
 /** The step between the named design temperatures, in the reader's units ("every 0.5 °C", "every 0.9 °F"). */
 export function gridStepText(stepK: number, system: UnitSystem): string {
-  return `Every ${formatQuantity('temperatureDifference', stepK, system)}`;
+  return `Show every ${formatQuantity('temperatureDifference', stepK, system)} step`;
 }
