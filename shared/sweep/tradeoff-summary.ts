@@ -6,7 +6,7 @@
 import type { UnitSystem } from '../auth/auth-schemas';
 import { designValueName } from '../glossary/glossary';
 import { formatMoneyWhole, parseMoney } from '../money/money';
-import { formatPower, formatQuantity } from '../units/units';
+import { formatPower, formatQuantity, fromSi, unitLabel } from '../units/units';
 import type { SweepRow } from './sweep';
 
 export interface SummaryContext {
@@ -73,6 +73,11 @@ function shortfall(r: Row, ctx: SummaryContext): string {
   );
 }
 
+/** A temperature for a homeowner: whole degrees in the reader's unit ("about 18 °C" reads better than 18.3 °C). */
+export function wholeDegrees(c: number, system: UnitSystem): string {
+  return `${String(Math.round(fromSi('temperature', c, system))).replace('-', '−')} ${unitLabel('temperature', system)}`;
+}
+
 /** Why no option is chosen, in the reader's units. */
 export function noUnitText(r: Pick<Row, 'designC' | 'designLoadW'>, system: UnitSystem): string {
   return `No option on the list delivers the design load of ${formatPower(r.designLoadW, system)} at ${formatQuantity('temperature', r.designC, system)}; add a larger unit.`;
@@ -111,8 +116,8 @@ export function tradeoffSentence(chosen: Row, ctx: SummaryContext): string {
 
 /**
  * The homeowner's sentence for one option: plain words, no trade terms. "On the coldest nights of
- * a typical winter this unit keeps up; in the worst spell of the last 30 years the house would have
- * cooled to about 18 °C at the lowest."
+ * a typical winter this unit keeps up; in the coldest of the last 30 years it would have fallen short
+ * for about 6 hours, and at the worst the house would have cooled to about 18 °C."
  */
 export function homeownerSentence(r: Row, ctx: SummaryContext): string {
   const system = ctx.unitSystem;
@@ -122,7 +127,7 @@ export function homeownerSentence(r: Row, ctx: SummaryContext): string {
   }
   const span = `the last ${ctx.years} ${ctx.years === 1 ? 'year' : 'years'}`;
   const lowestC = lowestIndoorC(r, ctx.indoorC);
-  const lowest = lowestC === null ? null : `about ${formatQuantity('temperature', Math.round(lowestC * 2) / 2, system).replace(/\.0 /, ' ')}`;
+  const lowest = lowestC === null ? null : `about ${wholeDegrees(lowestC, system)}`;
   if (r.unmetHoursWorstYear === 0) {
     return `This unit keeps the house at the temperature you set in every hour of ${span} of weather records, including the coldest nights.`;
   }
@@ -130,7 +135,7 @@ export function homeownerSentence(r: Row, ctx: SummaryContext): string {
     r.unmetHoursPerYear < 0.5
       ? 'On the coldest nights of a typical winter this unit keeps up'
       : `In a typical winter this unit keeps up except for ${hoursInWords(r.unmetHoursPerYear)} a year on the coldest nights, when the house gets a little cooler than you set it`;
-  const worst = `in the worst cold spell of ${span} it would have fallen short for ${hoursInWords(r.unmetHoursWorstYear)} that year${lowest ? `, and the house would have cooled to ${lowest} at the lowest` : ''}.`;
+  const worst = `in the coldest of ${span} it would have fallen short for ${hoursInWords(r.unmetHoursWorstYear)}${lowest ? `, and at the worst the house would have cooled to ${lowest}` : ''}.`;
   return `${typical}; ${worst}`;
 }
 

@@ -80,11 +80,11 @@ describe('trade-off sentence (designer)', () => {
 describe('homeowner sentence', () => {
   it('says in plain words how often and how far the house could cool', () => {
     const r = row('99 %', -17, { unmetHoursPerYear: 3.4, unmetHoursWorstYear: 14, worstSagC: 2.8 });
-    // 21 − 2.8 = 18.2 °C, to the nearest half degree: 18 °C.
+    // 21 − 2.8 = 18.2 °C, to whole degrees: 18 °C.
     assert.equal(
       homeownerSentence(r, ctx([r])),
       'In a typical winter this unit keeps up except for about 3.4 hours a year on the coldest nights, when the house gets a little cooler than you set it; ' +
-        'in the worst cold spell of the last 30 years it would have fallen short for about 14 hours that year, and the house would have cooled to about 18 °C at the lowest.',
+        'in the coldest of the last 30 years it would have fallen short for about 14 hours, and at the worst the house would have cooled to about 18 °C.',
     );
   });
 
@@ -98,7 +98,7 @@ describe('homeowner sentence', () => {
   it('in °F', () => {
     const r = row('99 %', -17, { unmetHoursPerYear: 0.2, unmetHoursWorstYear: 6, worstSagC: 3 });
     // 21 − 3 = 18 °C = 64.4 °F → "64 °F".
-    assert.match(homeownerSentence(r, ctx([r], { unitSystem: 'IP' })), /^On the coldest nights of a typical winter this unit keeps up; .* about 64 °F at the lowest\.$/);
+    assert.match(homeownerSentence(r, ctx([r], { unitSystem: 'IP' })), /^On the coldest nights of a typical winter this unit keeps up; in the coldest of the last 30 years it would have fallen short for about 6 hours, and at the worst the house would have cooled to about 64 °F\.$/);
   });
 });
 

@@ -11,7 +11,7 @@ import { formatMoneyWhole } from '@shared/money/money';
 import { HOMEOWNER_CAUTIONS, HOMEOWNER_CAUTIONS_TITLE } from '@shared/reports/cautions';
 import { reportFigureLabels, type ReportFigure, type ReportView } from '@shared/reports/report-schemas';
 import type { SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
-import { homeownerSentence, lowestIndoorC, nearestRowIndex } from '@shared/sweep/tradeoff-summary';
+import { homeownerSentence, lowestIndoorC, nearestRowIndex, wholeDegrees } from '@shared/sweep/tradeoff-summary';
 import { formatPower, formatQuantity, fromSi, unitLabel } from '@shared/units/units';
 import { SWEEP_VERSION } from '../scenarios/sweep-service';
 
@@ -55,7 +55,7 @@ function figureText(key: ReportFigure, r: SweepRowAnswer, a: SweepAnswer, system
     case 'lowestIndoor': {
       const low = lowestIndoorC(r, a.indoorDesignC);
       if (low === null) return 'not known';
-      return r.worstSagC === 0 ? `stays at ${formatQuantity('temperature', a.indoorDesignC, system)}` : `about ${formatQuantity('temperature', low, system)}`;
+      return r.worstSagC === 0 ? `stays at ${wholeDegrees(a.indoorDesignC, system)}` : `about ${wholeDegrees(low, system)}`;
     }
   }
 }
@@ -65,7 +65,7 @@ export function buildReportView(src: ReportSource): ReportView {
   const system = report.unitSystem;
   const temp = (c: number) => formatQuantity('temperature', c, system);
   // Whole degrees for the homeowner's paragraphs.
-  const roundTemp = (c: number) => `${String(Math.round(fromSi('temperature', c, system))).replace('-', '−')} ${unitLabel('temperature', system)}`;
+  const roundTemp = (c: number) => wholeDegrees(c, system);
   const named = (label: string) => a.rows.find((r) => !r.isGrid && r.label === label);
   const labelOf = new Map(a.options.map((o) => [o.id, o.label]));
 

@@ -24,7 +24,7 @@ export interface ClimateSiteRef {
   template: `
     @let f = form();
     <div class="fields">
-      <mat-form-field class="name">
+      <mat-form-field class="name" subscriptSizing="dynamic">
         <mat-label>Project name</mat-label>
         <input matInput [formControl]="f.controls.name" autocomplete="off" />
         <mat-hint>For example the street address or the client's name</mat-hint>
