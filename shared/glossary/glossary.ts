@@ -57,6 +57,24 @@ export const glossary = {
     explain: 'Output of the selected unit at the design temperature; for a heat pump, compressor plus backup heat.',
     csv: 'capacity_at_design_w',
   },
+  compressorAtDesign: {
+    designer: 'Compressor at the design temperature',
+    homeowner: 'Heat the heat pump alone gives on that day',
+    explain: 'Output of the heat pump’s compressor alone at the design temperature, without its backup heat.',
+    csv: 'compressor_at_design_w',
+  },
+  backupHours: {
+    designer: 'Backup heat hours per year',
+    homeowner: 'Hours a year the backup heater runs',
+    explain: 'Hours of an average year in which the heat pump’s backup heat is needed to meet the load.',
+    csv: 'backup_hours_per_year',
+  },
+  backupEnergy: {
+    designer: 'Backup heat energy per year',
+    homeowner: 'Electricity the backup heater uses a year',
+    explain: 'Electricity used by the backup heat in an average year.',
+    csv: 'backup_energy_kwh',
+  },
   backupHeat: {
     designer: 'Backup heat',
     homeowner: 'Electric backup heat',
