@@ -40,7 +40,7 @@ describe('one vocabulary and the reader’s units', () => {
       await page.getByRole('link', { name: /Fernbrook Lane/ }).click();
       const projectUrl = page.url();
       await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)' }).click();
-      await page.getByTestId('tradeoff-sentence').waitFor();
+      await page.getByTestId('tradeoff-sentence').waitFor({ timeout: 120_000 }); // the first sweep of a record starts a worker and loads it
       await page.getByTestId('design-temps-table').waitFor();
       const tradeoff = await mainText(page);
       assertNoSi(tradeoff, 'the trade-off page');
