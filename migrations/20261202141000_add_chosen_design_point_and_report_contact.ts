@@ -12,10 +12,12 @@ export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable('reports', (t) => {
     t.text('contact_phone').notNullable().defaultTo('');
   });
+  // A report that already shows the lowest indoor temperature just loses the old key.
+  await knex.raw(`UPDATE reports SET figures = figures - 'sag' WHERE figures @> '["sag", "lowestIndoor"]'::jsonb`);
   await knex.raw(
     `UPDATE reports SET figures = (
-       SELECT jsonb_agg(CASE WHEN f = '"sag"'::jsonb THEN '"lowestIndoor"'::jsonb ELSE f END)
-       FROM jsonb_array_elements(figures) AS f
+       SELECT jsonb_agg(CASE WHEN f = '"sag"'::jsonb THEN '"lowestIndoor"'::jsonb ELSE f END ORDER BY n)
+       FROM jsonb_array_elements(figures) WITH ORDINALITY AS e(f, n)
      ) WHERE figures @> '["sag"]'::jsonb`,
   );
 }
@@ -23,8 +25,8 @@ export async function up(knex: Knex): Promise<void> {
 export async function down(knex: Knex): Promise<void> {
   await knex.raw(
     `UPDATE reports SET figures = (
-       SELECT jsonb_agg(CASE WHEN f = '"lowestIndoor"'::jsonb THEN '"sag"'::jsonb ELSE f END)
-       FROM jsonb_array_elements(figures) AS f
+       SELECT jsonb_agg(CASE WHEN f = '"lowestIndoor"'::jsonb THEN '"sag"'::jsonb ELSE f END ORDER BY n)
+       FROM jsonb_array_elements(figures) WITH ORDINALITY AS e(f, n)
      ) WHERE figures @> '["lowestIndoor"]'::jsonb`,
   );
   await knex.schema.alterTable('reports', (t) => {
