@@ -16,6 +16,14 @@ const TEXT = '#2A3A40';
 
 const group = (v: number) => Math.round(v).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ',');
 
+/** "The options above are marked A and B." (the chart marks the presented options with letters). */
+export function optionMarks(count: number): string {
+  const letters = 'ABC'.slice(0, Math.max(0, Math.min(3, count))).split('');
+  if (letters.length === 0) return '';
+  if (letters.length === 1) return 'The option above is marked A.';
+  return `The options above are marked ${letters.slice(0, -1).join(', ')} and ${letters.at(-1) ?? ''}.`;
+}
+
 export function reportChartOption(view: ReportView, options: { compact: boolean; forPrint?: boolean }): Record<string, unknown> {
   const { chart } = view;
   const ts = chart.rows.map((r) => r.t);

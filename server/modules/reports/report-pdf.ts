@@ -6,7 +6,7 @@ import { createRequire } from 'node:module';
 import path from 'node:path';
 import * as echarts from 'echarts';
 import type { ReportView } from '@shared/reports/report-schemas';
-import { reportChartOption } from '@shared/reports/report-chart';
+import { optionMarks, reportChartOption } from '@shared/reports/report-chart';
 
 const require = createRequire(import.meta.url);
 
@@ -111,7 +111,7 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
         stack: [
           { text: 'What each size costs, and how often it could fall short', style: 'h2' },
           {
-            text: 'Left to right: units sized for colder and colder nights. The green line is the total cost over the unit’s life (from zero); the blue area is the hours a year the house could get cooler than you set it.',
+            text: `Left to right: units sized for colder and colder nights. The green line is the total cost over the unit’s life (from zero); the blue area is the hours a year the house could get cooler than you set it. ${optionMarks(view.options.length)}`,
             style: 'small',
             margin: [0, 0, 0, 4],
           },
@@ -127,8 +127,15 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
         ],
         unbreakable: true,
       },
-      { stack: [{ text: view.cautionsTitle, style: 'h2', color: EMBER }, { ul: view.cautions, fontSize: 9.5 }], unbreakable: true },
-      { text: view.provenance, style: 'small', margin: [0, 12, 0, 0] },
+      // The cautions and the provenance line stay together, so no line is left alone on a last page.
+      {
+        stack: [
+          { text: view.cautionsTitle, style: 'h2', color: EMBER },
+          { ul: view.cautions, fontSize: 9.5 },
+          { text: view.provenance, style: 'small', margin: [0, 12, 0, 0] },
+        ],
+        unbreakable: true,
+      },
     ],
   };
   return printer().createPdf(doc).getBuffer();

@@ -5,7 +5,7 @@ import { toSignal } from '@angular/core/rxjs-interop';
 import { map } from 'rxjs';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import type { EChartsCoreOption } from 'echarts/core';
-import { reportChartOption } from '@shared/reports/report-chart';
+import { optionMarks, reportChartOption } from '@shared/reports/report-chart';
 import type { ReportView } from '@shared/reports/report-schemas';
 import { provideCharts } from '../../charts/provide-charts';
 
@@ -28,6 +28,7 @@ export class ReportDocument {
     { initialValue: false },
   );
   protected readonly chart = computed(() => reportChartOption(this.view(), { compact: this.compact() }) as EChartsCoreOption);
+  protected readonly marks = computed(() => optionMarks(this.view().options.length));
   protected readonly chartLabel = computed(
     () => `Total cost over the unit’s life and hours a year the house could get cooler than set, for units sized for milder to colder nights; options ${this.view().options.map((_, k) => 'ABC'[k] ?? '').join(', ')} marked`,
   );
