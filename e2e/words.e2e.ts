@@ -39,7 +39,7 @@ describe('one vocabulary and the reader’s units', () => {
       // The trade-off page: figures, table, sentence and the provenance line (wind in mph).
       await page.getByRole('link', { name: /Fernbrook Lane/ }).click();
       const projectUrl = page.url();
-      await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)' }).click();
+      await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)', exact: true }).click();
       await page.getByTestId('tradeoff-sentence').waitFor({ timeout: 120_000 }); // the first sweep of a record starts a worker and loads it
       await page.getByTestId('design-temps-table').waitFor();
       const tradeoff = await mainText(page);
@@ -86,7 +86,7 @@ describe('one vocabulary and the reader’s units', () => {
 
       // A report made in IP, as the homeowner reads it.
       await page.goto(projectUrl);
-      await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)' }).click();
+      await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)', exact: true }).click();
       await page.getByTestId('tradeoff-sentence').waitFor();
       await page.getByRole('button', { name: 'New client report' }).click();
       await page.getByRole('radio', { name: /^IP/ }).check();
