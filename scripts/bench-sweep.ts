@@ -7,7 +7,8 @@ import { computeDesignConditions } from '../shared/climate/design-conditions';
 import { prepareSeries } from '../shared/climate/prepared-series';
 import { DEMO_SITES, generateDemoSeries } from '../shared/climate/demo-weather';
 import { scenarioFileSchema, scenarioToEngine, type ScenarioFile } from '../shared/sweep/scenario-file';
-import { designLadder, indexSweepRecord, sweep, sweepNaive, type SweepInput } from '../shared/sweep/sweep';
+import { designLadder, sweep, sweepNaive, type SweepInput } from '../shared/sweep/sweep';
+import { buildSweepIndex } from '../shared/sweep/sweep-index';
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? NaN;
 
@@ -91,7 +92,7 @@ export function benchSweep(runs = 7, log: (line: string) => void = console.log):
   const rows = designLadder(base.designConditions, extraDesignC).length;
 
   const t0 = performance.now();
-  const index = indexSweepRecord({ prepared, qualifyingYears });
+  const index = buildSweepIndex({ prepared, qualifyingYears });
   const indexMs = performance.now() - t0;
   const fast: number[] = [];
   const cold: number[] = [];

@@ -4,10 +4,7 @@
  * sweep, and on the cached sweep again while fresh sweeps run in the worker pool. Prints p50, p95,
  * p99 and errors. A benchmark for the README, not a test.
  */
-import { spawn } from 'node:child_process';
 import { chmodSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
-import { createServer as createHttpServer } from 'node:http';
-import type { AddressInfo } from 'node:net';
 import { randomBytes } from 'node:crypto';
 import { cpus, tmpdir } from 'node:os';
 import path from 'node:path';
@@ -17,33 +14,11 @@ import { createDb } from '../server/db';
 import { migrateLatest } from '../server/migrate';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from '../server/seed/demo-seed';
 import { ensurePostgresInstalled, PgCluster } from './pg-cluster';
+import { freePort, startServerProcess } from './server-process';
 
 const SECONDS = Number(process.env['LOAD_SECONDS'] ?? 30);
 const CONNECTIONS = 50;
 const WARM_UP_SECONDS = 5;
-
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const s = createHttpServer();
-    s.listen(0, '127.0.0.1', () => {
-      const { port } = s.address() as AddressInfo;
-      s.close(() => resolve(port));
-    });
-  });
-}
-
-async function waitForHealth(url: string): Promise<void> {
-  const until = Date.now() + 60_000;
-  for (;;) {
-    try {
-      if ((await fetch(url)).ok) return;
-    } catch {
-      // not listening yet
-    }
-    if (Date.now() > until) throw new Error(`the server did not answer ${url} within 60 s`);
-    await new Promise((r) => setTimeout(r, 200));
-  }
-}
 
 /** CPU seconds (user + system) used so far by the processes whose command name is `comm`, or by one pid. */
 function cpuSeconds(which: { pid: number } | { comm: string }): number {
@@ -132,31 +107,11 @@ async function main(): Promise<void> {
     console.log('Seeding the invented demo data…');
     await seedDemo(db);
     await db.destroy();
-    const port = await freePort();
-    // The server runs in its own process, as it does in production, so that autocannon does not share its event loop.
-    const env: NodeJS.ProcessEnv = {
-      ...process.env,
-      NODE_ENV: 'test',
-      DATABASE_URL: cluster.localUrl('load'),
-      SESSION_SECRET: randomBytes(32).toString('hex'),
-      PORT: String(port),
-      LOG_LEVEL: 'silent',
-    };
     const profileDir = process.env['LOAD_CPU_PROF'];
-    const child = spawn(process.execPath, [...(profileDir ? ['--cpu-prof', `--cpu-prof-dir=${profileDir}`] : []), '--import', 'tsx', 'server/main.ts'], {
-      env,
-      stdio: ['ignore', 'inherit', 'inherit'],
-    });
-    const serverPid = child.pid ?? 0;
-    const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
-    stopServer = async () => {
-      // autocannon drops its connections at the end of a run; let the server finish what it was doing.
-      await new Promise((r) => setTimeout(r, 1000));
-      child.kill('SIGTERM');
-      await exited;
-    };
-    await waitForHealth(`http://127.0.0.1:${port}/api/health`);
-    const base = `http://127.0.0.1:${port}`;
+    const server = await startServerProcess(cluster.localUrl('load'), profileDir ? ['--cpu-prof', `--cpu-prof-dir=${profileDir}`] : []);
+    stopServer = () => server.stop();
+    const serverPid = server.pid;
+    const base = server.base;
 
     const signIn = await fetch(`${base}/api/v1/auth/sign-in`, {
       method: 'POST',

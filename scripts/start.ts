@@ -1,7 +1,8 @@
 /**
  * `npm start`: every set-up step, then the product. PostgreSQL (on loopback, as
  * a non-root user), migrations, demo data, the client build, the local e-mail
- * sink and the server. Ctrl-C stops everything this started; data is kept in .data/.
+ * sink and the server. Ctrl-C stops everything this started; data is kept in .data/. A server
+ * that exits unexpectedly is started again (PostgreSQL and the rest keep running).
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { createHash, randomBytes } from 'node:crypto';
@@ -11,6 +12,7 @@ import { createDb } from '../server/db';
 import { migrateLatest } from '../server/migrate';
 import { DEMO_ACCOUNTS, DEMO_ORGANIZATION, DEMO_PASSWORD, seedDemo } from '../server/seed/demo-seed';
 import { ensurePostgresInstalled, PgCluster, reachableByPostgres } from './pg-cluster';
+import { supervise, type Supervisor } from './supervise';
 
 const log = (s: string) => console.log(s);
 const repo = process.cwd();
@@ -40,6 +42,7 @@ function clusterDir(): string {
 }
 
 const children: ChildProcess[] = [];
+let supervised: Supervisor | undefined;
 let cluster: PgCluster | undefined;
 let startedCluster = false;
 let stopping = false;
@@ -49,6 +52,7 @@ function shutdown(code: number): void {
   stopping = true;
   log('\n» Stopping…');
   for (const child of children) child.kill('SIGTERM');
+  void supervised?.stop(700);
   setTimeout(() => {
     if (cluster && startedCluster) {
       try {
@@ -122,10 +126,23 @@ async function main(): Promise<void> {
     STRIPE_API_HOST: '127.0.0.1',
     STRIPE_API_PORT: String(paymentsPort),
     STRIPE_API_PROTOCOL: 'http',
+    // New on every start, never written down: the fake provider's signing secret and the Dev outbox's token.
+    STRIPE_WEBHOOK_SECRET: `whsec_${randomBytes(24).toString('base64url')}`,
+    DEV_OUTBOX_TOKEN: randomBytes(24).toString('base64url'),
   };
   startChild('payment provider (fake)', ['server/fakes/payment-fake-main.ts', String(paymentsPort), `http://127.0.0.1:${port}/api/v1/billing/webhook`], env);
   startChild('e-mail sink', ['server/fakes/smtp-sink-main.ts', String(smtpPort), String(outboxPort)], env);
-  const server = startChild('server', ['server/main.ts'], env);
+  supervised = supervise({
+    name: 'server',
+    // A second server is kept loaded, so that one that stops is replaced at once.
+    standby: true,
+    start: (standby) =>
+      standby
+        ? spawn(process.execPath, ['--import', 'tsx', 'server/main.ts', '--standby'], { env, stdio: ['inherit', 'inherit', 'inherit', 'ipc'] })
+        : spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], { env, stdio: 'inherit' }),
+    log: (line) => console.error(line),
+    onGiveUp: () => shutdown(1),
+  });
 
   const url = `http://127.0.0.1:${port}`;
   for (let i = 0; i < 100 && !stopping; i++) {
@@ -136,13 +153,13 @@ async function main(): Promise<void> {
     }
     await new Promise((r) => setTimeout(r, 200));
   }
-  if (server.exitCode === null) {
+  if (supervised.child.exitCode === null) {
     log('');
     log(`  Tailroom is running at ${url}`);
     log(`  Demo sign-in (${DEMO_ORGANIZATION}, invented data):`);
     for (const a of DEMO_ACCOUNTS) log(`    ${a.role.padEnd(8)} ${a.email}`);
     log(`    password  ${DEMO_PASSWORD}`);
-    log(`  Dev outbox (e-mails sent locally): ${url}/dev/outbox`);
+    log(`  Dev outbox (e-mails sent locally; this link holds a token new on every start): ${url}/dev/outbox?token=${env['DEV_OUTBOX_TOKEN'] ?? ''}`);
     log(`  Payments: a local fake of the provider on 127.0.0.1:${paymentsPort}; test card 4242 4242 4242 4242`);
     log('  Press Ctrl-C to stop.');
     log('');

@@ -10,7 +10,8 @@ import type { Logger } from 'pino';
 import type { Config } from './config';
 import { GUARD, type Guard } from './http/authorize';
 import { apiNotFound, errorHandler } from './http/error-handler';
-import { csrfProtection, rateLimits, securityHeaders } from './http/security';
+import { csrfProtection, ownHostOnly, rateLimits, refuseDeclaredOversizeJson, securityHeaders } from './http/security';
+import { textSafety } from './http/text-safety';
 import type { Mailer } from './mail/mailer';
 import { authRouter, createPassport, SESSION_COOKIE } from './modules/auth/auth-router';
 import { devOutboxRouter } from './modules/dev/dev-outbox-router';
@@ -25,6 +26,8 @@ import { auditRouter } from './modules/audit/audit';
 import { reportsRouter } from './modules/reports/reports-router';
 import { reportLinkHttpStatus } from './modules/reports/report-tokens';
 import { createSweepPool } from './modules/scenarios/sweep-pool';
+import { createPdfPool } from './modules/reports/pdf-pool';
+import { createUploadPool } from './modules/climate/upload-pool';
 
 export interface AppDeps {
   config: Config;
@@ -44,15 +47,20 @@ export interface App {
   app: Express;
   /** Every API route of the mounted routers, with its guard. */
   routes(): RouteInfo[];
-  /** Closes what the app opened itself (the session store's pool, the sweep workers). */
+  /** Weather files being read in the upload pool right now, and waiting their turn. */
+  uploadsPending(): { running: number; waiting: number };
+  /** Closes what the app opened itself (the session store's pool, the sweep, upload and PDF workers). */
   close(): Promise<void>;
 }
 
 const SESSION_DAYS = 14;
+/** The largest JSON body the API reads. */
+const JSON_BODY_LIMIT_BYTES = 1024 * 1024;
 
 export function createApp({ config, db, mailer, logger }: AppDeps): App {
   const app = express();
   app.disable('x-powered-by');
+  if (config.env === 'development') app.use(ownHostOnly(config));
   app.use(securityHeaders(config));
   if (config.env === 'production') app.set('trust proxy', 1);
 
@@ -105,14 +113,17 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   // The provider's webhook reads its raw body (the signature covers the exact bytes): before the JSON parser.
   const billing = billingRouter(db, config);
   app.post('/api/v1/billing/webhook', ...billing.webhook);
-  app.use('/api/v1', express.json({ limit: '1mb', strict: true }));
+  app.use('/api/v1', refuseDeclaredOversizeJson(JSON_BODY_LIMIT_BYTES), express.json({ limit: JSON_BODY_LIMIT_BYTES, strict: true }));
+  app.use('/api/v1', textSafety);
   app.use('/api', csrfProtection(config));
-  const limits = rateLimits(config);
-  app.post('/api/v1/auth/sign-in', limits.signIn);
+  const limits = rateLimits(config, db);
+  app.post('/api/v1/auth/sign-in', ...limits.signIn);
   app.post('/api/v1/auth/sign-up', ...limits.signUp);
   app.post('/api/v1/auth/password-resets', limits.passwordReset);
   app.post('/api/v1/invitations', limits.invitations);
-  const sweepPool = createSweepPool();
+  const sweepPool = createSweepPool({ databaseUrl: config.databaseUrl });
+  const uploadPool = createUploadPool(config.uploadParses);
+  const pdfPool = createPdfPool({ logger });
   // The API's routers, kept with their prefixes for `routes()` (the authorisation test walks them).
   const mounted: { prefix: string; router: Router }[] = [];
   const mount = (prefix: string, router: Router) => {
@@ -123,13 +134,13 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   mount('/api/v1', orgsRouter(db, config, mailer));
   mount('/api/v1/projects', projectsRouter(db));
   mount('/api/v1/projects', scenariosRouter(db, sweepPool, config.databaseUrl));
-  mount('/api/v1', climateRouter(db));
+  mount('/api/v1', climateRouter(db, uploadPool));
   mount('/api/v1', equipmentRouter(db));
-  mount('/api/v1', reportsRouter({ db, pool: sweepPool, config, mailer }));
+  mount('/api/v1', reportsRouter({ db, pool: sweepPool, pdfPool, config, mailer, sendLimits: limits.reportSends }));
   mount('/api/v1', logoRouter(db));
   mount('/api/v1', billing.router);
   mount('/api/v1', auditRouter(db));
-  if (config.devOutboxUrl) mount('/api/v1/dev', devOutboxRouter(config.devOutboxUrl));
+  if (config.devOutboxUrl) mount('/api/v1/dev', devOutboxRouter(db, config.devOutboxUrl, config.devOutboxToken));
   app.use('/api', apiNotFound);
 
   if (config.clientDist && existsSync(path.join(config.clientDist, 'index.html'))) {
@@ -149,8 +160,9 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   return {
     app,
     routes: () => routeTable(mounted),
+    uploadsPending: () => uploadPool.pending(),
     close: async () => {
-      await Promise.all([sessionPool.end(), sweepPool.close()]);
+      await Promise.all([sessionPool.end(), sweepPool.close(), uploadPool.close(), pdfPool.close()]);
     },
   };
 }

@@ -1,3 +1,5 @@
+// First: configures the schema library before any schema runs.
+import './zod-setup';
 import { bootstrapApplication } from '@angular/platform-browser';
 import { appConfig } from './app/app.config';
 import { App } from './app/app';

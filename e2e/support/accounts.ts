@@ -1,5 +1,5 @@
 import type { BrowserContext, Page } from 'playwright-core';
-import { guardOffline, type E2eApp } from './e2e-app';
+import { E2E_OUTBOX_TOKEN, guardOffline, type E2eApp } from './e2e-app';
 
 export interface NewAccount {
   name: string;
@@ -52,7 +52,7 @@ export async function createAccountThroughUi(
 async function newestSignUpLink(page: Page, baseUrl: string, email: string): Promise<string> {
   const link = page.locator('mat-card').filter({ hasText: email }).locator('a[href*="/finish-sign-up/"]').first();
   const deadline = Date.now() + 20_000;
-  await page.goto(baseUrl + '/dev/outbox');
+  await page.goto(`${baseUrl}/dev/outbox?token=${E2E_OUTBOX_TOKEN}`);
   for (;;) {
     try {
       await link.waitFor({ timeout: 2_000 });

@@ -3,6 +3,7 @@ import { MulterError } from 'multer';
 import { ZodError } from 'zod';
 import type { FieldIssue } from '@shared/api/api-error';
 import { HttpError } from './http-error';
+import { RateLimitedError } from './rate-limit-store';
 
 /** zod issues → one field-level detail each, with dotted paths ('' for the whole body). */
 export function zodDetails(err: ZodError): FieldIssue[] {
@@ -37,6 +38,15 @@ export function isDatabaseUnavailable(err: unknown): boolean {
   return /Connection terminated|connect ECONNREFUSED|the database system is (starting up|shutting down)|terminating connection due to administrator command|timeout exceeded when trying to connect/i.test(err.message);
 }
 
+/**
+ * An error the multipart parser raised while reading the request (a part header with control
+ * characters, a missing boundary, a cut-off form): the uploader's mistake, not ours. Multer marks
+ * the errors it passes on from the parser with `storageErrors`.
+ */
+function isMalformedUpload(err: unknown): err is Error {
+  return err instanceof Error && Array.isArray((err as { storageErrors?: unknown }).storageErrors);
+}
+
 // Keep all four parameters: that is how Express recognises an error handler.
 export function errorHandler(): ErrorRequestHandler {
   return (err: unknown, req, res, _next) => {
@@ -52,6 +62,7 @@ export function errorHandler(): ErrorRequestHandler {
       return;
     }
     if (err instanceof HttpError) {
+      if (err instanceof RateLimitedError) res.set('Retry-After', String(err.retryAfterSeconds));
       res.status(err.status).json({
         error: { code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) },
       });
@@ -69,6 +80,16 @@ export function errorHandler(): ErrorRequestHandler {
           },
         });
       }
+      return;
+    }
+    if (isMalformedUpload(err)) {
+      res.status(400).json({
+        error: {
+          code: 'invalid_upload',
+          message: 'The upload could not be read; a file name or part header holds characters an upload cannot carry. Rename the file and try again.',
+          details: [{ path: '', message: err.message }],
+        },
+      });
       return;
     }
     const bp = err as BodyParserError;

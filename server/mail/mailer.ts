@@ -1,5 +1,6 @@
 import nodemailer from 'nodemailer';
 import type { Config } from '../config';
+import { headerText } from './header-text';
 
 export interface OutgoingMail {
   to: string;
@@ -28,7 +29,7 @@ export function createMailer(config: Config): Mailer {
   });
   return {
     async send(mail) {
-      await transport.sendMail({ from: config.mailFrom, ...mail });
+      await transport.sendMail({ from: config.mailFrom, ...mail, subject: headerText(mail.subject, 200) });
     },
     close() {
       transport.close();

@@ -1,5 +1,6 @@
 import type { Role } from '@shared/auth/roles';
 import { roleLabels } from '@shared/auth/roles';
+import { headerText } from './header-text';
 import type { OutgoingMail } from './mailer';
 
 const escapeHtml = (s: string) =>
@@ -84,6 +85,9 @@ export function reportMail(
   link: string,
   details: { organizationName: string; senderName: string; senderEmail: string; phone: string; title: string; message: string; expiresAt: Date },
 ): OutgoingMail {
+  // Names and title are the sender's own words: one clean line each (they reach the subject header).
+  const organizationName = headerText(details.organizationName);
+  details = { ...details, organizationName, senderName: headerText(details.senderName), title: headerText(details.title, 150) };
   const contact = [details.senderEmail, details.phone].filter((x) => x).join(' or ');
   const lines = [
     `${details.senderName} of ${details.organizationName} sent you a report on heating options for your home: “${details.title}”.`,

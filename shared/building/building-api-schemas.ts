@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { rowVersionSchema } from '../api/safe-text';
 import { buildingSchema } from './building-schemas';
 
 /**
@@ -6,7 +7,7 @@ import { buildingSchema } from './building-schemas';
  * PUT the same shape with the project's `version`: 409 `stale_update` when the project changed since.
  */
 export const projectBuildingPutSchema = z.strictObject({
-  version: z.int({ error: 'The version of the project being changed is required' }).min(1),
+  version: rowVersionSchema('The version of the project being changed is required'),
   building: buildingSchema,
 });
 export const projectBuildingAnswerSchema = z.object({

@@ -161,6 +161,10 @@ export const uploadFieldsSchema = z.strictObject({
   mapping: z.string().max(4000).optional(),
 });
 
+/** The organisation's weather files being read now, and waiting their turn behind them. */
+export const uploadQueueSchema = z.object({ reading: z.int().min(0), waiting: z.int().min(0) });
+export type UploadQueue = z.infer<typeof uploadQueueSchema>;
+
 /** 201 answer of an upload: parsed and checked, waiting for the user's confirmation. */
 export const climateUploadSchema = z.object({
   id: z.uuid(),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { rowVersionSchema } from '../api/safe-text';
 import { energyPricesSchema } from '../money/energy-prices';
 import { equipmentOptionSchema } from './equipment-schemas';
 
@@ -12,7 +13,7 @@ const listName = z
   .trim()
   .min(1, 'Name the equipment list')
   .max(EQUIPMENT_LIST_NAME_MAX, `Use at most ${EQUIPMENT_LIST_NAME_MAX} characters`);
-const version = z.int({ error: 'The version being changed is required' }).min(1);
+const version = rowVersionSchema('The version being changed is required');
 
 /** POST /api/v1/equipment-lists */
 export const equipmentListInputSchema = z.strictObject({ name: listName });
@@ -54,6 +55,6 @@ export type EquipmentList = z.infer<typeof equipmentListSchema>;
 export const equipmentCsvPreviewResultSchema = z.object({ options: z.array(equipmentOptionSchema) });
 
 /** GET / PUT /api/v1/energy-prices (PUT body: { version, prices }; version 0 when none saved yet) */
-export const energyPricesPutSchema = z.strictObject({ version: z.int().min(0), prices: energyPricesSchema });
+export const energyPricesPutSchema = z.strictObject({ version: rowVersionSchema('The version of the prices being changed is required', 0), prices: energyPricesSchema });
 export const energyPricesAnswerSchema = z.object({ version: z.int(), prices: energyPricesSchema.nullable() });
 export type EnergyPricesAnswer = z.infer<typeof energyPricesAnswerSchema>;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { rowVersionSchema } from '../api/safe-text';
 
 export const PROJECT_NAME_MAX_LENGTH = 160;
 
@@ -34,7 +35,7 @@ export type ProjectInput = z.infer<typeof projectInputSchema>;
  * when someone saved in between, the answer is 409 and nothing is overwritten.
  */
 export const projectPatchSchema = z.strictObject({
-  version: z.int({ error: 'The version of the project being changed is required' }).min(1),
+  version: rowVersionSchema('The version of the project being changed is required'),
   name: projectFields.name.optional(),
   clientName: projectFields.clientName.optional(),
   siteAddress: projectFields.siteAddress.optional(),

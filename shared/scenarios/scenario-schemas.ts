@@ -4,6 +4,7 @@
  * bid: its inputs and results no longer change.
  */
 import { z } from 'zod';
+import { rowVersionSchema } from '../api/safe-text';
 import { energyPricesSchema } from '../money/energy-prices';
 
 export const SCENARIO_NAME_MAX = 160;
@@ -73,7 +74,7 @@ export const chosenDesignCSchema = z
 
 /** PATCH /api/v1/projects/:projectId/scenarios/:scenarioId (409 `stale_update`; 409 `frozen` for inputs or the chosen point of a frozen one) */
 export const scenarioPatchSchema = z.strictObject({
-  version: z.int({ error: 'The version of the scenario being changed is required' }).min(1),
+  version: rowVersionSchema('The version of the scenario being changed is required'),
   name: scenarioName.optional(),
   chosenDesignC: chosenDesignCSchema.optional(),
   climateSiteId: z.uuid('Choose a climate site from the list').nullable().optional(),

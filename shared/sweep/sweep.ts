@@ -201,7 +201,7 @@ export function selectOption(
 // Hours
 
 /** The valid hours of the qualifying years, in time order. */
-interface Hours {
+export interface Hours {
   n: number;
   hourNumber: Float64Array;
   outdoorC: Float64Array;
@@ -466,7 +466,7 @@ export function sweepNaive(input: SweepInput): SweepResult {
  * in time order (for the worst year and the sag). A record of 30 years at 0.1 °C resolution has
  * some 600 temperature bins instead of 263,000 hours.
  */
-interface Bins {
+export interface Bins {
   t: Float64Array;
   /** NaN in temperature-only bins, and where the record has no wind value. */
   w: Float64Array;
@@ -559,7 +559,7 @@ function binKeys(hours: Hours, withWind: boolean): { binOfHour: Int32Array; keys
   return { binOfHour, keys };
 }
 
-function buildBins(hours: Hours, withWind: boolean): Bins {
+export function buildBins(hours: Hours, withWind: boolean): Bins {
   const { n } = hours;
   const { binOfHour, keys } = binKeys(hours, withWind);
   // Bins in ascending temperature (then wind) so that consecutive bins share a capacity evaluation.

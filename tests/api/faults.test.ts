@@ -20,6 +20,7 @@ import { FAKE_STRIPE_SECRET_KEY, FAKE_STRIPE_WEBHOOK_SECRET } from '../../server
 import { createDb } from '../../server/db';
 import { startPaymentFake, TEST_CARDS, type PaymentFake } from '../../server/fakes/payment-fake';
 import { migrateLatest } from '../../server/migrate';
+import { loadRecord } from '../../server/modules/climate/climate-repo';
 import { backupDatabase, restoreDatabase } from '../../scripts/db-backup';
 import { ensurePostgresInstalled, PgCluster } from '../../scripts/pg-cluster';
 import { fixture } from '../support/scenario-fixture';
@@ -171,17 +172,22 @@ describe('faults', () => {
     assert.equal(await exited, 0);
   });
 
-  it('restores every project, scenario and report link from a backup', async () => {
+  it('restores every project, scenario, report link and hourly record from a backup', async () => {
     const f = await fixture(t);
+    const record = await loadRecord(t.db, f.siteId);
+    const storedRow = () => t.db('climate_records').where({ climate_site_id: f.siteId }).first('hour_count', 'sweep_index_key');
     const scenario = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Backed up' }).expect(201)).body as Scenario;
     const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200)).body as { rows: { designC: number }[] };
     const report = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'Backed-up report', points: [sweep.rows[0]?.designC ?? -10] }).expect(201)).body as Report;
     const { url } = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)).body as { url: string };
     const token = url.split('/r/')[1] ?? '';
     const file = path.join(dir, 'backup.dump');
+    const rowBefore: unknown = await storedRow();
     backupDatabase(databaseUrl, file, bin);
 
     await f.agent.delete(`/api/v1/projects/${f.projectId}`).expect(204);
+    await f.agent.delete(`/api/v1/climate-sites/${f.siteId}`).expect(204);
+    assert.equal(await storedRow(), undefined, 'the record went with its site');
     await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(404);
     await f.agent.get(`/api/v1/public/reports/${token}`).expect(404);
 
@@ -191,5 +197,8 @@ describe('faults', () => {
     assert.deepEqual(scenarios.map((s) => s.name), ['Backed up']);
     const view = (await f.agent.get(`/api/v1/public/reports/${token}`).expect(200)).body as { title: string };
     assert.equal(view.title, 'Backed-up report');
+    // The record comes back as it was stored: every hour and value, and its sweep index.
+    assert.deepEqual(await storedRow(), rowBefore);
+    assert.deepEqual(await loadRecord(t.db, f.siteId), record);
   });
 });

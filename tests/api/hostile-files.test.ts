@@ -147,3 +147,53 @@ describe('paths outside the served client', () => {
     }
   });
 });
+
+/** A gzip of about 125 kB that unpacks to about 50 MB of one repeated CSV row, with a bad last line. */
+function bigRefusedUpload(): Buffer {
+  const row = '2021-01-01T00:00Z,-5.0\n';
+  const rows = Math.ceil((50 * 1024 * 1024) / row.length);
+  return gzipSync(Buffer.concat([Buffer.from('time,dry_bulb_c\n'), Buffer.alloc(rows * row.length, row), Buffer.from('2021-01-01T01:00Z,warm\n')]), { level: 9 });
+}
+
+describe('a large upload being read', () => {
+  it('leaves the server answering others while it is read, and a second one of the organisation waits its turn', async () => {
+    const { agent } = await signUp(t);
+    const siteId = await hourlySite(agent);
+    const gz = bigRefusedUpload();
+    assert.ok(gz.length < 200_000, `${gz.length} bytes packed`);
+    const send = () =>
+      agent
+        .post(`/api/v1/climate-sites/${siteId}/uploads`)
+        .attach('files', gz, 'big.csv.gz')
+        .then((res) => res);
+    let answered = 0;
+    const first = send().finally(() => answered++);
+    const second = send().finally(() => answered++);
+
+    // Ask for /api/health, one request after another, until both uploads are answered; note each
+    // answer that came while a file was being read in the upload pool, and whether one was waiting.
+    let healthDuringParse = 0;
+    let sawWaiting = false;
+    let healthAnswers = 0;
+    while (answered < 2) {
+      const health = await request(t.app).get('/api/health');
+      assert.equal(health.status, 200);
+      healthAnswers++;
+      const pending = t.uploadsPending();
+      if (pending.running > 0 && answered < 2) healthDuringParse++;
+      if (pending.waiting > 0) sawWaiting = true;
+    }
+    assert.ok(healthDuringParse > 0, `the server answered ${healthAnswers} health checks, none while a file was being read`);
+    assert.ok(sawWaiting, 'the second upload of the organisation waited for the first');
+
+    for (const res of [await first, await second]) {
+      assert.equal(res.status, 400, 'the bad last line refuses the whole file');
+      assert.equal(res.body.error.code, 'invalid_file');
+      assert.match(res.body.error.details[0].path, /^line \d+$/);
+    }
+    assert.deepEqual(t.uploadsPending(), { running: 0, waiting: 0 });
+    assert.equal(await count('climate_uploads'), 0);
+    // The pool is whole afterwards: a good file is read as before.
+    await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', Buffer.from(csv), 'good.csv').expect(201);
+  });
+});

@@ -269,7 +269,7 @@ describe('dev outbox', () => {
     const mail = t.sink.waitFor((m) => m.to.includes(email));
     await owner.agent.post('/api/v1/invitations').send({ email, role: 'viewer' }).expect(201);
     await mail;
-    const res = await request(t.app).get('/api/v1/dev/outbox').expect(200);
+    const res = await request(t.app).get('/api/v1/dev/outbox').set('X-Dev-Outbox-Token', t.config.devOutboxToken).expect(200);
     const message = res.body.find((m: { to: string[] }) => m.to.includes(email));
     assert.ok(message);
     assert.equal(message.links.length, 1);

@@ -11,7 +11,7 @@ import { computeDesignConditions } from '../../shared/climate/design-conditions'
 import { equipmentOptionSchema } from '../../shared/equipment/equipment-schemas';
 import type { Comparison, Scenario, SweepAnswer } from '../../shared/scenarios/scenario-schemas';
 import { sweepNaive, type SweepOption } from '../../shared/sweep/sweep';
-import { loadObservations } from '../../server/modules/climate/climate-repo';
+import { loadRecord } from '../../server/modules/climate/climate-repo';
 import { BUILDING, OPTIONS, PRICES, fixture, type Fixture } from '../support/scenario-fixture';
 import { inviteMember, signUp, useTestApp } from '../support/test-app';
 
@@ -77,7 +77,7 @@ describe('scenarios API', () => {
     assert.ok(first.loadDuration && first.loadDuration.points.length > 10);
 
     // Independent run: the engine's naive path over the record read back from the database.
-    const series = await loadObservations(t.db, f.siteId);
+    const series = await loadRecord(t.db, f.siteId);
     const dc = computeDesignConditions(series, {});
     assert.ok(dc.ok);
     const options: SweepOption[] = OPTIONS.map((o, i) => ({ ...equipmentOptionSchema.parse(o), id: String(i + 1) }));

@@ -23,11 +23,11 @@ const fileText = fc
   .map((parts) => parts.join(''));
 
 describe('readers on hostile text', () => {
-  it('weather files are read or refused with a 400-class answer', () => {
-    fc.assert(
-      fc.property(fileText, fc.constantFrom<'auto' | 'csv' | 'isd-lite'>('auto', 'csv', 'isd-lite'), (text, format) => {
+  it('weather files are read or refused with a 400-class answer', async () => {
+    await fc.assert(
+      fc.asyncProperty(fileText, fc.constantFrom<'auto' | 'csv' | 'isd-lite'>('auto', 'csv', 'isd-lite'), async (text, format) => {
         try {
-          const r = readWeatherFiles([{ name: 'fuzz.csv', content: Buffer.from(text) }], { format });
+          const r = await readWeatherFiles([{ name: 'fuzz.csv', content: Buffer.from(text) }], { format });
           assert.equal(r.series.time.length, r.series.dryBulbC.length);
         } catch (err) {
           assert.ok(err instanceof HttpError, `threw ${String(err)}`);

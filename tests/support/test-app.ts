@@ -15,6 +15,8 @@ export interface TestApp {
   app: Express;
   /** The API's routes with their guards. */
   routes: () => RouteInfo[];
+  /** Weather files being read in the upload pool, and waiting. */
+  uploadsPending: () => { running: number; waiting: number };
   db: Knex;
   sink: SmtpSink;
   config: Config;
@@ -36,6 +38,7 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
     LOG_LEVEL: 'silent',
     // Many accounts are made from one address in a test file; the limit itself is tested on its own app.
     SIGN_UP_PER_HOUR: '100000',
+    SIGN_IN_FAILURES_PER_ADDRESS: '100000',
     ...overrides,
   });
   const db = createDb(config.databaseUrl);
@@ -45,6 +48,7 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
   return {
     app,
     routes: () => created.routes(),
+    uploadsPending: () => created.uploadsPending(),
     db,
     sink,
     config,
@@ -59,7 +63,7 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
 
 /** Empties every table the app writes (the schema stays). */
 export async function resetDb(db: Knex): Promise<void> {
-  await db.raw('TRUNCATE users, organizations, memberships, invitations, password_resets, sign_up_requests, projects, hourly_observations, sweep_results, "session" CASCADE');
+  await db.raw('TRUNCATE users, organizations, memberships, invitations, password_resets, sign_up_requests, projects, sweep_results, rate_limit_hits, "session" CASCADE');
 }
 
 export const PASSWORD = 'correct horse battery';

@@ -20,6 +20,7 @@ export const auditTypes = [
   'plan_changed',
   'report_link_created',
   'report_link_revoked',
+  'report_sent',
 ] as const;
 export type AuditType = (typeof auditTypes)[number];
 
@@ -61,8 +62,8 @@ export function auditRouter(db: Knex): Router {
       )
       .orderBy('a.created_at', 'desc')
       .limit(200)
-      .select<{ id: number; type: string; detail: unknown; ip: string | null; created_at: Date; actor_email: string | null; user_name: string | null }[]>(
-        'a.id',
+      .select<{ public_id: string; type: string; detail: unknown; ip: string | null; created_at: Date; actor_email: string | null; user_name: string | null }[]>(
+        'a.public_id',
         'a.type',
         'a.detail',
         'a.ip',
@@ -72,7 +73,7 @@ export function auditRouter(db: Knex): Router {
       );
     res.json(
       rows.map((r) => ({
-        id: String(r.id),
+        id: r.public_id,
         type: r.type,
         detail: r.detail,
         ip: r.ip,

@@ -1,6 +1,4 @@
 import type { Knex } from 'knex';
-import { from as copyFrom } from 'pg-copy-streams';
-import type pg from 'pg';
 import type { ClimateSite, ClimateSiteSummary, SourceKind } from '@shared/climate-sites/climate-site-schemas';
 import type { DesignConditions, PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import type { HourlySeries } from '@shared/climate/hourly-series';
@@ -141,115 +139,152 @@ export async function deleteSite(db: Knex, organizationId: string, id: string): 
   return (await db('climate_sites').where({ id, organization_id: organizationId }).delete()) > 0;
 }
 
-/** PostgreSQL's epoch (2000-01-01T00:00Z) in hours since the Unix epoch. */
-const PG_EPOCH_HOURS = 262_968;
-const MICROSECONDS_PER_HOUR = 3_600_000_000;
-const TWO_TO_32 = 4_294_967_296;
+const MS_PER_HOUR = 3_600_000;
+const VALUE_COLUMNS = ['dry_bulb_c', 'dew_point_c', 'wind_speed_ms', 'station_pressure_kpa'] as const;
+type ValueColumn = (typeof VALUE_COLUMNS)[number];
+
+/** A record as climate_records stores it: whole hours since 1970 (int32) and float32 values, little-endian. */
+export interface PackedRecord {
+  hourCount: number;
+  hours: Buffer;
+  values: Record<ValueColumn, Buffer>;
+}
+
+const bytesOf = (a: Int32Array | Float32Array) => Buffer.from(a.buffer, a.byteOffset, a.byteLength);
 
 /**
- * The rows of a series in PostgreSQL's binary COPY format (faster for the server to read than
- * text: no number or date parsing). One tuple: 6 fields — uuid, timestamptz (int64 µs since
- * 2000-01-01), four float4 (length −1 for NULL).
+ * Packs a series into the stored columns: times to whole hours, hours without a finite time left
+ * out, a repeated hour keeping its first value, in time order (docs/architecture.md#stored-records-and-the-sweep-index).
  */
-export function binaryCopyRows(siteId: string, series: HourlySeries): { buffer: Buffer; rows: number } {
-  const uuid = Buffer.from(siteId.replace(/-/g, ''), 'hex');
+export function packRecord(series: HourlySeries): PackedRecord {
   const n = series.time.length;
-  const tupleBytes = 2 + (4 + 16) + (4 + 8) + 4 * (4 + 4);
-  const out = Buffer.alloc(11 + 4 + 4 + n * tupleBytes + 2);
-  let o = out.write('PGCOPY\n\xff\r\n\0', 0, 'latin1');
-  o = out.writeInt32BE(0, o); // flags
-  o = out.writeInt32BE(0, o); // header extension length
-  const seen = new Set<number>();
-  const columns = [series.dryBulbC, series.dewPointC, series.windSpeedMs, series.stationPressureKpa];
-  let rows = 0;
+  const hourOf = new Float64Array(n);
+  let valid = 0;
+  let sorted = true;
+  let last = -Infinity;
   for (let i = 0; i < n; i++) {
     const t = series.time[i] ?? NaN;
-    if (!Number.isFinite(t)) continue;
-    const hour = Math.floor(t / 3_600_000);
-    if (seen.has(hour)) continue; // a repeated hour keeps its first value
-    seen.add(hour);
-    rows++;
-    o = out.writeInt16BE(6, o);
-    o = out.writeInt32BE(16, o);
-    o += uuid.copy(out, o);
-    // int64 µs since 2000-01-01, written as two 32-bit halves (exact: |µs| < 2^53 for years 1715–2284).
-    const us = (hour - PG_EPOCH_HOURS) * MICROSECONDS_PER_HOUR;
-    const high = Math.floor(us / TWO_TO_32);
-    o = out.writeInt32BE(8, o);
-    o = out.writeInt32BE(high, o);
-    o = out.writeUInt32BE(us - high * TWO_TO_32, o);
-    for (const column of columns) {
-      const v = column[i] ?? NaN;
-      if (Number.isNaN(v)) {
-        o = out.writeInt32BE(-1, o);
-      } else {
-        o = out.writeInt32BE(4, o);
-        o = out.writeFloatBE(v, o);
-      }
-    }
+    const h = Number.isFinite(t) ? Math.floor(t / MS_PER_HOUR) : NaN;
+    hourOf[i] = h;
+    if (Number.isNaN(h)) continue;
+    valid++;
+    if (h <= last) sorted = false;
+    last = h;
   }
-  o = out.writeInt16BE(-1, o); // trailer
-  return { buffer: out.subarray(0, o), rows };
+  let order: number[] | Int32Array;
+  if (sorted && valid === n) {
+    order = Int32Array.from({ length: n }, (_, i) => i);
+  } else {
+    // Stable sort by hour keeps the first of a repeated hour in front; later repeats are dropped.
+    const idx: number[] = [];
+    for (let i = 0; i < n; i++) if (!Number.isNaN(hourOf[i] ?? NaN)) idx.push(i);
+    idx.sort((a, b) => (hourOf[a] ?? 0) - (hourOf[b] ?? 0));
+    order = idx.filter((i, k) => k === 0 || hourOf[i] !== hourOf[idx[k - 1] ?? 0]);
+  }
+  const m = order.length;
+  const hours = new Int32Array(m);
+  for (let k = 0; k < m; k++) hours[k] = hourOf[order[k] ?? 0] ?? 0;
+  const sources: Record<ValueColumn, Float64Array> = {
+    dry_bulb_c: series.dryBulbC,
+    dew_point_c: series.dewPointC,
+    wind_speed_ms: series.windSpeedMs,
+    station_pressure_kpa: series.stationPressureKpa,
+  };
+  const values = {} as Record<ValueColumn, Buffer>;
+  for (const column of VALUE_COLUMNS) {
+    const from = sources[column];
+    const to = new Float32Array(m);
+    for (let k = 0; k < m; k++) to[k] = from[order[k] ?? 0] ?? NaN;
+    values[column] = bytesOf(to);
+  }
+  return { hourCount: m, hours: bytesOf(hours), values };
+}
+
+/** The stored columns back as a series (float64 copies of the float32 values, as a recomputation needs). */
+export function unpackRecord(hourCount: number, hours: Buffer, values: Record<ValueColumn, Buffer>): HourlySeries {
+  const view = <T>(buf: Buffer, make: (b: ArrayBuffer, offset: number, n: number) => T): T => {
+    const aligned = buf.byteOffset % 4 === 0 ? buf : Buffer.from(new Uint8Array(buf));
+    return make(aligned.buffer as ArrayBuffer, aligned.byteOffset, hourCount);
+  };
+  const h = view(hours, (b, o, n) => new Int32Array(b, o, n));
+  const time = new Float64Array(hourCount);
+  for (let i = 0; i < hourCount; i++) time[i] = (h[i] ?? 0) * MS_PER_HOUR;
+  const column = (c: ValueColumn) => Float64Array.from(view(values[c], (b, o, n) => new Float32Array(b, o, n)));
+  return {
+    time,
+    dryBulbC: column('dry_bulb_c'),
+    dewPointC: column('dew_point_c'),
+    windSpeedMs: column('wind_speed_ms'),
+    stationPressureKpa: column('station_pressure_kpa'),
+  };
+}
+
+/** A stored sweep index and the key it was built for (shared/sweep/sweep-index.ts). */
+export interface StoredSweepIndex {
+  key: string;
+  bytes: Uint8Array;
 }
 
 /**
- * Replaces a site's hourly observations with a series by one binary COPY. `trx` must be a
- * transaction: a failure leaves the old record in place. Repeated hours keep their first value,
- * as the engine does.
+ * Stores a series as a site's record, replacing the one before, in one statement (one row per
+ * site). `trx` should be the transaction the rest of the upload is written in. Returns the number
+ * of hours stored.
  */
-export async function replaceObservations(trx: Knex.Transaction, siteId: string, series: HourlySeries): Promise<number> {
-  // The site must exist and stay while its rows go in (hourly_observations has no foreign key).
-  const site: unknown = await trx('climate_sites').where({ id: siteId }).forKeyShare().first('id');
-  if (!site) throw new Error(`climate site ${siteId} does not exist`);
-  await trx('hourly_observations').where({ climate_site_id: siteId }).delete();
-  // Inside a transaction knex hands out the transaction's own connection.
-  const client = trx.client as { acquireConnection(): Promise<pg.PoolClient> };
-  const conn = await client.acquireConnection();
-  const { buffer, rows } = binaryCopyRows(siteId, series);
-  const copy = conn.query(
-    copyFrom(
-      'COPY hourly_observations (climate_site_id, observed_at, dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa) FROM STDIN (FORMAT binary)',
-    ),
-  );
-  await new Promise<void>((resolve, reject) => {
-    copy.on('finish', resolve);
-    copy.on('error', reject);
-    copy.end(buffer);
-  });
-  return rows;
+export async function writeRecord(
+  trx: Knex.Transaction,
+  siteId: string,
+  series: HourlySeries,
+  sweepIndex: StoredSweepIndex | null,
+): Promise<number> {
+  const packed = packRecord(series);
+  await trx('climate_records')
+    .insert({
+      climate_site_id: siteId,
+      hour_count: packed.hourCount,
+      hours: packed.hours,
+      ...packed.values,
+      sweep_index: sweepIndex ? Buffer.from(sweepIndex.bytes.buffer, sweepIndex.bytes.byteOffset, sweepIndex.bytes.byteLength) : null,
+      sweep_index_key: sweepIndex?.key ?? null,
+      stored_at: trx.fn.now(),
+    })
+    .onConflict('climate_site_id')
+    .merge();
+  return packed.hourCount;
 }
 
-/** A site's stored hourly record, in time order. */
-export async function loadObservations(db: Knex, siteId: string): Promise<HourlySeries> {
-  const rows = await db('hourly_observations')
+type RecordRow = { hour_count: number; hours: Buffer } & Record<ValueColumn, Buffer>;
+
+/** A site's stored hourly record, in time order (an empty series when it has none). */
+export async function loadRecord(db: Knex, siteId: string): Promise<HourlySeries> {
+  const row = await db('climate_records')
     .where({ climate_site_id: siteId })
-    .orderBy('observed_at')
-    .select<{ t: number; db: number | null; dp: number | null; ws: number | null; p: number | null }[]>(
-      db.raw('(extract(epoch from observed_at) * 1000)::float8 as t'),
-      'dry_bulb_c as db',
-      'dew_point_c as dp',
-      'wind_speed_ms as ws',
-      'station_pressure_kpa as p',
+    .first<RecordRow | undefined>('hour_count', 'hours', ...VALUE_COLUMNS);
+  if (!row) return unpackRecord(0, Buffer.alloc(0), { dry_bulb_c: Buffer.alloc(0), dew_point_c: Buffer.alloc(0), wind_speed_ms: Buffer.alloc(0), station_pressure_kpa: Buffer.alloc(0) });
+  return unpackRecord(row.hour_count, row.hours, row);
+}
+
+/**
+ * What a sweep needs of a site's record, in one query: the stored sweep index when it was built
+ * for `indexKey`, otherwise the record's columns (to index them again).
+ */
+export async function loadRecordForSweep(
+  db: Knex,
+  siteId: string,
+  indexKey: string,
+): Promise<{ index: Buffer } | { series: HourlySeries } | undefined> {
+  const fresh = 'sweep_index IS NOT NULL AND sweep_index_key = ?';
+  const row = await db('climate_records')
+    .where({ climate_site_id: siteId })
+    .first<({ index: Buffer | null; hour_count: number; hours: Buffer | null } & Record<ValueColumn, Buffer | null>) | undefined>(
+      db.raw(`CASE WHEN ${fresh} THEN sweep_index END AS index`, [indexKey]),
+      'hour_count',
+      ...['hours', ...VALUE_COLUMNS].map((c) => db.raw(`CASE WHEN ${fresh} THEN NULL ELSE ?? END AS ??`, [indexKey, c, c])),
     );
-  const n = rows.length;
-  const series = {
-    time: new Float64Array(n),
-    dryBulbC: new Float64Array(n),
-    dewPointC: new Float64Array(n),
-    windSpeedMs: new Float64Array(n),
-    stationPressureKpa: new Float64Array(n),
-  };
-  // `real` arrives as its shortest decimal text; Math.fround gives back the exact stored
-  // 32-bit value, so a recomputation matches what was computed at upload.
-  const f = (v: number | null) => (v === null ? NaN : Math.fround(v));
-  rows.forEach((r, i) => {
-    series.time[i] = r.t;
-    series.dryBulbC[i] = f(r.db);
-    series.dewPointC[i] = f(r.dp);
-    series.windSpeedMs[i] = f(r.ws);
-    series.stationPressureKpa[i] = f(r.p);
-  });
-  return series;
+  if (!row) return undefined;
+  if (row.index) return { index: row.index };
+  const { hours, dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa } = row;
+  if (!hours || !dry_bulb_c || !dew_point_c || !wind_speed_ms || !station_pressure_kpa) throw new Error('climate record without columns');
+  return { series: unpackRecord(row.hour_count, hours, { dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa }) };
 }
 
 export interface StoredComputation {

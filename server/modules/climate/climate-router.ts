@@ -15,9 +15,9 @@ import { csvFields, type CsvMapping } from '@shared/climate/readers/csv-reader';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
 import * as repo from './climate-repo';
-import { analyse, qualitySummary, recompute, storeRecord, storedComputation } from './climate-service';
-import { atStoragePrecision, decodeSeries, encodeSeries } from './series-codec';
-import { readWeatherFiles } from './weather-files';
+import { recompute, storeRecord } from './climate-service';
+import { decodeSeries } from './series-codec';
+import type { UploadPool } from './upload-pool';
 
 const siteParam = z.object({ siteId: z.uuid('Unknown climate site') });
 const uploadParam = z.object({ uploadId: z.uuid('Unknown upload') });
@@ -51,10 +51,12 @@ export function baseName(claimed: string): string {
 
 const upload = multer({
   storage: multer.memoryStorage(),
+  // File names are UTF-8 (as browsers send them): café.csv stays café.csv.
+  defParamCharset: 'utf8',
   limits: { fileSize: CLIMATE_UPLOAD_MAX_BYTES, files: CLIMATE_UPLOAD_MAX_FILES, fields: 5, fieldSize: 8000 },
 });
 
-export function climateRouter(db: Knex): Router {
+export function climateRouter(db: Knex, uploads: UploadPool): Router {
   const router = Router();
 
   router.get('/climate-sites', authorize(db, 'org:read'), async (req, res) => {
@@ -150,17 +152,18 @@ export function climateRouter(db: Knex): Router {
       if (total > CLIMATE_UPLOAD_MAX_BYTES) {
         throw new HttpError(413, 'file_too_large', `An upload can hold at most ${CLIMATE_UPLOAD_MAX_BYTES / 1024 / 1024} MB`);
       }
-      const { series, format, rowCount } = readWeatherFiles(
-        files.map((f) => ({ name: baseName(f.originalname), content: f.buffer })),
-        { format: fields.format, mapping },
-      );
-      const stored = atStoragePrecision(series);
-      const analysis = analyse(stored, site.elevationM);
-      const { result, quality } = analysis;
       const fileName = files.length === 1 ? baseName(files[0]?.originalname ?? '') : `${files.length} files`;
-      const computed = storedComputation(analysis, { fileName, rowCount });
+      // Reading, checking and the preview run in the upload pool; this thread only moves the bytes.
+      const parsed = await uploads.parse(organizationId, {
+        files: files.map((f) => ({ name: baseName(f.originalname), content: f.buffer })),
+        format: fields.format,
+        mapping,
+        elevationM: site.elevationM,
+        fileName,
+      });
+      if (!parsed.ok) throw new HttpError(parsed.status, parsed.code, parsed.message, parsed.details);
+      const { format, rowCount, quality: summary, computed } = parsed;
       const expiresAt = new Date(Date.now() + UPLOAD_HOURS * 3_600_000);
-      const summary = qualitySummary(quality);
       const [row] = await db('climate_uploads')
         .insert({
           organization_id: organizationId,
@@ -169,10 +172,12 @@ export function climateRouter(db: Knex): Router {
           file_name: fileName,
           format,
           row_count: rowCount,
-          series: encodeSeries(stored),
+          series: Buffer.from(parsed.series.buffer, parsed.series.byteOffset, parsed.series.byteLength),
           quality: JSON.stringify(summary),
           analysis: computed ? JSON.stringify(computed) : null,
           elevation_m: site.elevationM,
+          sweep_index: parsed.sweepIndex ? Buffer.from(parsed.sweepIndex.bytes.buffer, parsed.sweepIndex.bytes.byteOffset, parsed.sweepIndex.bytes.byteLength) : null,
+          sweep_index_key: parsed.sweepIndex?.key ?? null,
           expires_at: expiresAt,
         })
         .returning<{ id: string }[]>('id');
@@ -184,13 +189,18 @@ export function climateRouter(db: Knex): Router {
         format,
         rowCount,
         quality: summary,
-        preview: result.ok ? result.conditions : null,
-        warnings: [...(result.ok ? [] : [result.error.message]), ...result.warnings.map((w) => w.message)],
+        preview: parsed.preview,
+        warnings: parsed.warnings,
         expiresAt: expiresAt.toISOString(),
       };
       res.status(201).location(`/api/v1/climate-uploads/${row.id}`).json(answer);
     },
   );
+
+  // The organisation's uploads being read and waiting their turn: the upload screen shows it while it waits.
+  router.get('/climate-upload-queue', authorize(db, 'org:read'), (req, res) => {
+    res.json(uploads.pendingFor(orgContext(req).organizationId));
+  });
 
   router.post('/climate-uploads/:uploadId/confirm', authorize(db, 'project:write'), async (req, res) => {
     const { uploadId } = uploadParam.parse(req.params);
@@ -208,9 +218,11 @@ export function climateRouter(db: Knex): Router {
               row_count: number;
               analysis: repo.StoredComputation | null;
               elevation_m: number | null;
+              sweep_index: Buffer | null;
+              sweep_index_key: string | null;
             }
           | undefined
-        >('climate_site_id', 'series', 'file_name', 'row_count', 'analysis', 'elevation_m');
+        >('climate_site_id', 'series', 'file_name', 'row_count', 'analysis', 'elevation_m', 'sweep_index', 'sweep_index_key');
       if (!up) throw new HttpError(404, 'not_found', 'That upload was not found or has expired; upload the file again');
       const site = await repo.findSite(trx, organizationId, up.climate_site_id);
       if (!site) throw siteNotFound();
@@ -223,6 +235,7 @@ export function climateRouter(db: Knex): Router {
         site.elevationM,
         { fileName: up.file_name, rowCount: up.row_count },
         computed,
+        up.sweep_index && up.sweep_index_key ? { key: up.sweep_index_key, bytes: up.sweep_index } : null,
       );
       await trx('climate_uploads').where({ climate_site_id: up.climate_site_id }).delete();
       return up.climate_site_id;

@@ -5,6 +5,7 @@ import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import type { HourlySeries } from '@shared/climate/hourly-series';
 import { prepareSeries } from '@shared/climate/prepared-series';
 import { qualityReportFromPrepared, type QualityReport } from '@shared/climate/quality-report';
+import { buildSweepIndex, packSweepIndex, sweepIndexKey } from '@shared/sweep/sweep-index';
 import { HttpError } from '../../http/http-error';
 import * as repo from './climate-repo';
 
@@ -55,10 +56,20 @@ export function storedComputation(
   };
 }
 
+/** The sweep index of a record over the given years, packed for storing beside it. */
+export function storedSweepIndex(series: HourlySeries, qualifyingYears: readonly number[]): repo.StoredSweepIndex {
+  return {
+    key: sweepIndexKey(qualifyingYears),
+    bytes: packSweepIndex(buildSweepIndex({ series, qualifyingYears })),
+  };
+}
+
 /**
- * Stores a record and its computed conditions (inside the caller's transaction). `computed`
- * is the result already worked out for this very series at upload; it is recomputed when
- * absent or made by another method version.
+ * Stores a series as a site's record, with its computed conditions and its sweep index, inside the
+ * caller's transaction: the one function every path that gives a site its hourly record goes through.
+ * `computed` is the result already worked out for this very series at upload; it is recomputed when
+ * absent or made by another method version. `sweepIndex` likewise, when it was built at upload for
+ * the same qualifying years.
  */
 export async function storeRecord(
   trx: Knex.Transaction,
@@ -67,13 +78,16 @@ export async function storeRecord(
   elevationM: number | null,
   source: { fileName: string | null; rowCount: number },
   computed?: repo.StoredComputation | null,
+  sweepIndex?: repo.StoredSweepIndex | null,
 ): Promise<void> {
   const current =
     computed?.methodVersion === METHOD_VERSION ? computed : storedComputation(analyse(series, elevationM), source);
   if (!current) {
     throw new HttpError(422, 'no_qualifying_years', 'No year of the record has enough valid hours (85 %). Nothing was stored.');
   }
-  await repo.replaceObservations(trx, siteId, series);
+  const years = current.conditions.period.qualifyingYears;
+  const index = sweepIndex?.key === sweepIndexKey(years) ? sweepIndex : storedSweepIndex(series, years);
+  await repo.writeRecord(trx, siteId, series, index);
   await repo.saveComputation(trx, siteId, current);
 }
 
@@ -83,7 +97,7 @@ export async function recompute(trx: Knex.Transaction, siteId: string, elevation
     .where({ climate_site_id: siteId })
     .first<{ file_name: string | null; row_count: number } | undefined>('file_name', 'row_count');
   if (!current) return;
-  const series = await repo.loadObservations(trx, siteId);
+  const series = await repo.loadRecord(trx, siteId);
   const computed = storedComputation(analyse(series, elevationM), { fileName: current.file_name, rowCount: current.row_count });
   if (computed) await repo.saveComputation(trx, siteId, computed);
 }

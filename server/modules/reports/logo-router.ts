@@ -1,7 +1,8 @@
 /**
  * The organisation's logo for reports (`/api/v1/organization/logo`): PNG, JPEG or SVG up to 1 MB,
  * the type read from the content (never the name); an SVG is cleaned with DOMPurify (SVG profile, no
- * scripts, event handlers, foreign objects or external references) before it is stored.
+ * scripts, event handlers, foreign objects or external references) before it is stored. Every logo
+ * is then read in full (`logo-check.ts`): one that does not decode is refused at upload.
  */
 import createDOMPurify from 'dompurify';
 import { Router, type Response } from 'express';
@@ -11,8 +12,9 @@ import multer from 'multer';
 import { LOGO_MAX_BYTES } from '@shared/reports/report-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
+import { checkLogo } from './logo-check';
 
-const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: LOGO_MAX_BYTES, files: 1, fields: 0 } });
+const upload = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: LOGO_MAX_BYTES, files: 1, fields: 0 } });
 
 export async function loadLogo(db: Knex, organizationId: string): Promise<{ contentType: string; content: Buffer } | null> {
   const row = await db('organization_logos')
@@ -76,6 +78,14 @@ export function logoRouter(db: Knex): Router {
       if (!clean) throw new HttpError(400, 'invalid_file', 'Nothing drawable is left in this SVG once scripts and links are removed', [{ path: 'logo', message: 'Not a usable SVG' }]);
       content = Buffer.from(clean, 'utf8');
     }
+    // Decoded in full now, so that a file that only looks like an image is refused here, not when a PDF is made.
+    const checked = checkLogo(type, content);
+    if (!checked.ok) {
+      throw new HttpError(400, 'invalid_file', 'This image could not be read; export it again as a PNG, JPEG or SVG and upload that', [
+        { path: 'logo', message: checked.reason },
+      ]);
+    }
+    content = checked.content;
     await db('organization_logos')
       .insert({ organization_id: orgContext(req).organizationId, content_type: type, content, updated_at: db.fn.now() })
       .onConflict('organization_id')

@@ -21,13 +21,15 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { Config } from '../../config';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
+import { consume } from '../../http/rate-limit-store';
+import type { ReportSendLimits } from '../../http/security';
 import type { Mailer } from '../../mail/mailer';
 import { reportMail } from '../../mail/messages';
 import type { SweepPool } from '../scenarios/sweep-pool';
 import { scenarioSweep, type ScenarioRow } from '../scenarios/sweep-service';
 import { audit } from '../audit/audit';
 import { loadLogo, sendLogo } from './logo-router';
-import { reportPdf } from './report-pdf';
+import type { PdfPool } from './pdf-pool';
 import { hashReportToken, newReportToken, verifyReportToken } from './report-tokens';
 import { buildReportView } from './report-view';
 
@@ -76,8 +78,11 @@ const reportParams = projectParam.extend({ reportId: z.uuid('Unknown report') })
 const listQuery = z.strictObject({ scenarioId: z.uuid('Unknown scenario').optional() });
 const reportNotFound = () => new HttpError(404, 'not_found', 'That report was not found');
 
-export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config; mailer: Mailer }): Router {
-  const { db, pool, config, mailer } = deps;
+/** What a send's record says until its e-mail is known to have left (it stays so only if the server stopped meanwhile). */
+const SEND_INTERRUPTED = 'The sending was interrupted; check with the client before sending again';
+
+export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPool; config: Config; mailer: Mailer; sendLimits: ReportSendLimits }): Router {
+  const { db, pool, pdfPool, config, mailer, sendLimits } = deps;
   const router = Router();
 
   function reportQuery(organizationId: string) {
@@ -148,14 +153,14 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
   }
 
   async function sendPdf(res: Response, row: ReportRow, view: ReportView): Promise<void> {
-    const pdf = await reportPdf(view, await loadLogo(db, row.organization_id));
+    const pdf = await pdfPool.render(view, await loadLogo(db, row.organization_id));
     const name = view.title.replace(/[^\w.-]+/g, '-').replace(/-+/g, '-').slice(0, 80) || 'report';
     res.type('application/pdf').set('Content-Disposition', `inline; filename="${name}.pdf"`).send(pdf);
   }
 
-  async function createLink(reportId: string, userId: string, days: number): Promise<{ link: ReportLink; url: string; id: string }> {
+  async function createLink(reportId: string, userId: string, days: number, conn: Knex = db): Promise<{ link: ReportLink; url: string; id: string }> {
     const { token, hash } = newReportToken(config.sessionSecret);
-    const [row] = await db('report_links')
+    const [row] = await conn('report_links')
       .insert({ report_id: reportId, token_hash: hash, expires_at: new Date(Date.now() + days * DAY_MS), created_by: userId })
       .returning<LinkRow[]>('*');
     if (!row) throw new Error('link not created');
@@ -169,8 +174,17 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
     input: { to: string; message: string; expiresInDays: number },
     userId: string,
   ) {
-    const { url, id: linkId, link } = await createLink(row.id, userId, input.expiresInDays);
-    await audit(db, null, { type: 'report_link_created', organizationId: row.organization_id, userId, detail: { report: row.id, title: row.title, link: linkId, emailedTo: input.to } });
+    // The link, the send's record and the audit entry are written together before the e-mail goes
+    // out: a failure before it leaves nothing behind, and nothing after it can make a retry send twice.
+    const { url, linkId, link, sendId } = await db.transaction(async (trx) => {
+      const made = await createLink(row.id, userId, input.expiresInDays, trx);
+      await audit(trx, null, { type: 'report_link_created', organizationId: row.organization_id, userId, detail: { report: row.id, title: row.title, link: made.id, emailedTo: input.to } });
+      const [send] = await trx('report_sends')
+        .insert({ report_id: row.id, link_id: made.id, recipient: input.to, message: input.message, status: 'failed', error: SEND_INTERRUPTED, sent_by: userId })
+        .returning<{ id: string }[]>('id');
+      if (!send) throw new Error('send not recorded');
+      return { url: made.url, linkId: made.id, link: made.link, sendId: send.id };
+    });
     let error: string | null = null;
     try {
       await mailer.send(
@@ -189,10 +203,8 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
       // The link of a failed send was never delivered: revoke it.
       await db('report_links').where({ id: linkId }).update({ revoked_at: db.fn.now() });
     }
-    const [send] = await db('report_sends')
-      .insert({ report_id: row.id, link_id: linkId, recipient: input.to, message: input.message, status: error ? 'failed' : 'sent', error, sent_by: userId })
-      .returning<{ id: string }[]>('id');
-    return { sendId: send?.id ?? '', error };
+    await db('report_sends').where({ id: sendId }).update({ status: error ? 'failed' : 'sent', error });
+    return { sendId, error };
   }
 
   router.get('/projects/:projectId/reports', authorize(db, 'org:read'), async (req, res) => {
@@ -289,8 +301,12 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; config: Config;
 
   async function sendAnswer(req: Request, res: Response, row: ReportRow, input: { to: string; message: string; expiresInDays: number }) {
     const { organizationId, user } = orgContext(req);
+    // Mail abuse: a limit per organisation and one per recipient (from every organisation), 429 past them.
+    await consume(sendLimits.perOrganization, organizationId);
+    await consume(sendLimits.perRecipient, input.to.trim().toLowerCase());
     const org = await db('organizations').where({ id: organizationId }).first<{ name: string }>('name');
     const { sendId, error } = await deliver(row, org.name, { name: user.name, email: user.email }, input, user.id);
+    await audit(db, req, { type: 'report_sent', organizationId, userId: user.id, detail: { report: row.id, title: row.title, to: input.to, send: sendId, status: error ? 'failed' : 'sent' } });
     const [report] = await toReports([row]);
     if (error) {
       res.status(502).json({

@@ -8,6 +8,8 @@ import {
   type ClimateSite,
   type ClimateSiteInput,
   type ClimateSitePatch,
+  type UploadQueue,
+  uploadQueueSchema,
 } from '@shared/climate-sites/climate-site-schemas';
 import { AuthStore } from '../auth/auth-store';
 
@@ -77,6 +79,11 @@ export class ClimateSitesApi {
   async confirmUpload(uploadId: string): Promise<ClimateSite> {
     const body = await firstValueFrom(this.http.post<unknown>(`/api/v1/climate-uploads/${uploadId}/confirm`, null));
     return climateSiteSchema.parse(body);
+  }
+
+  /** How many of the organisation's files are being read, and how many wait their turn. */
+  async uploadQueue(): Promise<UploadQueue> {
+    return uploadQueueSchema.parse(await firstValueFrom(this.http.get<unknown>('/api/v1/climate-upload-queue')));
   }
 
   async discardUpload(uploadId: string): Promise<void> {

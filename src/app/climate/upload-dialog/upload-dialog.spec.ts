@@ -91,6 +91,12 @@ describe('UploadDialog', () => {
     req.event({ type: HttpEventType.UploadProgress, loaded: 100, total: 100 });
     await stable();
     expect(text()).toContain('Checking the record…');
+    // While the server reads it, the dialog asks how many of the organisation's files wait their turn.
+    http.expectOne({ method: 'GET', url: '/api/v1/climate-upload-queue' }).flush({ reading: 1, waiting: 1 });
+    await stable();
+    expect(el.querySelector('[data-testid="upload-waiting"]')?.textContent?.replace(/\s+/g, ' ')).toContain(
+      '1 being read, 1 waiting',
+    );
 
     req.flush(anUpload(), { status: 201, statusText: 'Created' });
     await stable();
@@ -111,6 +117,7 @@ describe('UploadDialog', () => {
     expect(text()).toContain('2021-07-02 14:00 UTC: Dry-bulb 99.9 °C');
     expect(text()).toContain('2022 was left out: too many of its hours are missing.');
     expect(el.querySelector('[data-testid="upload-preview"]')?.textContent).toContain('−20.0 °C');
+    expect(el.querySelector('[data-testid="upload-waiting"]')).toBeNull();
     expect(button('Discard')).toBeDefined();
 
     button('Store this record')!.click();

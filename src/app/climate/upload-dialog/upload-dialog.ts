@@ -1,5 +1,5 @@
 import { HttpEventType } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -14,6 +14,7 @@ import {
   climateUploadSchema,
   type ClimateSite,
   type ClimateUpload,
+  type UploadQueue,
 } from '@shared/climate-sites/climate-site-schemas';
 import type { Subscription } from 'rxjs';
 import { AuthStore } from '../../auth/auth-store';
@@ -36,6 +37,7 @@ const STANDARD_DRY_BULB = ['dry_bulb_c', 'dry_bulb_f'];
 /** Text files, and gzip-packed ones (NOAA ships ISD-Lite as .gz; the server unpacks them). */
 const ALLOWED_EXTENSIONS = ['csv', 'txt', 'gz'];
 const MB = 1024 * 1024;
+const QUEUE_POLL_MS = 2000;
 
 function extensionOf(name: string): string {
   const dot = name.lastIndexOf('.');
@@ -77,6 +79,8 @@ export class UploadDialog {
   protected readonly error = signal('');
   protected readonly problems = signal<readonly FieldIssue[]>([]);
   protected readonly upload = signal<ClimateUpload | null>(null);
+  /** While the server reads the file: the organisation's files being read and waiting their turn. */
+  protected readonly queue = signal<UploadQueue | null>(null);
 
   /** Columns of the CSV header, when the file's header needs matching to our fields. */
   protected readonly columns = signal<readonly string[]>([]);
@@ -103,6 +107,16 @@ export class UploadDialog {
   constructor() {
     this.format.valueChanges.subscribe(() => void this.inspect());
     inject(DestroyRef).onDestroy(() => this.request?.unsubscribe());
+    // Files are read one at a time per organisation: while this one is checked, ask every 2 s how many wait.
+    effect((onCleanup) => {
+      if (this.stage() !== 'checking') {
+        this.queue.set(null);
+        return;
+      }
+      void this.refreshQueue();
+      const timer = setInterval(() => void this.refreshQueue(), QUEUE_POLL_MS);
+      onCleanup(() => clearInterval(timer));
+    });
   }
 
   protected megabytes(bytes: number): string {
@@ -231,6 +245,15 @@ export class UploadDialog {
         this.request = null;
       },
     });
+  }
+
+  private async refreshQueue(): Promise<void> {
+    try {
+      const q = await this.api.uploadQueue();
+      if (this.stage() === 'checking') this.queue.set(q);
+    } catch {
+      // Only a hint: the upload's own answer is what counts.
+    }
   }
 
   protected cancelUpload(): void {

@@ -20,6 +20,7 @@ const LABELS: Record<string, string> = {
   plan_changed: 'Plan changed',
   report_link_created: 'Shared a report link',
   report_link_revoked: 'Withdrew a report link',
+  report_sent: 'E-mailed a report',
 };
 
 /** The organisation's security log (owners). */

@@ -98,6 +98,31 @@ describe('TradeoffPage', () => {
     http.verify();
   });
 
+  it('keeps showing the previous result while a new sweep runs, then replaces it in place', async () => {
+    const { fixture, el, byId } = await render('designer', aScenario(), aSweepAnswer());
+    expect(byId('chosen-unit')).toBe('Furnace 9 kW');
+    const page = fixture.componentInstance as unknown as { settingsSaved(s: Scenario): void };
+    page.settingsSaved(aScenario());
+    await settle();
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(byId('chosen-unit')).toBe('Furnace 9 kW');
+    expect(byId('sweep-updating')).toContain('previous result');
+    expect(el.querySelector('[data-testid="chosen-point"]')?.getAttribute('aria-busy')).toBe('true');
+
+    const next = aSweepAnswer();
+    next.rows = next.rows.map((r) => ({ ...r, selectedOptionId: '2', capacityAtDesignW: 12000 }));
+    http.expectOne({ method: 'POST', url: `${URL}/sweep` }).flush(next);
+    await settle();
+    fixture.detectChanges();
+    await fixture.whenStable();
+    expect(byId('chosen-unit')).toBe('Furnace 12 kW');
+    expect(el.querySelector('[data-testid="sweep-updating"]')).toBeNull();
+    expect(el.querySelector('[data-testid="chosen-point"]')?.getAttribute('aria-busy')).toBe('false');
+    flushSettingsLoads();
+    http.verify();
+  });
+
   it('lists what is missing when the scenario cannot be swept', async () => {
     const { el, byId } = await render('designer', aScenario(), {
       status: 422,
