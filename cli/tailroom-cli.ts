@@ -11,7 +11,7 @@
  * Exit codes: 0 success, 1 unreadable or unusable data, 2 usage error.
  */
 import { createReadStream, existsSync, readFileSync, statSync } from 'node:fs';
-import { scenarioFileSchema, scenarioToEngine } from '../shared/sweep/scenario-file';
+import { readScenarioFile } from '../shared/sweep/scenario-file';
 import { sweep } from '../shared/sweep/sweep';
 import { createInterface } from 'node:readline';
 import {
@@ -146,20 +146,13 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
     process.stderr.write(`${scenarioPath}: not valid JSON\n`);
     return 1;
   }
-  const checked = scenarioFileSchema.safeParse(raw);
-  if (!checked.success) {
-    const lines = checked.error.issues.map((i) => `  ${i.path.join('.') || '(file)'}: ${i.message}`);
+  const read = readScenarioFile(raw);
+  if (!read.ok) {
+    const lines = read.problems.map((p) => `  ${p.field}: ${p.message}`);
     process.stderr.write(`${scenarioPath}: not a valid scenario:\n${lines.join('\n')}\n`);
     return 1;
   }
-  const scenario = checked.data;
-  let engine: ReturnType<typeof scenarioToEngine>;
-  try {
-    engine = scenarioToEngine(scenario);
-  } catch (error) {
-    process.stderr.write(`${scenarioPath}: ${error instanceof Error ? error.message : String(error)}\n`);
-    return 1;
-  }
+  const { scenario, engine } = read;
   const parsed = await parseFile(weather, formatFlag(flags));
   if (!parsed.ok) {
     const lines = parsed.problems.map((p) => `  line ${p.line}: ${p.message}`);
@@ -174,6 +167,7 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
   const result = sweep({
     ...engine,
     economics: scenario.economics,
+    heatPumpSizing: scenario.heatPumpSizing ?? 'compressor',
     designConditions: conditions.conditions,
     designWindMs: scenario.designWindMs ?? 6.7,
     record: { series: parsed.series, qualifyingYears: conditions.conditions.period.qualifyingYears },
@@ -187,17 +181,27 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
       designLoadW: r.designLoadW,
       selectedOptionId: r.selectedOptionId,
       capacityAtDesignW: r.capacityAtDesignW,
+      compressorAtDesignW: r.compressorAtDesignW,
       installedPrice: r.installedPrice,
       annualEnergyKWh: r.annualEnergyKWh,
       annualCost: r.annualCost,
       runHoursPerYear: r.runHoursPerYear,
+      backupHoursPerYear: r.backupHoursPerYear,
+      backupEnergyKWh: r.backupEnergyKWh,
       unmetHoursPerYear: r.unmetHoursPerYear,
       unmetHoursWorstYear: r.unmetHoursWorstYear,
       unmetDegreeHoursPerYear: r.unmetDegreeHoursPerYear,
+      lowestIndoorC: r.lowestIndoorC,
+      worstDropK: r.worstDropK,
       worstSagC: r.worstSagC,
       lifeCycleCost: r.lifeCycleCost,
+      reliabilityNote: r.reliabilityNote,
     }));
-  process.stdout.write(JSON.stringify({ rows }, null, 2) + '\n');
+  for (const w of result.warnings) process.stderr.write(`warning (${w.code}): ${w.message}\n`);
+  const { heatPumpSizing, selectionRule, studyPeriodYears, energyEscalationPctPerYear, warnings } = result;
+  process.stdout.write(
+    JSON.stringify({ heatPumpSizing, selectionRule, studyPeriodYears, energyEscalationPctPerYear, warnings, rows }, null, 2) + '\n',
+  );
   return 0;
 }
 

@@ -12,15 +12,15 @@ import { buildSweepIndex } from '../shared/sweep/sweep-index';
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? NaN;
 
-/** 15 gas furnaces and 10 heat pumps (invented sizes and prices) for a house of about 180 W/K. */
+/**
+ * 25 heat pumps with backup heat (invented sizes and prices) for a house of about 180 W/K: one
+ * family, as a scenario holds by default, sized on the compressor, with cycling losses and the
+ * indoor-temperature recovery walk.
+ */
 function benchScenario(): ScenarioFile {
   const equipment: ScenarioFile['equipment'] = [];
-  for (let k = 0; k < 15; k++) {
-    const outputW = 5000 + k * 1000;
-    equipment.push({ id: `f-${k}`, kind: 'furnace', outputW, efficiency: 0.95, installedPrice: 3000 + outputW * 0.1, lifeYears: 20, energy: 'gas' });
-  }
-  for (let k = 0; k < 10; k++) {
-    const at47 = 6000 + k * 1200;
+  for (let k = 0; k < 25; k++) {
+    const at47 = 6000 + k * 700;
     equipment.push({
       id: `hp-${k}`,
       kind: 'heat-pump',

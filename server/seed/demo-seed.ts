@@ -35,6 +35,14 @@ const DEMO_EQUIPMENT: EquipmentOptionInput[] = [
     kind: 'heat-pump', label: 'Demo cold-climate heat pump 3 t (invented)', capacity8_3W: 10_500, cop8_3: 3.7, capacityM8_3W: 8_200,
     copM8_3: 2.4, capacityM15W: 6_900, copM15: 1.9, backupW: 10_000, installedPrice: '13900.00', lifeYears: 15,
   },
+  {
+    kind: 'heat-pump', label: 'Demo cold-climate heat pump 4 t (invented)', capacity8_3W: 14_000, cop8_3: 3.6, capacityM8_3W: 11_600,
+    copM8_3: 2.4, capacityM15W: 10_200, copM15: 1.9, backupW: 10_000, installedPrice: '16400.00', lifeYears: 15,
+  },
+  {
+    kind: 'heat-pump', label: 'Demo cold-climate heat pump 5 t (invented)', capacity8_3W: 17_500, cop8_3: 3.5, capacityM8_3W: 14_600,
+    copM8_3: 2.3, capacityM15W: 12_900, copM15: 1.8, backupW: 15_000, installedPrice: '19100.00', lifeYears: 15,
+  },
   { kind: 'boiler', label: 'Demo oil boiler 90k (invented)', fuel: 'oil', efficiency: 0.86, outputW: 26_400, installedPrice: '9300.00', lifeYears: 25 },
 ];
 
@@ -122,7 +130,12 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
           climate_site_id: projectSiteId,
           equipment_list_id: list.id,
           settings: JSON.stringify(
-            scenarioSettingsSchema.parse({ optionLabels: labelsOf([...kinds]), extraDesignC: [], discountRatePct: 3 }),
+            scenarioSettingsSchema.parse({
+              optionLabels: labelsOf([...kinds]),
+              equipmentFamily: kinds[0] === 'furnace' ? 'fuel-fired' : 'heat-pump',
+              extraDesignC: [],
+              discountRatePct: 3,
+            }),
           ),
           created_by: ownerId,
           updated_by: ownerId,

@@ -13,14 +13,15 @@ export const BUILDING_DEFAULTS = {
   designWind: { source: 'default' as const },
   ventilation: { flowLps: 0, heatRecoveryEffectiveness: 0 },
   ductLossPct: 0,
-  /** METHODS §3.8: load procedures intend loads without arbitrary safety factors [M]. */
+  /** docs/methods.md#duct-loss-and-margins: load procedures intend loads without arbitrary safety factors [M]. */
   safetyFactorPct: 0,
   internalGainsW: 0,
+  creditGainsAtDesign: false,
 } as const;
 
 /**
  * Default winter design wind speed, m/s (15 mph): a common trade assumption, no source; it is the
- * wind behind the ASHRAE winter outside film value (METHODS §3.2, §9).
+ * wind behind the ASHRAE winter outside film value (docs/methods.md#surface-films, #trade-facts).
  */
 export const DEFAULT_DESIGN_WIND_MS = 6.7;
 
@@ -185,7 +186,7 @@ export const thermalMassSchema = z.discriminatedUnion(
     z.strictObject({
       mode: z.literal('class'),
       class: z.enum(thermalMassClasses, { error: 'Choose a thermal-mass class: light, medium or heavy' }),
-      /** Conditioned floor area, m²: the class gives a capacitance per m² of floor (METHODS §5.1). */
+      /** Conditioned floor area, m²: the class gives a capacitance per m² of floor (docs/methods.md#indoor-temperature). */
       floorAreaM2: positive('floor area', 'm²', 1_000_000),
     }),
   ],
@@ -205,12 +206,20 @@ export const buildingSchema = z.strictObject({
   airLeakage: airLeakageSchema,
   designWind: designWindSchema.default(BUILDING_DEFAULTS.designWind),
   ventilation: ventilationSchema.default(BUILDING_DEFAULTS.ventilation),
-  /** Duct loss as a percentage of the other losses (METHODS §3.8: 10–30 % for ducts outside, ≈ 0 inside [M]). */
+  /** Duct loss as a percentage of the other losses (docs/methods.md#duct-loss-and-margins: 10–30 % for ducts outside, ≈ 0 inside [M]). */
   ductLossPct: nonNegative('duct loss', '%', 100).default(BUILDING_DEFAULTS.ductLossPct),
   /** Safety factor applied to the load after gains, %. */
   safetyFactorPct: nonNegative('sizing margin', '%', 100).default(BUILDING_DEFAULTS.safetyFactorPct),
   /** Internal/solar gains credited against the load, W. */
   internalGainsW: nonNegative('internal-gain credit', 'W', 1_000_000).default(BUILDING_DEFAULTS.internalGainsW),
+  /**
+   * Whether the gains are also credited against the design load (sizing). Off by default: usual
+   * practice sizes without gains, which may be absent on the coldest night (docs/methods.md#design-load).
+   * The hourly load always credits them.
+   */
+  creditGainsAtDesign: z
+    .boolean({ error: 'Credit gains at design is true or false' })
+    .default(BUILDING_DEFAULTS.creditGainsAtDesign),
   thermalMass: thermalMassSchema,
 });
 export type Building = z.infer<typeof buildingSchema>;

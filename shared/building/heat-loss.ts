@@ -1,6 +1,6 @@
 /**
  * Steady-state building heat loss at an outdoor temperature and wind speed: conduction,
- * infiltration, mechanical ventilation and duct loss (METHODS §3), with the internal-gain credit and
+ * infiltration, mechanical ventilation and duct loss (docs/methods.md#heat-loss), with the internal-gain credit and
  * the safety factor reported separately so that callers can apply
  * L = max(0, (conduction + infiltration + ventilation)·(1 + duct) − gains) and D = L·(1 + safety).
  *
@@ -26,19 +26,19 @@ import { DEFAULT_DESIGN_WIND_MS } from './building-schemas';
 
 /**
  * Sensible heat of an airflow, W per (L/s·K): q_s = 1.23·Q·Δt. ASHRAE Handbook—Fundamentals,
- * Ch. 18 (Ch. 17 uses the same coefficient); METHODS §3.3. Derivation [C]: 0.001 m³/s × 1.2 kg/m³ ×
+ * Ch. 18 (Ch. 17 uses the same coefficient); docs/methods.md#air-heat. Derivation [C]: 0.001 m³/s × 1.2 kg/m³ ×
  * 1026 J/(kg·K) ≈ 1.23.
  */
 export const SENSIBLE_HEAT_FACTOR_W_PER_LPS_K = 1.23;
 
 /**
  * The traditional IP coefficient, Btu/h per (cfm·°F): q_s = 1.08·cfm·Δt (0.075 lb/ft³ × 60 min/h ×
- * 0.240 Btu/(lb·°F)); ASHRAE Handbook—Fundamentals Ch. 18, METHODS §3.3. For display only: the
+ * 0.240 Btu/(lb·°F)); ASHRAE Handbook—Fundamentals Ch. 18, docs/methods.md#air-heat. For display only: the
  * engine computes in SI with 1.23.
  */
 export const SENSIBLE_HEAT_FACTOR_BTUH_PER_CFM_F = 1.08;
 
-/** Airflow of an air-change rate: Q (L/s) = ACH·V (m³) / 3.6 (METHODS §3.4). */
+/** Airflow of an air-change rate: Q (L/s) = ACH·V (m³) / 3.6 (docs/methods.md#air-changes). */
 export function achToLps(ach: number, volumeM3: number): number {
   return (ach * volumeM3) / 3.6;
 }
@@ -51,14 +51,14 @@ export function lpsToAch(lps: number, volumeM3: number): number {
 // ---------------------------------------------------------------------------------------------
 // Conduction
 
-/** U-value of an envelope element, W/(m²·K): the U given, or 1/R (R air to air, films included; METHODS §3.1). */
+/** U-value of an envelope element, W/(m²·K): the U given, or 1/R (R air to air, films included; docs/methods.md#conduction). */
 export function componentUValue(component: Pick<EnvelopeComponent, 'uValue' | 'rValue'>): number {
   if (component.uValue !== undefined) return component.uValue;
   if (component.rValue !== undefined) return 1 / component.rValue;
   throw new Error('An envelope element needs a U-value or an R-value');
 }
 
-/** Conduction UA of an envelope, W/K: Σ A·U (METHODS §3.1, q = U·A·ΔT). */
+/** Conduction UA of an envelope, W/K: Σ A·U (docs/methods.md#conduction, q = U·A·ΔT). */
 export function envelopeUa(components: readonly Pick<EnvelopeComponent, 'areaM2' | 'uValue' | 'rValue'>[]): number {
   let ua = 0;
   for (const c of components) ua += c.areaM2 * componentUValue(c);
@@ -73,7 +73,7 @@ export function conductionUa(conduction: Conduction): number {
 // ---------------------------------------------------------------------------------------------
 // Blower door: ACH50 → natural ACH (LBL N-factor)
 
-/** Natural (seasonal-average) air changes from a blower-door ACH50: ACH_nat = ACH50 / N (METHODS §3.5). */
+/** Natural (seasonal-average) air changes from a blower-door ACH50: ACH_nat = ACH50 / N (docs/methods.md#ach50). */
 export function ach50ToNatural(ach50: number, nFactor: number): number {
   if (!(nFactor > 0)) throw new RangeError('The N-factor must be greater than 0');
   return ach50 / nFactor;
@@ -90,7 +90,7 @@ export type NFactorShielding = (typeof nFactorShieldings)[number];
  * LBL N-factor table by climate zone (1 = windiest/coldest map zone … 4), shielding and storeys
  * (1 / 1.5 / 2 / 3). Method: Sherman (1987), "Estimation of infiltration from leakage and climate
  * indicators", Energy and Buildings 10:81–86 [S: formula and dependencies]; the values are
- * METHODS §3.5's table [M: N_zone = 15.5/18.5/21.5/24.5 × storey factor 1.0/0.9/0.8/0.7 × shielding
+ * docs/methods.md#ach50's table [M: N_zone = 15.5/18.5/21.5/24.5 × storey factor 1.0/0.9/0.8/0.7 × shielding
  * factor 1.2/1.0/0.9, rounded to 0.1 — verify against the publication before relying on them].
  * Keyed by zone, then shielding; each row lists 1 / 1.5 / 2 / 3 storeys.
  */
@@ -109,28 +109,28 @@ export function nFactorFor(zone: NFactorZone, storeys: NFactorStoreys, shielding
   return n;
 }
 
-/** Rule-of-thumb N-factor when nothing else is known (METHODS §3.5 [S, secondary]). */
+/** Rule-of-thumb N-factor when nothing else is known (docs/methods.md#ach50 [S, secondary]). */
 export const N_FACTOR_RULE_OF_THUMB = 20;
 
 // ---------------------------------------------------------------------------------------------
-// Effective leakage area (ASHRAE Handbook—Fundamentals Ch. 16; METHODS §3.6)
+// Effective leakage area (ASHRAE Handbook—Fundamentals Ch. 16; docs/methods.md#ela)
 
 export interface ElaOptions {
-  /** Flow exponent n of Q = C·Δp^n; 0.65 typical (METHODS §3.6 [M]). */
+  /** Flow exponent n of Q = C·Δp^n; 0.65 typical (docs/methods.md#ela [M]). */
   exponent?: number;
-  /** Air density, kg/m³; 1.2 as in METHODS §3.6's check. */
+  /** Air density, kg/m³; 1.2 as in docs/methods.md#ela's check. */
   airDensityKgM3?: number;
 }
 
-/** LBL reference pressure for the effective leakage area, Pa (METHODS §3.6, LBL convention [M]). */
+/** LBL reference pressure for the effective leakage area, Pa (docs/methods.md#ela, LBL convention [M]). */
 export const ELA_REFERENCE_PA = 4;
-/** Discharge coefficient of the LBL effective leakage area (METHODS §3.6 [M]). */
+/** Discharge coefficient of the LBL effective leakage area (docs/methods.md#ela [M]). */
 export const ELA_DISCHARGE_COEFFICIENT = 1;
 /** Blower-door test pressure of ACH50, Pa. */
 export const BLOWER_DOOR_PA = 50;
 
 /**
- * Effective leakage area at 4 Pa (C_D = 1), cm², from a blower-door ACH50 (METHODS §3.6):
+ * Effective leakage area at 4 Pa (C_D = 1), cm², from a blower-door ACH50 (docs/methods.md#ela):
  * Q50 = ACH50·V/3600; Q4 = Q50·(4/50)^n; A_L = 10 000·Q4·√(ρ/(2·4 Pa))/C_D.
  * Not the Canadian 10 Pa, C_D = 0.611 equivalent leakage area.
  */
@@ -143,18 +143,18 @@ export function elaFromAch50(ach50: number, volumeM3: number, options: ElaOption
 }
 
 // ---------------------------------------------------------------------------------------------
-// LBL (Sherman–Grimsrud) basic infiltration model (ASHRAE Handbook—Fundamentals Ch. 16; METHODS §3.7)
+// LBL (Sherman–Grimsrud) basic infiltration model (ASHRAE Handbook—Fundamentals Ch. 16; docs/methods.md#lbl-infiltration)
 
 /**
  * Stack coefficient C_s, (L/s)²/(cm⁴·K), by storeys. Sherman & Grimsrud (1980) basic model,
- * coefficient tables of ASHRAE Handbook—Fundamentals (1989 and later), Ch. 16 [M in METHODS §3.7].
+ * coefficient tables of ASHRAE Handbook—Fundamentals (1989 and later), Ch. 16 [M in docs/methods.md#lbl-infiltration].
  */
 export const STACK_COEFFICIENT_SI: Readonly<Record<LblStoreys, number>> = { 1: 0.000145, 2: 0.00029, 3: 0.000435 };
 
 /**
  * Wind coefficient C_w, (L/s)²/(cm⁴·(m/s)²), by shielding class (1 = no obstructions … 5 = very
  * heavy, downtown) and storeys. ASHRAE Handbook—Fundamentals 1989 table, as reproduced in a CRC
- * Press textbook companion [S in METHODS §3.7].
+ * Press textbook companion [S in docs/methods.md#lbl-infiltration].
  */
 export const WIND_COEFFICIENT_SI: Readonly<Record<ShieldingClass, Readonly<Record<LblStoreys, number>>>> = {
   1: { 1: 0.000319, 2: 0.00042, 3: 0.000494 },
@@ -167,7 +167,7 @@ export const WIND_COEFFICIENT_SI: Readonly<Record<ShieldingClass, Readonly<Recor
 /**
  * Infiltration airflow, L/s, of the LBL basic model: Q = A_L·√(C_s·|Δt| + C_w·U²), with A_L the
  * effective leakage area (cm²), Δt the indoor–outdoor difference (K) and U the weather-station wind
- * speed (m/s). METHODS §3.7.
+ * speed (m/s). docs/methods.md#lbl-infiltration
  */
 export function lblInfiltrationLps(
   elaCm2: number,
@@ -221,7 +221,10 @@ export interface HeatLoss {
   safetyFactorFraction: number;
   /** L = max(0, totalW − internalGainsW), W. */
   loadW: number;
-  /** D = L × (1 + safety factor), W. */
+  /**
+   * D = (totalW, or L when the building credits its gains at design) × (1 + safety factor), W.
+   * Gains are not credited at design unless `creditGainsAtDesign` says so (docs/methods.md#design-load).
+   */
   designLoadW: number;
 }
 
@@ -261,7 +264,7 @@ export function heatLoss(building: Building, outdoorC: number, windMs: number): 
     ductLossFraction,
     safetyFactorFraction,
     loadW,
-    designLoadW: loadW * (1 + safetyFactorFraction),
+    designLoadW: (building.creditGainsAtDesign ? loadW : totalW) * (1 + safetyFactorFraction),
   };
 }
 
@@ -308,7 +311,7 @@ export function resolveDesignWind(choice: DesignWind, wind: DesignWindValues | n
 
 /**
  * Effective thermal capacitance per m² of floor, J/(m²·K), by construction class: ISO 13790 classes
- * as listed in METHODS §5.1 [M — verify against ISO 13790 / ISO 52016-1 before relying on them].
+ * as listed in docs/methods.md#indoor-temperature [M — verify against ISO 13790 / ISO 52016-1 before relying on them].
  */
 export const THERMAL_CAPACITANCE_J_PER_M2K: Readonly<Record<ThermalMassClass, number>> = {
   light: 110_000,
@@ -317,7 +320,7 @@ export const THERMAL_CAPACITANCE_J_PER_M2K: Readonly<Record<ThermalMassClass, nu
 };
 
 /**
- * The building's thermal time constant, hours: τ = C/H (METHODS §5.1, first-order single node),
+ * The building's thermal time constant, hours: τ = C/H (docs/methods.md#indoor-temperature, first-order single node),
  * with C = class capacitance × floor area for the class mode and H the heat-loss conductance (W/K,
  * normally `heatLoss(...).conductanceWPerK.total` at design conditions). The hours mode returns the
  * time constant given.

@@ -22,7 +22,7 @@ import {
   standardPressurePa,
 } from './psychrometrics';
 
-/** Fewer qualifying years than this gives a `short-record` warning (ASHRAE's minimum record, [M] in METHODS §1.2). */
+/** Fewer qualifying years than this gives a `short-record` warning (ASHRAE's minimum record, [M] in docs/methods.md#percentiles). */
 export const MIN_RECORD_YEARS = 8;
 /** Base of the heating degree-days, °C (65 °F as tabulated). */
 export const HDD_BASE_C = 18.3;

@@ -1,10 +1,10 @@
 /**
  * Heating capacity of an equipment option at an outdoor temperature, and the balance point where a
- * heat pump's capacity meets the building's load (METHODS §4).
+ * heat pump's capacity meets the building's load (docs/methods.md#equipment).
  *
  * Heat pumps: capacity Q and electric input P are interpolated linearly between the rating points
  * (8.3 °C / 47 °F, −8.3 °C / 17 °F and optionally −15 °C / 5 °F), separately, and COP = Q/P
- * (METHODS §4.3, DOE/AHRI practice [M]). Above 8.3 °C the 8.3 → −8.3 °C line continues. Below the
+ * (docs/methods.md#heat-pump-capacity, DOE/AHRI practice [M]). Above 8.3 °C the 8.3 → −8.3 °C line continues. Below the
  * coldest rating point capacity and COP are held flat unless the option says `extrapolate: true`
  * (then the coldest segment continues, floored at 0 capacity).
  */
@@ -15,7 +15,7 @@ import type { EquipmentOption, FuelledOption, HeatPumpOption } from './equipment
 
 /**
  * Heat-pump rating temperatures, °C, exact conversions of the AHRI 210/240 / DOE Appendix M
- * outdoor dry-bulbs H1 47 °F, H2 35 °F, H3 17 °F and H4 5 °F (METHODS §4.3); tables round them to
+ * outdoor dry-bulbs H1 47 °F, H2 35 °F, H3 17 °F and H4 5 °F (docs/methods.md#heat-pump-capacity); tables round them to
  * 8.3, 1.7, −8.3 and −15 °C.
  */
 export const RATING_C = {
@@ -28,7 +28,7 @@ export const RATING_C = {
 } as const;
 
 /**
- * Default H2 (35 °F) point when no frost test was run (METHODS §4.3, DOE test procedure [M]):
+ * Default H2 (35 °F) point when no frost test was run (docs/methods.md#heat-pump-capacity, DOE test procedure [M]):
  * Q35 = 0.90·[Q17 + 0.6·(Q47 − Q17)], P35 = 0.985·[P17 + 0.6·(P47 − P17)].
  */
 export const DEFAULT_DEFROST_CAPACITY_FACTOR = 0.9;
@@ -52,7 +52,7 @@ export function ratingPoints(hp: HeatPumpOption): RatingPoint[] {
   return points;
 }
 
-/** The derived H2 (35 °F) point of METHODS §4.3 from the 47 °F and 17 °F ratings. */
+/** The derived H2 (35 °F) point of docs/methods.md#heat-pump-capacity from the 47 °F and 17 °F ratings. */
 export function defaultH2Point(hp: HeatPumpOption): RatingPoint {
   const [p47, p17] = ratingPoints(hp) as [RatingPoint, RatingPoint];
   return {
@@ -101,7 +101,7 @@ export function heatPumpAt(hp: HeatPumpOption, outdoorC: number): CompressorAt {
   return { capacityW, powerW, cop: capacityW / powerW };
 }
 
-/** Rated output of a furnace, boiler or electric heater, W: the output given, or input × efficiency (METHODS §4.1). */
+/** Rated output of a furnace, boiler or electric heater, W: the output given, or input × efficiency (docs/methods.md#combustion-output). */
 export function ratedOutputW(option: FuelledOption): number {
   if (option.outputW !== undefined) return option.outputW;
   if (option.inputW !== undefined) return option.inputW * option.efficiency;
@@ -154,7 +154,7 @@ export interface BalancePointRange {
 }
 
 /**
- * Thermal balance point, °C (METHODS §4.4): the outdoor temperature at which the heat-pump
+ * Thermal balance point, °C (docs/methods.md#balance-point): the outdoor temperature at which the heat-pump
  * compressor capacity (the whole output for other kinds; backup excluded) equals the building load
  * L(T) = max(0, heat loss − internal gains), without the safety factor. The warmest crossing in the
  * range is returned (below it the option cannot keep up without backup). Null when the capacity

@@ -24,8 +24,11 @@ const power = (label: string) =>
 const cop = (label: string) =>
   z
     .number({ error: `Enter the ${label} as a number` })
-    .positive(`The ${label} must be greater than 0`)
+    .min(1, `The ${label} must be at least 1 (below 1 a heat pump would give less heat than resistance heat)`)
     .max(10, `The ${label} must be at most 10`);
+
+/** Highest cycling degradation coefficient C_d accepted (docs/methods.md#cycling). */
+export const MAX_CYCLING_DEGRADATION = 0.5;
 
 const common = {
   label: z
@@ -40,13 +43,32 @@ const common = {
     .int({ error: 'Enter the expected life as a whole number of years' })
     .min(1, 'The expected life must be at least 1 year')
     .max(100, 'The expected life must be at most 100 years'),
+  /**
+   * Cycling degradation coefficient C_d of PLF = 1 − C_d·(1 − PLR), 0–0.5 (docs/methods.md#cycling).
+   * Left out: 0.25 for a heat pump, 0 for fuel-fired and resistance heat.
+   */
+  cyclingDegradation: z
+    .number({ error: 'Enter the cycling degradation coefficient as a number such as 0.25' })
+    .min(0, 'The cycling degradation coefficient cannot be negative')
+    .max(MAX_CYCLING_DEGRADATION, `The cycling degradation coefficient must be at most ${MAX_CYCLING_DEGRADATION}`)
+    .optional(),
+  /**
+   * Variable-capacity units: the lowest output as a fraction of full output (0.1–1). Below it the
+   * unit cycles at its minimum output; above it, it modulates with no cycling loss. Left out: the
+   * unit is single-stage (docs/methods.md#cycling).
+   */
+  minOutputFraction: z
+    .number({ error: 'Enter the minimum output as a fraction such as 0.3' })
+    .min(0.1, 'The minimum output must be at least 0.1 of full output')
+    .max(1, 'The minimum output must be at most 1 (full output)')
+    .optional(),
 };
 
 /** Output rating: either the output, or the input (output = input × efficiency). */
 const rated = {
   /** Rated heating output, W. */
   outputW: power('output').optional(),
-  /** Rated input, W (output = input × efficiency, METHODS §4.1). */
+  /** Rated input, W (output = input × efficiency, docs/methods.md#combustion-output). */
   inputW: power('input').optional(),
 };
 
@@ -95,10 +117,10 @@ export const heatPumpSchema = z.strictObject({
   extrapolate: z.boolean({ error: 'Extrapolate is true or false' }).default(false),
   /**
    * Use the frost/defrost band of the DOE/AHRI method between −8.3 °C and 7.2 °C (45 °F), with the
-   * default 1.7 °C (35 °F) point derived from the two ratings (METHODS §4.3 [M]).
+   * default 1.7 °C (35 °F) point derived from the two ratings (docs/methods.md#heat-pump-capacity [M]).
    */
   defrostBand: z.boolean({ error: 'Defrost band is true or false' }).default(false),
-  /** Low-ambient cut-out, °C: below it the compressor gives nothing (METHODS §4.3 [M]). */
+  /** Low-ambient cut-out, °C: below it the compressor gives nothing (docs/methods.md#heat-pump-capacity [M]). */
   cutoutC: z
     .number({ error: 'Enter the cut-out temperature as a number (°C)' })
     .min(-60, 'The cut-out temperature must be at least −60 °C')

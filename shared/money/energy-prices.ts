@@ -29,7 +29,7 @@ export const DEFAULT_HEATING_VALUES = {
   propaneMjPerL: convertUnits(PROPANE_HHV_BTU_PER_GAL, 'BTU/gal', 'MJ/L'),
 } as const;
 
-/** 1 therm = 100 000 Btu = 29.3071 kWh (METHODS §0 [C]). */
+/** 1 therm = 100 000 Btu = 29.3071 kWh (docs/methods.md#units [C]). */
 export const KWH_PER_THERM = convertUnits(100_000, 'BTU', 'kWh');
 
 const MJ_PER_KWH = 3.6;

@@ -6,6 +6,7 @@
 import { z } from 'zod';
 import { rowVersionSchema } from '../api/safe-text';
 import { energyPricesSchema } from '../money/energy-prices';
+import { DEFAULT_HEAT_PUMP_SIZING, DEFAULT_STUDY_PERIOD_YEARS, equipmentFamilies, heatPumpSizings } from '../sweep/sweep';
 
 export const SCENARIO_NAME_MAX = 160;
 export const EXTRA_DESIGN_TEMPERATURES_MAX = 10;
@@ -25,7 +26,7 @@ export const scenarioSettingsSchema = z.strictObject({
     .array(
       z
         .number({ error: 'Enter a temperature as a number (°C)' })
-        .min(-70, 'A design temperature must be at least −70 °C')
+        .min(-60, 'A design temperature must be at least −60 °C')
         .max(20, 'A design temperature must be at most 20 °C'),
     )
     .max(EXTRA_DESIGN_TEMPERATURES_MAX, `Add at most ${EXTRA_DESIGN_TEMPERATURES_MAX} design temperatures`)
@@ -36,6 +37,30 @@ export const scenarioSettingsSchema = z.strictObject({
     .min(0, 'The discount rate cannot be negative')
     .max(30, 'The discount rate must be at most 30 %')
     .default(DEFAULT_DISCOUNT_RATE_PCT),
+  /** Length of the one study period every option is costed over, years (docs/methods.md#life-cycle-cost). */
+  studyPeriodYears: z
+    .int({ error: 'Enter the study period as a whole number of years' })
+    .min(1, 'The study period must be at least 1 year')
+    .max(100, 'The study period must be at most 100 years')
+    .default(DEFAULT_STUDY_PERIOD_YEARS),
+  /** Real escalation of energy prices, % a year (0: prices keep pace with inflation). */
+  energyEscalationPctPerYear: z
+    .number({ error: 'Enter the energy price escalation as a number (% a year)' })
+    .min(-10, 'The energy price escalation must be at least −10 % a year')
+    .max(20, 'The energy price escalation must be at most 20 % a year')
+    .default(0),
+  /** How heat pumps are counted against the design load (docs/methods.md#heat-pump-sizing). */
+  heatPumpSizing: z
+    .enum(heatPumpSizings, { error: 'Size heat pumps on the compressor alone or with the backup heat' })
+    .default(DEFAULT_HEAT_PUMP_SIZING),
+  /**
+   * The equipment family the scenario considers (the New scenario dialog asks); null considers every
+   * family in the list, and then the lowest life-cycle cost decides (docs/methods.md#selection).
+   */
+  equipmentFamily: z
+    .enum(equipmentFamilies, { error: 'Choose fuel-fired, heat pump or electric resistance' })
+    .nullable()
+    .default(null),
   /** Sizing margin over the design load, %; null uses the building's own safety factor. */
   safetyFactorPct: z
     .number({ error: 'Enter the sizing margin as a number (%)' })
@@ -121,19 +146,30 @@ export const sweepRowSchema = z.object({
   selectedOptionId: z.string().nullable(),
   selectionReason: z.string().nullable(),
   capacityAtDesignW: nullableNumber,
+  /** Heat pumps: the compressor's capacity at the design temperature, W. */
+  compressorAtDesignW: nullableNumber.default(null),
   installedPrice: z.string().nullable(),
+  /** With cycling losses. */
   annualEnergyKWh: nullableNumber,
   annualCost: z.string().nullable(),
+  /** Equivalent full-load hours (of the compressor for a heat pump). */
   runHoursPerYear: nullableNumber,
+  backupHoursPerYear: nullableNumber.default(null),
+  backupEnergyKWh: nullableNumber.default(null),
   unmetHoursPerYear: nullableNumber,
   unmetHoursWorstYear: nullableNumber,
   unmetEnergyKWhPerYear: nullableNumber,
   unmetDegreeHoursPerYear: nullableNumber,
+  lowestIndoorC: nullableNumber.default(null),
+  worstDropK: nullableNumber.default(null),
+  /** Deprecated (see the README): `worstDropK` under its old name, kept for one release. */
   worstSagC: nullableNumber,
+  /** Over the answer's `studyPeriodYears`. */
   lifeCycleCost: z.string().nullable(),
   isGrid: z.boolean(),
   unavailableReason: z.string().nullable(),
   costUnavailableReason: z.string().nullable(),
+  reliabilityNote: z.string().nullable().default(null),
 });
 export type SweepRowAnswer = z.infer<typeof sweepRowSchema>;
 
@@ -173,6 +209,17 @@ export const sweepAnswerSchema = z.object({
   designWindMs: z.number(),
   indoorDesignC: z.number(),
   discountRatePct: z.number(),
+  /**
+   * The one study period of every life-cycle cost, years (null in results frozen before study
+   * periods, where each option was costed over its own life).
+   */
+  studyPeriodYears: z.int().nullable().default(null),
+  energyEscalationPctPerYear: z.number().default(0),
+  /** Results frozen before the setting existed counted heat pumps with their backup. */
+  heatPumpSizing: z.enum(heatPumpSizings).default('with-backup'),
+  selectionRule: z.enum(['smallest-capacity', 'lowest-life-cycle-cost', 'lowest-installed-price']).default('smallest-capacity'),
+  /** About the record's length and the option list: {code, message}. */
+  warnings: z.array(z.object({ code: z.string(), message: z.string() })).default([]),
   options: z.array(sweepOptionSchema),
   rows: z.array(sweepRowSchema),
   loadDuration: loadDurationSchema.nullable(),

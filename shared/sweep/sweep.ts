@@ -2,22 +2,24 @@
  * Design-temperature sweep: for each outdoor design temperature from the 99 % value down to the
  * 50-year extreme (plus extra temperatures and a 0.5 °C grid), the heating unit that would be
  * installed, its price, and — with an hourly record — its running cost, run-hours, unmet hours and
- * degree-hours, indoor temperature sag and life-cycle cost (METHODS §5, §5.1, §6).
+ * degree-hours, backup hours and energy, the lowest indoor temperature and the life-cycle cost over one
+ * study period (docs/methods.md#hourly, #indoor-temperature, #life-cycle-cost).
  *
  * Pure: no I/O. SI units (W, W/K, °C, K, h, kWh); money as decimal strings computed with decimal.js.
  *
  * `sweepNaive` loops hours × ladder rows × options and is the reference; `sweep` gives the same
  * figures faster: the hour-based figures depend only on the selected option, so each distinct option
- * is simulated once, in one pass over the hours (flat-capacity units with a wind-independent
- * conductance use per-year sorted loads with cumulative sums and walk only their unmet hours).
+ * is simulated once, over the record's hours grouped by outdoor temperature, and only the hours from
+ * each unmet hour until the house is back at the set-point are walked in time order.
  */
 import type { Building } from '../building/building-schemas';
 import { heatLoss, timeConstantHours } from '../building/heat-loss';
 import type { HourlySeries } from '../climate/hourly-series';
 import { prepareSeries, type PreparedSeries } from '../climate/prepared-series';
-import { capacityAt } from '../equipment/capacity';
+import { capacityAt, type CapacityAt } from '../equipment/capacity';
 import type { EquipmentOption } from '../equipment/equipment-schemas';
 import { pricePerKwhOfFuel, type EnergyPrices } from '../money/energy-prices';
+import type { Decimal } from 'decimal.js';
 import { MoneyDecimal, parseMoney, toMoneyString } from '../money/money';
 
 // ---------------------------------------------------------------------------------------------
@@ -25,6 +27,39 @@ import { MoneyDecimal, parseMoney, toMoneyString } from '../money/money';
 
 /** An equipment option with an identifier the sweep reports back. */
 export type SweepOption = EquipmentOption & { id: string };
+
+/**
+ * How a heat pump is counted against the design load (docs/methods.md#heat-pump-sizing):
+ * `compressor` (default) — the compressor alone at the design temperature must cover it, backup heat
+ * serves colder hours and emergencies; `with-backup` — compressor and backup together cover it.
+ */
+export const heatPumpSizings = ['compressor', 'with-backup'] as const;
+export type HeatPumpSizing = (typeof heatPumpSizings)[number];
+export const DEFAULT_HEAT_PUMP_SIZING: HeatPumpSizing = 'compressor';
+
+/** Equipment families: a scenario holds one by default (docs/methods.md#selection). */
+export const equipmentFamilies = ['fuel-fired', 'heat-pump', 'electric'] as const;
+export type EquipmentFamily = (typeof equipmentFamilies)[number];
+
+export function familyOf(option: Pick<EquipmentOption, 'kind'>): EquipmentFamily {
+  if (option.kind === 'heat-pump') return 'heat-pump';
+  if (option.kind === 'electric') return 'electric';
+  return 'fuel-fired';
+}
+
+/** How the installed unit is chosen among those that cover the design load (docs/methods.md#selection). */
+export type SelectionRule = 'smallest-capacity' | 'lowest-life-cycle-cost' | 'lowest-installed-price';
+
+/** Life-cycle cost settings (NIST Handbook 135; docs/methods.md#life-cycle-cost). */
+export interface SweepEconomics {
+  /** Real discount rate, % per year. */
+  discountRatePct: number;
+  /** One study period for every option, years (default 20). */
+  studyPeriodYears?: number;
+  /** Real escalation of energy prices, % per year (default 0). */
+  energyEscalationPctPerYear?: number;
+}
+export const DEFAULT_STUDY_PERIOD_YEARS = 20;
 
 /** The design values the ladder is built from: computed design conditions or a published subset. */
 export interface SweepDesignValues {
@@ -47,7 +82,7 @@ export interface SweepInput {
   building: Building;
   options: readonly SweepOption[];
   prices: EnergyPrices;
-  economics: { discountRatePct: number };
+  economics: SweepEconomics;
   designConditions: SweepDesignValues;
   /** Design wind speed, m/s (used for the design load, and for every hour without a wind value). */
   designWindMs: number;
@@ -55,55 +90,81 @@ export interface SweepInput {
   record?: SweepRecord | SweepRecordIndex | null;
   /** Extra design temperatures, °C. */
   extraDesignC?: readonly number[];
+  /** Default `compressor`. */
+  heatPumpSizing?: HeatPumpSizing;
 }
 
 export interface SweepRow {
   /** '99 %', '99.6 %', 'Extreme mean', '5-year' … '50-year', or the temperature ('-23.5 °C'). */
   label: string;
   designC: number;
-  /** D = L(design T, design wind) × (1 + safety), W. */
+  /** D = L(design T, design wind) × (1 + safety), W (docs/methods.md#design-load). */
   designLoadW: number;
   selectedOptionId: string | null;
   /** Why no option was selected (null when one was). */
   selectionReason: string | null;
   /** Total capacity of the selected option at the design temperature (backup included), W. */
   capacityAtDesignW: number | null;
+  /** Heat pumps: the compressor's capacity at the design temperature, W (null for other kinds). */
+  compressorAtDesignW: number | null;
   installedPrice: string | null;
-  /** Purchased energy per average qualifying year, kWh. */
+  /** Purchased energy per average qualifying year, with cycling losses, kWh. */
   annualEnergyKWh: number | null;
   /** annualEnergy × price per kWh of the fuel, per average year, rounded to cents. */
   annualCost: string | null;
+  /** Equivalent full-load hours per average year: Σ min(1, L/Q) with Q the compressor for a heat pump. */
   runHoursPerYear: number | null;
+  /** Heat pumps: hours per average year in which the compressor alone falls short and backup runs. */
+  backupHoursPerYear: number | null;
+  /** Heat pumps: heat (= electricity) from backup per average year, kWh. */
+  backupEnergyKWh: number | null;
+  /** Hours per average year in which the whole unit (backup included) falls short. */
   unmetHoursPerYear: number | null;
   unmetHoursWorstYear: number | null;
   /** Σ max(0, L − capacity) × 1 h per average year, kWh. */
   unmetEnergyKWhPerYear: number | null;
   /**
-   * Σ max(0, L − capacity)/UA per average year, K·h (METHODS §5), with UA the hour's load
-   * conductance including duct loss (UA·(1 + duct)), so that L = UA·ΔT − gains.
+   * Σ max(0, L − capacity)/UA per average year, K·h, with UA the hour's load conductance including
+   * duct loss (docs/methods.md#degree-hours).
    */
   unmetDegreeHoursPerYear: number | null;
-  /**
-   * Largest drop of the indoor temperature below the set-point over the record, K: single-node
-   * model of METHODS §5.1 with the same UA; the set-point holds while capacity suffices, the indoor
-   * temperature recovers to it in the first hour capacity does, and restarts at it after a gap.
-   */
+  /** The lowest indoor temperature over the record, °C (docs/methods.md#indoor-temperature). */
+  lowestIndoorC: number | null;
+  /** Set-point minus `lowestIndoorC`, K. */
+  worstDropK: number | null;
+  /** Deprecated (see the README): the same as `worstDropK`, kept for one release. */
   worstSagC: number | null;
-  /** Installed price + UPV(d, life) × annual cost, rounded to cents. */
+  /**
+   * Installed price + replacements − residual value + annual cost × UPV*(d, e, N) over the study
+   * period, rounded to cents (docs/methods.md#life-cycle-cost).
+   */
   lifeCycleCost: string | null;
   isGrid: boolean;
   /** Why the hour-based figures are null (no record, no option selected). */
   unavailableReason: string | null;
   /** Why the cost figures are null (no price for the fuel). */
   costUnavailableReason: string | null;
+  /** Set on return-period rows from a short record: how far to trust the design temperature. */
+  reliabilityNote: string | null;
+}
+
+/** Something the user should know about a sweep's figures. */
+export interface SweepWarning {
+  code: 'short-record' | 'return-periods-unreliable' | 'fifty-year-short-record' | 'no-return-periods' | 'mixed-families';
+  message: string;
 }
 
 export interface SweepResult {
   rows: SweepRow[];
   /** Qualifying years simulated (empty without a record). */
   years: number[];
-  /** Thermal time constant used by the sag model, h. */
+  /** Thermal time constant used by the indoor-temperature model, h. */
   timeConstantH: number;
+  heatPumpSizing: HeatPumpSizing;
+  selectionRule: SelectionRule;
+  studyPeriodYears: number;
+  energyEscalationPctPerYear: number;
+  warnings: SweepWarning[];
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -111,7 +172,7 @@ export interface SweepResult {
 
 /**
  * Uniform present value factor, NIST Handbook 135 (1995 ed.): UPV = ((1 + d)^n − 1)/(d·(1 + d)^n),
- * d the real discount rate as a fraction, n years; n when d = 0.
+ * d the real discount rate as a fraction, n years; n when d = 0 (docs/methods.md#life-cycle-cost).
  */
 export function uniformPresentValue(d: number, n: number): number {
   if (d === 0) return n;
@@ -119,15 +180,71 @@ export function uniformPresentValue(d: number, n: number): number {
   return (g - 1) / (d * g);
 }
 
-/** Steady indoor temperature with capacity Q and gains G against conductance UA: T_out + (Q + G)/UA (METHODS §5.1). */
+/** Single present value factor, NIST Handbook 135: SPV = 1/(1 + d)^t (docs/methods.md#life-cycle-cost). */
+export function singlePresentValue(d: number, t: number): number {
+  return 1 / (1 + d) ** t;
+}
+
+/**
+ * Modified uniform present value factor for an annual amount escalating at e, NIST Handbook 135:
+ * UPV* = ((1 + e)/(d − e))·(1 − ((1 + e)/(1 + d))^n); n when d = e (docs/methods.md#life-cycle-cost).
+ */
+export function modifiedUniformPresentValue(d: number, e: number, n: number): number {
+  if (Math.abs(d - e) < 1e-12) return n;
+  return ((1 + e) / (d - e)) * (1 - ((1 + e) / (1 + d)) ** n);
+}
+
+/**
+ * Present value of owning a unit of price 1 over a study period: the purchase, a replacement at the
+ * same real price at every multiple of the life inside the period, less the straight-line residual
+ * value of the unit in service at the end (docs/methods.md#life-cycle-cost).
+ */
+export function ownershipFactor(d: number, lifeYears: number, studyPeriodYears: number): {
+  replacements: number;
+  residual: number;
+  total: number;
+} {
+  let replacements = 0;
+  let lastPurchase = 0;
+  for (let t = lifeYears; t < studyPeriodYears; t += lifeYears) {
+    replacements += singlePresentValue(d, t);
+    lastPurchase = t;
+  }
+  const remaining = lastPurchase + lifeYears - studyPeriodYears;
+  const residual = (remaining / lifeYears) * singlePresentValue(d, studyPeriodYears);
+  return { replacements, residual, total: 1 + replacements - residual };
+}
+
+/** Default cycling degradation coefficient of a single-stage heat pump (docs/methods.md#cycling). */
+export const DEFAULT_HEAT_PUMP_CYCLING_DEGRADATION = 0.25;
+
+/** The option's C_d: its own, or 0.25 for a heat pump and 0 for other kinds (docs/methods.md#cycling). */
+export function cyclingDegradationOf(option: Pick<EquipmentOption, 'kind' | 'cyclingDegradation'>): number {
+  return option.cyclingDegradation ?? (option.kind === 'heat-pump' ? DEFAULT_HEAT_PUMP_CYCLING_DEGRADATION : 0);
+}
+
+/**
+ * Part-load factor PLF = 1 − C_d·(1 − PLR) (docs/methods.md#cycling). A variable-capacity unit with
+ * minimum output fraction m modulates without cycling loss above m, and cycles at its minimum output
+ * below it: PLF = 1 − C_d·(1 − PLR/m). A single-stage unit has m = 1.
+ */
+export function partLoadFactor(plr: number, cd: number, minOutputFraction = 1): number {
+  if (!(plr < minOutputFraction)) return 1;
+  return 1 - cd * (1 - plr / minOutputFraction);
+}
+
+/** Steady indoor temperature with capacity Q and gains G against conductance UA: T_out + (Q + G)/UA (docs/methods.md#indoor-temperature). */
 export function steadyIndoorC(outdoorC: number, capacityW: number, gainsW: number, uaWPerK: number): number {
   return outdoorC + (capacityW + gainsW) / uaWPerK;
 }
 
-/** One step of the single-capacitance model: T_ss + (T − T_ss)·e^(−Δt/τ) (METHODS §5.1). */
+/** One step of the single-capacitance model: T_ss + (T − T_ss)·e^(−Δt/τ) (docs/methods.md#indoor-temperature). */
 export function droopStep(indoorC: number, steadyC: number, tauH: number, dtH = 1): number {
   return steadyC + (indoorC - steadyC) * Math.exp(-dtH / tauH);
 }
+
+/** Longest gap in a record, hours, across which the indoor temperature carries on (docs/methods.md#indoor-temperature). */
+export const MAX_BRIDGED_GAP_H = 6;
 
 /** The grid step of the ladder, K. */
 export const GRID_STEP_C = 0.5;
@@ -172,29 +289,52 @@ export function designLadder(values: SweepDesignValues, extraDesignC: readonly n
     .map((x) => x.r);
 }
 
+/** The capacity counted against the design load: a heat pump's compressor alone under the `compressor` rule. */
+export function sizingCapacityW(option: EquipmentOption, designC: number, rule: HeatPumpSizing = DEFAULT_HEAT_PUMP_SIZING): number {
+  const c = capacityAt(option, designC);
+  return option.kind === 'heat-pump' && rule === 'compressor' ? c.compressorW : c.totalW;
+}
+
+/** The selection rule of an option list: the smallest capacity within one family, the lowest cost across families. */
+export function selectionRuleOf(options: readonly Pick<EquipmentOption, 'kind'>[], hasRecord: boolean): SelectionRule {
+  const families = new Set(options.map(familyOf));
+  if (families.size <= 1) return 'smallest-capacity';
+  return hasRecord ? 'lowest-life-cycle-cost' : 'lowest-installed-price';
+}
+
 /**
- * The option installed for a design load: the smallest total capacity at the design temperature
- * that is at least the load (heat pumps: compressor + backup); ties go to the lower price, then to
- * the earlier option.
+ * The option installed for a design load (docs/methods.md#selection): among the options whose
+ * sizing capacity at the design temperature is at least the load, the smallest capacity (one family;
+ * ties to the lower price, then the earlier option), or the lowest life-cycle cost (mixed families;
+ * an option without one ranks last; ties to the smaller capacity), or the lowest installed price
+ * (mixed families without a record).
  */
 export function selectOption(
   options: readonly SweepOption[],
   designC: number,
   designLoadW: number,
+  rule: SelectionRule = 'smallest-capacity',
+  heatPumpSizing: HeatPumpSizing = DEFAULT_HEAT_PUMP_SIZING,
+  lifeCycleCostOf: (option: SweepOption) => Decimal | null = () => null,
 ): { option: SweepOption; capacityW: number } | null {
-  let best: { option: SweepOption; capacityW: number } | null = null;
+  let best: { option: SweepOption; capacityW: number; cost: Decimal | null } | null = null;
   for (const option of options) {
-    const capacityW = capacityAt(option, designC).totalW;
+    const capacityW = sizingCapacityW(option, designC, heatPumpSizing);
     if (!(capacityW >= designLoadW)) continue;
-    if (
-      best === null ||
-      capacityW < best.capacityW ||
-      (capacityW === best.capacityW && parseMoney(option.installedPrice).lt(parseMoney(best.option.installedPrice)))
-    ) {
-      best = { option, capacityW };
+    const price = parseMoney(option.installedPrice);
+    const cost = rule === 'lowest-life-cycle-cost' ? lifeCycleCostOf(option) : rule === 'lowest-installed-price' ? price : null;
+    let better: boolean;
+    if (best === null) better = true;
+    else if (rule === 'smallest-capacity') {
+      better = capacityW < best.capacityW || (capacityW === best.capacityW && price.lt(parseMoney(best.option.installedPrice)));
+    } else if (cost === null || best.cost === null) {
+      better = best.cost === null && (cost !== null || capacityW < best.capacityW);
+    } else {
+      better = cost.lt(best.cost) || (cost.eq(best.cost) && capacityW < best.capacityW);
     }
+    if (better) best = { option, capacityW, cost };
   }
-  return best;
+  return best && { option: best.option, capacityW: best.capacityW };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -259,37 +399,65 @@ function recordHours(record: SweepRecord): Hours {
 interface OptionHours {
   energyKWhPerYear: number;
   runHoursPerYear: number;
+  backupHoursPerYear: number;
+  backupEnergyKWh: number;
   unmetHoursPerYear: number;
   unmetHoursWorstYear: number;
   unmetEnergyKWhPerYear: number;
   unmetDegreeHoursPerYear: number;
-  worstSagC: number;
+  lowestIndoorC: number;
 }
 
-/** Load conductance of an hour including duct loss, W/K (so that L = UA_eff·ΔT − G). */
-function effectiveUa(building: Building, outdoorC: number, windMs: number): number {
-  const h = heatLoss(building, outdoorC, windMs);
-  return h.conductanceWPerK.total * (1 + h.ductLossFraction);
+/** Sums over hours (each hour, or a bin of `count` equal hours). */
+interface Sums {
+  energyWh: number;
+  run: number;
+  backupHours: number;
+  backupWh: number;
+  unmetWh: number;
+  degreeHours: number;
 }
 
-/** Purchased energy of an hour delivering `deliveredW`, Wh. */
-function inputWh(option: EquipmentOption, outdoorC: number, deliveredW: number): number {
-  const c = capacityAt(option, outdoorC);
-  if (option.kind !== 'heat-pump') return deliveredW / c.cop;
-  const fromCompressor = Math.min(deliveredW, c.compressorW);
-  const fromBackup = deliveredW - fromCompressor;
-  return (c.cop > 0 ? fromCompressor / c.cop : 0) + fromBackup;
+const newSums = (): Sums => ({ energyWh: 0, run: 0, backupHours: 0, backupWh: 0, unmetWh: 0, degreeHours: 0 });
+
+/** What the sweep needs of an option besides its capacity. */
+interface OptionTraits {
+  isPump: boolean;
+  cd: number;
+  minOutput: number;
 }
 
-function summarise(
-  nYears: number,
-  energyWh: number,
-  run: number,
-  unmetByYear: Float64Array,
-  unmetWh: number,
-  degreeHours: number,
-  worstSag: number,
-): OptionHours {
+const traitsOf = (option: EquipmentOption): OptionTraits => ({
+  isPump: option.kind === 'heat-pump',
+  cd: cyclingDegradationOf(option),
+  minOutput: option.minOutputFraction ?? 1,
+});
+
+/**
+ * Adds `count` hours of load `l` (W) met by capacity `c` to the sums (docs/methods.md#hourly):
+ * equivalent full-load hours of the main source, purchased energy with the part-load factor, backup
+ * hours and heat, and the shortfall of the whole unit.
+ */
+function addHours(sums: Sums, traits: OptionTraits, l: number, c: CapacityAt, ua: number, count: number): void {
+  const main = traits.isPump ? c.compressorW : c.totalW;
+  if (main > 0 && l > 0) {
+    const plr = Math.min(1, l / main);
+    sums.run += count * plr;
+    sums.energyWh += (count * Math.min(l, main)) / (c.cop * partLoadFactor(plr, traits.cd, traits.minOutput));
+  }
+  if (traits.isPump && l > main && c.backupW > 0) {
+    const fromBackup = Math.min(l - main, c.backupW);
+    sums.backupHours += count;
+    sums.backupWh += count * fromBackup;
+    sums.energyWh += count * fromBackup;
+  }
+  if (l > c.totalW) {
+    sums.unmetWh += count * (l - c.totalW);
+    sums.degreeHours += (count * (l - c.totalW)) / ua;
+  }
+}
+
+function summarise(nYears: number, sums: Sums, unmetByYear: Float64Array, lowestIndoorC: number): OptionHours {
   let unmet = 0;
   let worst = 0;
   for (const u of unmetByYear) {
@@ -298,19 +466,67 @@ function summarise(
   }
   const y = Math.max(1, nYears);
   return {
-    energyKWhPerYear: energyWh / 1000 / y,
-    runHoursPerYear: run / y,
+    energyKWhPerYear: sums.energyWh / 1000 / y,
+    runHoursPerYear: sums.run / y,
+    backupHoursPerYear: sums.backupHours / y,
+    backupEnergyKWh: sums.backupWh / 1000 / y,
     unmetHoursPerYear: unmet / y,
     unmetHoursWorstYear: worst,
-    unmetEnergyKWhPerYear: unmetWh / 1000 / y,
-    unmetDegreeHoursPerYear: degreeHours / y,
-    worstSagC: worstSag,
+    unmetEnergyKWhPerYear: sums.unmetWh / 1000 / y,
+    unmetDegreeHoursPerYear: sums.degreeHours / y,
+    lowestIndoorC,
   };
 }
 
+/** Load conductance of an hour including duct loss, W/K (so that L = UA_eff·ΔT − G). */
+function effectiveUa(building: Building, outdoorC: number, windMs: number): number {
+  const h = heatLoss(building, outdoorC, windMs);
+  return h.conductanceWPerK.total * (1 + h.ductLossFraction);
+}
+
+/** The indoor temperature while it is below the set-point, and the lowest it has been. */
+interface IndoorState {
+  c: number;
+  lowest: number;
+}
+
+/** One hour of the single-capacitance model at full output; back at the set-point it stays there. */
+function stepIndoor(s: IndoorState, set: number, outdoorC: number, capacityW: number, gainsW: number, ua: number, decay: number): void {
+  const steady = outdoorC + (capacityW + gainsW) / ua;
+  const next = steady + (s.c - steady) * decay;
+  if (next < s.lowest) s.lowest = next;
+  s.c = next >= set ? set : next;
+}
+
 /**
- * Reference simulation of one option: every hour with `heatLoss` and `capacityAt` called afresh.
- * An hour that does not follow the previous valid hour restarts the indoor temperature at the set-point.
+ * Carries the indoor temperature across `missing` hours absent from the record, the outdoor
+ * temperature interpolated linearly and the wind at its design value; a gap longer than
+ * `MAX_BRIDGED_GAP_H` resets it to the set-point (docs/methods.md#indoor-temperature).
+ */
+function bridgeGap(
+  s: IndoorState,
+  set: number,
+  missing: number,
+  fromC: number,
+  toC: number,
+  building: Building,
+  option: EquipmentOption,
+  designWindMs: number,
+  decay: number,
+): void {
+  if (missing > MAX_BRIDGED_GAP_H || missing < 0) {
+    s.c = set;
+    return;
+  }
+  for (let k = 1; k <= missing && s.c < set; k++) {
+    const t = fromC + ((toC - fromC) * k) / (missing + 1);
+    stepIndoor(s, set, t, capacityAt(option, t).totalW, building.internalGainsW, effectiveUa(building, t, designWindMs), decay);
+  }
+}
+
+/**
+ * Reference simulation of one option: every hour with `heatLoss` and `capacityAt` called afresh,
+ * and the indoor temperature stepped in every hour that is unmet or still recovering.
  */
 function simulateNaive(
   building: Building,
@@ -320,38 +536,28 @@ function simulateNaive(
   designWindMs: number,
 ): OptionHours {
   const set = building.indoorDesignC;
+  const traits = traitsOf(option);
+  const decay = Math.exp(-1 / tauH);
   const unmetByYear = new Float64Array(hours.years.length);
-  let energyWh = 0;
-  let run = 0;
-  let unmetWh = 0;
-  let degreeHours = 0;
-  let worstSag = 0;
-  let indoor = set;
-  let previousHour = -Infinity;
+  const sums = newSums();
+  const indoor: IndoorState = { c: set, lowest: set };
   for (let i = 0; i < hours.n; i++) {
     const t = hours.outdoorC[i] ?? 0;
     const recorded = hours.windMs[i] ?? NaN;
     const w = Number.isNaN(recorded) ? designWindMs : recorded;
-    const hour = hours.hourNumber[i] ?? 0;
-    if (hour !== previousHour + 1) indoor = set;
-    previousHour = hour;
-    const load = heatLoss(building, t, w).loadW;
-    const cap = capacityAt(option, t).totalW;
-    const delivered = Math.min(load, cap);
-    energyWh += inputWh(option, t, delivered);
-    run += cap > 0 ? Math.min(1, load / cap) : 0;
-    if (load > cap) {
-      const ua = effectiveUa(building, t, w);
-      unmetByYear[hours.yearIndex[i] ?? 0] = (unmetByYear[hours.yearIndex[i] ?? 0] ?? 0) + 1;
-      unmetWh += load - cap;
-      degreeHours += (load - cap) / ua;
-      indoor = droopStep(indoor, steadyIndoorC(t, cap, building.internalGainsW, ua), tauH);
-      worstSag = Math.max(worstSag, set - indoor);
-    } else {
-      indoor = set;
+    if (i > 0 && indoor.c < set) {
+      const missing = (hours.hourNumber[i] ?? 0) - (hours.hourNumber[i - 1] ?? 0) - 1;
+      if (missing !== 0) bridgeGap(indoor, set, missing, hours.outdoorC[i - 1] ?? 0, t, building, option, designWindMs, decay);
     }
+    const h = heatLoss(building, t, w);
+    const ua = h.conductanceWPerK.total * (1 + h.ductLossFraction);
+    const c = capacityAt(option, t);
+    addHours(sums, traits, h.loadW, c, ua, 1);
+    const unmet = h.loadW > c.totalW;
+    if (unmet) unmetByYear[hours.yearIndex[i] ?? 0] = (unmetByYear[hours.yearIndex[i] ?? 0] ?? 0) + 1;
+    if (unmet || indoor.c < set) stepIndoor(indoor, set, t, c.totalW, building.internalGainsW, ua, decay);
   }
-  return summarise(hours.years.length, energyWh, run, unmetByYear, unmetWh, degreeHours, worstSag);
+  return summarise(hours.years.length, sums, unmetByYear, indoor.lowest);
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -361,8 +567,13 @@ interface Common {
   building: Building;
   hours: Hours | null;
   tauH: number;
-  upvFor: (lifeYears: number) => number;
   prices: EnergyPrices;
+  discount: number;
+  escalation: number;
+  studyPeriodYears: number;
+  energyFactor: number;
+  heatPumpSizing: HeatPumpSizing;
+  rule: SelectionRule;
 }
 
 function commonOf(input: SweepInput): Common {
@@ -370,14 +581,86 @@ function commonOf(input: SweepInput): Common {
   const referenceUa = heatLoss(building, input.designConditions.heating.db99, input.designWindMs).conductanceWPerK
     .total;
   const tauH = timeConstantHours(building.thermalMass, referenceUa);
-  const d = input.economics.discountRatePct / 100;
+  const discount = input.economics.discountRatePct / 100;
+  const escalation = (input.economics.energyEscalationPctPerYear ?? 0) / 100;
+  const studyPeriodYears = input.economics.studyPeriodYears ?? DEFAULT_STUDY_PERIOD_YEARS;
+  const hours = input.record ? ('kind' in input.record ? input.record.hours : recordHours(input.record)) : null;
   return {
     building,
-    hours: input.record ? ('kind' in input.record ? input.record.hours : recordHours(input.record)) : null,
+    hours,
     tauH,
-    upvFor: (n) => uniformPresentValue(d, n),
     prices: input.prices,
+    discount,
+    escalation,
+    studyPeriodYears,
+    energyFactor: modifiedUniformPresentValue(discount, escalation, studyPeriodYears),
+    heatPumpSizing: input.heatPumpSizing ?? DEFAULT_HEAT_PUMP_SIZING,
+    rule: selectionRuleOf(input.options, hours !== null),
   };
+}
+
+/** Annual cost and life-cycle cost of an option with its hour-based figures, or null without a price. */
+function costsOf(common: Common, option: SweepOption, h: OptionHours): { annual: Decimal; lcc: Decimal } | null {
+  const perKwh = pricePerKwhOfFuel(option.fuel, common.prices);
+  if (perKwh === null) return null;
+  const annual = perKwh.times(new MoneyDecimal(h.energyKWhPerYear));
+  const owning = ownershipFactor(common.discount, option.lifeYears, common.studyPeriodYears).total;
+  const lcc = parseMoney(option.installedPrice)
+    .times(new MoneyDecimal(owning))
+    .plus(annual.times(new MoneyDecimal(common.energyFactor)));
+  return { annual, lcc };
+}
+
+const RETURN_PERIOD_LABELS = new Set(['5-year', '10-year', '20-year', '50-year']);
+
+/** Warnings about the record's length and the option list (docs/methods.md#warnings). */
+function warningsOf(input: SweepInput, common: Common): SweepWarning[] {
+  const warnings: SweepWarning[] = [];
+  const years = common.hours?.years.length ?? null;
+  const rp = input.designConditions.extremeMin?.returnPeriod;
+  const hasReturnPeriods = rp !== undefined && Object.values(rp).some((v) => typeof v === 'number');
+  if (years !== null) {
+    if (years < 8) {
+      warnings.push({
+        code: 'short-record',
+        message: `The record has ${years} qualifying year${years === 1 ? '' : 's'}; design values from fewer than 8 years are uncertain, and hour-based figures describe those years only.`,
+      });
+    }
+    if (!hasReturnPeriods) {
+      warnings.push({
+        code: 'no-return-periods',
+        message: 'The record is too short for return-period temperatures (5- to 50-year); the ladder stops at the coldest value it has.',
+      });
+    } else if (years < 10) {
+      warnings.push({
+        code: 'return-periods-unreliable',
+        message: `Return-period temperatures from ${years} years of record (fewer than 10) are unreliable; the rows are marked.`,
+      });
+    }
+    if (hasReturnPeriods && typeof rp['50'] === 'number' && years < 20) {
+      warnings.push({
+        code: 'fifty-year-short-record',
+        message: `The 50-year temperature is extrapolated from ${years} years of record (fewer than 20); treat it as a rough estimate.`,
+      });
+    }
+  }
+  if (common.rule !== 'smallest-capacity') {
+    warnings.push({
+      code: 'mixed-families',
+      message:
+        common.rule === 'lowest-life-cycle-cost'
+          ? 'The options are of more than one family (fuel-fired, heat pump, electric); among those that cover the design load, the one with the lowest life-cycle cost is selected.'
+          : 'The options are of more than one family (fuel-fired, heat pump, electric) and there is no hourly record for life-cycle costs; among those that cover the design load, the one with the lowest installed price is selected.',
+    });
+  }
+  return warnings;
+}
+
+function reliabilityNoteOf(label: string, years: number | null): string | null {
+  if (years === null || !RETURN_PERIOD_LABELS.has(label)) return null;
+  if (label === '50-year' && years < 20) return `Extrapolated from ${years} years of record (fewer than 20): a rough estimate`;
+  if (years < 10) return `From ${years} years of record (fewer than 10): unreliable`;
+  return null;
 }
 
 function buildRows(
@@ -385,9 +668,13 @@ function buildRows(
   common: Common,
   hourly: (option: SweepOption, hours: Hours) => OptionHours,
 ): SweepRow[] {
+  const years = common.hours?.years.length ?? null;
   return designLadder(input.designConditions, input.extraDesignC).map((rung) => {
     const designLoadW = heatLoss(input.building, rung.designC, input.designWindMs).designLoadW;
-    const chosen = selectOption(input.options, rung.designC, designLoadW);
+    const hours = common.hours;
+    const lcc = (option: SweepOption): Decimal | null =>
+      hours === null ? null : (costsOf(common, option, hourly(option, hours))?.lcc ?? null);
+    const chosen = selectOption(input.options, rung.designC, designLoadW, common.rule, common.heatPumpSizing, lcc);
     const row: SweepRow = {
       label: rung.label,
       designC: rung.designC,
@@ -395,65 +682,89 @@ function buildRows(
       selectedOptionId: null,
       selectionReason: null,
       capacityAtDesignW: null,
+      compressorAtDesignW: null,
       installedPrice: null,
       annualEnergyKWh: null,
       annualCost: null,
       runHoursPerYear: null,
+      backupHoursPerYear: null,
+      backupEnergyKWh: null,
       unmetHoursPerYear: null,
       unmetHoursWorstYear: null,
       unmetEnergyKWhPerYear: null,
       unmetDegreeHoursPerYear: null,
+      lowestIndoorC: null,
+      worstDropK: null,
       worstSagC: null,
       lifeCycleCost: null,
       isGrid: rung.isGrid,
       unavailableReason: null,
       costUnavailableReason: null,
+      reliabilityNote: reliabilityNoteOf(rung.label, years),
     };
     if (chosen === null) {
       row.selectionReason =
         input.options.length === 0
           ? 'No equipment options to choose from'
-          : `No option delivers the design load of ${Math.round(designLoadW)} W at ${fmtC(rung.designC)}`;
+          : common.heatPumpSizing === 'compressor' && input.options.some((o) => o.kind === 'heat-pump')
+            ? `No option delivers the design load of ${Math.round(designLoadW)} W at ${fmtC(rung.designC)} (heat pumps by their compressor alone)`
+            : `No option delivers the design load of ${Math.round(designLoadW)} W at ${fmtC(rung.designC)}`;
       row.unavailableReason = 'No option selected';
       return row;
     }
-    const { option, capacityW } = chosen;
+    const { option } = chosen;
+    const c = capacityAt(option, rung.designC);
     row.selectedOptionId = option.id;
-    row.capacityAtDesignW = capacityW;
+    row.capacityAtDesignW = c.totalW;
+    row.compressorAtDesignW = option.kind === 'heat-pump' ? c.compressorW : null;
     row.installedPrice = toMoneyString(option.installedPrice);
-    if (common.hours === null) {
+    if (hours === null) {
       row.unavailableReason = 'No hourly record: hour-based figures need one';
       return row;
     }
-    const h = hourly(option, common.hours);
+    const h = hourly(option, hours);
+    const set = input.building.indoorDesignC;
     row.annualEnergyKWh = h.energyKWhPerYear;
     row.runHoursPerYear = h.runHoursPerYear;
+    row.backupHoursPerYear = h.backupHoursPerYear;
+    row.backupEnergyKWh = h.backupEnergyKWh;
     row.unmetHoursPerYear = h.unmetHoursPerYear;
     row.unmetHoursWorstYear = h.unmetHoursWorstYear;
     row.unmetEnergyKWhPerYear = h.unmetEnergyKWhPerYear;
     row.unmetDegreeHoursPerYear = h.unmetDegreeHoursPerYear;
-    row.worstSagC = h.worstSagC;
-    const perKwh = pricePerKwhOfFuel(option.fuel, common.prices);
-    if (perKwh === null) {
+    row.lowestIndoorC = h.lowestIndoorC;
+    row.worstDropK = set - h.lowestIndoorC;
+    row.worstSagC = row.worstDropK;
+    const costs = costsOf(common, option, h);
+    if (costs === null) {
       row.costUnavailableReason = `No ${option.fuel} price`;
       return row;
     }
-    const annual = perKwh.times(new MoneyDecimal(h.energyKWhPerYear));
-    row.annualCost = toMoneyString(annual);
-    row.lifeCycleCost = toMoneyString(
-      parseMoney(option.installedPrice).plus(annual.times(new MoneyDecimal(common.upvFor(option.lifeYears)))),
-    );
+    row.annualCost = toMoneyString(costs.annual);
+    row.lifeCycleCost = toMoneyString(costs.lcc);
     return row;
   });
 }
 
-/** Reference sweep: for every ladder row, selection over the options and a full pass over the hours. */
+function resultOf(input: SweepInput, common: Common, rows: SweepRow[]): SweepResult {
+  return {
+    rows,
+    years: common.hours?.years ?? [],
+    timeConstantH: common.tauH,
+    heatPumpSizing: common.heatPumpSizing,
+    selectionRule: common.rule,
+    studyPeriodYears: common.studyPeriodYears,
+    energyEscalationPctPerYear: common.escalation * 100,
+    warnings: warningsOf(input, common),
+  };
+}
+
+/** Reference sweep: for every ladder row, selection over the options and a full pass over the hours of each option it weighs. */
 export function sweepNaive(input: SweepInput): SweepResult {
   const common = commonOf(input);
   const rows = buildRows(input, common, (option, h) => simulateNaive(input.building, option, h, common.tauH, input.designWindMs));
-  return { rows, years: common.hours?.years ?? [], timeConstantH: common.tauH };
+  return resultOf(input, common, rows);
 }
-
 
 // ---------------------------------------------------------------------------------------------
 // Fast path
@@ -474,6 +785,8 @@ export interface Bins {
   /** Hours of bin b: hourIdx[start[b] .. start[b + 1]), in time order. */
   start: Int32Array;
   hourIdx: Int32Array;
+  /** Bin of every hour. */
+  binOfHour: Int32Array;
 }
 
 /** A record ready for sweeps; build it once with `indexSweepRecord` and reuse it for any building and options. */
@@ -592,7 +905,7 @@ export function buildBins(hours: Hours, withWind: boolean): Bins {
     hourIdx[fill[r] ?? 0] = i;
     fill[r] = (fill[r] ?? 0) + 1;
   }
-  return { t, w, count, start, hourIdx };
+  return { t, w, count, start, hourIdx, binOfHour };
 }
 
 function binsFor(index: SweepRecordIndex, withWind: boolean): Bins {
@@ -621,80 +934,78 @@ function binLoads(building: Building, index: SweepRecordIndex, designWindMs: num
   return { bins, load, ua };
 }
 
-/** Hour-based figures of one option: sums over the bins, then a time-ordered walk of the unmet hours only. */
+/**
+ * Hour-based figures of one option: sums over the bins, then a time-ordered walk from each unmet hour
+ * until the house is back at the set-point (docs/methods.md#indoor-temperature).
+ */
 function simulateBinned(
   building: Building,
   option: EquipmentOption,
   hours: Hours,
   loads: BinLoads,
   tauH: number,
+  designWindMs: number,
 ): OptionHours {
   const { bins, load, ua } = loads;
   const nBins = bins.t.length;
-  const isPump = option.kind === 'heat-pump';
+  const traits = traitsOf(option);
   let c = capacityAt(option, 0);
   let lastT = NaN;
-  let energyWh = 0;
-  let run = 0;
-  let unmetWh = 0;
-  let degreeHours = 0;
+  const sums = newSums();
   const unmetBins: number[] = [];
   let unmetCount = 0;
   const capByBin = new Float64Array(nBins);
   for (let b = 0; b < nBins; b++) {
     const t = bins.t[b] ?? 0;
-    if (isPump && t !== lastT) {
+    if (traits.isPump && t !== lastT) {
       c = capacityAt(option, t);
       lastT = t;
     }
     const count = bins.count[b] ?? 0;
     const l = load[b] ?? 0;
-    const cap = c.totalW;
-    capByBin[b] = cap;
-    const delivered = Math.min(l, cap);
-    if (isPump) {
-      const fromCompressor = Math.min(delivered, c.compressorW);
-      energyWh += count * ((c.cop > 0 ? fromCompressor / c.cop : 0) + (delivered - fromCompressor));
-    } else {
-      energyWh += (count * delivered) / c.cop;
-    }
-    run += cap > 0 ? count * Math.min(1, l / cap) : 0;
-    if (l > cap) {
-      unmetWh += count * (l - cap);
-      degreeHours += (count * (l - cap)) / (ua[b] ?? 1);
+    capByBin[b] = c.totalW;
+    addHours(sums, traits, l, c, ua[b] ?? 1, count);
+    if (l > c.totalW) {
       unmetBins.push(b);
       unmetCount += count;
     }
   }
 
-  // The unmet hours in time order: per-year counts and the single-capacitance sag (METHODS §5.1).
-  // Keys hour × nBins + bin (exact in a double) sort into time order and keep each hour's bin.
-  const unmetKeys = new Float64Array(unmetCount);
+  // The unmet hours in time order (hour indices, exact in a double), for the per-year counts and
+  // the starts of the indoor-temperature walks.
+  const unmetHours = new Float64Array(unmetCount);
   let k = 0;
   for (const b of unmetBins) {
-    for (let j = bins.start[b] ?? 0; j < (bins.start[b + 1] ?? 0); j++) unmetKeys[k++] = (bins.hourIdx[j] ?? 0) * nBins + b;
+    for (let j = bins.start[b] ?? 0; j < (bins.start[b + 1] ?? 0); j++) unmetHours[k++] = bins.hourIdx[j] ?? 0;
   }
-  unmetKeys.sort();
+  unmetHours.sort();
   const unmetByYear = new Float64Array(hours.years.length);
   const set = building.indoorDesignC;
   const gains = building.internalGainsW;
   const decay = Math.exp(-1 / tauH);
-  let worstSag = 0;
-  let indoor = set;
-  let previous = -2;
-  for (const key of unmetKeys) {
-    const b = key % nBins;
-    const i = (key - b) / nBins;
+  const indoor: IndoorState = { c: set, lowest: set };
+  let walkedTo = -1;
+  for (const i of unmetHours) {
     const yi = hours.yearIndex[i] ?? 0;
     unmetByYear[yi] = (unmetByYear[yi] ?? 0) + 1;
-    if (!(i === previous + 1 && hours.follows[i] === 1)) indoor = set;
-    previous = i;
-    const u = ua[b] ?? 1;
-    const steady = (hours.outdoorC[i] ?? 0) + ((capByBin[b] ?? 0) + gains) / u;
-    indoor = steady + (indoor - steady) * decay;
-    if (set - indoor > worstSag) worstSag = set - indoor;
+    if (i <= walkedTo) continue;
+    // A walk starts at the set-point: the previous one ended there (or at a long gap).
+    indoor.c = set;
+    let j = i;
+    for (;;) {
+      const b = bins.binOfHour[j] ?? 0;
+      stepIndoor(indoor, set, hours.outdoorC[j] ?? 0, capByBin[b] ?? 0, gains, ua[b] ?? 1, decay);
+      walkedTo = j;
+      if (indoor.c >= set || j + 1 >= hours.n) break;
+      const missing = (hours.hourNumber[j + 1] ?? 0) - (hours.hourNumber[j] ?? 0) - 1;
+      if (missing !== 0) {
+        bridgeGap(indoor, set, missing, hours.outdoorC[j] ?? 0, hours.outdoorC[j + 1] ?? 0, building, option, designWindMs, decay);
+        if (indoor.c >= set) break;
+      }
+      j++;
+    }
   }
-  return summarise(hours.years.length, energyWh, run, unmetByYear, unmetWh, degreeHours, worstSag);
+  return summarise(hours.years.length, sums, unmetByYear, indoor.lowest);
 }
 
 /**
@@ -712,12 +1023,12 @@ export function sweep(input: SweepInput): SweepResult {
     let r = cache.get(option);
     if (r === undefined) {
       if (loads === null) throw new Error('The sweep has hours but no bins');
-      r = simulateBinned(input.building, option, h, loads, common.tauH);
+      r = simulateBinned(input.building, option, h, loads, common.tauH, input.designWindMs);
       cache.set(option, r);
     }
     return r;
   });
-  return { rows, years: common.hours?.years ?? [], timeConstantH: common.tauH };
+  return resultOf(input, common, rows);
 }
 
 

@@ -107,7 +107,7 @@ export function tradeoffSentence(chosen: Row, ctx: SummaryContext): string {
     let lcc = '';
     if (chosen.lifeCycleCost !== null && coldest.lifeCycleCost !== null) {
       const l = parseMoney(coldest.lifeCycleCost).minus(parseMoney(chosen.lifeCycleCost));
-      lcc = l.isZero() ? ', the same life-cycle cost' : l.gt(0) ? ` (${money(l.toString())} less life-cycle cost)` : ` (${money(l.abs().toString())} more life-cycle cost)`;
+      lcc = l.isZero() ? ', the same life-cycle cost over the study period' : l.gt(0) ? ` (${money(l.toString())} less life-cycle cost over the study period)` : ` (${money(l.abs().toString())} more life-cycle cost over the study period)`;
     }
     cost = `Sizing for ${point(chosen)} instead of ${point(coldest)} installs ${unit} instead of ${coldUnit}, ${priceText}${lcc}.`;
   }

@@ -2,7 +2,7 @@
  * Scenarios and sweeps through the API: CRUD, incomplete inputs (422 with fields), the sweep run in
  * the worker pool and its cache, freezing, comparison and CSV, roles and other organisations.
  * The sweep answer is checked against the engine's naive reference run in the test over the same
- * stored record (METHODS §5, §6).
+ * stored record (docs/methods.md#hourly, #life-cycle-cost).
  */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';

@@ -1,6 +1,6 @@
 /**
- * Building heat loss against the formulas and check values of METHODS.md §3 and §5.1 (test
- * vectors #10, #12, #13, #14 of §10). Sources are named beside each check with their tags:
+ * Building heat loss against the formulas and check values of docs/methods.md#heat-loss, #indoor-temperature (test
+ * vectors #10, #12, #13, #14 of docs/methods.md#check-values). Sources are named beside each check with their tags:
  * [S] confirmed in a source, [M] from memory, [C] computed from the formula shown.
  */
 import assert from 'node:assert/strict';
@@ -38,10 +38,10 @@ const building = (input: Partial<BuildingInput> & Pick<BuildingInput, 'conductio
 
 const noLeakage: AirLeakage = { mode: 'ach', ach: 0, volumeM3: 400 };
 
-describe('conduction (METHODS §3.1, ASHRAE Handbook—Fundamentals Ch. 17/18)', () => {
+describe('conduction (docs/methods.md#conduction, ASHRAE Handbook—Fundamentals Ch. 17/18)', () => {
   it('R 3.00 + films 0.12 + 0.03 over 100 m² at ΔT 36 K loses 1142.86 W', () => {
-    // [C] METHODS §3.1: U = 1/3.15 = 0.317460 W/(m²·K); q = 0.317460 × 100 × 36 = 1142.86 W.
-    // Films: R_si 0.12, R_se 0.03 (ASHRAE Fundamentals Ch. 26 Table 1 via METHODS §3.2 [S IP / C SI]).
+    // [C] docs/methods.md#conduction: U = 1/3.15 = 0.317460 W/(m²·K); q = 0.317460 × 100 × 36 = 1142.86 W.
+    // Films: R_si 0.12, R_se 0.03 (ASHRAE Fundamentals Ch. 26 Table 1 via docs/methods.md#surface-films [S IP / C SI]).
     const b = building({
       conduction: { mode: 'envelope', components: [{ label: 'Wall', areaM2: 100, rValue: 3.0 + 0.12 + 0.03 }] },
       airLeakage: noLeakage,
@@ -53,7 +53,7 @@ describe('conduction (METHODS §3.1, ASHRAE Handbook—Fundamentals Ch. 17/18)',
   });
 
   it('IP check: nominal R-19 + films 0.68 + 0.17 over 1000 ft² at 70 °F → 3526.4 Btu/h', () => {
-    // [C] METHODS §3.1 (IP films: WAC 51-11-0526 [S]). Entered in IP, converted to SI, and back.
+    // [C] docs/methods.md#conduction (IP films: WAC 51-11-0526 [S]). Entered in IP, converted to SI, and back.
     const rSi = toSi('rValue', 19 + 0.68 + 0.17, 'IP');
     const ua = envelopeUa([{ areaM2: toSi('area', 1000, 'IP'), rValue: rSi }]);
     const w = ua * toSiClimate('temperatureDifference', 70, 'IP');
@@ -66,31 +66,31 @@ describe('conduction (METHODS §3.1, ASHRAE Handbook—Fundamentals Ch. 17/18)',
   });
 });
 
-describe('air changes and sensible heat (METHODS §3.3, §3.4)', () => {
+describe('air changes and sensible heat (docs/methods.md#air-heat, #air-changes)', () => {
   it('#10: 0.5 ACH in 400 m³ is 55.556 L/s; × 36 K × 1.23 → 2460.0 W', () => {
-    assertClose(achToLps(0.5, 400), 55.556, 1e-3, 'L/s'); // [C] METHODS §3.4
+    assertClose(achToLps(0.5, 400), 55.556, 1e-3, 'L/s'); // [C] docs/methods.md#air-changes
     const b = building({ conduction: { mode: 'ua', uaWPerK: 1 }, airLeakage: { mode: 'ach', ach: 0.5, volumeM3: 400 } });
     const r = heatLoss(b, -15, 3);
     assertClose(r.infiltrationLps, 55.556, 1e-3, 'infiltration L/s');
-    assertClose(r.infiltrationW, 2460.0, 0.1, 'infiltration W'); // [C] METHODS §10 #10
+    assertClose(r.infiltrationW, 2460.0, 0.1, 'infiltration W'); // [C] docs/methods.md#check-values
   });
 
-  it('0.5 ACH in 15 000 ft³ is 125 cfm (METHODS §3.4 [C])', () => {
+  it('0.5 ACH in 15 000 ft³ is 125 cfm (docs/methods.md#air-changes [C])', () => {
     const lps = achToLps(0.5, toSi('volume', 15_000, 'IP'));
     assertClose(fromSi('airflow', lps, 'IP'), 125, 1e-9, 'cfm');
   });
 });
 
-describe('blower door ACH50 → natural ACH (METHODS §3.5, LBL N-factor)', () => {
-  it('#14: zone 2, normal shielding, 1 storey → N = 18.5 [M: METHODS §3.5 table, from memory]', () => {
+describe('blower door ACH50 → natural ACH (docs/methods.md#ach50, LBL N-factor)', () => {
+  it('#14: zone 2, normal shielding, 1 storey → N = 18.5 [M: docs/methods.md#ach50 table, from memory]', () => {
     assert.equal(nFactorFor(2, 1, 'normal'), 18.5);
-    // [C] METHODS §3.5: 2.75 ACH50 / 18.5 = 0.1486 ACH; 5 ACH50 / 20 = 0.25 ACH.
+    // [C] docs/methods.md#ach50: 2.75 ACH50 / 18.5 = 0.1486 ACH; 5 ACH50 / 20 = 0.25 ACH.
     assertClose(ach50ToNatural(2.75, nFactorFor(2, 1, 'normal')), 0.1486, 1e-4, 'ACH');
     assert.equal(ach50ToNatural(5, 20), 0.25);
     assert.throws(() => ach50ToNatural(5, 0), RangeError);
   });
 
-  it('the table follows METHODS §3.5: N_zone × storey factor × shielding factor, to ±0.1 [M]', () => {
+  it('the table follows docs/methods.md#ach50: N_zone × storey factor × shielding factor, to ±0.1 [M]', () => {
     const zoneBase = { 1: 15.5, 2: 18.5, 3: 21.5, 4: 24.5 } as const;
     const storeyFactor = [1.0, 0.9, 0.8, 0.7];
     const shieldFactor = { 'well-shielded': 1.2, normal: 1.0, exposed: 0.9 } as const;
@@ -102,7 +102,7 @@ describe('blower door ACH50 → natural ACH (METHODS §3.5, LBL N-factor)', () =
         });
       }
     }
-    // Spot values transcribed from METHODS §3.5 [M/C].
+    // Spot values transcribed from docs/methods.md#ach50 [M/C].
     assert.equal(nFactorFor(1, 3, 'exposed'), 9.8);
     assert.equal(nFactorFor(4, 1.5, 'well-shielded'), 26.5);
     assert.equal(nFactorFor(3, 2, 'normal'), 17.2);
@@ -118,27 +118,27 @@ describe('blower door ACH50 → natural ACH (METHODS §3.5, LBL N-factor)', () =
   });
 });
 
-describe('effective leakage area (METHODS §3.6, ASHRAE Handbook—Fundamentals Ch. 16)', () => {
+describe('effective leakage area (docs/methods.md#ela, ASHRAE Handbook—Fundamentals Ch. 16)', () => {
   it('#12: 400 m³ at 5 ACH50, n = 0.65, ρ = 1.2 → 416.66 cm²', () => {
-    assertClose(elaFromAch50(5, 400), 416.66, 0.01, 'cm²'); // [C] METHODS §3.6
+    assertClose(elaFromAch50(5, 400), 416.66, 0.01, 'cm²'); // [C] docs/methods.md#ela
     // [C] by hand: Q50 = 5 × 400 / 3600 m³/s; Q4 = Q50·(4/50)^0.65; A = 10⁴·Q4·√(1.2/8).
     const byHand = 10_000 * ((5 * 400) / 3600) * (4 / 50) ** 0.7 * Math.sqrt(1.2 / 8);
     assertClose(elaFromAch50(5, 400, { exponent: 0.7 }), byHand, 1e-9, 'cm² with n = 0.7');
   });
 });
 
-describe('LBL basic infiltration model (METHODS §3.7, ASHRAE Handbook—Fundamentals Ch. 16)', () => {
+describe('LBL basic infiltration model (docs/methods.md#lbl-infiltration, ASHRAE Handbook—Fundamentals Ch. 16)', () => {
   it('#13: 416.66 cm², 2 storeys, class 3, 36 K, 6.7 m/s → 60.105 L/s; sensible 2661.5 W', () => {
-    assertClose(lblInfiltrationLps(416.66, 2, 3, 36, 6.7), 60.105, 1e-3, 'L/s'); // [C] METHODS §10 #13
+    assertClose(lblInfiltrationLps(416.66, 2, 3, 36, 6.7), 60.105, 1e-3, 'L/s'); // [C] docs/methods.md#check-values
     const b = building({
       conduction: { mode: 'ua', uaWPerK: 1 },
       airLeakage: { mode: 'ela', elaCm2: 416.66, storeys: 2, shieldingClass: 3 },
     });
-    assertClose(heatLoss(b, -15, 6.7).infiltrationW, 2661.5, 0.1, 'W'); // [C] METHODS §3.7
+    assertClose(heatLoss(b, -15, 6.7).infiltrationW, 2661.5, 0.1, 'W'); // [C] docs/methods.md#lbl-infiltration
   });
 
   it('a case by hand with the table coefficients: 300 cm², 1 storey, class 4, 30 K, 4 m/s', () => {
-    // C_s(1 storey) = 0.000145 [M], C_w(class 4, 1 storey) = 0.000104 [S], METHODS §3.7:
+    // C_s(1 storey) = 0.000145 [M], C_w(class 4, 1 storey) = 0.000104 [S], docs/methods.md#lbl-infiltration:
     // Q = 300·√(0.000145·30 + 0.000104·4²) = 300·√(0.004350 + 0.001664) = 23.2650 L/s [C].
     const q = 300 * Math.sqrt(0.000145 * 30 + 0.000104 * 16);
     assertClose(q, 23.265, 1e-4, 'hand value');
@@ -147,8 +147,8 @@ describe('LBL basic infiltration model (METHODS §3.7, ASHRAE Handbook—Fundame
     assert.equal(lblInfiltrationLps(300, 1, 4, -30, 4), lblInfiltrationLps(300, 1, 4, 30, 4));
   });
 
-  it('the coefficient tables are those of METHODS §3.7', () => {
-    // Stack coefficient, SI [M in METHODS §3.7].
+  it('the coefficient tables are those of docs/methods.md#lbl-infiltration', () => {
+    // Stack coefficient, SI [M in docs/methods.md#lbl-infiltration].
     assert.deepEqual(STACK_COEFFICIENT_SI, { 1: 0.000145, 2: 0.00029, 3: 0.000435 });
     // Wind coefficient, SI: ASHRAE 1989 Fundamentals table via a CRC Press textbook companion [S].
     assert.deepEqual(WIND_COEFFICIENT_SI, {
@@ -160,14 +160,14 @@ describe('LBL basic infiltration model (METHODS §3.7, ASHRAE Handbook—Fundame
     });
   });
 
-  it('converted to IP units, the SI tables match the IP columns of METHODS §3.7', () => {
+  it('converted to IP units, the SI tables match the IP columns of docs/methods.md#lbl-infiltration', () => {
     // Q_cfm = A_in²·√(C_IP·Δt_F + …): C_s,IP = C_s,SI·(cfm per L/s)² / ((in² per cm²)²·(°F per K)),
     // C_w,IP = C_w,SI·(cfm per L/s)² / ((in² per cm²)²·(mph per m/s)²).
     const cfmPerLps = fromSi('airflow', 1, 'IP');
     const in2PerCm2 = fromSi('leakageArea', 1, 'IP');
     const fPerK = 1 / toSiClimate('temperatureDifference', 1, 'IP');
     const mphPerMs = 1 / toSiClimate('speed', 1, 'IP');
-    const stackIp = { 1: 0.015, 2: 0.0299, 3: 0.0449 } as const; // [M] METHODS §3.7, consistent within 0.7 %
+    const stackIp = { 1: 0.015, 2: 0.0299, 3: 0.0449 } as const; // [M] docs/methods.md#lbl-infiltration, consistent within 0.7 %
     for (const s of [1, 2, 3] as const) {
       const converted = (STACK_COEFFICIENT_SI[s] * cfmPerLps ** 2) / (in2PerCm2 ** 2 * fPerK);
       assert.ok(Math.abs(converted / stackIp[s] - 1) < 0.007, `C_s ${s} storeys: ${converted} vs ${stackIp[s]}`);
@@ -178,7 +178,7 @@ describe('LBL basic infiltration model (METHODS §3.7, ASHRAE Handbook—Fundame
       3: [0.0065, 0.0086, 0.0101],
       4: [0.0039, 0.0051, 0.006],
       5: [0.0012, 0.0016, 0.0018],
-    } as const; // [S] METHODS §3.7 IP columns (4 decimals)
+    } as const; // [S] docs/methods.md#lbl-infiltration IP columns (4 decimals)
     for (const c of [1, 2, 3, 4, 5] as const) {
       for (const s of [1, 2, 3] as const) {
         const converted = (WIND_COEFFICIENT_SI[c][s] * cfmPerLps ** 2) / (in2PerCm2 ** 2 * mphPerMs ** 2);
@@ -205,7 +205,7 @@ describe('heat loss: ventilation, duct loss, gains and safety factor', () => {
     internalGainsW: 500,
   });
 
-  it('adds the parts as METHODS §3 and §3.8 describe', () => {
+  it('adds the parts as docs/methods.md#heat-loss, #duct-loss-and-margins describe', () => {
     // [C] by hand at −15 °C (ΔT 36 K):
     const ua = 100 / 3.15 + 10 * 1.6; // 47.746 W/K
     const inf = 1.23 * ((0.5 * 400) / 3.6); // 68.333 W/K
@@ -222,8 +222,21 @@ describe('heat loss: ventilation, duct loss, gains and safety factor', () => {
     assertClose(r.totalW, total, 1e-9, 'total W');
     assert.equal(r.internalGainsW, 500);
     assertClose(r.loadW, total - 500, 1e-9, 'L');
-    assertClose(r.designLoadW, (total - 500) * 1.1, 1e-9, 'D');
+    // Gains are not credited at design by default (docs/methods.md#design-load): D = total × 1.1.
+    assertClose(r.designLoadW, total * 1.1, 1e-9, 'D');
+    assertClose(heatLoss({ ...b, creditGainsAtDesign: true }, -15, 6.7).designLoadW, (total - 500) * 1.1, 1e-9, 'D with gains credited');
     assertClose(total, 5263.98, 0.01, 'total W, by hand'); // 127.14937 W/K × 36 K × 1.15
+  });
+
+  it('without the design credit, the design load never falls when the gains rise', () => {
+    let previous = -Infinity;
+    for (const internalGainsW of [0, 200, 500, 1000, 5000]) {
+      const d = heatLoss({ ...b, internalGainsW }, -15, 6.7).designLoadW;
+      assert.ok(d >= previous, `design load fell to ${d} W with ${internalGainsW} W of gains`);
+      previous = d;
+    }
+    // …and with it, it does fall: the setting is what changes the outcome.
+    assert.ok(heatLoss({ ...b, internalGainsW: 1000, creditGainsAtDesign: true }, -15, 6.7).designLoadW < previous);
   });
 
   it('is zero when it is as warm outside as inside, and gains never make the load negative', () => {
@@ -237,17 +250,17 @@ describe('heat loss: ventilation, duct loss, gains and safety factor', () => {
   });
 });
 
-describe('thermal time constant (METHODS §5.1)', () => {
+describe('thermal time constant (docs/methods.md#indoor-temperature)', () => {
   it('uses the hours given', () => {
     assert.equal(timeConstantHours({ mode: 'hours', timeConstantH: 42 }, 250), 42);
   });
 
   it('class × floor area ÷ conductance: 150 m² medium = 24.75 MJ/K; at 250 W/K → 27.5 h', () => {
-    // [M] ISO 13790 classes as listed in METHODS §5.1: light 110 000, medium 165 000, heavy 260 000 J/(m²·K).
+    // [M] ISO 13790 classes as listed in docs/methods.md#indoor-temperature: light 110 000, medium 165 000, heavy 260 000 J/(m²·K).
     assert.deepEqual(THERMAL_CAPACITANCE_J_PER_M2K, { light: 110_000, medium: 165_000, heavy: 260_000 });
-    // [C] METHODS §5.1: 150 m² medium → 24.75 MJ/K; τ = 24.75e6 / 250 / 3600 = 27.5 h.
+    // [C] docs/methods.md#indoor-temperature: 150 m² medium → 24.75 MJ/K; τ = 24.75e6 / 250 / 3600 = 27.5 h.
     assertClose(timeConstantHours({ mode: 'class', class: 'medium', floorAreaM2: 150 }, 250), 27.5, 1e-9, 'τ');
-    // [C] METHODS §5.1 / #18: C = 30 MJ/K, UA = 250 W/K → τ = 33.333 h (heavy: 30e6/260 000 m²).
+    // [C] docs/methods.md#indoor-temperature / #18: C = 30 MJ/K, UA = 250 W/K → τ = 33.333 h (heavy: 30e6/260 000 m²).
     assertClose(timeConstantHours({ mode: 'class', class: 'heavy', floorAreaM2: 30e6 / 260_000 }, 250), 33.333, 1e-3, 'τ');
     assert.throws(() => timeConstantHours({ mode: 'class', class: 'light', floorAreaM2: 100 }, 0), RangeError);
   });
@@ -257,7 +270,7 @@ describe('design wind choice', () => {
   const wind = { coincident99_6: 2.2, coldestMonth1: 11.6, annual1: 12.8 };
 
   it('takes the chosen climate value, the 6.7 m/s default, or a custom speed', () => {
-    // 6.7 m/s (15 mph) is a common trade default, no source (METHODS §9).
+    // 6.7 m/s (15 mph) is a common trade default, no source (docs/methods.md#trade-facts).
     assert.equal(DEFAULT_DESIGN_WIND_MS, 6.7);
     assert.deepEqual(resolveDesignWind({ source: 'coincident99_6' }, wind), { windMs: 2.2, source: 'coincident99_6', fellBack: false });
     assert.deepEqual(resolveDesignWind({ source: 'coldestMonth1' }, wind), { windMs: 11.6, source: 'coldestMonth1', fellBack: false });

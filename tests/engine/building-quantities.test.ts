@@ -1,9 +1,9 @@
 /**
  * Unit conversions of building and equipment quantities against NIST SP 811 (2008 ed.,
  * "Guide for the Use of the International System of Units", Appendix B.8, factors for units listed
- * alphabetically), and the sensible-heat factors of ASHRAE Handbook—Fundamentals Ch. 18 (METHODS §3.3).
+ * alphabetically), and the sensible-heat factors of ASHRAE Handbook—Fundamentals Ch. 18 (docs/methods.md#air-heat).
  *
- * Tags (METHODS.md): [S] confirmed in a source found during this work, [M] quoted from memory,
+ * Tags (docs/methods.md): [S] confirmed in a source found during this work, [M] quoted from memory,
  * [C] computed from the formula shown.
  */
 import assert from 'node:assert/strict';
@@ -26,13 +26,13 @@ describe('NIST SP 811 (2008) Appendix B.8 factors through the engine conversions
     // handbook table of SP 811 factors); per hour: 1055.056 / 3600 = 0.293 071 1 W [C].
     assertClose(toSi('power', 1, 'IP'), 0.2930711, 5e-8, 'W per Btu/h');
     assertClose(toSi('power', 1, 'IP'), 1055.056 / 3600, 5e-8, 'W per Btu/h from Btu_IT');
-    assertClose(fromSi('power', 1000, 'IP'), 3412.142, 1e-3, 'Btu/h per kW (METHODS §0: 1 W = 3.412142 Btu/h [S])');
+    assertClose(fromSi('power', 1000, 'IP'), 3412.142, 1e-3, 'Btu/h per kW (docs/methods.md#units: 1 W = 3.412142 Btu/h [S])');
   });
 
   it('1 ft³/min = 4.719 474 E−04 m³/s = 0.471 947 4 L/s', () => {
     // [M] NIST SP 811 App. B.8, "cubic foot per minute (ft³/min) → cubic meter per second".
     assertClose(toSi('airflow', 1, 'IP'), 0.4719474, 5e-8, 'L/s per cfm');
-    // METHODS §0: 1 L/s = 2.118880 cfm [C].
+    // docs/methods.md#units: 1 L/s = 2.118880 cfm [C].
     assertClose(fromSi('airflow', 1, 'IP'), 2.11888, 5e-6, 'cfm per L/s');
     // m³/h: 1 cfm = 0.4719474 L/s × 3.6 = 1.699011 m³/h [C].
     assertClose(toSi('airflowHourly', 1, 'IP'), 0.4719474 * 3.6, 1e-6, 'm³/h per cfm');
@@ -52,7 +52,7 @@ describe('NIST SP 811 (2008) Appendix B.8 factors through the engine conversions
   });
 
   it('1 Btu_IT/(h·ft²·°F) = 5.678 263 W/(m²·K); R: 1 h·ft²·°F/Btu = 0.176 110 m²·K/W', () => {
-    // [M] NIST SP 811 App. B.8; METHODS §0 gives both values [C].
+    // [M] NIST SP 811 App. B.8; docs/methods.md#units gives both values [C].
     assertClose(toSi('uValue', 1, 'IP'), 5.678263, 5e-7, 'U-value');
     assertClose(toSi('rValue', 1, 'IP'), 0.17611, 5e-7, 'R-value');
     // [C] a Btu/(h·°F) conductance: 0.2930711 W × 1.8 °F/K = 0.5275280 W/K.
@@ -78,19 +78,19 @@ describe('NIST SP 811 (2008) Appendix B.8 factors through the engine conversions
   });
 });
 
-describe('sensible-heat factor (ASHRAE Handbook—Fundamentals Ch. 18; METHODS §3.3)', () => {
+describe('sensible-heat factor (ASHRAE Handbook—Fundamentals Ch. 18; docs/methods.md#air-heat)', () => {
   // The factor converts as W/(L/s·K) ↔ Btu/h per (cfm·°F): × (W→Btu/h) × (L/s per cfm) × (K per °F).
   const siToIp = (f: number) => f * fromSi('power', 1, 'IP') * toSi('airflow', 1, 'IP') * toSiClimate('temperatureDifference', 1, 'IP');
 
   it('1.23 W/(L/s·K) is 1.1004 Btu/(h·cfm·°F), and 1.08 Btu/(h·cfm·°F) is 1.2072 W/(L/s·K)', () => {
-    assert.equal(SENSIBLE_HEAT_FACTOR_W_PER_LPS_K, 1.23); // [S] ASHRAE Fundamentals Ch. 18 via METHODS §3.3
+    assert.equal(SENSIBLE_HEAT_FACTOR_W_PER_LPS_K, 1.23); // [S] ASHRAE Fundamentals Ch. 18 via docs/methods.md#air-heat
     assert.equal(SENSIBLE_HEAT_FACTOR_BTUH_PER_CFM_F, 1.08); // [S] same
-    assertClose(siToIp(1.23), 1.1004, 1e-4, '1.23 in IP'); // METHODS §3.3 cross-unit check [C]
+    assertClose(siToIp(1.23), 1.1004, 1e-4, '1.23 in IP'); // docs/methods.md#air-heat cross-unit check [C]
     assertClose(1.08 / siToIp(1), 1.2072, 1e-4, '1.08 in SI'); // [C]
   });
 
   it('the two are the same air property within 2 %: ρ·c_p·(flow unit) in each system', () => {
-    // 1.23 = 0.001 m³/s × 1.2 kg/m³ × 1026 J/(kg·K) [C, METHODS §3.3];
+    // 1.23 = 0.001 m³/s × 1.2 kg/m³ × 1026 J/(kg·K) [C, docs/methods.md#air-heat];
     // 1.08 = 0.075 lb/ft³ × 60 min/h × 0.240 Btu/(lb·°F) [C]. They differ by the rounding of the
     // assumed density and specific heat (moist vs dry air), not by the conversion.
     assertClose(0.001 * 1.2 * 1026, 1.23, 0.002, 'SI derivation');
@@ -99,11 +99,11 @@ describe('sensible-heat factor (ASHRAE Handbook—Fundamentals Ch. 18; METHODS �
     assert.ok(ratio > 1 && ratio < 1.02, `1.23 in IP / 1.08 = ${ratio}`);
   });
 
-  it('METHODS §3.3 checks: 125 cfm × 70 °F → 9450 Btu/h with 1.08, 9625 Btu/h with 1.23 (≈ 1.10 in IP)', () => {
-    const ip = 1.08 * 125 * 70; // [C] METHODS §3.3: 9450 Btu/h
+  it('docs/methods.md#air-heat checks: 125 cfm × 70 °F → 9450 Btu/h with 1.08, 9625 Btu/h with 1.23 (≈ 1.10 in IP)', () => {
+    const ip = 1.08 * 125 * 70; // [C] docs/methods.md#air-heat: 9450 Btu/h
     assert.equal(ip, 9450);
     const siW = SENSIBLE_HEAT_FACTOR_W_PER_LPS_K * toSi('airflow', 125, 'IP') * toSiClimate('temperatureDifference', 70, 'IP');
-    // With 1.23 the SI route gives the 1.10 value: 9625 Btu/h (METHODS §3.3) within 0.1 %.
+    // With 1.23 the SI route gives the 1.10 value: 9625 Btu/h (docs/methods.md#air-heat) within 0.1 %.
     assertClose(fromSi('power', siW, 'IP'), 9625, 10, 'SI route in Btu/h');
   });
 });

@@ -74,7 +74,7 @@ describe('record qualification', () => {
 describe('dry-bulb design values', () => {
   it('heating and cooling percentiles follow the type-7 rule on the pooled hours', () => {
     // Values v_k = k/200 − 20 for k = 1..8760 in scrambled hour order. Type-7 quantiles of 1..8760 are
-    // METHODS.md §1.2 [C]: 36.036 (p .004), 88.59 (.01), 8724.964 (.996); the affine map carries over.
+    // docs/methods.md#percentiles [C]: 36.036 (p .004), 88.59 (.01), 8724.964 (.996); the affine map carries over.
     const perm = (i: number) => (i * 7919) % 8760; // 7919 is prime, so this is a permutation of 0..8759
     const c = conditionsOf(computeDesignConditions(toSeries(yearRows(2021, (i) => ({ dryBulbC: (perm(i) + 1) / 200 - 20 })))));
     assertClose(c.heating.db99_6, 36.036 / 200 - 20, 1e-9, 'db99.6');
@@ -87,7 +87,7 @@ describe('dry-bulb design values', () => {
 
   it('extreme annual minimum: mean, sample SD and return periods', () => {
     // ten years at 10 °C, each with one cold hour: five at −20 + d, five at −20 − d, d = 3·√0.9,
-    // so M = −20 and s = 3 exactly; T_n from METHODS.md §1.5 / §10 #3 [C]
+    // so M = −20 and s = 3 exactly; T_n from docs/methods.md#return-periods, #check-values [C]
     const d = 3 * Math.sqrt(0.9);
     const rows: FixtureRow[] = [];
     for (let k = 0; k < 10; k++) {
@@ -114,7 +114,7 @@ describe('dry-bulb design values', () => {
 
 describe('heating degree-days, base 18.3 °C', () => {
   it('a constant 0 °C year gives 18.3 × days (365 or 366)', () => {
-    // METHODS.md §1.7 / §10 #21 [C]: 18.3 × 365 = 6679.5; leap year 18.3 × 366 = 6697.8 (arithmetic)
+    // docs/methods.md#degree-days, #check-values [C]: 18.3 × 365 = 6679.5; leap year 18.3 × 366 = 6697.8 (arithmetic)
     assertClose(conditionsOf(computeDesignConditions(toSeries(yearRows(2021, () => ({ dryBulbC: 0 }))))).hdd18, 6679.5, 1e-9, '2021');
     assertClose(conditionsOf(computeDesignConditions(toSeries(yearRows(2020, () => ({ dryBulbC: 0 }))))).hdd18, 6697.8, 1e-9, '2020');
     const both = [...yearRows(2020, () => ({ dryBulbC: 0 })), ...yearRows(2021, () => ({ dryBulbC: 0 }))];
@@ -150,7 +150,7 @@ describe('heating degree-days, base 18.3 °C', () => {
 
 describe('humidification', () => {
   it('reproduces the San Francisco humidity ratio and relative humidity for a constant record', () => {
-    // DP −3.7 °C at 101 301 Pa → 2.767 g/kg; at MCDB 10.7 °C φ = 34.87 % (METHODS.md §1.4, §2.3 [S + C];
+    // DP −3.7 °C at 101 301 Pa → 2.767 g/kg; at MCDB 10.7 °C φ = 34.87 % (docs/methods.md#humidification, #psychrometrics [S + C];
     // ASHRAE Handbook—Fundamentals 2009, Ch. 14 row for WMO 724940: 2.8 g/kg, 10.7 °C [S])
     const rows = yearRows(2021, () => ({ dryBulbC: 10.7, dewPointC: -3.7, stationPressureKpa: 101.301 }));
     const measured = conditionsOf(computeDesignConditions(toSeries(rows)));
@@ -160,7 +160,7 @@ describe('humidification', () => {
     assertClose(h.humidityRatio, 2.767, 0.001, 'HR measured pressure');
     assertClose(h.meanCoincidentDryBulb, 10.7, 1e-9, 'MCDB');
     assertClose(h.relativeHumidity, 34.87, 0.01, 'RH');
-    // the same from the elevation: p(2 m) = 101 301.0 Pa (METHODS.md §2.1 [P = C])
+    // the same from the elevation: p(2 m) = 101 301.0 Pa (docs/methods.md#psychrometrics [P = C])
     const noPressure = yearRows(2021, () => ({ dryBulbC: 10.7, dewPointC: -3.7 }));
     const fromElevation = conditionsOf(computeDesignConditions(toSeries(noPressure), { elevationM: 2 }));
     assertClose(fromElevation.humidification.dp99?.humidityRatio, 2.767, 0.001, 'HR from elevation');

@@ -1,5 +1,5 @@
 /**
- * Equipment capacity against METHODS.md §4 (test vectors #15 and #16 of §10). Tags: [S] confirmed in a
+ * Equipment capacity against docs/methods.md#equipment (test vectors #15 and #16 of §10). Tags: [S] confirmed in a
  * source, [M] from memory, [C] computed from the formula shown.
  */
 import assert from 'node:assert/strict';
@@ -27,7 +27,7 @@ const heatPump = (extra: Partial<EquipmentOptionInput> = {}): HeatPumpOption => 
   const o = equipmentOptionSchema.parse({
     kind: 'heat-pump',
     label: '3-ton split',
-    // METHODS §4.3 check unit: Q47 = 10 kW, COP47 = 3.5; Q17 = 6 kW, COP17 = 2.3.
+    // docs/methods.md#heat-pump-capacity check unit: Q47 = 10 kW, COP47 = 3.5; Q17 = 6 kW, COP17 = 2.3.
     capacity8_3W: 10_000,
     cop8_3: 3.5,
     capacityM8_3W: 6_000,
@@ -40,31 +40,31 @@ const heatPump = (extra: Partial<EquipmentOptionInput> = {}): HeatPumpOption => 
   return o;
 };
 
-describe('rating temperatures (AHRI 210/240, DOE App. M; METHODS §4.3)', () => {
+describe('rating temperatures (AHRI 210/240, DOE App. M; docs/methods.md#heat-pump-capacity)', () => {
   it('are 47, 35, 17 and 5 °F in °C', () => {
-    assertClose(RATING_C.h1, 8.333, 1e-3, 'H1'); // [S] 8.33 °C via AHRI 1230 conditions (METHODS §4.3)
+    assertClose(RATING_C.h1, 8.333, 1e-3, 'H1'); // [S] 8.33 °C via AHRI 1230 conditions (docs/methods.md#heat-pump-capacity)
     assertClose(RATING_C.h3, -8.333, 1e-3, 'H3'); // [S]
     assertClose(RATING_C.h2, 1.667, 1e-3, 'H2'); // [M]
     assert.equal(RATING_C.h4, -15); // [S] 5 °F, ENERGY STAR cold-climate criteria
   });
 });
 
-describe('heat-pump capacity (#15, METHODS §4.3)', () => {
+describe('heat-pump capacity (#15, docs/methods.md#heat-pump-capacity)', () => {
   it('interpolates capacity and input linearly: 0 °C → 8.000 kW, COP 2.9273', () => {
     const c = heatPumpAt(heatPump(), 0);
-    assertClose(c.capacityW, 8000, 1e-6, 'Q(0 °C)'); // [C] METHODS §10 #15
-    assertClose(c.powerW, 2732.919, 1e-3, 'P(0 °C)'); // [C] METHODS §4.3
+    assertClose(c.capacityW, 8000, 1e-6, 'Q(0 °C)'); // [C] docs/methods.md#check-values
+    assertClose(c.powerW, 2732.919, 1e-3, 'P(0 °C)'); // [C] docs/methods.md#heat-pump-capacity
     assertClose(c.cop, 2.9273, 1e-4, 'COP(0 °C)'); // [C]
   });
 
   it('with the frost/defrost band, 0 °C → 7.300 kW, COP 2.7053; default H2 point 7.560 kW', () => {
     const hp = heatPump({ defrostBand: true });
     const h2 = defaultH2Point(hp);
-    assertClose(h2.capacityW, 7560, 1e-6, 'Q35'); // [C] METHODS §10 #15 (DOE default 0.90 factor [M])
+    assertClose(h2.capacityW, 7560, 1e-6, 'Q35'); // [C] docs/methods.md#check-values (DOE default 0.90 factor [M])
     assertClose(h2.powerW, 2716.398, 1e-3, 'P35'); // [C]
     assertClose(h2.capacityW / h2.powerW, 2.7831, 1e-4, 'COP35'); // [C]
     const c = heatPumpAt(hp, 0);
-    assertClose(c.capacityW, 7300, 1e-6, 'Q(0 °C) frost'); // [C] METHODS §10 #15
+    assertClose(c.capacityW, 7300, 1e-6, 'Q(0 °C) frost'); // [C] docs/methods.md#check-values
     assertClose(c.powerW, 2698.447, 1e-3, 'P(0 °C) frost');
     assertClose(c.cop, 2.7053, 1e-4, 'COP(0 °C) frost');
     // Outside the band (≥ 45 °F = 7.2 °C) the 47/17 line applies again: 8 °C → by hand 8000 + 240 × 8.
@@ -76,7 +76,7 @@ describe('heat-pump capacity (#15, METHODS §4.3)', () => {
     assertClose(flat.capacityW, 6000, 1e-9, 'flat Q(−15 °C)');
     assertClose(flat.cop, 2.3, 1e-9, 'flat COP(−15 °C)');
     const ext = heatPumpAt(heatPump({ extrapolate: true }), -15);
-    assertClose(ext.capacityW, 4400, 1e-6, 'extrapolated Q(5 °F)'); // [C] METHODS §4.3
+    assertClose(ext.capacityW, 4400, 1e-6, 'extrapolated Q(5 °F)'); // [C] docs/methods.md#heat-pump-capacity
     assertClose(ext.powerW, 2509.317, 1e-3, 'extrapolated P(5 °F)');
     assertClose(ext.cop, 1.7535, 1e-4, 'extrapolated COP(5 °F)');
     // Far below, the extrapolated capacity floors at zero instead of going negative.
@@ -108,7 +108,7 @@ describe('heat-pump capacity (#15, METHODS §4.3)', () => {
   });
 });
 
-describe('combustion and electric output (METHODS §4.1)', () => {
+describe('combustion and electric output (docs/methods.md#combustion-output)', () => {
   it('80 000 Btu/h input × 0.95 = 76 000 Btu/h = 22.27 kW', () => {
     const furnace = equipmentOptionSchema.parse({
       kind: 'furnace',
@@ -120,7 +120,7 @@ describe('combustion and electric output (METHODS §4.1)', () => {
       lifeYears: 20,
     });
     const c = capacityAt(furnace, -30);
-    assertClose(fromSi('power', c.totalW, 'IP'), 76_000, 1e-6, 'Btu/h'); // [C] METHODS §4.1
+    assertClose(fromSi('power', c.totalW, 'IP'), 76_000, 1e-6, 'Btu/h'); // [C] docs/methods.md#combustion-output
     assertClose(c.totalW / 1000, 22.27, 0.005, 'kW');
     assert.equal(c.cop, 0.95);
     assertClose(c.inputW, toSi('power', 80_000, 'IP'), 1e-6, 'input');
@@ -133,7 +133,7 @@ describe('combustion and electric output (METHODS §4.1)', () => {
   });
 });
 
-describe('balance point (#16, METHODS §4.4)', () => {
+describe('balance point (#16, docs/methods.md#balance-point)', () => {
   const building = (ua: number, extra: Record<string, unknown> = {}): Building =>
     buildingSchema.parse({
       indoorDesignC: 21,
@@ -144,14 +144,14 @@ describe('balance point (#16, METHODS §4.4)', () => {
     });
 
   it('9.0 kW at −15 °C (UA 0.25 kW/K) with Q = 8.0 + 0.24·T kW → −5.612 °C, at 6.653 kW', () => {
-    // [C] METHODS §4.4: T_bp = (UA·t_in − a)/(UA + b) = (250·21 − 8000)/(250 + 240).
+    // [C] docs/methods.md#balance-point: T_bp = (UA·t_in − a)/(UA + b) = (250·21 − 8000)/(250 + 240).
     const b = building(250);
     assertClose(heatLoss(b, -15, 0).totalW, 9000, 1e-9, 'design load');
     const t = balancePoint(heatPump(), b, 6.7);
     assertClose(t, -5.612, 1e-3, 'T_bp');
     assertClose(t, (250 * 21 - 8000) / (250 + 240), 1e-6, 'T_bp by formula');
     assertClose(heatPumpAt(heatPump(), t ?? 0).capacityW, 6653, 1, 'capacity at T_bp'); // [C] 6.653 kW
-    // At −15 °C the deficit is 9.0 − 4.4 = 4.6 kW with extrapolation (METHODS §4.4 [C]).
+    // At −15 °C the deficit is 9.0 − 4.4 = 4.6 kW with extrapolation (docs/methods.md#balance-point [C]).
     assertClose(heatLoss(b, -15, 0).totalW - heatPumpAt(heatPump({ extrapolate: true }), -15).capacityW, 4600, 1e-6, 'deficit');
   });
 

@@ -49,7 +49,7 @@ describe('equipment CSV import', () => {
     assert.ok(r.ok, JSON.stringify(!r.ok && r.problems));
     const [f] = r.options;
     assert.ok(f?.kind === 'furnace');
-    assertClose(f.outputW, 76_000 * 0.2930711, 0.01, 'W'); // 22 273.4 W (METHODS §4.1: 22.27 kW)
+    assertClose(f.outputW, 76_000 * 0.2930711, 0.01, 'W'); // 22 273.4 W (docs/methods.md#combustion-output: 22.27 kW)
   });
 
   it('refuses the whole file when any line is bad, naming each line', () => {
@@ -165,7 +165,7 @@ describe('equipment CSV export', () => {
     const label = fc.string({ minLength: 1, maxLength: 20 }).filter((s) => s.trim() === s && s.trim() !== '');
     const price = fc.tuple(fc.integer({ min: 0, max: 99_999 }), fc.integer({ min: 0, max: 99 })).map(([a, b]) => `${a}.${String(b).padStart(2, '0')}`);
     const w = fc.double({ min: 100, max: 100_000, noNaN: true });
-    const cop = fc.double({ min: 0.5, max: 6, noNaN: true });
+    const cop = fc.double({ min: 1, max: 6, noNaN: true });
     const fuelled = fc.record({
       kind: fc.constantFrom('furnace' as const, 'boiler' as const),
       label,

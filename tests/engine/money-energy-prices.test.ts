@@ -1,5 +1,5 @@
 /**
- * Energy prices and the cost of a kWh of heat delivered (METHODS §4.4 economic balance point,
+ * Energy prices and the cost of a kWh of heat delivered (docs/methods.md#balance-point economic balance point,
  * test vector #17). Heating values: natural gas 1036 Btu/ft³, U.S. EIA "Heat Content of Natural Gas
  * Consumed" (U.S., 2025) [S]; heating oil 138 500 Btu/gal and propane 91 333 Btu/gal, EIA end-use
  * heat contents [M, secondary copies]. Conversions by hand with 1 Btu_IT = 1055.05585262 J,
@@ -35,7 +35,7 @@ describe('heating values', () => {
     assertClose(DEFAULT_HEATING_VALUES.gasMjPerM3, (1036 * BTU_J) / FT3_M3 / 1e6, 1e-9, 'gas MJ/m³'); // ≈ 38.60
     assertClose(DEFAULT_HEATING_VALUES.oilMjPerL, (138_500 * BTU_J) / GAL_L / 1e6, 1e-9, 'oil MJ/L'); // ≈ 38.60
     assertClose(DEFAULT_HEATING_VALUES.propaneMjPerL, (91_333 * BTU_J) / GAL_L / 1e6, 1e-9, 'propane MJ/L'); // ≈ 25.46
-    assertClose(KWH_PER_THERM, 29.3071, 1e-4, 'kWh per therm'); // [C] METHODS §0
+    assertClose(KWH_PER_THERM, 29.3071, 1e-4, 'kWh per therm'); // [C] docs/methods.md#units
   });
 });
 
@@ -44,10 +44,10 @@ describe('cost of a kWh delivered', () => {
     const p = prices({ gas: { unit: 'therm', price: '1.00' } });
     const gasPerKwh = pricePerKwhOfFuel('gas', p);
     assert.ok(gasPerKwh);
-    assertClose(gasPerKwh.toNumber(), 0.034121, 1e-6, '$/kWh of gas'); // [C] METHODS §4.4
+    assertClose(gasPerKwh.toNumber(), 0.034121, 1e-6, '$/kWh of gas'); // [C] docs/methods.md#balance-point
     const furnace = energyCostPerKwhDelivered(furnace95, p);
     assert.ok(furnace);
-    // COP_econ = price_e·η / price_f = 0.15 × 0.95 / 0.034121 = 4.176 [C] METHODS §10 #17.
+    // COP_econ = price_e·η / price_f = 0.15 × 0.95 / 0.034121 = 4.176 [C] docs/methods.md#check-values.
     assertClose(0.15 / furnace.toNumber(), 4.176, 1e-3, 'COP_econ');
   });
 
@@ -75,7 +75,7 @@ describe('cost of a kWh delivered', () => {
     const p = prices({});
     const heater = option({ kind: 'electric', outputW: 9000 });
     assert.equal(energyCostPerKwhDelivered(heater, p)?.toString(), '0.15');
-    // [C] COP(0 °C) = 8000 / 2732.919 = 2.9273 (METHODS §4.3).
+    // [C] COP(0 °C) = 8000 / 2732.919 = 2.9273 (docs/methods.md#heat-pump-capacity).
     assertClose(energyCostPerKwhDelivered(heatPump, p, 0)?.toNumber(), 0.15 / 2.9273, 1e-5, 'heat pump 0 °C');
     assert.throws(() => energyCostPerKwhDelivered(heatPump, p), /outdoor temperature/);
   });

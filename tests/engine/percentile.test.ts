@@ -6,8 +6,8 @@ import { quantile, quantileOfSorted, sortedFinite } from '../../shared/climate/p
 import { assertClose } from './close-to';
 
 describe('percentiles (linear interpolation between order statistics)', () => {
-  it('METHODS.md §1.2 check values', () => {
-    // Hyndman–Fan type 7 (NumPy percentile default); values METHODS.md §1.2 and §10 #5 [C]
+  it('docs/methods.md#percentiles check values', () => {
+    // Hyndman–Fan type 7 (NumPy percentile default); values docs/methods.md#percentiles, #check-values [C]
     const hours = Float64Array.from({ length: 8760 }, (_, i) => i + 1);
     assertClose(quantileOfSorted(hours, 0.004), 36.036, 1e-9, '1..8760 at 0.004');
     assertClose(quantileOfSorted(hours, 0.01), 88.59, 1e-9, '1..8760 at 0.010');

@@ -14,7 +14,7 @@ psy.SetUnitSystem(psy.SI);
 
 describe('psychrometrics (ASHRAE Handbook—Fundamentals 2017, Ch. 1)', () => {
   it('standard atmospheric pressure, Eq. 3', () => {
-    // ASHRAE Handbook—Fundamentals 2017, Ch. 1, Eq. 3 [S]; values METHODS.md §2.1 [P = C]
+    // ASHRAE Handbook—Fundamentals 2017, Ch. 1, Eq. 3 [S]; values docs/methods.md#psychrometrics [P = C]
     assertClose(standardPressurePa(0), 101325, 0.01, 'p(0 m)');
     assertClose(standardPressurePa(2), 101301.0, 0.05, 'p(2 m)'); // San Francisco table standard pressure [S]
     assertClose(standardPressurePa(1000), 89874.52, 0.01, 'p(1000 m)');
@@ -22,18 +22,18 @@ describe('psychrometrics (ASHRAE Handbook—Fundamentals 2017, Ch. 1)', () => {
   });
 
   it('saturation vapour pressure, Eqs. 5 (ice) and 6 (water)', () => {
-    // ASHRAE Handbook—Fundamentals 2017, Ch. 1, Eqs. 5/6 [S]; values METHODS.md §2.2 / §10 #6 [P and C]
+    // ASHRAE Handbook—Fundamentals 2017, Ch. 1, Eqs. 5/6 [S]; values docs/methods.md#psychrometrics, #check-values [P and C]
     assertClose(saturationVapourPressurePa(20), 2338.8, 0.01, 'p_ws(20 °C)');
     assertClose(saturationVapourPressurePa(21), 2487.67, 0.01, 'p_ws(21 °C)');
     assertClose(saturationVapourPressurePa(0), 611.15, 0.01, 'p_ws(0 °C), ice');
     assertClose(saturationVapourPressurePa(-10), 259.9, 0.01, 'p_ws(−10 °C), ice');
     assertClose(saturationVapourPressurePa(-20), 103.26, 0.01, 'p_ws(−20 °C), ice');
-    // at the triple point itself the ice branch still applies: psychrolib GetSatVapPres(0.01) = 611.65702, METHODS.md §2.4 [P]
+    // at the triple point itself the ice branch still applies: psychrolib GetSatVapPres(0.01) = 611.65702, docs/methods.md#psychrometrics [P]
     assertClose(saturationVapourPressurePa(0.01), 611.65702, 1e-4, 'p_ws(0.01 °C)');
   });
 
   it('humidity ratio (Eq. 20) and relative humidity (Eq. 22) check values', () => {
-    // METHODS.md §2.3 / §2.4 [P = C]
+    // docs/methods.md#psychrometrics [P = C]
     assertClose(humidityRatioFromVapourPressure(611.2, 101325), 0.0037743863, 1e-10, 'W(611.2 Pa)');
     assertClose(relativeHumidityFromHumidityRatio(-5, 0.0015, 101325), 0.60679, 1e-5, 'φ(−5 °C, 1.5 g/kg)');
     assertClose(relativeHumidityFromHumidityRatio(-5, 0.0015, standardPressurePa(1500)), 0.50637, 1e-5, 'φ at 1500 m');
@@ -44,7 +44,7 @@ describe('psychrometrics (ASHRAE Handbook—Fundamentals 2017, Ch. 1)', () => {
 
   it('San Francisco humidification row: DP −3.7 °C at 101 301 Pa → 2.767 g/kg (table 2.8)', () => {
     // ASHRAE Handbook—Fundamentals 2009, Ch. 14 row for WMO 724940 [S]: DP 99.6 % −3.7 °C, HR 2.8 g/kg,
-    // MCDB 10.7 °C; ice-branch value 2.767 g/kg and φ 34.87 % per METHODS.md §1.4 / §2.3 [S + C]
+    // MCDB 10.7 °C; ice-branch value 2.767 g/kg and φ 34.87 % per docs/methods.md#humidification, #psychrometrics [S + C]
     const w = humidityRatioFromDewPoint(-3.7, 101301);
     assertClose(w * 1000, 2.767, 0.001, 'W g/kg');
     assertClose(w * 1000, 2.8, 0.05, 'W vs the one-decimal table value');
@@ -75,7 +75,7 @@ describe('psychrometrics (ASHRAE Handbook—Fundamentals 2017, Ch. 1)', () => {
 
   it('switches from ice to water at the triple point', () => {
     // ASHRAE Handbook—Fundamentals 2017, Ch. 1, Eqs. 5/6: over ice p_ws(0 °C) = 611.15 Pa, over water
-    // 611.21 Pa (METHODS.md §2.2 [P/C]); the ice value is used at 0 °C
+    // 611.21 Pa (docs/methods.md#psychrometrics [P/C]); the ice value is used at 0 °C
     assert.ok(Math.abs(saturationVapourPressurePa(0) - 611.21) > 0.03);
     assert.ok(saturationVapourPressurePa(0.02) > saturationVapourPressurePa(0.01));
   });

@@ -31,7 +31,7 @@ function single(result: ParseResult): { line: number; message: string } {
 
 describe('ISD-Lite reader', () => {
   it('reads the format check line', () => {
-    // NOAA NCEI ISD-Lite format (values ×10, −9999 missing), check line METHODS.md §7.1 / §10 #22 [C]
+    // NOAA NCEI ISD-Lite format (values ×10, −9999 missing), check line docs/methods.md#weather-files, #check-values [C]
     const r = isd('2020 01 15 06   -56  -112 10213   270    46     7     0 -9999\n');
     assert.ok(r.ok);
     assert.equal(r.rowCount, 1);

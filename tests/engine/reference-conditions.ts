@@ -1,7 +1,7 @@
 /**
  * An independent, deliberately plain recomputation of the design conditions used to check the
  * engine: plain arrays and objects, `Array.prototype.sort`, `Date` for calendars, the percentile in
- * its 1-based textbook form (METHODS.md §1.2: h = (N − 1)·p + 1) and `psychrolib` for the
+ * its 1-based textbook form (docs/methods.md#percentiles: h = (N − 1)·p + 1) and `psychrolib` for the
  * psychrometrics. Same conventions as the specification; no code shared with the engine.
  */
 import psy from 'psychrolib';
@@ -13,7 +13,7 @@ export interface ReferenceRow {
   windSpeedMs: number;
 }
 
-/** Type-7 quantile, 1-based form of METHODS.md §1.2. */
+/** Type-7 quantile, 1-based form of docs/methods.md#percentiles */
 export function referenceQuantile(ascending: number[], p: number): number {
   const n = ascending.length;
   const h = (n - 1) * p + 1;

@@ -29,7 +29,7 @@ describe('published design values schema', () => {
   const minimal = { source: 'ASHRAE Handbook—Fundamentals 2009, Ch. 14 table', heating: { db99_6: 3.8, db99: 4.9 } };
 
   it('needs only the heating values and the source', () => {
-    // San Francisco Intl AP heating values, ASHRAE Handbook—Fundamentals 2009, Ch. 14 (METHODS.md §1.1) [S]
+    // San Francisco Intl AP heating values, ASHRAE Handbook—Fundamentals 2009, Ch. 14 (docs/methods.md#design-definitions) [S]
     assert.ok(publishedDesignValuesSchema.safeParse(minimal).success);
     const full = publishedDesignValuesSchema.safeParse({
       ...minimal,

@@ -75,6 +75,7 @@ describe('tailroom-cli sweep', () => {
       designWindMs: 6.7,
       record: { series: parsed.series, qualifyingYears: conditions.conditions.period.qualifyingYears },
       extraDesignC: [-15],
+      heatPumpSizing: 'compressor',
     }).rows.filter((r) => !r.isGrid);
     assert.equal(rows.length, reference.length);
     rows.forEach((row, i) => {
@@ -82,7 +83,7 @@ describe('tailroom-cli sweep', () => {
       assert.equal(row['selectedOptionId'], ref.selectedOptionId, String(row['label']));
       assert.equal(row['installedPrice'], ref.installedPrice);
       assert.equal(row['lifeCycleCost'], ref.lifeCycleCost);
-      for (const key of ['designLoadW', 'annualEnergyKWh', 'runHoursPerYear', 'unmetHoursPerYear', 'unmetDegreeHoursPerYear', 'worstSagC'] as const) {
+      for (const key of ['designLoadW', 'annualEnergyKWh', 'runHoursPerYear', 'backupHoursPerYear', 'backupEnergyKWh', 'unmetHoursPerYear', 'unmetDegreeHoursPerYear', 'lowestIndoorC', 'worstDropK', 'worstSagC'] as const) {
         const a = row[key] as number | null;
         const b = ref[key];
         if (a === null || b === null) assert.equal(a, b, key);
@@ -101,4 +102,48 @@ describe('tailroom-cli sweep', () => {
     assert.match(out.stderr, /economics\.discountRatePct/);
     assert.equal(run('--weather', weatherFile).status, 2);
   });
+
+  it('warns on stderr of a short record (4 years) and prints the warnings and settings with the rows', () => {
+    const out = run('--weather', weatherFile, '--scenario', scenarioFile);
+    assert.equal(out.status, 0, out.stderr);
+    assert.match(out.stderr, /warning \(short-record\)/);
+    assert.match(out.stderr, /warning \(return-periods-unreliable\)/);
+    assert.match(out.stderr, /warning \(fifty-year-short-record\)/);
+    const answer = JSON.parse(out.stdout) as { warnings: { code: string }[]; heatPumpSizing: string; studyPeriodYears: number; selectionRule: string };
+    assert.equal(answer.heatPumpSizing, 'compressor');
+    assert.equal(answer.studyPeriodYears, 20);
+    // Furnaces and a heat pump: a mixed list is decided on life-cycle cost.
+    assert.equal(answer.selectionRule, 'lowest-life-cycle-cost');
+    assert.ok(answer.warnings.some((w) => w.code === 'mixed-families'));
+  });
+
+  const refusals: [string, (s: typeof SCENARIO) => unknown, RegExp][] = [
+    ['UA of 0', (s) => ({ ...s, building: { ...s.building, uaWPerK: 0 } }), /building\.uaWPerK: The UA \(conduction heat-loss coefficient\) must be greater than 0 W\/K/],
+    ['indoor −40 °C', (s) => ({ ...s, building: { ...s.building, indoorC: -40 } }), /building\.indoorC: The indoor temperature must be at least 5 °C/],
+    ['duplicate option ids', (s) => ({ ...s, equipment: [...s.equipment, s.equipment[0]] }), /equipment "f-40"\.id: Another option already has the id "f-40"/],
+    ['an energy without a price', (s) => ({ ...s, prices: { electricityPerKWh: 0.16 } }), /equipment "f-40"\.energy: "f-40" uses gas, but prices has no gasPerKWh/],
+    ['an extra design temperature of −300 °C', (s) => ({ ...s, extraDesignTemperaturesC: [-300] }), /extraDesignTemperaturesC\[0\]: A design temperature must be between -60 °C and 20 °C/],
+    ['an extra design temperature of 80 °C', (s) => ({ ...s, extraDesignTemperaturesC: [80] }), /extraDesignTemperaturesC\[0\]: .*80 °C is not/],
+    [
+      'a COP below 1',
+      (s) => ({
+        ...s,
+        equipment: s.equipment.map((e) => (e.kind === 'heat-pump' && e.ratings ? { ...e, ratings: [e.ratings[0], { outdoorC: -8.3, capacityW: 7000, cop: 0.8 }] } : e)),
+      }),
+      /equipment "hp-3"\.ratings\[1\]\.cop: The COP must be at least 1/,
+    ],
+    ['a cycling degradation above 0.5', (s) => ({ ...s, equipment: [{ ...s.equipment[0], cyclingDegradation: 0.7 }] }), /equipment "f-40"\.cyclingDegradation: .*at most 0\.5/],
+    ['an unknown sizing rule', (s) => ({ ...s, heatPumpSizing: 'biggest' }), /heatPumpSizing: heatPumpSizing is "compressor" or "with-backup"/],
+  ];
+  for (const [name, change, message] of refusals) {
+    it(`refuses ${name}: exit 1, the field named in the scenario's own terms, no JSON dump`, () => {
+      const bad = path.join(dir, 'refused.json');
+      writeFileSync(bad, JSON.stringify(change(SCENARIO)));
+      const out = run('--weather', weatherFile, '--scenario', bad);
+      assert.equal(out.status, 1, out.stdout);
+      assert.match(out.stderr, message);
+      assert.equal(out.stdout, '');
+      assert.doesNotMatch(out.stderr, /conduction\.|"code":|invalid_type|Error:/);
+    });
+  }
 });

@@ -1,6 +1,6 @@
 /**
- * Design-temperature sweep against a small record worked by hand, METHODS.md §5 (unmet energy and
- * degree-hours), §5.1 (single-capacitance indoor droop) and §6 (NIST Handbook 135, Fuller &
+ * Design-temperature sweep against a small record worked by hand, docs/methods.md#hourly (unmet energy and
+ * degree-hours), #indoor-temperature (single-capacitance indoor droop) and #life-cycle-cost (NIST Handbook 135, Fuller &
  * Petersen, 1995 ed., uniform present value). Tags: [S] confirmed in a source, [M] from memory,
  * [C] computed from the formula shown.
  */
@@ -25,7 +25,7 @@ import {
 import { assertClose, assertDeepClose } from './close-to';
 
 const HOUR_MS = 3_600_000;
-/** C = 30 MJ/K, UA = 250 W/K → τ = C/UA = 120 000 s = 33.333 h (METHODS §5.1 check [C]). */
+/** C = 30 MJ/K, UA = 250 W/K → τ = C/UA = 120 000 s = 33.333 h (docs/methods.md#indoor-temperature check [C]). */
 const TAU_H = 30e6 / 250 / 3600;
 
 /** UA 250 W/K, no air leakage, set-point 21 °C, no gains, duct loss or safety factor. */
@@ -124,10 +124,10 @@ describe('sweep: a small record worked by hand', () => {
     assert.equal(r.unmetHoursPerYear, 3.5);
     assert.equal(r.unmetHoursWorstYear, 4);
     // Unmet energy: 3 × 2000 + 4 × 3000 = 18 000 Wh → 9 kWh per year;
-    // degree-hours 3 × 8 + 4 × 12 = 72 K·h → 36 per year (METHODS §5 identity [C]).
+    // degree-hours 3 × 8 + 4 × 12 = 72 K·h → 36 per year (docs/methods.md#hourly identity [C]).
     assertClose(r.unmetEnergyKWhPerYear, 9, 1e-9, 'unmet energy');
     assertClose(r.unmetDegreeHoursPerYear, 36, 1e-9, 'unmet degree-hours');
-    // Sag (METHODS §5.1): 2002 at −23 °C, T_ss = −23 + 8000/250 = 9 °C; after 4 h
+    // Sag (docs/methods.md#indoor-temperature): 2002 at −23 °C, T_ss = −23 + 8000/250 = 9 °C; after 4 h
     // T = 9 + 12·e^(−4/33.333) = 19.6430 → 1.35695 K (2001: 13 + 8·e^(−0.09) → 0.68855 K) [C].
     assertClose(r.worstSagC, 1.3569548, 1e-6, 'worst sag');
     // Cost: 0.05 $/kWh × 127.6316 kWh = 6.38 $; LCC = 3500 + UPV(3 %, 20) × 6.381579 = 3594.94 [C].
@@ -197,15 +197,15 @@ describe('sweep: a small record worked by hand', () => {
       options: [furnace('X', 8000, 0.95, '3600.00'), furnace('Y', 8000, 0.95, '3400.00'), hp],
     }).rows;
     // 99.6 %: −8 °C → D = 7250 W. Heat pump at −8 °C on the line 10 kW (8.33 °C) → 6 kW (−8.33 °C):
-    // 10 000 − 4000 × 0.98 = 6080 W, + 2000 W backup = 8080 W ≥ 7250 W (METHODS §4.3 [C]); the
+    // 10 000 − 4000 × 0.98 = 6080 W, + 2000 W backup = 8080 W ≥ 7250 W (docs/methods.md#heat-pump-capacity [C]); the
     // furnaces' 8000 W is smaller, and Y is cheaper than X.
     assert.equal(rowOf(rows, '99.6 %').selectedOptionId, 'Y');
   });
 });
 
-describe('METHODS §5 and §5.1 checks', () => {
+describe('docs/methods.md#hourly, #indoor-temperature checks', () => {
   it('hour at −20 °C with 6 kW against UA 250 W/K: 4.25 kWh and 17.0 K·h unmet [C]', () => {
-    // METHODS §5 check [C]: L = 0.25 × 41 = 10.25 kW; unmet 4.25 kWh; 4250 / 250 = 17.0 K·h.
+    // docs/methods.md#hourly check [C]: L = 0.25 × 41 = 10.25 kW; unmet 4.25 kWh; 4250 / 250 = 17.0 K·h.
     const rows = sweep({
       building: building(),
       options: [furnace('F6', 6000, 0.95, '3000.00')],
@@ -217,21 +217,21 @@ describe('METHODS §5 and §5.1 checks', () => {
     }).rows;
     const r = rowOf(rows, '99 %');
     assert.equal(r.selectedOptionId, 'F6');
-    assertClose(r.unmetEnergyKWhPerYear, 4.25, 1e-9, 'unmet energy, METHODS §5 [C]');
-    assertClose(r.unmetDegreeHoursPerYear, 17.0, 1e-9, 'unmet degree-hours, METHODS §5 [C]');
+    assertClose(r.unmetEnergyKWhPerYear, 4.25, 1e-9, 'unmet energy, docs/methods.md#hourly [C]');
+    assertClose(r.unmetDegreeHoursPerYear, 17.0, 1e-9, 'unmet degree-hours, docs/methods.md#hourly [C]');
   });
 
   it('droop: τ 33.333 h, T_ss 15 °C, T0 21 °C → T(6 h) 20.012, T(24 h) 17.921 °C [C]', () => {
-    assertClose(TAU_H, 33.333, 5e-4, 'τ = 30 MJ/K / 250 W/K, METHODS §5.1 [C]');
+    assertClose(TAU_H, 33.333, 5e-4, 'τ = 30 MJ/K / 250 W/K, docs/methods.md#indoor-temperature [C]');
     const tss = steadyIndoorC(-25, 10000, 0, 250);
-    assertClose(tss, 15, 1e-12, 'T_ss = −25 + 10 000/250, METHODS §5.1 [C]');
+    assertClose(tss, 15, 1e-12, 'T_ss = −25 + 10 000/250, docs/methods.md#indoor-temperature [C]');
     let t = 21;
     const path: number[] = [];
     for (let k = 1; k <= 24; k++) path.push((t = droopStep(t, tss, TAU_H)));
-    assertClose(path[0], 20.823, 5e-4, 'T(1 h), METHODS §5.1 [C]');
-    assertClose(path[5], 20.012, 5e-4, 'T(6 h), METHODS §5.1 [C]');
-    assertClose(path[11], 19.186, 5e-4, 'T(12 h), METHODS §5.1 [C]');
-    assertClose(path[23], 17.921, 5e-4, 'T(24 h), METHODS §5.1 [C]');
+    assertClose(path[0], 20.823, 5e-4, 'T(1 h), docs/methods.md#indoor-temperature [C]');
+    assertClose(path[5], 20.012, 5e-4, 'T(6 h), docs/methods.md#indoor-temperature [C]');
+    assertClose(path[11], 19.186, 5e-4, 'T(12 h), docs/methods.md#indoor-temperature [C]');
+    assertClose(path[23], 17.921, 5e-4, 'T(24 h), docs/methods.md#indoor-temperature [C]');
   });
 
   it('the sweep reports the same droop over 24 h at −25 °C with a 10 kW unit: sag 21 − 17.921 K [C]', () => {
@@ -245,12 +245,12 @@ describe('METHODS §5 and §5.1 checks', () => {
       record: record({ 2001: [[24, -25]] }),
     }).rows;
     const r = rowOf(rows, '99 %');
-    assertClose(r.worstSagC, 21 - 17.921, 5e-4, 'sag after 24 h, METHODS §5.1 [C]');
+    assertClose(r.worstSagC, 21 - 17.921, 5e-4, 'sag after 24 h, docs/methods.md#indoor-temperature [C]');
     assert.equal(r.unmetHoursPerYear, 24);
   });
 });
 
-describe('NIST Handbook 135 (1995 ed.) uniform present value, METHODS §6', () => {
+describe('NIST Handbook 135 (1995 ed.) uniform present value, docs/methods.md#life-cycle-cost', () => {
   it('UPV = ((1+d)^n − 1)/(d(1+d)^n)', () => {
     assertClose(uniformPresentValue(0.03, 15), 11.93794, 5e-6, 'UPV(3 %, 15) [C]');
     assertClose(uniformPresentValue(0.03, 20), 14.87747, 5e-6, 'UPV(3 %, 20) [C]');

@@ -2,7 +2,7 @@
  * Properties of the design-temperature sweep on random buildings, equipment lists and records
  * (fast-check): a colder design temperature never selects a smaller unit, never raises the unmet
  * hours and never lowers the installed price; a unit larger than the coldest hour's load leaves no
- * unmet hours; the fast sweep gives the naive sweep's figures. Formulas: METHODS.md §5, §5.1, §6.
+ * unmet hours; the fast sweep gives the naive sweep's figures. Formulas: docs/methods.md#hourly, #indoor-temperature, #life-cycle-cost.
  */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
@@ -113,10 +113,16 @@ const flatArb: fc.Arbitrary<EquipmentOptionInput> = fc
     fuel: fc.constantFrom('gas' as const, 'oil' as const, 'propane' as const),
     cents: fc.integer({ min: 100_000, max: 2_000_000 }),
     lifeYears: fc.integer({ min: 5, max: 30 }),
+    cd: fc.option(fc.integer({ min: 0, max: 50 }).map((c) => c / 100)),
+    minOutput: fc.option(fc.integer({ min: 10, max: 100 }).map((m) => m / 100)),
   })
-  .map((o): EquipmentOptionInput =>
-    o.kind === 'electric'
-      ? { kind: 'electric', label: 'E', outputW: o.outputW, installedPrice: money(o.cents), lifeYears: o.lifeYears }
+  .map((o): EquipmentOptionInput => {
+    const cycling = {
+      ...(o.cd === null ? {} : { cyclingDegradation: o.cd }),
+      ...(o.minOutput === null ? {} : { minOutputFraction: o.minOutput }),
+    };
+    return o.kind === 'electric'
+      ? { kind: 'electric', label: 'E', outputW: o.outputW, installedPrice: money(o.cents), lifeYears: o.lifeYears, ...cycling }
       : {
           kind: o.kind,
           label: 'F',
@@ -125,8 +131,39 @@ const flatArb: fc.Arbitrary<EquipmentOptionInput> = fc
           outputW: o.outputW,
           installedPrice: money(o.cents),
           lifeYears: o.lifeYears,
-        },
-  );
+          ...cycling,
+        };
+  });
+
+/**
+ * Records with runs of missing hours (gaps from 1 to 10 hours, on both sides of the 6-hour limit
+ * beyond which the indoor temperature restarts at the set-point) and long cold spells.
+ */
+const gappyRecordArb: fc.Arbitrary<SweepRecord> = fc
+  .array(
+    fc.record({
+      run: fc.array(tenth(-35, 5), { minLength: 1, maxLength: 30 }),
+      gap: fc.integer({ min: 0, max: 10 }),
+    }),
+    { minLength: 1, maxLength: 8 },
+  )
+  .map((pieces) => {
+    const time: number[] = [];
+    const dryBulbC: number[] = [];
+    const windSpeedMs: number[] = [];
+    let k = 0;
+    for (const p of pieces) {
+      for (const t of p.run) {
+        time.push(Date.UTC(2001, 0, 1) + k++ * HOUR_MS);
+        dryBulbC.push(t);
+        windSpeedMs.push(NaN);
+      }
+      k += p.gap;
+    }
+    return { series: seriesFromRows({ time, dryBulbC, windSpeedMs }), qualifyingYears: [2001] };
+  });
+
+const sizingArb = fc.constantFrom('compressor' as const, 'with-backup' as const);
 
 const heatPumpArb: fc.Arbitrary<EquipmentOptionInput> = fc
   .record({
@@ -140,6 +177,8 @@ const heatPumpArb: fc.Arbitrary<EquipmentOptionInput> = fc
     defrostBand: fc.boolean(),
     cutoutC: fc.option(fc.integer({ min: -30, max: -10 })),
     cents: fc.integer({ min: 300_000, max: 3_000_000 }),
+    cd: fc.option(fc.integer({ min: 0, max: 50 }).map((c) => c / 100)),
+    minOutput: fc.option(fc.integer({ min: 10, max: 100 }).map((m) => m / 100)),
   })
   .map((h): EquipmentOptionInput => {
     const q17 = (h.q47 * h.f17) / 100;
@@ -157,6 +196,8 @@ const heatPumpArb: fc.Arbitrary<EquipmentOptionInput> = fc
       extrapolate: h.extrapolate,
       defrostBand: h.defrostBand,
       ...(h.cutoutC === null ? {} : { cutoutC: h.cutoutC }),
+      ...(h.cd === null ? {} : { cyclingDegradation: h.cd }),
+      ...(h.minOutput === null ? {} : { minOutputFraction: h.minOutput }),
     };
   });
 
@@ -198,20 +239,49 @@ describe('sweep properties', () => {
         designArb,
         fc.double({ min: 0, max: 12, noNaN: true }),
         fc.integer({ min: 0, max: 8 }),
-        (building, options, record, designConditions, designWindMs, rate) => {
+        sizingArb,
+        fc.record({ study: fc.integer({ min: 1, max: 40 }), escalation: fc.integer({ min: -2, max: 5 }) }),
+        (building, options, record, designConditions, designWindMs, rate, heatPumpSizing, period) => {
           const input = {
             building,
             options: withIds(options),
             prices,
-            economics: { discountRatePct: rate },
+            economics: { discountRatePct: rate, studyPeriodYears: period.study, energyEscalationPctPerYear: period.escalation },
             designConditions,
             designWindMs,
             record,
+            heatPumpSizing,
           };
           const fast = sweep(input);
           const naive = sweepNaive(input);
           assert.deepEqual(fast.years, naive.years);
           assertRowsAgree(fast.rows, naive.rows);
+        },
+      ),
+      { numRuns: 150 },
+    );
+  });
+
+  it('fast sweep equals the naive sweep on records with gaps (mixed families, variable capacity, both sizing rules)', () => {
+    fc.assert(
+      fc.property(
+        buildingArb,
+        fc.array(fc.oneof(flatArb, heatPumpArb), { minLength: 1, maxLength: 5 }),
+        gappyRecordArb,
+        designArb,
+        sizingArb,
+        (building, options, record, designConditions, heatPumpSizing) => {
+          const input = {
+            building,
+            options: withIds(options),
+            prices,
+            economics: { discountRatePct: 3 },
+            designConditions,
+            designWindMs: 6.7,
+            record,
+            heatPumpSizing,
+          };
+          assertRowsAgree(sweep(input).rows, sweepNaive(input).rows);
         },
       ),
       { numRuns: 150 },
@@ -345,13 +415,16 @@ describe('sweep properties', () => {
           designConditions,
           designWindMs: 6.7,
           record,
+          // The backup carries the load here: the compressor alone need not cover it.
+          heatPumpSizing: 'with-backup',
         }).rows;
         for (const r of rows) {
           assert.equal(r.selectedOptionId, 'opt-0');
           assert.equal(r.unmetHoursPerYear, 0);
           assert.equal(r.unmetHoursWorstYear, 0);
           assert.equal(r.unmetDegreeHoursPerYear, 0);
-          assert.equal(r.worstSagC, 0);
+          assert.equal(r.worstDropK, 0);
+          assert.equal(r.lowestIndoorC, building.indoorDesignC);
         }
       }),
       { numRuns: 100 },

@@ -46,7 +46,7 @@ describe('trade-off sentence (designer)', () => {
     assert.equal(
       s,
       'Sizing for −17.0 °C (99 % design temperature) instead of −32.5 °C (50-year return period) installs Small furnace instead of Large furnace, ' +
-        'for $890 less installed ($897 less life-cycle cost). ' +
+        'for $890 less installed ($897 less life-cycle cost over the study period). ' +
         "Unmet hours: 23 hours in an average year and 110 hours in the worst of the record's 30 years; lowest indoor temperature in the worst spell 18.8 °C.",
     );
   });

@@ -45,17 +45,23 @@ function figureText(key: ReportFigure, r: SweepRowAnswer, a: SweepAnswer, system
     case 'annualCost':
       return money(r.annualCost);
     case 'lifeCycleCost':
-      return money(r.lifeCycleCost);
+      return r.lifeCycleCost === null || a.studyPeriodYears === null ? money(r.lifeCycleCost) : `${money(r.lifeCycleCost)} over ${a.studyPeriodYears} years`;
+    case 'compressor':
+      return r.compressorAtDesignW === null ? 'not a heat pump' : formatPower(r.compressorAtDesignW, system);
     case 'runHours':
       return hours(r.runHoursPerYear);
+    case 'backupHours':
+      return r.compressorAtDesignW === null ? 'not a heat pump' : hours(r.backupHoursPerYear);
+    case 'backupEnergy':
+      return r.compressorAtDesignW === null ? 'not a heat pump' : r.backupEnergyKWh === null ? 'not known' : `about ${Math.round(r.backupEnergyKWh).toLocaleString('en-US')} kWh`;
     case 'unmetHours':
       return hours(r.unmetHoursPerYear);
     case 'unmetWorstYear':
       return hours(r.unmetHoursWorstYear);
     case 'lowestIndoor': {
-      const low = lowestIndoorC(r, a.indoorDesignC);
+      const low = r.lowestIndoorC ?? lowestIndoorC(r, a.indoorDesignC);
       if (low === null) return 'not known';
-      return r.worstSagC === 0 ? `stays at ${wholeDegrees(a.indoorDesignC, system)}` : `about ${wholeDegrees(low, system)}`;
+      return low >= a.indoorDesignC - 0.05 ? `stays at ${wholeDegrees(a.indoorDesignC, system)}` : `about ${wholeDegrees(low, system)}`;
     }
   }
 }
@@ -163,7 +169,10 @@ export function buildReportView(src: ReportSource): ReportView {
     cautions: [...HOMEOWNER_CAUTIONS],
     provenance:
       (src.frozenAt ? `Figures fixed on ${src.frozenAt.toISOString().slice(0, 10)}` : `Figures last worked out ${computed.toISOString().slice(0, 16).replace('T', ' ')} UTC`) +
-      `. Indoors ${temp(a.indoorDesignC)}, wind ${formatQuantity('speed', a.designWindMs, system)}, discount rate ${a.discountRatePct} % a year above inflation, prices in ${a.currency}. ` +
+      `. Indoors ${temp(a.indoorDesignC)}, wind ${formatQuantity('speed', a.designWindMs, system)}, discount rate ${a.discountRatePct} % a year above inflation` +
+      (a.studyPeriodYears === null ? '' : `, costs over ${a.studyPeriodYears} years`) +
+      (a.options.some((o) => o.kind === 'heat-pump') ? (a.heatPumpSizing === 'compressor' ? ', heat pumps sized without their backup heater' : ', heat pumps sized with their backup heater') : '') +
+      `, prices in ${a.currency}. ` +
       `Methods ${SWEEP_VERSION} and ${METHOD_VERSION}; inputs ${a.inputHash.slice(0, 12)}.`,
     unitSystem: system,
     expiresAt: src.expiresAt ? src.expiresAt.toISOString() : null,

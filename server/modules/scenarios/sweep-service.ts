@@ -12,15 +12,16 @@ import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import { capacityAt } from '@shared/equipment/capacity';
 import { equipmentOptionSchema, type EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { energyPricesSchema, type EnergyPrices } from '@shared/money/energy-prices';
-import type { ScenarioSettings, SweepAnswer, SweepOptionAnswer } from '@shared/scenarios/scenario-schemas';
-import type { SweepDesignValues, SweepOption } from '@shared/sweep/sweep';
+import { scenarioSettingsSchema, type ScenarioSettings, type SweepAnswer, type SweepOptionAnswer } from '@shared/scenarios/scenario-schemas';
+import { pricePerKwhOfFuel } from '@shared/money/energy-prices';
+import { familyOf, type SweepDesignValues, type SweepOption } from '@shared/sweep/sweep';
 import { HttpError } from '../../http/http-error';
 import { findSite } from '../climate/climate-repo';
 import type { SweepPool } from './sweep-pool';
 import type { SweepTask } from './sweep-worker';
 
 /** Bumped whenever the sweep's figures or the answer's shape change, so that old cache entries are not used. */
-export const SWEEP_VERSION = 'sweep-1.0.0';
+export const SWEEP_VERSION = 'sweep-2.0.0';
 
 export interface ScenarioRow {
   id: string;
@@ -47,7 +48,20 @@ export type SweepAnswerBody = Omit<SweepAnswer, 'scenarioId' | 'cached' | 'froze
 export interface PreparedSweep {
   hash: string;
   task: Omit<SweepTask, 'databaseUrl'>;
-  meta: Omit<SweepAnswerBody, 'inputHash' | 'computedAt' | 'years' | 'timeConstantH' | 'rows' | 'loadDuration'>;
+  meta: Omit<
+    SweepAnswerBody,
+    | 'inputHash'
+    | 'computedAt'
+    | 'years'
+    | 'timeConstantH'
+    | 'rows'
+    | 'loadDuration'
+    | 'studyPeriodYears'
+    | 'energyEscalationPctPerYear'
+    | 'heatPumpSizing'
+    | 'selectionRule'
+    | 'warnings'
+  >;
   /** The prices used (the scenario's or the organisation's), kept with a frozen copy. */
   prices: EnergyPrices;
   /** The cached answer for this scenario as sent, once it has been sent (see `scenarioSweepJson`). */
@@ -69,6 +83,8 @@ function toSweepJson(answer: SweepAnswer): SweepJson {
 export const incomplete = (details: FieldIssue[]) =>
   new HttpError(422, 'scenario_incomplete', 'This scenario cannot be swept yet: ' + details.map((d) => d.message).join('; '), details);
 
+const FAMILY_NAMES = { 'fuel-fired': 'fuel-fired equipment', 'heat-pump': 'heat pumps', electric: 'electric resistance heat' } as const;
+
 const CURVE_FROM_C = 20;
 const CURVE_TO_C = -45;
 
@@ -80,6 +96,8 @@ function capacityCurve(option: EquipmentOption): SweepOptionAnswer['capacityCurv
 
 /** Everything a sweep of this scenario depends on, or 422 with what is missing. */
 export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<PreparedSweep> {
+  // Settings stored before a setting existed take its default.
+  const settings = scenarioSettingsSchema.parse(scenario.settings);
   const problems: FieldIssue[] = [];
   const orgId = scenario.organization_id;
   const project = await db('projects')
@@ -123,11 +141,13 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
       .where({ equipment_list_id: scenario.equipment_list_id })
       .orderBy('position')
       .select<{ position: number; option: unknown }[]>('position', 'option');
-    const wanted = scenario.settings.optionLabels;
+    const wanted = settings.optionLabels;
+    const family = settings.equipmentFamily;
     const seen = new Set<string>();
     for (const r of rows) {
       const option = equipmentOptionSchema.parse(r.option);
       if (wanted !== null && !wanted.includes(option.label)) continue;
+      if (family !== null && familyOf(option) !== family) continue;
       seen.add(option.label);
       options.push({ ...option, id: String(r.position + 1) });
     }
@@ -136,14 +156,18 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
       notes.push(`${missing.length === 1 ? 'An option' : `${missing.length} options`} chosen for this scenario ${missing.length === 1 ? 'is' : 'are'} no longer in the list: ${missing.join(', ')}`);
     }
     if (options.length === 0) {
-      problems.push({
-        path: wanted === null ? 'equipmentListId' : 'settings.optionLabels',
-        message: wanted === null ? `"${list.name}" has no options yet` : 'None of the chosen options is in the list any more',
-      });
+      problems.push(
+        family !== null && rows.length > 0
+          ? { path: 'settings.equipmentFamily', message: `"${list.name}" has no ${FAMILY_NAMES[family]} among the options considered` }
+          : {
+              path: wanted === null ? 'equipmentListId' : 'settings.optionLabels',
+              message: wanted === null ? `"${list.name}" has no options yet` : 'None of the chosen options is in the list any more',
+            },
+      );
     }
   }
 
-  let prices = scenario.settings.prices;
+  let prices = settings.prices;
   if (prices === null) {
     const row = await db('energy_prices').where({ organization_id: orgId }).first<{ prices: unknown } | undefined>('prices');
     prices = row ? energyPricesSchema.parse(row.prices) : null;
@@ -152,10 +176,30 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     problems.push({ path: 'settings.prices', message: 'Enter the organisation’s energy prices, or give this scenario its own' });
   }
 
+  if (prices !== null) {
+    // Every option must have a price for its energy, or its running and life-cycle costs are unknown.
+    const unpriced = [...new Set(options.filter((o) => pricePerKwhOfFuel(o.fuel, prices) === null).map((o) => o.fuel))];
+    for (const fuel of unpriced) {
+      const users = options.filter((o) => o.fuel === fuel).map((o) => `"${o.label}"`);
+      problems.push({ path: 'settings.prices', message: `Enter a ${fuel} price: ${users.join(', ')} ${users.length === 1 ? 'uses' : 'use'} ${fuel}` });
+    }
+  }
+  if (building !== null) {
+    const warmest = building.indoorDesignC - 1;
+    settings.extraDesignC.forEach((t, i) => {
+      if (t > warmest) {
+        problems.push({
+          path: `settings.extraDesignC.${i}`,
+          message: `A design temperature must be at most ${warmest} °C (1 K below the indoor temperature); ${t} °C is not`,
+        });
+      }
+    });
+  }
+
   if (problems.length > 0 || building === null || designConditions === null || prices === null || !site || !list) {
     throw incomplete(problems);
   }
-  const sized: Building = { ...building, safetyFactorPct: scenario.settings.safetyFactorPct ?? building.safetyFactorPct };
+  const sized: Building = { ...building, safetyFactorPct: settings.safetyFactorPct ?? building.safetyFactorPct };
   const wind = resolveDesignWind(building.designWind, windValues);
   // Notes are kept with cached answers, so they name no quantity in one unit system (the screen shows the wind in the user's units).
   if (wind.fellBack) notes.push(`The building's design wind choice has no value at "${site.name}"; the trade default wind speed is used`);
@@ -165,10 +209,15 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     building: sized,
     options,
     prices,
-    economics: { discountRatePct: scenario.settings.discountRatePct },
+    economics: {
+      discountRatePct: settings.discountRatePct,
+      studyPeriodYears: settings.studyPeriodYears,
+      energyEscalationPctPerYear: settings.energyEscalationPctPerYear,
+    },
     designConditions,
     designWindMs: wind.windMs,
-    extraDesignC: scenario.settings.extraDesignC,
+    extraDesignC: settings.extraDesignC,
+    heatPumpSizing: settings.heatPumpSizing,
   };
   const hash = createHash('sha256')
     .update(JSON.stringify({ v: SWEEP_VERSION, m: METHOD_VERSION, input, record }))
@@ -184,7 +233,7 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
       hasRecord: record !== null,
       designWindMs: wind.windMs,
       indoorDesignC: sized.indoorDesignC,
-      discountRatePct: scenario.settings.discountRatePct,
+      discountRatePct: settings.discountRatePct,
       options: options.map((o) => ({
         id: o.id,
         label: o.label,
@@ -239,6 +288,11 @@ export async function computeSweep(
     computedAt: new Date().toISOString(),
     years: result.years,
     timeConstantH: result.timeConstantH,
+    studyPeriodYears: result.studyPeriodYears,
+    energyEscalationPctPerYear: result.energyEscalationPctPerYear,
+    heatPumpSizing: result.heatPumpSizing,
+    selectionRule: result.selectionRule,
+    warnings: result.warnings,
     rows: result.rows,
     loadDuration: loadDuration ? { points: loadDuration } : null,
   };

@@ -84,6 +84,7 @@ export function buildingForm(fb: NonNullableFormBuilder) {
     ductLossPct: num(BUILDING_DEFAULTS.ductLossPct),
     safetyFactorPct: num(BUILDING_DEFAULTS.safetyFactorPct),
     internalGainsW: num(BUILDING_DEFAULTS.internalGainsW),
+    creditGainsAtDesign: fb.control<boolean>(BUILDING_DEFAULTS.creditGainsAtDesign),
     thermalMass: fb.group({
       mode: fb.control<ThermalMassMode>('class'),
       timeConstantH: num(),
@@ -152,6 +153,7 @@ export function buildingInputOf(v: BuildingFormValue): unknown {
     ductLossPct: v.ductLossPct,
     safetyFactorPct: v.safetyFactorPct,
     internalGainsW: v.internalGainsW,
+    creditGainsAtDesign: v.creditGainsAtDesign,
     thermalMass,
   };
 }
@@ -199,6 +201,7 @@ export function fillBuildingForm(form: BuildingForm, fb: NonNullableFormBuilder,
     ductLossPct: b.ductLossPct ?? BUILDING_DEFAULTS.ductLossPct,
     safetyFactorPct: b.safetyFactorPct ?? BUILDING_DEFAULTS.safetyFactorPct,
     internalGainsW: b.internalGainsW ?? BUILDING_DEFAULTS.internalGainsW,
+    creditGainsAtDesign: b.creditGainsAtDesign ?? BUILDING_DEFAULTS.creditGainsAtDesign,
     thermalMass: {
       ...current.thermalMass,
       mode: t.mode,

@@ -25,7 +25,9 @@ export type TextField =
   | 'copM8_3'
   | 'copM15'
   | 'installedPrice'
-  | 'lifeYears';
+  | 'lifeYears'
+  | 'cyclingDegradation'
+  | 'minOutputFraction';
 
 const POWER_FIELDS: readonly PowerField[] = [
   'outputW',
@@ -77,6 +79,8 @@ export const VALUE_COLUMNS: readonly ValueColumn[] = [
   { field: 'backupW', type: 'power', kinds: HEAT_PUMP, header: 'Backup heat ({u})' },
   { field: 'installedPrice', type: 'money', kinds: ALL, header: 'Installed price ({c})' },
   { field: 'lifeYears', type: 'years', kinds: ALL, header: 'Expected life (years)' },
+  { field: 'cyclingDegradation', type: 'ratio', kinds: ALL, header: 'Cycling loss C_d (blank: 0.25 heat pumps, 0 others)' },
+  { field: 'minOutputFraction', type: 'ratio', kinds: ALL, header: 'Minimum output, fraction (blank: single-stage)' },
 ];
 
 /**
@@ -206,6 +210,8 @@ export class OptionRow {
       backupW: control(),
       installedPrice: control(option?.installedPrice ?? ''),
       lifeYears: control(text(option?.lifeYears)),
+      cyclingDegradation: control(text(option?.cyclingDegradation)),
+      minOutputFraction: control(text(option?.minOutputFraction)),
     });
     this.kind = signal(this.form.controls.kind.value);
     if (option) this.fill(option, system);
@@ -272,6 +278,8 @@ export class OptionRow {
       label: v.label,
       installedPrice: readMoney(v.installedPrice),
       lifeYears: readNumber(v.lifeYears),
+      cyclingDegradation: readNumber(v.cyclingDegradation),
+      minOutputFraction: readNumber(v.minOutputFraction),
     };
     const power = (field: PowerField) => this.watts(field, system);
     switch (v.kind) {

@@ -23,6 +23,8 @@ describe('trade-off model', () => {
     expect(ip[0]?.lowestIndoor).toBe('67 °F');
     expect(ip[0]?.degreeHours).toBe('54 °F·h');
     expect(ip[0]?.designLoad).toBe('30,000 Btu/h');
+    // 1.8 K = 3.24 °F shown to 0.1.
+    expect(ip[0]?.drop).toBe('3.2 °F');
     const none = designRows(aSweepAnswer({ rows: [{ ...answer.rows[0]!, selectedOptionId: null, installedPrice: null }] }), 'SI');
     expect(none[0]?.unit).toBe('None large enough');
     expect(none[0]?.installedPrice).toBe('—');
@@ -40,7 +42,7 @@ describe('trade-off model', () => {
     const s = sentenceFor(answer, 0, 'SI');
     // 4600.00 − 4000.00 = 600; life-cycle 15000.00 − 14400.00 = 600; lowest indoor 21 − 1.8 = 19.2 °C.
     expect(s).toContain('Sizing for −17.0 °C (99 % design temperature) instead of −32.0 °C (50-year return period) installs Furnace 9 kW instead of Furnace 12 kW');
-    expect(s).toContain('for $600 less installed ($600 less life-cycle cost)');
+    expect(s).toContain('for $600 less installed ($600 less life-cycle cost over the study period)');
     expect(s).toContain("Unmet hours: 12 hours in an average year and 40 hours in the worst of the record's 4 years");
     expect(s).toContain('lowest indoor temperature in the worst spell 19.2 °C');
     expect(sentenceFor(answer, 3, 'SI')).toContain('the coldest of the design temperatures');

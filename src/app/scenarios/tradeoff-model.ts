@@ -40,6 +40,8 @@ export interface DesignRowText {
   designLoad: string;
   unit: string;
   capacity: string;
+  /** Heat pumps: the compressor's capacity at the design temperature ('—' for other kinds). */
+  compressor: string;
   installedPrice: string;
   annualCost: string;
   lifeCycleCost: string;
@@ -47,7 +49,12 @@ export interface DesignRowText {
   unmetHours: string;
   unmetWorst: string;
   degreeHours: string;
+  backupHours: string;
+  backupEnergy: string;
   lowestIndoor: string;
+  drop: string;
+  /** Return-period rows from a short record: how far to trust the temperature ('' otherwise). */
+  reliability: string;
 }
 
 export function optionLabelOf(answer: SweepAnswer): (id: string) => string {
@@ -71,6 +78,7 @@ export function designRows(answer: SweepAnswer, system: UnitSystem): DesignRowTe
     designLoad: formatPower(r.designLoadW, system),
     unit: r.selectedOptionId ? label(r.selectedOptionId) : 'None large enough',
     capacity: r.capacityAtDesignW === null ? '—' : formatPower(r.capacityAtDesignW, system),
+    compressor: r.compressorAtDesignW === null ? '—' : formatPower(r.compressorAtDesignW, system),
     installedPrice: money(r.installedPrice),
     annualCost: money(r.annualCost),
     lifeCycleCost: money(r.lifeCycleCost),
@@ -78,8 +86,36 @@ export function designRows(answer: SweepAnswer, system: UnitSystem): DesignRowTe
     unmetHours: hours(r.unmetHoursPerYear),
     unmetWorst: hours(r.unmetHoursWorstYear),
     degreeHours: formatQuantity('degreeHours', r.unmetDegreeHoursPerYear, system),
-    lowestIndoor: formatQuantity('temperature', lowestIndoorC(r, answer.indoorDesignC), system),
+    backupHours: r.compressorAtDesignW === null ? '—' : hours(r.backupHoursPerYear),
+    backupEnergy: r.compressorAtDesignW === null || r.backupEnergyKWh === null ? '—' : `${groupDigits(r.backupEnergyKWh)} kWh`,
+    lowestIndoor: formatQuantity('temperature', r.lowestIndoorC ?? lowestIndoorC(r, answer.indoorDesignC), system),
+    drop: r.worstDropK === null ? '—' : formatQuantity('temperatureDifference', r.worstDropK, system),
+    reliability: r.reliabilityNote ?? '',
   }));
+}
+
+/** What the sweep's rules were, in one sentence each: heat-pump sizing, how the unit was chosen, the study period. */
+export function rulesText(answer: SweepAnswer): string[] {
+  const lines: string[] = [];
+  if (answer.options.some((o) => o.kind === 'heat-pump')) {
+    lines.push(
+      answer.heatPumpSizing === 'compressor'
+        ? 'Heat pumps are sized on the compressor alone: its capacity at the design temperature covers the design load, and backup heat serves colder hours and emergencies.'
+        : 'Heat pumps are sized with their backup heat: compressor and backup together cover the design load.',
+    );
+  }
+  if (answer.selectionRule === 'lowest-life-cycle-cost') {
+    lines.push('The options mix equipment families, so among those that cover the design load the lowest life-cycle cost is installed.');
+  } else if (answer.selectionRule === 'lowest-installed-price') {
+    lines.push('The options mix equipment families and there is no hourly record, so among those that cover the design load the lowest installed price is installed.');
+  }
+  if (answer.studyPeriodYears !== null) {
+    const escalation = answer.energyEscalationPctPerYear === 0 ? '' : `, energy prices rising ${answer.energyEscalationPctPerYear} % a year above inflation`;
+    lines.push(
+      `Life-cycle costs cover one ${answer.studyPeriodYears}-year study period for every option (replacements and remaining value included) at a ${answer.discountRatePct} % real discount rate${escalation}; running costs include cycling losses.`,
+    );
+  }
+  return lines;
 }
 
 export { defaultRowIndex as defaultIndex, nearestRowIndex as nearestIndex };

@@ -19,6 +19,7 @@ export function aBuilding(fields: Partial<Building> = {}): Building {
     ductLossPct: 0,
     safetyFactorPct: 0,
     internalGainsW: 0,
+    creditGainsAtDesign: false,
     thermalMass: { mode: 'class', class: 'medium', floorAreaM2: 150 },
     ...fields,
   };

@@ -97,7 +97,22 @@ export class ScenarioList {
       initial: 'Base bid',
       submitLabel: 'Create',
       hint: 'It starts with the project’s climate site and equipment list; change them on its trade-off page.',
-      save: (name) => this.api.create(this.projectId(), { name }),
+      choice: {
+        legend: 'Equipment family to consider',
+        initial: 'heat-pump',
+        testId: 'new-scenario-family',
+        options: [
+          { value: 'fuel-fired', label: 'Fuel-fired (furnaces, boilers)' },
+          { value: 'heat-pump', label: 'Heat pumps (with backup heat)' },
+          { value: 'electric', label: 'Electric resistance' },
+          { value: 'mixed', label: 'Mixed families: the lowest life-cycle cost decides' },
+        ],
+      },
+      save: (name, family) =>
+        this.api.create(this.projectId(), {
+          name,
+          settings: { equipmentFamily: family === 'fuel-fired' || family === 'heat-pump' || family === 'electric' ? family : null },
+        }),
     });
     if (created) await this.router.navigate(['/projects', this.projectId(), 'scenarios', created.id]);
   }

@@ -1,3 +1,4 @@
+import type { EquipmentFamily, HeatPumpSizing } from '@shared/sweep/sweep';
 import {
   ChangeDetectionStrategy,
   ChangeDetectorRef,
@@ -80,6 +81,10 @@ export class ScenarioSettingsPanel {
     wholeList: this.fb.control(true),
     safetyFactorPct: this.fb.control('', [Validators.pattern(/^\d{0,3}(\.\d+)?$/), Validators.max(100)]),
     discountRatePct: this.fb.control('3', [Validators.required, Validators.min(0), Validators.max(30)]),
+    studyPeriodYears: this.fb.control('20', [Validators.required, Validators.min(1), Validators.max(100), Validators.pattern(/^\d+$/)]),
+    energyEscalationPctPerYear: this.fb.control('0', [Validators.required, Validators.min(-10), Validators.max(20)]),
+    heatPumpSizing: this.fb.control<HeatPumpSizing>('compressor'),
+    equipmentFamily: this.fb.control<EquipmentFamily | 'all'>('all'),
     extraDesign: this.fb.control(''),
     ownPrices: this.fb.control(false),
     currency: this.fb.control('USD'),
@@ -120,6 +125,10 @@ export class ScenarioSettingsPanel {
       wholeList: st.optionLabels === null,
       safetyFactorPct: st.safetyFactorPct === null ? '' : String(st.safetyFactorPct),
       discountRatePct: String(st.discountRatePct),
+      studyPeriodYears: String(st.studyPeriodYears),
+      energyEscalationPctPerYear: String(st.energyEscalationPctPerYear),
+      heatPumpSizing: st.heatPumpSizing,
+      equipmentFamily: st.equipmentFamily ?? 'all',
       extraDesign: formatTemperatures(st.extraDesignC, this.unitSystem()),
       ownPrices: st.prices !== null,
       currency: st.prices?.currency ?? 'USD',
@@ -198,6 +207,10 @@ export class ScenarioSettingsPanel {
     return {
       extraDesignC: extra,
       discountRatePct: Number(v.discountRatePct),
+      studyPeriodYears: Number(v.studyPeriodYears),
+      energyEscalationPctPerYear: Number(v.energyEscalationPctPerYear),
+      heatPumpSizing: v.heatPumpSizing,
+      equipmentFamily: v.equipmentFamily === 'all' ? null : v.equipmentFamily,
       safetyFactorPct: v.safetyFactorPct.trim() === '' ? null : Number(v.safetyFactorPct),
       prices,
       optionLabels: v.wholeList ? null : labels,

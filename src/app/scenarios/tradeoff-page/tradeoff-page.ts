@@ -37,6 +37,7 @@ import {
   sentenceFor,
   tradeoffChart,
   tradeoffChartSummary,
+  rulesText,
 } from '../tradeoff-model';
 import { ReportList } from '../../reports/report-list/report-list';
 import { TermInfo } from '../../ui/term-info/term-info';
@@ -138,7 +139,14 @@ export class TradeoffPage {
     const r = this.chosenRow();
     if (!s || !r?.selectedOptionId) return '';
     const o = s.options.find((x) => x.id === r.selectedOptionId);
-    return o ? `${o.lifeYears}-year life at ${s.discountRatePct} % real discount rate` : '';
+    if (!o) return '';
+    return s.studyPeriodYears === null
+      ? `${o.lifeYears}-year life at ${s.discountRatePct} % real discount rate`
+      : `over a ${s.studyPeriodYears}-year study period (unit life ${o.lifeYears} years) at ${s.discountRatePct} % real discount rate`;
+  });
+  protected readonly rules = computed(() => {
+    const s = this.sweep();
+    return s ? rulesText(s) : [];
   });
   protected readonly windText = computed(() => formatQuantity('speed', this.sweep()?.designWindMs, this.unitSystem()));
   protected readonly gridStepLabel = computed(() => gridStepText(GRID_STEP_C, this.unitSystem()));
@@ -150,10 +158,13 @@ export class TradeoffPage {
       ['designPoint', 'Design point'],
       ['designLoad', 'Design load'],
       ['unit', 'Unit'],
+      ['compressorAtDesign', 'Compressor'],
       ['installedPrice', 'Installed'],
       ['annualCost', 'Running / yr'],
       ['lifeCycleCost', 'Life-cycle'],
       ['runHours', 'Full-load h / yr'],
+      ['backupHours', 'Backup h / yr'],
+      ['backupEnergy', 'Backup kWh / yr'],
       ['unmetHours', 'Unmet h / yr'],
       ['unmetHoursWorstYear', 'Unmet h, worst year'],
       ['unmetDegreeHours', 'Unmet degree-h / yr'],
@@ -173,19 +184,24 @@ export class TradeoffPage {
       testId: extra.testId ?? null,
       note: extra.note ?? '',
     });
+    const heatPump = c.compressor !== '—';
     return [
       f('designTemperature', this.sliderText(), { lead: true, testId: 'chosen-temperature' }),
       f('designLoad', c.designLoad),
       f('unit', c.unit, { lead: true, testId: 'chosen-unit' }),
+      ...(heatPump ? [f('compressorAtDesign', c.compressor, { lead: true, testId: 'chosen-compressor' })] : []),
       f('capacityAtDesign', this.capacityText()),
       f('installedPrice', c.installedPrice, { testId: 'chosen-price' }),
       f('annualCost', c.annualCost),
-      f('lifeCycleCost', c.lifeCycleCost, { note: this.lifeCycleNote() }),
+      f('lifeCycleCost', c.lifeCycleCost, { note: this.lifeCycleNote(), testId: 'chosen-lcc' }),
       f('runHours', c.runHours),
+      ...(heatPump
+        ? [f('backupHours', c.backupHours, { testId: 'chosen-backup-hours' }), f('backupEnergy', c.backupEnergy, { testId: 'chosen-backup-energy' })]
+        : []),
       f('unmetHours', c.unmetHours, { testId: 'chosen-unmet' }),
       f('unmetHoursWorstYear', c.unmetWorst),
       f('unmetDegreeHours', c.degreeHours),
-      f('lowestIndoor', c.lowestIndoor, { testId: 'chosen-lowest-indoor' }),
+      f('lowestIndoor', c.lowestIndoor, { testId: 'chosen-lowest-indoor', note: c.drop === '—' ? '' : `${c.drop} below the set-point` }),
     ];
   });
   protected readonly optionLabel = computed(() => {

@@ -4,6 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
+import { MatRadioModule } from '@angular/material/radio';
 import { applyApiErrors, fieldError, saveFailure } from '../../core/api-errors';
 
 export interface NameDialogData<T> {
@@ -23,8 +24,10 @@ export interface NameDialogData<T> {
   testId?: string;
   /** The input's autocomplete token (default "off"). */
   autocomplete?: string;
-  /** Saves the name; the dialog closes with its answer, or shows the error and stays open. */
-  save: (name: string) => Promise<T>;
+  /** An optional question asked with the name, answered by one of its choices. */
+  choice?: { legend: string; options: readonly { value: string; label: string }[]; initial: string; testId?: string };
+  /** Saves the name (and the choice, when asked); the dialog closes with its answer, or shows the error and stays open. */
+  save: (name: string, choice: string) => Promise<T>;
   /**
    * For a rename: loads the thing again after someone else saved it first (409 `stale_update`), so
    * that the typed name can be saved over the latest version. The dialog then offers "Reload".
@@ -37,7 +40,7 @@ export interface NameDialogData<T> {
 /** Asks for a name and saves it through the caller's `save`; closes with what `save` answered. */
 @Component({
   selector: 'app-name-dialog',
-  imports: [ReactiveFormsModule, MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule],
+  imports: [ReactiveFormsModule, MatButtonModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatRadioModule],
   template: `
     <h2 mat-dialog-title>{{ data.title }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
@@ -67,6 +70,16 @@ export interface NameDialogData<T> {
           }
           <mat-error>{{ fieldError(form.controls.name, { required: data.requiredMessage ?? 'Enter a name' }) }}</mat-error>
         </mat-form-field>
+        @if (data.choice; as c) {
+          <fieldset class="choice">
+            <legend>{{ c.legend }}</legend>
+            <mat-radio-group formControlName="choice" [attr.data-testid]="c.testId ?? null">
+              @for (o of c.options; track o.value) {
+                <mat-radio-button [value]="o.value">{{ o.label }}</mat-radio-button>
+              }
+            </mat-radio-group>
+          </fieldset>
+        }
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
@@ -78,6 +91,15 @@ export interface NameDialogData<T> {
     .name {
       width: min(400px, 100%);
       padding-top: 0.25rem;
+    }
+    .choice {
+      border: 0;
+      margin: 0;
+      padding: 0;
+    }
+    .choice mat-radio-group {
+      display: flex;
+      flex-direction: column;
     }
     .hint {
       margin: 0 0 0.75rem;
@@ -95,6 +117,7 @@ export class NameDialog<T> {
   private readonly cdr = inject(ChangeDetectorRef);
   protected readonly form = inject(NonNullableFormBuilder).group({
     name: [this.data.initial, [Validators.required, Validators.maxLength(this.data.maxLength)]],
+    choice: [this.data.choice?.initial ?? ''],
   });
   protected readonly pending = signal(false);
   protected readonly formError = signal('');
@@ -115,7 +138,7 @@ export class NameDialog<T> {
       return;
     }
     await this.run(async () => {
-      this.dialogRef.close(await this.data.save(name));
+      this.dialogRef.close(await this.data.save(name, this.form.controls.choice.value));
     });
   }
 
