@@ -130,7 +130,7 @@ export async function pdfPageScreenshots(browser: Browser, pdf: Buffer, name: st
   const page = await context.newPage();
   await page.setContent('<!doctype html><body style="margin:0;background:#888"></body>');
   // A string, not a function: the test runner's transpiler would wrap a function's inner helpers.
-  const pages = (await page.evaluate(`(async () => {
+  const pages = await page.evaluate<number>(`(async () => {
     const url = (code) => URL.createObjectURL(new Blob([code], { type: 'text/javascript' }));
     const pdfjs = await import(url(${JSON.stringify(lib)}));
     pdfjs.GlobalWorkerOptions.workerSrc = url(${JSON.stringify(worker)});
@@ -149,7 +149,7 @@ export async function pdfPageScreenshots(browser: Browser, pdf: Buffer, name: st
       await p.render({ canvasContext: canvas.getContext('2d'), viewport }).promise;
     }
     return doc.numPages;
-  })()`)) as number;
+  })()`);
   for (let n = 1; n <= pages; n++) await page.locator(`#page-${n}`).screenshot({ path: path.join(SCREENSHOTS, `${name}-${n}.png`) });
   await context.close();
   return pages;
