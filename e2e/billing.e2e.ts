@@ -1,6 +1,7 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import { newOwnerPage } from './support/accounts';
+import { checkA11y } from './support/a11y';
 import { screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -26,12 +27,14 @@ describe('plans and billing in a real browser', () => {
     await limit.waitFor();
     assert.match(await limit.innerText(), /Starter plan holds 3 active projects/);
     assert.equal(await page.getByRole('button', { name: 'Create project' }).isDisabled(), true);
+    await checkA11y(page, 'new-project-at-limit');
     const refused = await page.request.post(e2e.baseUrl + '/api/v1/projects', { data: { name: 'Fourth house' }, headers: { 'X-Requested-With': 'tailroom' } });
     assert.equal(refused.status(), 402);
     await limit.getByRole('link', { name: /Upgrade/ }).click();
     await page.waitForURL(/\/billing$/);
     await page.getByTestId('current-plan').getByText('Starter plan').waitFor();
     await screenshot(page, 'billing-starter-1280');
+    await checkA11y(page, 'billing-starter');
 
     // Checkout on the provider's (fake's) page with the documented success card.
     await page.locator('[data-plan="crew"]').getByRole('button', { name: 'Choose Crew' }).click();
@@ -47,6 +50,7 @@ describe('plans and billing in a real browser', () => {
     assert.equal(await events.locator('li').count(), e2e.payments.deliveries().length);
     assert.match(await events.innerText(), /applied: crew active/);
     await screenshot(page, 'billing-crew-1280');
+    await checkA11y(page, 'billing-crew');
 
     // Now the fourth project goes through.
     await page.getByRole('link', { name: 'Projects' }).first().click();

@@ -4,6 +4,7 @@ import type { Page } from 'playwright-core';
 import { buildingSchema } from '../shared/building/building-schemas';
 import { heatLoss } from '../shared/building/heat-loss';
 import { newOwnerPage } from './support/accounts';
+import { checkA11y } from './support/a11y';
 import { screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -52,6 +53,8 @@ describe('a project’s building in a real browser', () => {
 
     // An equipment list imported from CSV.
     await page.getByRole('link', { name: 'Equipment' }).first().click();
+    await page.getByRole('button', { name: 'New equipment list' }).waitFor();
+    await checkA11y(page, 'equipment-lists');
     await page.getByRole('button', { name: 'New equipment list' }).click();
     await page.getByLabel(/^List name/).fill('Test line');
     await page.getByRole('button', { name: 'Create list' }).click();
@@ -62,11 +65,13 @@ describe('a project’s building in a real browser', () => {
     await page.getByTestId('csv-add').click();
     await page.getByTestId('save').click();
     await page.getByTestId('unsaved').waitFor({ state: 'detached' });
+    await checkA11y(page, 'equipment-list');
 
     // A project using both.
     await page.getByRole('link', { name: 'Projects' }).first().click();
     await page.getByRole('button', { name: 'New project' }).click();
     await page.getByLabel(/^Project name/).fill('Test cottage');
+    await checkA11y(page, 'new-project-dialog');
     await page.getByLabel(/^Climate site/).click();
     await page.getByRole('option', { name: /Test site/ }).click();
     await page.getByRole('button', { name: 'Create project' }).click();
@@ -102,6 +107,7 @@ describe('a project’s building in a real browser', () => {
     await page.getByText(/Building saved/i).first().waitFor();
     await page.waitForTimeout(300);
     await screenshot(page, 'building-1280');
+    await checkA11y(page, 'project-building');
 
     // After a reload, and after a round trip through SI, the same numbers.
     await page.reload();

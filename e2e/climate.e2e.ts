@@ -6,6 +6,7 @@ import { after, before, describe, it } from 'node:test';
 import { DEMO_SITES, generateDemoSeries, seriesToCsv } from '../shared/climate/demo-weather';
 import { computeDesignConditions } from '../shared/climate/design-conditions';
 import { newOwnerPage } from './support/accounts';
+import { checkA11y } from './support/a11y';
 import { screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -36,7 +37,9 @@ describe('climate sites in a real browser', () => {
 
     await page.getByRole('link', { name: 'Climate sites' }).first().click();
     await page.getByText('No climate sites yet').waitFor();
+    await checkA11y(page, 'climate-sites-empty');
     await page.getByRole('link', { name: 'New site from hourly data' }).click();
+    await checkA11y(page, 'climate-site-new');
     await page.getByLabel(/^Site name/).fill(`${site.name} test upload`);
     await page.locator('[data-field="elevationM"]').fill(String(site.elevationM));
     await page.getByRole('button', { name: 'Create site and upload data' }).click();
@@ -49,6 +52,7 @@ describe('climate sites in a real browser', () => {
     const found = await page.getByTestId('years-found').innerText();
     assert.match(found, /10/);
     await screenshot(page, 'climate-upload-report-1280');
+    await checkA11y(page, 'climate-upload-report');
     await page.getByRole('button', { name: 'Store this record' }).click();
 
     // The site page: the values, the cumulative-frequency curve and the monthly chart.
@@ -63,6 +67,7 @@ describe('climate sites in a real browser', () => {
     // The site's details can be edited after the upload; the values stay.
     await page.getByRole('button', { name: 'Edit' }).click();
     await page.getByRole('heading', { name: 'Edit site' }).waitFor();
+    await checkA11y(page, 'climate-site-edit');
     await page.getByLabel(/^Site name/).fill(`${site.name} test upload`);
     await page.getByLabel(/^Notes/).fill('Checked against the generated file');
     await page.getByRole('button', { name: 'Save changes' }).click();
@@ -70,6 +75,7 @@ describe('climate sites in a real browser', () => {
     assert.ok((await page.getByTestId('design-values').locator('[data-key="heating-99.6"]').innerText()).includes(shown));
     await page.waitForTimeout(300); // let the canvas paint
     await screenshot(page, 'climate-site-1280');
+    await checkA11y(page, 'climate-site');
 
     await page.setViewportSize({ width: 390, height: 844 });
     await page.waitForTimeout(300);
@@ -83,6 +89,7 @@ describe('climate sites in a real browser', () => {
     await page.goto(e2e.baseUrl + '/climate-sites');
     await page.getByRole('link', { name: `${site.name} test upload` }).waitFor();
     await screenshot(page, 'climate-sites-390');
+    await checkA11y(page, 'climate-sites');
     assert.deepEqual(offenders, []);
     await context.close();
   });

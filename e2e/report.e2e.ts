@@ -2,6 +2,7 @@ import assert from 'node:assert/strict';
 import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
+import { checkA11y } from './support/a11y';
 import { SCREENSHOTS, guardOffline, pdfPageScreenshots, screenshot, seedDemoData, signInAsDemo, startE2eApp, type E2eApp } from './support/e2e-app';
 
 /** Words of the designer's screens that must not reach the homeowner. */
@@ -38,6 +39,7 @@ describe('a client report in a real browser', () => {
     await page.getByLabel(/^Title/).fill('Heat pump options for the Old Mill duplex');
     await page.getByLabel(/^Note to the client/).fill('The smaller unit keeps up on all but the coldest few hours; the backup heater covers them.');
     await page.getByLabel(/^Your phone/).fill('555 0142');
+    await checkA11y(page, 'report-composer');
     await page.getByRole('button', { name: 'Create report' }).click();
     await page.waitForURL(/\/reports\//);
     await page.getByTestId('report-document').waitFor();
@@ -54,6 +56,7 @@ describe('a client report in a real browser', () => {
     // After a successful send the address field is empty and not marked as an error.
     assert.equal(await page.getByLabel(/^Client's e-mail/).inputValue(), '');
     assert.equal(await page.locator('form[data-testid="send-form"] mat-error').count(), 0);
+    await checkA11y(page, 'report-page');
     const reportPage = page.url();
     await page.goto(e2e.baseUrl + '/dev/outbox');
     const link = page.locator('a[href*="/r/"]').first();
@@ -89,6 +92,7 @@ describe('a client report in a real browser', () => {
     for (const jargon of DESIGNER_ONLY) assert.doesNotMatch(readable, jargon);
     await home.locator('.report canvas').first().waitFor();
     await screenshot(home, 'report-1280');
+    await checkA11y(home, 'public-report');
     await home.setViewportSize({ width: 390, height: 844 });
     await home.reload();
     await home.getByTestId('report-document').waitFor();
@@ -117,6 +121,7 @@ describe('a client report in a real browser', () => {
     const api = await home.request.get(e2e.baseUrl + '/api/v1/public/reports/' + (href.split('/r/')[1] ?? ''));
     assert.equal(api.status(), 410);
     await screenshot(home, 'report-withdrawn-390');
+    await checkA11y(home, 'public-report-withdrawn');
 
     assert.deepEqual(offenders, []);
     await homeContext.close();

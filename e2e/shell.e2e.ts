@@ -2,6 +2,7 @@ import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
 import { createAccountThroughUi } from './support/accounts';
+import { checkA11y } from './support/a11y';
 import { guardOffline, screenshot, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -62,17 +63,25 @@ describe('the app shell in a real browser', () => {
     assert.ok(await shippedFontLoaded(owner), 'Source Sans 3 is loaded from the app');
     assert.match(await fontFamilyOf(owner, 'body'), /Source Sans 3/);
     await screenshot(owner, 'sign-in-1280');
+    await checkA11y(owner, 'sign-in');
 
     // Create account: the form, the e-mailed link from the Dev outbox, then the password.
     await owner.getByRole('link', { name: 'Create an account' }).click();
     await owner.waitForURL(/\/create-account/);
+    await checkA11y(owner, 'create-account');
     const signUpLink = await createAccountThroughUi(
       owner,
       e2e.baseUrl,
       { name: 'Olive Owner', email: ownerEmail, password, organizationName: orgName },
       {
-        sent: () => screenshotAtWidths(owner, 'sign-up-sent'),
-        finishing: () => screenshotAtWidths(owner, 'finish-sign-up'),
+        sent: async () => {
+          await screenshotAtWidths(owner, 'sign-up-sent');
+          await checkA11y(owner, 'sign-up-sent');
+        },
+        finishing: async () => {
+          await screenshotAtWidths(owner, 'finish-sign-up');
+          await checkA11y(owner, 'finish-sign-up');
+        },
       },
     );
 
@@ -80,11 +89,13 @@ describe('the app shell in a real browser', () => {
     await owner.getByText('No projects yet').waitFor();
     await owner.getByRole('button', { name: `Organisation: ${orgName}` }).waitFor();
     await screenshot(owner, 'projects-1280');
+    await checkA11y(owner, 'projects-empty');
 
     // The e-mailed link works once.
     await owner.goto(signUpLink);
     await owner.getByTestId('sign-up-link-invalid').getByRole('link', { name: 'Start again' }).waitFor();
     await screenshot(owner, 'finish-sign-up-used-1280');
+    await checkA11y(owner, 'finish-sign-up-used');
     await owner.goto(e2e.baseUrl + '/projects');
     await owner.getByText('No projects yet').waitFor();
 
@@ -95,6 +106,7 @@ describe('the app shell in a real browser', () => {
     await owner.getByRole('button', { name: 'Send invitation' }).click();
     await owner.locator('table').filter({ hasText: designerEmail }).getByText(/pending/i).first().waitFor();
     await screenshot(owner, 'team-1280');
+    await checkA11y(owner, 'team');
 
     // The invitation link, from the Dev outbox.
     await owner.goto(e2e.baseUrl + '/dev/outbox');
@@ -103,6 +115,7 @@ describe('the app shell in a real browser', () => {
     const href = await link.getAttribute('href');
     assert.ok(href?.startsWith(e2e.baseUrl + '/invitations/'), `invitation link: ${href}`);
     await screenshot(owner, 'dev-outbox-1280');
+    await checkA11y(owner, 'dev-outbox');
 
     // The designer, on a phone, opens it and creates an account.
     const designerContext = await e2e.browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true });
@@ -110,6 +123,7 @@ describe('the app shell in a real browser', () => {
     guardOffline(designer, e2e.baseUrl, offenders);
     await designer.goto(href ?? '');
     await designer.getByText(orgName).first().waitFor();
+    await checkA11y(designer, 'invitation');
     await designer.getByLabel(/^Name/).fill('Dana Designer');
     await designer.getByLabel(/^Password/).fill(password);
     await designer.getByRole('button', { name: 'Create account and join' }).click();

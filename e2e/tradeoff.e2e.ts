@@ -1,6 +1,7 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
+import { checkA11y } from './support/a11y';
 import { guardOffline, screenshot, seedDemoData, signInAsDemo, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -35,7 +36,8 @@ describe('the trade-off screen on the demo data', () => {
       }
       assert.fail(`the chosen design point ${designC} °C was not saved`);
     };
-    await page.getByTestId('tradeoff-sentence').waitFor({ timeout: 120_000 }); // the first sweep of a record starts a worker and loads it
+    // The first sweep of a record loads it into a worker: allow for a busy machine.
+    await page.getByTestId('tradeoff-sentence').waitFor({ timeout: 180_000 });
     await page.getByTestId('tradeoff-chart').locator('canvas').first().waitFor();
 
     // The page opens on the 99.6 % value. The slider's Home key goes to the mildest value (99 %).
@@ -85,10 +87,12 @@ describe('the trade-off screen on the demo data', () => {
     await page.getByTestId('tradeoff-cautions').waitFor();
     await page.getByTestId('load-duration-chart').locator('canvas').first().waitFor();
     await screenshot(page, 'tradeoff-1280');
+    await checkA11y(page, 'tradeoff');
 
     // Freeze it for a bid: the frozen copy opens, says it is frozen, keeps the chosen point and offers no settings to save.
     await page.getByRole('button', { name: 'Freeze for a bid' }).click();
     await page.getByLabel(/^Name of the frozen copy/).fill('Gas furnace bid (demo) · sent');
+    await checkA11y(page, 'freeze-dialog');
     await page.getByRole('button', { name: 'Freeze', exact: true }).click();
     await page.getByTestId('frozen-note').waitFor();
     assert.notEqual(new URL(page.url()).pathname, scenarioUrl);
@@ -96,6 +100,7 @@ describe('the trade-off screen on the demo data', () => {
     assert.equal(await text(page, 'chosen-price'), mild.price);
     await page.getByText('Scenario settings').click();
     assert.equal(await page.getByRole('button', { name: 'Save and sweep again' }).count(), 0);
+    await checkA11y(page, 'tradeoff-frozen');
 
     // Compare the frozen copy with the heat-pump scenario.
     await page.getByRole('link', { name: 'Project', exact: true }).click();
@@ -103,6 +108,8 @@ describe('the trade-off screen on the demo data', () => {
     // The project's list shows each scenario's chosen point, unit and price.
     const chosenLine = await list.locator('[data-scenario="Gas furnace bid (demo) · sent"] [data-testid="scenario-chosen"]').innerText();
     assert.ok(chosenLine.includes('99 % design temperature') && chosenLine.includes(mild.unit) && chosenLine.includes(mild.price), chosenLine);
+    await list.waitFor();
+    await checkA11y(page, 'project');
     await list.getByRole('checkbox', { name: 'Compare Gas furnace bid (demo) · sent' }).check();
     await list.getByRole('checkbox', { name: 'Compare Heat pump bid (demo)' }).check();
     await page.getByTestId('compare-selected').click();
@@ -119,6 +126,7 @@ describe('the trade-off screen on the demo data', () => {
     assert.match(await page.getByTestId('compare-differences').innerText(), /baseline/);
     await page.getByTestId('compare-chart').locator('canvas').first().waitFor();
     await screenshot(page, 'compare-1280');
+    await checkA11y(page, 'compare');
 
     // A phone-sized screen.
     await page.setViewportSize({ width: 390, height: 844 });

@@ -15,7 +15,7 @@
 import { buildBins, indexSweepRecord, type Bins, type Hours, type SweepRecord, type SweepRecordIndex } from './sweep';
 
 /** Changes whenever the packed layout or the meaning of `Hours`/`Bins` changes: a stored index of another format is rebuilt. */
-export const SWEEP_INDEX_FORMAT = 'sweep-index-1';
+export const SWEEP_INDEX_FORMAT = 'sweep-index-2';
 
 /** What a stored index is valid for: its format and the years it covers. */
 export function sweepIndexKey(qualifyingYears: readonly number[]): string {
@@ -63,6 +63,7 @@ function binsColumns(prefix: string, b: Bins): [string, Column][] {
     [`${prefix}.count`, b.count],
     [`${prefix}.start`, b.start],
     [`${prefix}.hourIdx`, b.hourIdx],
+    [`${prefix}.binOfHour`, b.binOfHour],
   ];
 }
 
@@ -140,17 +141,10 @@ export function unpackSweepIndex(bytes: Uint8Array): SweepRecordIndex {
     const v = get(name);
     return v instanceof Uint8Array ? v : Uint8Array.from(v);
   };
-  const bins = (prefix: string): Bins | null => {
-    if (!arrays.has(`${prefix}.t`)) return null;
-    const start = i32(`${prefix}.start`);
-    const hourIdx = i32(`${prefix}.hourIdx`);
-    // The bin of every hour, rebuilt from the bins' hour lists (hourIdx[start[b] .. start[b + 1]) are bin b's).
-    const binOfHour = new Int32Array(header.n);
-    for (let b = 0; b + 1 < start.length; b++) {
-      for (let k = start[b] ?? 0; k < (start[b + 1] ?? 0); k++) binOfHour[hourIdx[k] ?? 0] = b;
-    }
-    return { t: f64(`${prefix}.t`), w: f64(`${prefix}.w`), count: f64(`${prefix}.count`), start, hourIdx, binOfHour };
-  };
+  const bins = (prefix: string): Bins | null =>
+    arrays.has(`${prefix}.t`)
+      ? { t: f64(`${prefix}.t`), w: f64(`${prefix}.w`), count: f64(`${prefix}.count`), start: i32(`${prefix}.start`), hourIdx: i32(`${prefix}.hourIdx`), binOfHour: i32(`${prefix}.binOfHour`) }
+      : null;
   const hours: Hours = {
     n: header.n,
     hourNumber: f64('hours.hourNumber'),

@@ -13,6 +13,7 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import { roleLabels, type Role } from '@shared/auth/roles';
 import { AuthStore } from './auth/auth-store';
 import { apiErrorMessage } from './core/api-errors';
+import { RouteFocus } from './core/route-focus';
 import type { NameDialogData } from './ui/name-dialog/name-dialog';
 
 /** The shell: toolbar with navigation, organisation, units and account; then the page. */
@@ -40,12 +41,20 @@ export class App {
   private readonly router = inject(Router);
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
+  private readonly routeFocus = inject(RouteFocus);
 
   protected readonly unitsPending = signal(false);
   protected readonly organizationName = computed(() => this.auth.currentOrganization()?.name ?? 'No organisation');
 
   constructor() {
     void this.auth.whenLoaded();
+    this.routeFocus.start();
+  }
+
+  /** The skip link: straight to the page's content, without changing the address. */
+  protected skipToMain(event: Event): void {
+    event.preventDefault();
+    this.routeFocus.focusMain();
   }
 
   protected roleLabel(role: Role): string {

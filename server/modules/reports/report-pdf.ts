@@ -44,7 +44,8 @@ export function reportChartSvg(view: ReportView, width = 515, height = 230): str
 }
 
 const INK = '#1D4E5F';
-const EMBER = '#C9583A';
+/** Ember's darker text tone (4.8:1 on white paper); the base ember is for marks and lines only. */
+const EMBER_TEXT = '#B44E33';
 
 export async function reportPdf(view: ReportView, logo: { contentType: string; content: Buffer } | null): Promise<Buffer> {
   const header: unknown[] = [];
@@ -65,7 +66,7 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
       widths: [110, ...view.options.map(() => '*')],
       body: [
         [cell(''), ...view.options.map((o) => cell(o.heading, { bold: true, fontSize: 10.5, color: INK }))],
-        [cell('Heating unit', { color: '#555' }), ...view.options.map((o) => cell(o.unit, { bold: true, color: EMBER }))],
+        [cell('Heating unit', { color: '#555' }), ...view.options.map((o) => cell(o.unit, { bold: true, color: EMBER_TEXT }))],
         [cell('Heat it gives', { color: '#555' }), ...view.options.map((o) => cell(`${o.capacity} at ${o.temperature}`))],
         ...firstFigures.map((f, k) => [
           cell(f.label, { color: '#555' }),
@@ -130,7 +131,7 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
       // The cautions and the provenance line stay together, so no line is left alone on a last page.
       {
         stack: [
-          { text: view.cautionsTitle, style: 'h2', color: EMBER },
+          { text: view.cautionsTitle, style: 'h2', color: EMBER_TEXT },
           { ul: view.cautions, fontSize: 9.5 },
           { text: view.provenance, style: 'small', margin: [0, 12, 0, 0] },
         ],

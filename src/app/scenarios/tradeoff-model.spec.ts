@@ -1,7 +1,7 @@
 import type { SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { aSweepAnswer } from './testing/scenario-fixtures';
 import { aScenario } from './testing/scenario-fixtures';
-import { capacityAtC, comparisonTable, defaultIndex, designRows, differenceRows, loadDurationChart, nearestIndex, pricesText, sentenceFor, tradeoffChart } from './tradeoff-model';
+import { capacityAtC, comparisonTable, defaultIndex, designRows, differenceRows, loadDurationChart, loadDurationTable, nearestIndex, pricesText, sentenceFor, tradeoffChart } from './tradeoff-model';
 
 describe('trade-off model', () => {
   const answer = aSweepAnswer();
@@ -28,6 +28,22 @@ describe('trade-off model', () => {
     const none = designRows(aSweepAnswer({ rows: [{ ...answer.rows[0]!, selectedOptionId: null, installedPrice: null }] }), 'SI');
     expect(none[0]?.unit).toBe('None large enough');
     expect(none[0]?.installedPrice).toBe('—');
+  });
+
+  it('reads the load-duration chart out as a table: load at 1, 10, 50 … hours a year against the chosen unit', () => {
+    // Fixture points (hours a year at or above, load, outdoor): 1 h 11.5 kW −30 °C; 20 h 9.2 kW −19 °C;
+    // 2,000 h 4.0 kW 0 °C; 5,000 h 500 W 15 °C. The 99 % design temperature installs the flat 9 kW furnace.
+    const mild = loadDurationTable(answer, 0, 'SI');
+    expect(mild.map((r) => r.hours)).toEqual(['1.0', '20', '2,000', '5,000']);
+    expect(mild.map((r) => r.load)).toEqual(['11.5 kW', '9.2 kW', '4.0 kW', '500 W']);
+    expect(mild.map((r) => r.outdoor)).toEqual(['−30.0 °C', '−19.0 °C', '0.0 °C', '15.0 °C']);
+    expect(mild.map((r) => r.capacity)).toEqual(['9.0 kW', '9.0 kW', '9.0 kW', '9.0 kW']);
+    expect(mild.map((r) => r.keepsUp)).toEqual(['No', 'No', 'Yes', 'Yes']);
+    // The 50-year design temperature installs the 12 kW furnace, which meets every hour.
+    expect(loadDurationTable(answer, 3, 'SI').map((r) => r.keepsUp)).toEqual(['Yes', 'Yes', 'Yes', 'Yes']);
+    // 11,500 W × 3.41214 = 39,240 Btu/h, shown to the 100.
+    expect(loadDurationTable(answer, 0, 'IP')[0]?.load).toBe('39,200 Btu/h');
+    expect(loadDurationTable(aSweepAnswer({ loadDuration: null }), 0, 'SI')).toEqual([]);
   });
 
   it('opens on the 99.6 % value when there is one, else on the first named one; finds the nearest row to a temperature', () => {

@@ -318,6 +318,44 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
   };
 }
 
+/** One line of the load-duration chart's table: a share of the year, its load and the chosen unit's capacity. */
+export interface LoadDurationRowText {
+  hours: string;
+  outdoor: string;
+  load: string;
+  capacity: string;
+  keepsUp: string;
+}
+
+/** The durations (hours per average year) the load-duration table reads the chart at. */
+const DURATION_STEPS = [1, 10, 50, 100, 500, 1000, 2000, 4000, 8000];
+
+/**
+ * The load-duration chart as a table, for those who cannot see the chart: the load reached for at least
+ * 1, 10, 50 … hours of an average year, the outdoor temperature of that hour, and what the chosen unit
+ * gives there. Empty without a record.
+ */
+export function loadDurationTable(answer: SweepAnswer, index: number, system: UnitSystem): LoadDurationRowText[] {
+  const points = answer.loadDuration?.points ?? [];
+  const row = answer.rows[index];
+  const option = row?.selectedOptionId ? answer.options.find((o) => o.id === row.selectedOptionId) : undefined;
+  const picked = new Set<(typeof points)[number]>();
+  for (const step of DURATION_STEPS) {
+    const p = points.find((q) => q.hoursPerYear >= step);
+    if (p) picked.add(p);
+  }
+  return [...picked].map((p) => {
+    const capacityW = option ? capacityAtC(option.capacityCurve, p.outdoorC) : null;
+    return {
+      hours: groupDigits(p.hoursPerYear, p.hoursPerYear < 10 ? 1 : 0),
+      outdoor: formatQuantity('temperature', p.outdoorC, system),
+      load: formatPower(p.loadW, system),
+      capacity: capacityW === null ? '—' : formatPower(capacityW, system),
+      keepsUp: capacityW === null ? 'No unit' : capacityW >= p.loadW ? 'Yes' : 'No',
+    };
+  });
+}
+
 /** A text alternative for the trade-off chart. */
 export function tradeoffChartSummary(answer: SweepAnswer, system: UnitSystem): string {
   const named = answer.rows.filter((r) => !r.isGrid);

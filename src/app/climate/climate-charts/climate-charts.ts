@@ -35,6 +35,8 @@ type MarkLineData = NonNullable<MarkLineComponentOption['data']>[number];
 const INK = '#1D4E5F';
 const COLD = '#4F8FBF';
 const EMBER = '#C9583A';
+/** Glacier's darker text tone, for words drawn in glacier blue (5.3:1 on paper). */
+const COLD_TEXT = '#356C97';
 const SLATE = '#5E6E75';
 const TEXT = '#2A3A40';
 
@@ -126,7 +128,7 @@ export class ClimateCharts {
       lineStyle: { color: m.color, type: m.type, width: m.type === 'solid' ? 2 : 1.5 },
       label: {
         formatter: m.label,
-        color: m.color === SLATE ? TEXT : m.color,
+        color: m.color === SLATE ? TEXT : m.color === COLD ? COLD_TEXT : m.color,
         fontSize: compact ? 10 : 12,
         position: i % 2 === 0 ? 'insideEndTop' : 'insideMiddleTop',
       },

@@ -155,7 +155,7 @@ export class ReportPage {
 
   protected async createLink(): Promise<void> {
     const r = this.report();
-    if (!r || this.linkDays.invalid) return;
+    if (!r || this.linkDays.invalid || this.pending()) return;
     await this.act(async () => {
       const { url } = await this.api.createLink(r.projectId, r.id, this.linkDays.value);
       this.newUrl.set(url);

@@ -67,7 +67,7 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
             </mat-select>
           </mat-form-field>
         </div>
-        <div class="table-wrap" tabindex="0" aria-label="Comparison table, scrolls sideways">
+        <div class="table-wrap" tabindex="0" role="region" aria-label="Comparison table, scrolls sideways">
           <table class="compare-table" data-testid="compare-table">
             <thead>
               <tr>

@@ -20,7 +20,7 @@ import { SCENARIO_NAME_MAX, type Scenario, type SweepAnswer } from '@shared/scen
 import { formatMoney } from '@shared/money/money';
 import { designValueName, explain, gridStepText, term, type TermKey } from '@shared/glossary/glossary';
 import { GRID_STEP_C } from '@shared/sweep/sweep';
-import { formatQuantity, fromSi } from '@shared/units/units';
+import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';
 import { provideCharts } from '../../charts/provide-charts';
@@ -32,6 +32,7 @@ import {
   designRows,
   formatPower,
   loadDurationChart,
+  loadDurationTable,
   nearestIndex,
   optionLabelOf,
   sentenceFor,
@@ -124,11 +125,12 @@ export class TradeoffPage {
     const s = this.sweep();
     return s ? loadDurationChart(s, this.index(), this.unitSystem(), this.compact()) : null;
   });
-  protected readonly sliderMax = computed(() => Math.max(0, (this.sweep()?.rows.length ?? 1) - 1));
-  protected readonly sliderText = computed(() => {
-    const r = this.chosenRow();
-    return r ? `${formatQuantity('temperature', r.designC, this.unitSystem())}${r.isGrid ? '' : ` (${designValueName(r.label)})`}` : '';
+  protected readonly durationRows = computed(() => {
+    const s = this.sweep();
+    return s ? loadDurationTable(s, this.index(), this.unitSystem()) : [];
   });
+  protected readonly sliderMax = computed(() => Math.max(0, (this.sweep()?.rows.length ?? 1) - 1));
+  protected readonly sliderText = computed(() => this.designPointText(this.index()));
   protected readonly capacityText = computed(() => {
     const r = this.chosenRow();
     return r?.capacityAtDesignW == null ? '—' : formatPower(r.capacityAtDesignW, this.unitSystem());
@@ -387,10 +389,12 @@ export class TradeoffPage {
   }
 
   protected readonly temperature = (c: number) => formatQuantity('temperature', c, this.unitSystem());
-  /** The slider's bubble: the temperature of the row at that position. */
-  protected readonly temperatureAtIndex = (i: number): string => {
+  /**
+   * The design point at a slider position as the page shows it, e.g. "−32.5 °C (50-year return period)". The slider
+   * uses it both for its bubble and for the value a screen reader reads out, so the two never differ.
+   */
+  protected readonly designPointText = (i: number): string => {
     const r = this.sweep()?.rows[i];
-    // The bubble holds about four characters: whole degrees.
-    return r ? `${Math.round(fromSi('temperature', r.designC, this.unitSystem()))}°`.replace('-', '−') : '';
+    return r ? `${formatQuantity('temperature', r.designC, this.unitSystem())}${r.isGrid ? '' : ` (${designValueName(r.label)})`}` : '';
   };
 }
