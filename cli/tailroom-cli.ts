@@ -1,22 +1,31 @@
 /**
  * Tailroom command line.
  *
- *   node --import tsx cli/tailroom-cli.ts conditions <file> [--format csv|isd-lite] [--elevation m]
+ *   node --import tsx cli/tailroom-cli.ts conditions <file> [--format csv|isd-lite] [--elevation m] [--last N]
+ *   node --import tsx cli/tailroom-cli.ts adjust --weather <reference file> --target <target.json> [--format csv|isd-lite]
+ *   node --import tsx cli/tailroom-cli.ts trend <file> [--format csv|isd-lite]
  *   node --import tsx cli/tailroom-cli.ts demo <site-id> [--years N] [--format csv|isd-lite]
  *   node --import tsx cli/tailroom-cli.ts sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite]
  *
  * `conditions` prints the design conditions JSON of an hourly weather file to stdout.
  * `demo` prints a generated demo file for an invented site to stdout.
  * `sweep` prints the design-temperature ladder of a scenario over a weather file as JSON rows.
+ * `adjust` prints a reference record shifted and stretched to a target's published values (CSV).
+ * `trend` prints each qualifying year's coldest hour with its Theil–Sen slope and Mann–Kendall test.
  * Exit codes: 0 success, 1 unreadable or unusable data, 2 usage error.
  */
 import { createReadStream, existsSync, readFileSync, statSync } from 'node:fs';
 import { readScenarioFile } from '../shared/sweep/scenario-file';
 import { sweep } from '../shared/sweep/sweep';
 import { createInterface } from 'node:readline';
+import { z } from 'zod';
 import {
+  coldestHourTrend,
   computeDesignConditions,
   createParser,
+  designConditionsOfLatestYears,
+  MIN_BASIS_YEARS,
+  shiftAndStretch,
   demoSiteIds,
   detectFormat,
   findDemoSite,
@@ -30,7 +39,9 @@ import {
 } from '../shared/climate/index';
 
 const USAGE = `Usage:
-  tailroom-cli conditions <file> [--format csv|isd-lite] [--elevation m]
+  tailroom-cli conditions <file> [--format csv|isd-lite] [--elevation m] [--last N]
+  tailroom-cli adjust --weather <reference file> --target <target.json> [--format csv|isd-lite]
+  tailroom-cli trend <file> [--format csv|isd-lite]
   tailroom-cli demo <site-id> [--years N] [--format csv|isd-lite]
   tailroom-cli sweep --weather <file> --scenario <scenario.json> [--format csv|isd-lite]
 
@@ -101,25 +112,104 @@ async function parseFile(path: string, format: WeatherFileFormat | undefined): P
   return { ...parser.finish(), format: chosen };
 }
 
+/** A weather file read, or null after its first problems were printed to stderr. */
+async function readWeather(path: string, format: WeatherFileFormat | undefined): Promise<(ParseResult & { ok: true }) | null> {
+  const parsed = await parseFile(path, format);
+  if (parsed.ok) return parsed;
+  const lines = parsed.problems.map((p) => `  line ${p.line}: ${p.message}`);
+  const more = parsed.problemCount - parsed.problems.length;
+  process.stderr.write(
+    `${path}: cannot be read as ${parsed.format}:\n${lines.join('\n')}\n` + (more > 0 ? `  … and ${more} more problem(s)\n` : ''),
+  );
+  return null;
+}
+
+function existingFile(path: string): void {
+  if (!existsSync(path) || !statSync(path).isFile()) throw new UsageError(`No such file: ${path}`);
+}
+
+/** target.json of `adjust`: the published values the reference is adjusted to. */
+const adjustTargetSchema = z.object({
+  heating: z.object({ db99_6: z.number().min(-90).max(60) }),
+  hdd18: z.number().min(0).max(20000).nullable().optional(),
+});
+
+async function adjustCommand(args: readonly string[]): Promise<number> {
+  const { positional, flags } = parseArgs(args, ['weather', 'target', 'format']);
+  if (positional.length > 0) throw new UsageError(`Unexpected argument ${positional[0] ?? ''}`);
+  const weather = flags.get('weather');
+  const targetPath = flags.get('target');
+  if (weather === undefined || targetPath === undefined) throw new UsageError('adjust needs --weather <file> and --target <target.json>');
+  existingFile(weather);
+  existingFile(targetPath);
+  const format = formatFlag(flags);
+  let raw: unknown;
+  try {
+    raw = JSON.parse(readFileSync(targetPath, 'utf8'));
+  } catch {
+    process.stderr.write(`${targetPath}: not valid JSON\n`);
+    return 1;
+  }
+  const checked = adjustTargetSchema.safeParse(raw);
+  if (!checked.success) {
+    const lines = checked.error.issues.map((i) => `  ${i.path.join('.') || '(file)'}: ${i.message}`);
+    process.stderr.write(`${targetPath}: not a valid target:\n${lines.join('\n')}\n`);
+    return 1;
+  }
+  const parsed = await readWeather(weather, format);
+  if (!parsed) return 1;
+  const result = shiftAndStretch(parsed.series, { db99_6: checked.data.heating.db99_6, hdd18: checked.data.hdd18 });
+  if (!result.ok) {
+    process.stderr.write(`${weather}: refused: ${result.message}\n`);
+    return 1;
+  }
+  process.stdout.write(seriesToCsv(result.series));
+  process.stderr.write(JSON.stringify({ shiftK: result.shiftK, stretch: result.stretch, referenceMeanC: result.referenceMeanC }) + '\n');
+  return 0;
+}
+
+async function trendCommand(args: readonly string[]): Promise<number> {
+  const { positional, flags } = parseArgs(args, ['format']);
+  const [file, extra] = positional;
+  if (file === undefined) throw new UsageError('trend needs a file');
+  if (extra !== undefined) throw new UsageError(`Unexpected argument ${extra}`);
+  existingFile(file);
+  const parsed = await readWeather(file, formatFlag(flags));
+  if (!parsed) return 1;
+  const trend = coldestHourTrend(parsed.series);
+  if (trend.annual.length === 0) {
+    process.stderr.write(`${file}: no calendar year has at least 85 % valid hourly dry-bulb values\n`);
+    return 1;
+  }
+  process.stderr.write(`${trend.sentence}\n`);
+  const out = {
+    annualMinimaC: trend.annual.map((a) => ({ year: a.year, minC: a.minC })),
+    senSlopeKPerDecade: trend.senSlopeKPerDecade,
+    mannKendall: trend.mannKendall,
+  };
+  process.stdout.write(JSON.stringify(out, null, 2) + '\n');
+  return 0;
+}
+
 async function conditionsCommand(args: readonly string[]): Promise<number> {
-  const { positional, flags } = parseArgs(args, ['format', 'elevation']);
+  const { positional, flags } = parseArgs(args, ['format', 'elevation', 'last']);
   const [file, extra] = positional;
   if (file === undefined) throw new UsageError('conditions needs a file');
   if (extra !== undefined) throw new UsageError(`Unexpected argument ${extra}`);
-  if (!existsSync(file) || !statSync(file).isFile()) throw new UsageError(`No such file: ${file}`);
+  existingFile(file);
   const format = formatFlag(flags);
   const elevationM = numberFlag(flags, 'elevation');
-
-  const parsed = await parseFile(file, format);
-  if (!parsed.ok) {
-    const lines = parsed.problems.map((p) => `  line ${p.line}: ${p.message}`);
-    const more = parsed.problemCount - parsed.problems.length;
-    process.stderr.write(
-      `${file}: cannot be read as ${parsed.format}:\n${lines.join('\n')}\n` + (more > 0 ? `  … and ${more} more problem(s)\n` : ''),
-    );
-    return 1;
+  const last = numberFlag(flags, 'last');
+  if (last !== undefined && (!Number.isInteger(last) || last < MIN_BASIS_YEARS || last > 200)) {
+    throw new UsageError(`--last must be a whole number of years from ${MIN_BASIS_YEARS} to 200`);
   }
-  const result = computeDesignConditions(parsed.series, { elevationM });
+
+  const parsed = await readWeather(file, format);
+  if (!parsed) return 1;
+  const result =
+    last === undefined
+      ? computeDesignConditions(parsed.series, { elevationM })
+      : designConditionsOfLatestYears(parsed.series, last, { elevationM });
   if (!result.ok) {
     process.stderr.write(`${file}: ${result.error.message}\n`);
     for (const y of result.years) process.stderr.write(`  ${y.year}: ${(y.completeness * 100).toFixed(1)} % valid hours\n`);
@@ -226,6 +316,8 @@ async function main(argv: readonly string[]): Promise<number> {
     if (command === 'conditions') return await conditionsCommand(rest);
     if (command === 'demo') return demoCommand(rest);
     if (command === 'sweep') return await sweepCommand(rest);
+    if (command === 'adjust') return await adjustCommand(rest);
+    if (command === 'trend') return await trendCommand(rest);
     throw new UsageError(command === undefined ? 'No command given' : `Unknown command ${command}`);
   } catch (error) {
     if (error instanceof UsageError) {

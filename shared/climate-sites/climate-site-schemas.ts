@@ -87,6 +87,39 @@ export const climateSiteSummarySchema = z.object({
 export type ClimateSiteSummary = z.infer<typeof climateSiteSummarySchema>;
 export const climateSiteListSchema = z.array(climateSiteSummarySchema);
 
+/** POST /api/v1/climate-sites/:siteId/estimate: estimate a published site's hours from another site's record. */
+export const estimateInputSchema = z.strictObject({
+  referenceSiteId: z.uuid('Choose a site with an hourly record as the reference'),
+});
+export type EstimateInput = z.infer<typeof estimateInputSchema>;
+
+/** Where an estimated hourly record came from (docs/methods.md#shift-and-stretch). */
+export const siteEstimateSchema = z.object({
+  /** Null when the reference site has since been deleted (its name is kept). */
+  referenceSiteId: z.uuid().nullable(),
+  referenceSiteName: z.string(),
+  /** Δ, K. */
+  shiftK: z.number(),
+  /** α. */
+  stretch: z.number(),
+  /** T̄, the reference's mean dry-bulb, °C. */
+  referenceMeanC: z.number(),
+  methodVersion: z.string(),
+  /** The published values matched: the 99.6 % heating dry-bulb, °C, and the degree-days (null: not given, so α = 0). */
+  matched: z.object({ db99_6: z.number(), hdd18: z.number().nullable() }),
+  /** The reference record's computation it was made from. */
+  referenceComputedAt: z.string(),
+  computedAt: z.string(),
+  /** The plain sentence every screen and report shows beside figures from this record. */
+  label: z.string(),
+});
+export type SiteEstimate = z.infer<typeof siteEstimateSchema>;
+
+/** The sentence shown wherever figures come from an estimated record. */
+export function estimateLabel(referenceName: string, siteName: string): string {
+  return `Hour-by-hour figures estimated from ${referenceName}'s record, adjusted to ${siteName}'s published values.`;
+}
+
 /** GET /api/v1/climate-sites/:siteId */
 export const climateSiteSchema = climateSiteSummarySchema.extend({
   notes: z.string(),
@@ -103,8 +136,39 @@ export const climateSiteSchema = climateSiteSummarySchema.extend({
       rowCount: z.int(),
     })
     .nullable(),
+  /** Published sites with an estimated hourly record: its provenance (the record's values are then in `computed`). */
+  estimate: siteEstimateSchema.nullable(),
 });
 export type ClimateSite = z.infer<typeof climateSiteSchema>;
+
+/** Design values of one span of the record, for the side-by-side table of the site page. */
+export const recordWindowSchema = z.object({
+  /** null: the whole record. */
+  latestYears: z.int().nullable(),
+  firstYear: z.int(),
+  lastYear: z.int(),
+  qualifyingYearCount: z.int(),
+  heating: z.object({ db99_6: z.number(), db99: z.number() }),
+  extremeMinMean: z.number(),
+  returnPeriod50: z.number().nullable(),
+  hdd18: z.number(),
+});
+export type RecordWindow = z.infer<typeof recordWindowSchema>;
+
+/** GET /api/v1/climate-sites/:siteId/recent-years (sites with an hourly record, estimated or not) */
+export const recentYearsSchema = z.object({
+  windows: z.array(recordWindowSchema),
+  trend: z.object({
+    annual: z.array(z.object({ year: z.int(), minC: z.number(), db99_6C: z.number() })),
+    senSlopeKPerDecade: z.number().nullable(),
+    mannKendall: z.object({ s: z.number(), varS: z.number(), z: z.number(), p: z.number() }).nullable(),
+    enough: z.boolean(),
+    sentence: z.string(),
+  }),
+  /** The estimate sentence when the record is estimated. */
+  estimateLabel: z.string().nullable(),
+});
+export type RecentYears = z.infer<typeof recentYearsSchema>;
 
 export const distributionBinSchema = z.object({
   upperC: z.number(),
@@ -177,6 +241,8 @@ export const climateUploadSchema = z.object({
   preview: designConditionsSchema.nullable(),
   /** Plain messages for what the engine warned about. */
   warnings: z.array(z.string()),
+  /** Yearly ISD-Lite files of one station: the station and years read from the file names, and the years with no file. */
+  station: z.object({ id: z.string(), years: z.array(z.int()), missingYears: z.array(z.int()) }).nullable().optional(),
   expiresAt: z.string(),
 });
 export type ClimateUpload = z.infer<typeof climateUploadSchema>;

@@ -77,6 +77,13 @@ export const scenarioSettingsSchema = z.strictObject({
     .max(200)
     .nullable()
     .default(null),
+  /** Climate basis: the latest N qualifying years of the site's record (N ≥ 8); null uses the whole record. */
+  climateBasisYears: z
+    .int({ error: 'Enter the number of recent years as a whole number' })
+    .min(8, 'Use at least 8 recent years, or the whole record')
+    .max(200, 'Use at most 200 years')
+    .nullable()
+    .default(null),
 });
 export type ScenarioSettings = z.infer<typeof scenarioSettingsSchema>;
 export type ScenarioSettingsInput = z.input<typeof scenarioSettingsSchema>;
@@ -225,6 +232,16 @@ export const sweepAnswerSchema = z.object({
   loadDuration: loadDurationSchema.nullable(),
   /** Things the user should know (options of the subset no longer in the list, a design wind that fell back…). */
   notes: z.array(z.string()),
+  /** Which years of the record the figures use, and whether the record is estimated (absent on answers kept from before). */
+  climateBasis: z
+    .object({
+      /** Plain words, e.g. "Whole record (1995–2024, 30 years)" or "Latest 10 years (2015–2024)". */
+      description: z.string(),
+      latestYears: z.int().nullable(),
+      /** The estimate sentence when the hourly record is estimated from another site's. */
+      estimateLabel: z.string().nullable(),
+    })
+    .optional(),
 });
 export type SweepAnswer = z.infer<typeof sweepAnswerSchema>;
 

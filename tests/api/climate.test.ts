@@ -131,7 +131,8 @@ describe('hourly records: upload, check, confirm', () => {
     const up = await req.expect(201);
     assert.equal(up.body.format, 'isd-lite');
     assert.deepEqual(up.body.quality.yearsFound, [2021, 2022]);
-    assert.equal(up.body.fileName, '2 files');
+    assert.equal(up.body.fileName, 'ISD-Lite station 712345-99999, 2021–2022 (2 files)');
+    assert.deepEqual(up.body.station, { id: '712345-99999', years: [2021, 2022], missingYears: [] });
   });
 
   it('refuses a bad file whole, naming its lines, and changes nothing', async () => {

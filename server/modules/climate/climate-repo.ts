@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import type { ClimateSite, ClimateSiteSummary, SourceKind } from '@shared/climate-sites/climate-site-schemas';
+import type { ClimateSite, ClimateSiteSummary, SiteEstimate, SourceKind } from '@shared/climate-sites/climate-site-schemas';
 import type { DesignConditions, PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import type { HourlySeries } from '@shared/climate/hourly-series';
 import type { DistributionBin, MonthlyStatistics } from '@shared/climate/quality-report';
@@ -17,6 +17,8 @@ interface SiteRow {
   published_source: string | null;
   published_values: PublishedDesignValues | null;
   is_demo: boolean;
+  estimate: SiteEstimate | null;
+  estimate_reference_id: string | null;
   created_at: Date;
   updated_at: Date;
   // joined from design_conditions
@@ -28,7 +30,8 @@ interface SiteRow {
 }
 
 function toSummary(r: SiteRow): ClimateSiteSummary {
-  const heating = r.conditions?.heating ?? r.published_values?.heating ?? null;
+  // A published site keeps the table's values even when it holds an estimated record.
+  const heating = r.published_values?.heating ?? r.conditions?.heating ?? null;
   const period = r.conditions?.period;
   return {
     id: r.id,
@@ -64,6 +67,7 @@ function toSite(r: SiteRow): ClimateSite {
             rowCount: r.row_count ?? 0,
           }
         : null,
+    estimate: r.estimate ? { ...r.estimate, referenceSiteId: r.estimate_reference_id } : null,
   };
 }
 
@@ -133,6 +137,25 @@ export async function updateSite(db: Knex, organizationId: string, id: string, i
     .where({ id, organization_id: organizationId })
     .update({ ...toRow(input), updated_at: db.fn.now() });
   return n > 0;
+}
+
+/** Records (or clears) the provenance of a site's estimated record. */
+export async function saveEstimate(db: Knex, siteId: string, estimate: SiteEstimate | null): Promise<void> {
+  await db('climate_sites')
+    .where({ id: siteId })
+    .update({
+      estimate: estimate === null ? null : JSON.stringify(estimate),
+      estimate_reference_id: estimate?.referenceSiteId ?? null,
+      updated_at: db.fn.now(),
+    });
+}
+
+/** Sites of the organisation whose estimated record was made from this reference. */
+export async function sitesEstimatedFrom(db: Knex, organizationId: string, referenceSiteId: string): Promise<string[]> {
+  const rows = await db('climate_sites')
+    .where({ organization_id: organizationId, estimate_reference_id: referenceSiteId })
+    .select<{ id: string }[]>('id');
+  return rows.map((r) => r.id);
 }
 
 export async function deleteSite(db: Knex, organizationId: string, id: string): Promise<boolean> {

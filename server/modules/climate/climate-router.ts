@@ -7,6 +7,7 @@ import {
   CLIMATE_UPLOAD_MAX_FILES,
   climateSiteInputSchema,
   climateSitePatchSchema,
+  estimateInputSchema,
   uploadFieldsSchema,
   type ClimateUpload,
 } from '@shared/climate-sites/climate-site-schemas';
@@ -15,9 +16,10 @@ import { csvFields, type CsvMapping } from '@shared/climate/readers/csv-reader';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
 import * as repo from './climate-repo';
-import { recompute, storeRecord } from './climate-service';
+import { estimateIsStale, estimateRecord, recentYears, recompute, refreshEstimatesFrom, storeRecord } from './climate-service';
 import { decodeSeries } from './series-codec';
 import type { UploadPool } from './upload-pool';
+import { isdLiteStation } from './weather-files';
 
 const siteParam = z.object({ siteId: z.uuid('Unknown climate site') });
 const uploadParam = z.object({ uploadId: z.uuid('Unknown upload') });
@@ -82,7 +84,35 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
       await db.transaction((trx) => recompute(trx, siteId, elevation));
       site = await repo.findSite(db, organizationId, siteId);
     }
+    const referenceId = site?.estimate?.referenceSiteId;
+    if (site && referenceId && estimateIsStale(site, await repo.findSite(db, organizationId, referenceId))) {
+      // The reference's record or the method changed since: estimate again (a refusal keeps the stored estimate).
+      try {
+        await db.transaction((trx) => estimateRecord(trx, organizationId, siteId, referenceId));
+        site = await repo.findSite(db, organizationId, siteId);
+      } catch (err) {
+        if (!(err instanceof HttpError)) throw err;
+      }
+    }
     res.json(site);
+  });
+
+  router.post('/climate-sites/:siteId/estimate', authorize(db, 'project:write'), async (req, res) => {
+    const { siteId } = siteParam.parse(req.params);
+    const { referenceSiteId } = estimateInputSchema.parse(req.body);
+    const { organizationId } = orgContext(req);
+    if (!(await repo.findSite(db, organizationId, siteId))) throw siteNotFound();
+    await db.transaction((trx) => estimateRecord(trx, organizationId, siteId, referenceSiteId));
+    res.json(await repo.findSite(db, organizationId, siteId));
+  });
+
+  router.get('/climate-sites/:siteId/recent-years', authorize(db, 'org:read'), async (req, res) => {
+    const { siteId } = siteParam.parse(req.params);
+    const site = await repo.findSite(db, orgContext(req).organizationId, siteId);
+    if (!site) throw siteNotFound();
+    const answer = await recentYears(db, site);
+    if (!answer) throw new HttpError(404, 'no_record', 'This site has no hourly record yet');
+    res.json(answer);
   });
 
   router.patch('/climate-sites/:siteId', authorize(db, 'project:write'), async (req, res) => {
@@ -101,6 +131,16 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
       // The station pressure, and so the humidity ratios, follow the elevation.
       if (patch.elevationM !== undefined && patch.elevationM !== before.elevationM && before.computed) {
         await recompute(trx, siteId, patch.elevationM);
+      }
+      // An estimated record follows the published values it was matched to (a refusal undoes the change).
+      const after = await repo.findSite(trx, organizationId, siteId);
+      const referenceId = after?.estimate?.referenceSiteId;
+      if (after && referenceId && estimateIsStale(after, undefined)) {
+        await estimateRecord(trx, organizationId, siteId, referenceId);
+      }
+      // Sites estimated from this one follow its record.
+      if (patch.elevationM !== undefined && patch.elevationM !== before.elevationM && before.computed) {
+        await refreshEstimatesFrom(trx, organizationId, siteId);
       }
     });
     res.json(await repo.findSite(db, organizationId, siteId));
@@ -152,7 +192,13 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
       if (total > CLIMATE_UPLOAD_MAX_BYTES) {
         throw new HttpError(413, 'file_too_large', `An upload can hold at most ${CLIMATE_UPLOAD_MAX_BYTES / 1024 / 1024} MB`);
       }
-      const fileName = files.length === 1 ? baseName(files[0]?.originalname ?? '') : `${files.length} files`;
+      const names = files.map((f) => baseName(f.originalname));
+      // Yearly ISD-Lite files name their station and year: the station becomes the record's source.
+      const station = isdLiteStation(names);
+      const stationSource = station
+        ? `ISD-Lite station ${station.id}, ${String(station.years[0])}–${String(station.years[station.years.length - 1])} (${station.years.length} file${station.years.length === 1 ? '' : 's'})`
+        : null;
+      const fileName = stationSource ?? (files.length === 1 ? (names[0] ?? 'upload') : `${files.length} files`);
       // Reading, checking and the preview run in the upload pool; this thread only moves the bytes.
       const parsed = await uploads.parse(organizationId, {
         files: files.map((f) => ({ name: baseName(f.originalname), content: f.buffer })),
@@ -190,7 +236,13 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
         rowCount,
         quality: summary,
         preview: parsed.preview,
-        warnings: parsed.warnings,
+        warnings: [
+          ...(station && station.missingYears.length > 0
+            ? [`No file for ${station.missingYears.join(', ')} of ISD-Lite station ${station.id}: ${station.missingYears.length === 1 ? 'that year is' : 'those years are'} missing from the record.`]
+            : []),
+          ...parsed.warnings,
+        ],
+        station,
         expiresAt: expiresAt.toISOString(),
       };
       res.status(201).location(`/api/v1/climate-uploads/${row.id}`).json(answer);
@@ -238,6 +290,8 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
         up.sweep_index && up.sweep_index_key ? { key: up.sweep_index_key, bytes: up.sweep_index } : null,
       );
       await trx('climate_uploads').where({ climate_site_id: up.climate_site_id }).delete();
+      // Sites whose records are estimated from this one follow the new record.
+      await refreshEstimatesFrom(trx, organizationId, up.climate_site_id);
       return up.climate_site_id;
     });
     res.json(await repo.findSite(db, organizationId, siteId));

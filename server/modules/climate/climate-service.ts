@@ -1,13 +1,24 @@
 import type { Knex } from 'knex';
-import type { QualitySummary } from '@shared/climate-sites/climate-site-schemas';
-import { computeFromPrepared, type DesignConditionsResult } from '@shared/climate/design-conditions';
-import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
+import {
+  estimateLabel,
+  type ClimateSite,
+  type QualitySummary,
+  type RecentYears,
+  type RecordWindow,
+  type SiteEstimate,
+} from '@shared/climate-sites/climate-site-schemas';
+import { computeDesignConditions, computeFromPrepared, type DesignConditionsResult } from '@shared/climate/design-conditions';
+import { METHOD_VERSION, type DesignConditions } from '@shared/climate/design-conditions-schema';
+import { latestYearsSeries, RECENT_WINDOWS } from '@shared/climate/record-window';
+import { SHIFT_STRETCH_VERSION, shiftAndStretch } from '@shared/climate/shift-stretch';
+import { coldestHourTrend } from '@shared/climate/trend';
 import type { HourlySeries } from '@shared/climate/hourly-series';
 import { prepareSeries } from '@shared/climate/prepared-series';
 import { qualityReportFromPrepared, type QualityReport } from '@shared/climate/quality-report';
 import { buildSweepIndex, packSweepIndex, sweepIndexKey } from '@shared/sweep/sweep-index';
 import { HttpError } from '../../http/http-error';
 import * as repo from './climate-repo';
+import { atStoragePrecision } from './series-codec';
 
 export interface Analysis {
   result: DesignConditionsResult;
@@ -100,4 +111,125 @@ export async function recompute(trx: Knex.Transaction, siteId: string, elevation
   const series = await repo.loadRecord(trx, siteId);
   const computed = storedComputation(analyse(series, elevationM), { fileName: current.file_name, rowCount: current.row_count });
   if (computed) await repo.saveComputation(trx, siteId, computed);
+}
+
+/**
+ * Estimates a published site's hourly record from a reference site's record by shift and stretch
+ * (docs/methods.md#shift-and-stretch) and stores it as the site's record, with its provenance, inside
+ * the caller's transaction. A refused adjustment answers 422 and stores nothing.
+ */
+export async function estimateRecord(trx: Knex.Transaction, organizationId: string, siteId: string, referenceSiteId: string): Promise<void> {
+  const site = await repo.findSite(trx, organizationId, siteId);
+  if (!site) throw new HttpError(404, 'not_found', 'That climate site was not found');
+  const refuse = (message: string) => new HttpError(422, 'estimate_refused', message, [{ path: 'referenceSiteId', message }]);
+  if (site.sourceKind !== 'published' || !site.publishedValues) {
+    throw new HttpError(422, 'not_published', 'Only a site with published values takes an estimated record', [
+      { path: 'siteId', message: 'This site has its own hourly record' },
+    ]);
+  }
+  if (referenceSiteId === siteId) throw refuse('A site cannot be its own reference; choose a site with an hourly record');
+  const reference = await repo.findSite(trx, organizationId, referenceSiteId);
+  if (!reference) throw refuse('That reference site was not found');
+  if (reference.sourceKind !== 'hourly' || !reference.computed) {
+    throw refuse(`"${reference.name}" has no hourly record of its own to estimate from`);
+  }
+  const published = site.publishedValues;
+  const result = shiftAndStretch(await repo.loadRecord(trx, referenceSiteId), {
+    db99_6: published.heating.db99_6,
+    hdd18: published.hdd18 ?? null,
+  });
+  if (!result.ok) throw refuse(result.message);
+  const series = atStoragePrecision(result.series);
+  await storeRecord(trx, siteId, series, site.elevationM ?? published.elevation ?? null, {
+    fileName: `${reference.name}'s record, adjusted (an estimate)`,
+    rowCount: series.time.length,
+  });
+  const estimate: SiteEstimate = {
+    referenceSiteId,
+    referenceSiteName: reference.name,
+    shiftK: result.shiftK,
+    stretch: result.stretch,
+    referenceMeanC: result.referenceMeanC,
+    methodVersion: result.methodVersion,
+    matched: { db99_6: published.heating.db99_6, hdd18: published.hdd18 ?? null },
+    referenceComputedAt: reference.computed.computedAt,
+    computedAt: new Date().toISOString(),
+    label: estimateLabel(reference.name, site.name),
+  };
+  await repo.saveEstimate(trx, siteId, estimate);
+}
+
+/** Whether a site's estimate no longer matches its published values or its reference's record. */
+export function estimateIsStale(site: ClimateSite, reference: ClimateSite | undefined): boolean {
+  const e = site.estimate;
+  if (!e || !site.publishedValues) return false;
+  return (
+    e.methodVersion !== SHIFT_STRETCH_VERSION ||
+    e.matched.db99_6 !== site.publishedValues.heating.db99_6 ||
+    e.matched.hdd18 !== (site.publishedValues.hdd18 ?? null) ||
+    e.label !== estimateLabel(e.referenceSiteName, site.name) ||
+    (reference?.computed !== null && reference?.computed !== undefined && reference.computed.computedAt !== e.referenceComputedAt)
+  );
+}
+
+/**
+ * Estimates again, inside the caller's transaction, every site whose estimate is made from this
+ * reference. A site whose estimate the new record refuses keeps its stored one (a refusal is decided
+ * before anything is written) and shows it as made from the reference's earlier record.
+ */
+export async function refreshEstimatesFrom(trx: Knex.Transaction, organizationId: string, referenceSiteId: string): Promise<void> {
+  for (const id of await repo.sitesEstimatedFrom(trx, organizationId, referenceSiteId)) {
+    try {
+      await estimateRecord(trx, organizationId, id, referenceSiteId);
+    } catch (err) {
+      if (!(err instanceof HttpError) || err.status !== 422) throw err;
+    }
+  }
+}
+
+const recentCache = new Map<string, RecentYears>();
+const RECENT_CACHE_MAX = 50;
+
+function windowOf(conditions: DesignConditions, latestYears: number | null): RecordWindow {
+  return {
+    latestYears,
+    firstYear: conditions.period.qualifyingYears[0] ?? conditions.period.firstYear,
+    lastYear: conditions.period.qualifyingYears[conditions.period.qualifyingYears.length - 1] ?? conditions.period.lastYear,
+    qualifyingYearCount: conditions.period.qualifyingYears.length,
+    heating: conditions.heating,
+    extremeMinMean: conditions.extremeMin.mean,
+    returnPeriod50: conditions.extremeMin.returnPeriod['50'],
+    hdd18: conditions.hdd18,
+  };
+}
+
+/**
+ * The design values of the whole record and of its latest 10 and 15 qualifying years, and the trend
+ * of the coldest hour (docs/methods.md#recent-years, docs/methods.md#trend-of-the-coldest-hour).
+ * Kept per stored computation, so a record is read once.
+ */
+export async function recentYears(db: Knex, site: ClimateSite): Promise<RecentYears | undefined> {
+  if (!site.computed) return undefined;
+  const key = `${site.id}@${site.computed.computedAt}`;
+  const hit = recentCache.get(key);
+  if (hit) return hit;
+  const series = await repo.loadRecord(db, site.id);
+  const prepared = prepareSeries(series);
+  const elevationM = site.elevationM;
+  const whole = computeFromPrepared(prepared, { elevationM });
+  if (!whole.ok) return undefined;
+  const windows: RecordWindow[] = [windowOf(whole.conditions, null)];
+  for (const n of RECENT_WINDOWS) {
+    if (whole.conditions.period.qualifyingYears.length < n) continue;
+    const recent = computeDesignConditions(latestYearsSeries(series, n, prepared), { elevationM });
+    if (recent.ok) windows.push(windowOf(recent.conditions, n));
+  }
+  const trend = coldestHourTrend(prepared);
+  const answer: RecentYears = { windows, trend, estimateLabel: site.estimate?.label ?? null };
+  recentCache.set(key, answer);
+  if (recentCache.size > RECENT_CACHE_MAX) {
+    const oldest = recentCache.keys().next().value;
+    if (oldest !== undefined) recentCache.delete(oldest);
+  }
+  return answer;
 }

@@ -19,6 +19,36 @@ export const MAX_UNPACKED_TOTAL_BYTES = 4 * CLIMATE_UPLOAD_MAX_BYTES;
 const MB = 1024 * 1024;
 const MAX_LISTED_PROBLEMS = 10;
 
+/** A set of yearly ISD-Lite files of one station, read from their names (`USAF-WBAN-YYYY`, optionally `.gz`). */
+export interface IsdLiteStation {
+  /** `USAF-WBAN`, e.g. `725090-14739`. */
+  id: string;
+  years: number[];
+  /** Years between the first and the last with no file (docs/methods.md#isd-lite-in-bulk). */
+  missingYears: number[];
+}
+
+const ISD_LITE_NAME = /^(\d{6})-(\d{5})-(\d{4})(?:\.gz)?$/i;
+
+/** The station and years of an upload whose every file is named `USAF-WBAN-YYYY[.gz]` of one station; null otherwise. */
+export function isdLiteStation(fileNames: readonly string[]): IsdLiteStation | null {
+  let id: string | null = null;
+  const years = new Set<number>();
+  for (const name of fileNames) {
+    const m = ISD_LITE_NAME.exec(name.trim());
+    if (!m) return null;
+    const station = `${m[1] ?? ''}-${m[2] ?? ''}`;
+    if (id !== null && station !== id) return null;
+    id = station;
+    years.add(Number(m[3]));
+  }
+  if (id === null) return null;
+  const sorted = [...years].sort((a, b) => a - b);
+  const missingYears: number[] = [];
+  for (let y = sorted[0] ?? 0; y <= (sorted[sorted.length - 1] ?? 0); y++) if (!years.has(y)) missingYears.push(y);
+  return { id, years: sorted, missingYears };
+}
+
 const SAMPLE_BYTES = 64 * 1024;
 const SAMPLE_CHARS = 4096;
 

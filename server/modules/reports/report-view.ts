@@ -107,9 +107,11 @@ export function buildReportView(src: ReportSource): ReportView {
   }
   climate.push(
     a.hasRecord && a.years.length > 0
-      ? `The figures below replay ${a.years.length} years of hour-by-hour weather records (${a.years[0] ?? ''}–${a.years.at(-1) ?? ''}) against the house.`
+      ? `The figures below replay ${a.years.length} years of ${a.climateBasis?.estimateLabel ? 'an estimated hour-by-hour weather record' : 'hour-by-hour weather records'} (${a.years[0] ?? ''}–${a.years.at(-1) ?? ''}) against the house.`
       : 'This place has no hour-by-hour weather record here, so running costs and the hours a unit could fall short are not known.',
   );
+  if (a.climateBasis?.latestYears) climate.push(`These figures use the latest ${a.climateBasis.latestYears} years of the record only, to reflect recent winters.`);
+  if (a.climateBasis?.estimateLabel) climate.push(a.climateBasis.estimateLabel);
 
   const letters = 'ABC';
   const options = report.points.flatMap((t, k) => {

@@ -340,6 +340,7 @@ const SWEEP_CSV_HEADER = [
   csvColumn('lifeCycleCost'),
   'currency',
   'note',
+  'climate_basis',
 ];
 
 const num = (v: number | null, digits: number) => (v === null ? '' : String(Number(v.toFixed(digits))));
@@ -370,6 +371,7 @@ function sweepCsvRows(scenarioName: string, a: SweepAnswer, chosenDesignC: numbe
       r.lifeCycleCost ?? '',
       a.currency,
       csvTextField(r.selectionReason ?? r.costUnavailableReason ?? r.unavailableReason ?? ''),
+      csvTextField([a.climateBasis?.description, a.climateBasis?.estimateLabel].filter(Boolean).join('. ')),
     ]);
 }
 

@@ -94,6 +94,26 @@ function capacityCurve(option: EquipmentOption): SweepOptionAnswer['capacityCurv
   return curve;
 }
 
+/** The fields of an object that are not undefined (so that they can overlay another). */
+function definedOnly<T extends object>(value: T | undefined): Partial<T> {
+  if (!value) return {};
+  return Object.fromEntries(Object.entries(value).filter(([, v]) => v !== undefined)) as Partial<T>;
+}
+
+/**
+ * The qualifying years a scenario's sweep uses: all of them, or the latest N (docs/methods.md#recent-years),
+ * with the basis in plain words.
+ */
+export function basisYears(qualifying: readonly number[], latestYears: number | null): { years: number[]; isWindow: boolean; description: string } {
+  const span = (ys: readonly number[]) => `${String(ys[0])}–${String(ys[ys.length - 1])}`;
+  if (latestYears === null || latestYears >= qualifying.length) {
+    const whole = `Whole record (${span(qualifying)}, ${qualifying.length} years)`;
+    return { years: [...qualifying], isWindow: false, description: latestYears === null ? whole : `${whole}; it has fewer than the ${latestYears} recent years asked for` };
+  }
+  const years = qualifying.slice(qualifying.length - latestYears);
+  return { years, isWindow: true, description: `Latest ${latestYears} years of the record (${span(years)})` };
+}
+
 /** Everything a sweep of this scenario depends on, or 422 with what is missing. */
 export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<PreparedSweep> {
   // Settings stored before a setting existed take its default.
@@ -110,16 +130,32 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
   let designConditions: SweepDesignValues | null = null;
   let windValues: { coincident99_6?: number | null; coldestMonth1?: number | null } | null = null;
   let record: SweepTask['record'] = null;
+  let climateBasis: NonNullable<SweepAnswerBody['climateBasis']> = {
+    description: 'Published design values (no hourly record)',
+    latestYears: null,
+    estimateLabel: null,
+  };
   if (!site) {
     problems.push({ path: 'climateSiteId', message: 'Choose a climate site' });
   } else if (site.computed) {
     const c = site.computed.conditions;
-    designConditions = { heating: c.heating, extremeMin: c.extremeMin };
-    windValues = c.wind;
+    const table = site.publishedValues; // present when the record is estimated from another site's
+    designConditions = table
+      ? { heating: table.heating, extremeMin: { ...c.extremeMin, ...definedOnly(table.extremeMin), returnPeriod: { ...c.extremeMin.returnPeriod, ...definedOnly(table.extremeMin?.returnPeriod) } } }
+      : { heating: c.heating, extremeMin: c.extremeMin };
+    windValues = table?.wind ? { ...c.wind, ...definedOnly(table.wind) } : c.wind;
+    const basis = basisYears(c.period.qualifyingYears, scenario.settings.climateBasisYears ?? null);
     record = {
       siteId: site.id,
       key: `${site.id}@${site.computed.computedAt}#${site.computed.rowCount}`,
-      qualifyingYears: c.period.qualifyingYears,
+      qualifyingYears: basis.years,
+      // A recent-years basis takes its design values from those years (an estimated record keeps the table's).
+      windowDesignValues: basis.isWindow && !table,
+    };
+    climateBasis = {
+      description: basis.description,
+      latestYears: basis.isWindow ? basis.years.length : null,
+      estimateLabel: site.estimate?.label ?? null,
     };
   } else if (site.publishedValues) {
     const p = site.publishedValues;
@@ -234,6 +270,7 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
       designWindMs: wind.windMs,
       indoorDesignC: sized.indoorDesignC,
       discountRatePct: settings.discountRatePct,
+      climateBasis,
       options: options.map((o) => ({
         id: o.id,
         label: o.label,

@@ -4,16 +4,34 @@
  * request thread. A warm-up task opens the database connection before the first sweep asks for it.
  */
 import type { Knex } from 'knex';
-import { loadDuration, sweep, type LoadDurationPoint, type SweepInput, type SweepRecordIndex, type SweepResult } from '@shared/sweep/sweep';
+import { computeDesignConditions } from '@shared/climate/design-conditions';
+import { seriesFromYear } from '@shared/climate/record-window';
+import {
+  loadDuration,
+  sweep,
+  type LoadDurationPoint,
+  type SweepDesignValues,
+  type SweepInput,
+  type SweepRecordIndex,
+  type SweepResult,
+} from '@shared/sweep/sweep';
 import { createDb } from '../../db';
 import { buildSweepIndex, sweepIndexKey, unpackSweepIndex } from '@shared/sweep/sweep-index';
-import { loadRecordForSweep } from '../climate/climate-repo';
+import { loadRecord, loadRecordForSweep } from '../climate/climate-repo';
 
 export interface SweepTaskRecord {
   siteId: string;
   /** Changes whenever the site's record or its computation changes. */
   key: string;
   qualifyingYears: number[];
+  /** The qualifying years are a recent-years window whose design values replace the whole record's (docs/methods.md#recent-years). */
+  windowDesignValues?: boolean;
+}
+
+interface LoadedRecord {
+  index: SweepRecordIndex;
+  /** The design values of the window, when asked for. */
+  windowDesign: SweepDesignValues | null;
 }
 
 export interface SweepTask {
@@ -36,7 +54,7 @@ export interface SweepTaskResult {
 const KEEP_RECORDS = 4;
 let db: Knex | null = null;
 let dbUrl = '';
-const records = new Map<string, Promise<SweepRecordIndex>>();
+const records = new Map<string, Promise<LoadedRecord>>();
 
 function database(url: string): Knex {
   if (db === null || dbUrl !== url) {
@@ -47,8 +65,8 @@ function database(url: string): Knex {
   return db;
 }
 
-function indexedRecord(url: string, record: SweepTaskRecord): Promise<SweepRecordIndex> {
-  const key = `${record.key}|${record.qualifyingYears.join(',')}`;
+function indexedRecord(url: string, record: SweepTaskRecord): Promise<LoadedRecord> {
+  const key = `${record.key}|${record.qualifyingYears.join(',')}|${record.windowDesignValues ? 'w' : ''}`;
   let entry = records.get(key);
   if (entry === undefined) {
     entry = loadIndex(url, record);
@@ -67,12 +85,22 @@ function indexedRecord(url: string, record: SweepTaskRecord): Promise<SweepRecor
   return entry;
 }
 
-async function loadIndex(url: string, record: SweepTaskRecord): Promise<SweepRecordIndex> {
+async function loadIndex(url: string, record: SweepTaskRecord): Promise<LoadedRecord> {
+  if (record.windowDesignValues) {
+    // A window of the latest years: its design values come from those years' hours (docs/methods.md#recent-years).
+    const series = await loadRecord(database(url), record.siteId);
+    const from = record.qualifyingYears[0];
+    const window = from !== undefined ? computeDesignConditions(seriesFromYear(series, from)) : null;
+    return {
+      index: buildSweepIndex({ series, qualifyingYears: record.qualifyingYears }),
+      windowDesign: window?.ok ? { heating: window.conditions.heating, extremeMin: window.conditions.extremeMin } : null,
+    };
+  }
   const stored = await loadRecordForSweep(database(url), record.siteId, sweepIndexKey(record.qualifyingYears));
   if (stored === undefined) throw new Error(`climate site ${record.siteId} has no stored record`);
-  if ('index' in stored) return unpackSweepIndex(stored.index);
+  if ('index' in stored) return { index: unpackSweepIndex(stored.index), windowDesign: null };
   // Stored before its index was kept, or with another index format: build it here.
-  return buildSweepIndex({ series: stored.series, qualifyingYears: record.qualifyingYears });
+  return { index: buildSweepIndex({ series: stored.series, qualifyingYears: record.qualifyingYears }), windowDesign: null };
 }
 
 export default async function runSweepTask(task: SweepTask | WarmUpTask): Promise<SweepTaskResult | null> {
@@ -80,8 +108,10 @@ export default async function runSweepTask(task: SweepTask | WarmUpTask): Promis
     await database(task.databaseUrl).raw('select 1');
     return null;
   }
-  const index = task.record ? await indexedRecord(task.databaseUrl, task.record) : null;
-  const result = sweep({ ...task.input, record: index });
+  const loaded = task.record ? await indexedRecord(task.databaseUrl, task.record) : null;
+  const index = loaded?.index ?? null;
+  const designConditions = loaded?.windowDesign ?? task.input.designConditions;
+  const result = sweep({ ...task.input, designConditions, record: index });
   return {
     result,
     loadDuration: index ? loadDuration(task.input.building, index, task.input.designWindMs) : null,

@@ -5,6 +5,7 @@ import {
   climateChartDataSchema,
   climateSiteListSchema,
   climateSiteSchema,
+  recentYearsSchema,
   type ClimateSite,
   type ClimateSiteInput,
   type ClimateSitePatch,
@@ -22,9 +23,9 @@ export class ClimateSitesApi {
   private readonly auth = inject(AuthStore);
   private readonly url = '/api/v1/climate-sites';
 
-  /** The list; loads again when the organisation changes. */
-  listResource() {
-    return httpResource(() => (this.auth.currentOrganizationId() ? this.url : undefined), {
+  /** The list; loads again when the organisation changes (and only while `when` holds, when given). */
+  listResource(when: () => boolean = () => true) {
+    return httpResource(() => (this.auth.currentOrganizationId() && when() ? this.url : undefined), {
       parse: climateSiteListSchema.parse,
     });
   }
@@ -49,6 +50,22 @@ export class ClimateSitesApi {
       },
       { parse: climateChartDataSchema.parse },
     );
+  }
+
+  /** Design values of the whole record and of its latest 10 and 15 years, and the trend of the coldest hour. */
+  recentYearsResource(id: () => string | undefined) {
+    return httpResource(
+      () => {
+        const siteId = id();
+        return siteId ? `${this.url}/${siteId}/recent-years` : undefined;
+      },
+      { parse: recentYearsSchema.parse },
+    );
+  }
+
+  /** Estimates a published site's hourly record from a reference site's record (422 with the reason when refused). */
+  async estimate(siteId: string, referenceSiteId: string): Promise<ClimateSite> {
+    return climateSiteSchema.parse(await firstValueFrom(this.http.post<unknown>(`${this.url}/${siteId}/estimate`, { referenceSiteId })));
   }
 
   async create(input: ClimateSiteInput): Promise<ClimateSite> {

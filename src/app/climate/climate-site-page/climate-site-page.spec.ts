@@ -7,7 +7,7 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { ClimateSite } from '@shared/climate-sites/climate-site-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { settle } from '../../testing/test-sessions';
-import { SITE_ID, aPublishedSite, anHourlySite, sessionWithUnits, someChartData } from '../testing/climate-fixtures';
+import { SITE_ID, aPublishedSite, anHourlySite, sessionWithUnits, someChartData, someRecentYears } from '../testing/climate-fixtures';
 import { ClimateSitePage } from './climate-site-page';
 
 const SITE_URL = `/api/v1/climate-sites/${SITE_ID}`;
@@ -35,6 +35,7 @@ describe('ClimateSitePage', () => {
     // An open request keeps the fixture unstable: answer the chart data first when the site has a record.
     if (site.computed) {
       http.expectOne({ method: 'GET', url: `${SITE_URL}/chart-data` }).flush(someChartData());
+      http.expectOne({ method: 'GET', url: `${SITE_URL}/recent-years` }).flush(someRecentYears());
       await settle();
     }
     await fixture.whenStable();
@@ -86,6 +87,42 @@ describe('ClimateSitePage', () => {
     expect(row('heating-99')[1]).toBe('−17.5 °C');
     expect(row('cooling-db0_4')[1]).toBe('—');
     expect(el.querySelector('[data-testid="cdf-chart"]')).toBeNull();
+  });
+
+  it('shows the whole record beside its latest 10 and 15 years, and the trend sentence', async () => {
+    const { el } = await render(anHourlySite());
+    const table = el.querySelector('[data-testid="recent-years-table"]');
+    expect(Array.from(table?.querySelectorAll('thead th') ?? [], (th) => th.textContent?.trim())).toEqual([
+      'Design value',
+      'Whole record2009–2024, 16 years',
+      'Latest 10 years2015–2024, 10 years',
+      'Latest 15 years2010–2024, 15 years',
+    ]);
+    expect(table?.querySelector('tbody tr td')?.textContent?.trim()).toBe('−22.4 °C');
+    expect(el.querySelector('[data-testid="trend-sentence"]')?.textContent).toContain('warmed by about 1.0 K per decade');
+  });
+
+  it('labels a published site’s estimated record in plain words', async () => {
+    const label = "Hour-by-hour figures estimated from Lakeview's record, adjusted to Hilltop (table)'s published values.";
+    const site: ClimateSite = {
+      ...aPublishedSite(),
+      computed: anHourlySite().computed,
+      estimate: {
+        referenceSiteId: null,
+        referenceSiteName: 'Lakeview',
+        shiftK: -1.2,
+        stretch: 0.05,
+        referenceMeanC: 6.4,
+        methodVersion: 'shift-stretch-1.0.0',
+        matched: { db99_6: -20, hdd18: null },
+        referenceComputedAt: '2026-11-20T10:00:00.000Z',
+        computedAt: '2026-11-21T10:00:00.000Z',
+        label,
+      },
+    };
+    const { el } = await render(site);
+    expect(el.querySelector('[data-testid="estimate-panel"] [data-testid="estimate-label"] span')?.textContent?.trim()).toBe(label);
+    expect(el.querySelector('[data-testid="estimate-button"]')).toBeNull(); // a viewer cannot estimate
   });
 
   it('offers upload, edit and delete to designers, and nothing to viewers', async () => {

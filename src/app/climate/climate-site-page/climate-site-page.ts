@@ -13,6 +13,7 @@ import { firstValueFrom } from 'rxjs';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorCode, apiErrorMessage } from '../../core/api-errors';
 import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
+import { ClimateBasisPanel } from '../climate-basis-panel/climate-basis-panel';
 import { ClimateCharts } from '../climate-charts/climate-charts';
 import { ClimateSiteForm } from '../climate-site-form/climate-site-form';
 import {
@@ -38,6 +39,7 @@ import { UploadDialog, type UploadDialogData } from '../upload-dialog/upload-dia
     MatChipsModule,
     MatIconModule,
     MatProgressBarModule,
+    ClimateBasisPanel,
     ClimateCharts,
     ClimateSiteForm,
     DesignValuesTable,
@@ -64,7 +66,8 @@ export class ClimateSitePage {
   protected readonly notFound = computed(() => apiErrorCode(this.site.error()) === 'not_found');
   protected readonly chartData = this.api.chartDataResource(() => {
     const site = this.current();
-    return site?.sourceKind === 'hourly' && site.computed ? site.id : undefined;
+    // A published site with an estimated record has charts of that record too.
+    return site?.computed ? site.id : undefined;
   });
   protected readonly noRecord = computed(() => apiErrorCode(this.chartData.error()) === 'no_record');
 
@@ -142,6 +145,11 @@ export class ClimateSitePage {
         this.chartData.reload();
         this.snackBar.open('Record stored; the design conditions are computed', 'Close', { duration: 5000 });
       });
+  }
+
+  protected estimated(site: ClimateSite): void {
+    this.site.set(site);
+    this.snackBar.open('Hour-by-hour record estimated', 'Close', { duration: 5000 });
   }
 
   protected saved(site: ClimateSite): void {

@@ -7,6 +7,7 @@ import type {
   ClimateSite,
   ClimateSiteSummary,
   ClimateUpload,
+  RecentYears,
 } from '@shared/climate-sites/climate-site-schemas';
 import { signedInSession } from '../../testing/test-sessions';
 
@@ -67,6 +68,7 @@ export function anHourlySite(overrides: Partial<ClimateSite> = {}): ClimateSite 
       fileName: 'lakeview.csv',
       rowCount: 26280,
     },
+    estimate: null,
     ...overrides,
   };
 }
@@ -79,6 +81,33 @@ export function aPublishedSite(): ClimateSite {
     createdAt: '2026-11-20T09:00:00.000Z',
     publishedValues: { source: 'Regional design table, 2020 edition', heating: { db99_6: -20, db99: -17.5 } },
     computed: null,
+    estimate: null,
+  };
+}
+
+/** Recent years of a 16-year record with a slightly warming coldest hour (invented). */
+export function someRecentYears(): RecentYears {
+  const annual = Array.from({ length: 16 }, (_, i) => ({ year: 2009 + i, minC: -30 + i * 0.1, db99_6C: -22 + i * 0.05 }));
+  const window = (latestYears: number | null, firstYear: number, db99_6: number) => ({
+    latestYears,
+    firstYear,
+    lastYear: 2024,
+    qualifyingYearCount: 2025 - firstYear,
+    heating: { db99_6, db99: db99_6 + 3 },
+    extremeMinMean: -29,
+    returnPeriod50: -36.5,
+    hdd18: 4500,
+  });
+  return {
+    windows: [window(null, 2009, -22.4), window(10, 2015, -21.8), window(15, 2010, -22.1)],
+    trend: {
+      annual,
+      senSlopeKPerDecade: 1,
+      mannKendall: { s: 120, varS: 493.3, z: 5.36, p: 0.0000001 },
+      enough: true,
+      sentence: 'Over 2009–2024 the coldest hour of the year has warmed by about 1.0 K per decade; a trend this strong would arise by chance less than 1 time in 1000.',
+    },
+    estimateLabel: null,
   };
 }
 

@@ -86,6 +86,8 @@ export class ScenarioSettingsPanel {
     heatPumpSizing: this.fb.control<HeatPumpSizing>('compressor'),
     equipmentFamily: this.fb.control<EquipmentFamily | 'all'>('all'),
     extraDesign: this.fb.control(''),
+    /** Climate basis: empty for the whole record, or the number of recent years (8 or more). */
+    climateBasisYears: this.fb.control('', [Validators.pattern(/^\d{0,3}$/), Validators.min(8), Validators.max(200)]),
     ownPrices: this.fb.control(false),
     currency: this.fb.control('USD'),
     electricityPerKwh: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
@@ -130,6 +132,7 @@ export class ScenarioSettingsPanel {
       heatPumpSizing: st.heatPumpSizing,
       equipmentFamily: st.equipmentFamily ?? 'all',
       extraDesign: formatTemperatures(st.extraDesignC, this.unitSystem()),
+      climateBasisYears: st.climateBasisYears === null ? '' : String(st.climateBasisYears),
       ownPrices: st.prices !== null,
       currency: st.prices?.currency ?? 'USD',
       electricityPerKwh: st.prices?.electricityPerKwh ?? '',
@@ -214,6 +217,7 @@ export class ScenarioSettingsPanel {
       safetyFactorPct: v.safetyFactorPct.trim() === '' ? null : Number(v.safetyFactorPct),
       prices,
       optionLabels: v.wholeList ? null : labels,
+      climateBasisYears: v.climateBasisYears.trim() === '' ? null : Number(v.climateBasisYears),
     };
   }
 

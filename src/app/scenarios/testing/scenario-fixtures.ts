@@ -24,6 +24,7 @@ export function aScenario(fields: Partial<Scenario> = {}): Scenario {
       safetyFactorPct: null,
       prices: null,
       optionLabels: null,
+      climateBasisYears: null,
     },
     frozenAt: null,
     frozenFromId: null,

@@ -377,6 +377,34 @@ export class TradeoffPage {
     }
   }
 
+  /** The other climate basis for the one-click comparison: the latest 15 years, or the whole record. */
+  protected readonly otherBasis = computed(() => {
+    const a = this.sweep();
+    const s = this.scenario();
+    if (!a?.hasRecord || !s) return null;
+    const recent = s.settings.climateBasisYears;
+    if (recent === null) return a.years.length > 15 ? { years: 15, label: 'Compare with the latest 15 years' } : null;
+    return { years: null, label: 'Compare with the whole record' };
+  });
+
+  /** Makes a copy that differs only in its climate basis and opens both side by side. */
+  protected async compareBasis(): Promise<void> {
+    const s = this.scenario();
+    const other = this.otherBasis();
+    if (!s || !other) return;
+    try {
+      const name = other.years === null ? `${s.name} · whole record` : `${s.name} · latest ${other.years} years`;
+      const copy = await this.api.duplicate(s.projectId, s.id, name.slice(0, SCENARIO_NAME_MAX));
+      const changed = await this.api.update(s.projectId, copy.id, {
+        version: copy.version,
+        settings: { ...copy.settings, climateBasisYears: other.years },
+      });
+      await this.router.navigate(['/projects', s.projectId, 'compare'], { queryParams: { ids: `${s.id},${changed.id}` } });
+    } catch (err) {
+      this.snack.open(apiErrorMessage(err), 'Dismiss', { duration: 8000 });
+    }
+  }
+
   protected async copyFrozen(): Promise<void> {
     const s = this.scenario();
     if (!s) return;
