@@ -1,4 +1,4 @@
-import { mkdirSync, readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, renameSync } from 'node:fs';
 import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
@@ -153,6 +153,12 @@ export async function pdfPageScreenshots(browser: Browser, pdf: Buffer, name: st
   for (let n = 1; n <= pages; n++) await page.locator(`#page-${n}`).screenshot({ path: path.join(SCREENSHOTS, `${name}-${n}.png`) });
   await context.close();
   return pages;
+}
+
+/** The first page of a PDF as `<name>.png` (the other pages are drawn too, as `<name>-2.png`, …). */
+export async function pdfFirstPageScreenshot(browser: Browser, pdf: Buffer, name: string): Promise<void> {
+  await pdfPageScreenshots(browser, pdf, name);
+  renameSync(path.join(SCREENSHOTS, `${name}-1.png`), path.join(SCREENSHOTS, `${name}.png`));
 }
 
 /** Seeds the invented demo organisation into the test database (once; a second call changes nothing). */
