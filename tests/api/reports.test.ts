@@ -198,7 +198,7 @@ describe('reports API', () => {
 
   it('takes a PNG or a cleaned SVG as the logo, judged by content, and refuses anything else', async () => {
     const f = await fixture(t);
-    const png = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478da63f8cfc0f01f0005000201a5a1d3f10000000049454e44ae426082', 'hex');
+    const png = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478016390f58bff0f00032001cac83ac1f10000000049454e44ae426082', 'hex');
     await f.agent.put('/api/v1/organization/logo').attach('logo', png, 'firm.png').expect(200);
     const got = await f.agent.get('/api/v1/organization/logo').expect(200);
     assert.equal(got.headers['content-type'], 'image/png');

@@ -66,6 +66,8 @@ function figureText(key: ReportFigure, r: SweepRowAnswer, a: SweepAnswer, system
   }
 }
 
+const HEAT_PUMP_FIGURES: ReadonlySet<ReportFigure> = new Set<ReportFigure>(['compressor', 'backupHours', 'backupEnergy']);
+
 export function buildReportView(src: ReportSource): ReportView {
   const { sweep: a, report } = src;
   const system = report.unitSystem;
@@ -129,7 +131,10 @@ export function buildReportView(src: ReportSource): ReportView {
         temperature: roundTemp(r.designC),
         unit,
         capacity: r.capacityAtDesignW === null ? '—' : formatPower(r.capacityAtDesignW, system),
-        figures: report.figures.map((key) => ({ key, label: reportFigureLabels[key], text: figureText(key, r, a, system) })),
+        // Heat-pump figures are left out for an option that is not a heat pump: a homeowner has no use for "not a heat pump".
+        figures: report.figures
+          .filter((key) => r.compressorAtDesignW !== null || !HEAT_PUMP_FIGURES.has(key))
+          .map((key) => ({ key, label: reportFigureLabels[key], text: figureText(key, r, a, system) })),
         sentence: homeownerSentence(r, {
           rows: a.rows,
           optionLabel: (id) => labelOf.get(id) ?? id,
