@@ -34,9 +34,9 @@ describe('a heat-pump scenario in a real browser', () => {
     await page.getByTestId('tradeoff-sentence').waitFor();
     await page.getByTestId('design-slider').focus();
     await page.keyboard.press('Home');
-    await page.getByTestId('chosen-temperature').filter({ hasText: '(99 %)' }).waitFor();
+    await page.getByTestId('chosen-temperature').filter({ hasText: '(99 % design temperature)' }).waitFor();
 
-    // The rule in force is stated, and the figures are the API's for the 99 % rung.
+    // The rule in force is stated, and the figures are the API's for the 99 % design temperature.
     assert.match(await page.getByTestId('sweep-rules').innerText(), /sized on the compressor alone/);
     assert.match(await page.getByTestId('sweep-rules').innerText(), /20-year study period/);
     const scenarioUrl = new URL(page.url()).pathname;
@@ -53,7 +53,7 @@ describe('a heat-pump scenario in a real browser', () => {
     assert.equal(await page.getByTestId('chosen-backup-energy').innerText(), `${Math.round(r99.backupEnergyKWh).toLocaleString('en-US')} kWh`);
     assert.match(await page.getByTestId('chosen-lcc').innerText(), /over a 20-year study period \(unit life 15 years\)/);
     assert.match(await page.getByTestId('chosen-lowest-indoor').innerText(), new RegExp(`^${r99.lowestIndoorC.toFixed(1).replace('-', '−')} °C`));
-    await page.getByTestId('ladder-table').getByText('Backup kWh / yr').waitFor();
+    await page.getByTestId('design-temps-table').getByText('Backup kWh / yr').waitFor();
     await page.getByTestId('tradeoff-chart').locator('canvas').first().waitFor();
     await screenshot(page, 'heat-pump-tradeoff-1280');
 
@@ -64,10 +64,10 @@ describe('a heat-pump scenario in a real browser', () => {
     await page.waitForURL(/\/reports\//);
     const doc = page.getByTestId('report-document');
     await doc.waitFor();
-    const point = page.locator('[data-rung="99 %"]');
+    const point = page.locator('[data-tag="99 %"]');
     assert.equal((await point.locator('[data-figure="compressor"] dd').innerText()).trim(), compressor);
     assert.match((await point.locator('[data-figure="backupHours"] dd').innerText()).trim(), /^(about [\d.,]+|none)$/);
-    assert.equal((await point.locator('[data-figure="backupEnergy"] dd').innerText()).trim(), `${Math.round(r99.backupEnergyKWh).toLocaleString('en-US')} kWh`);
+    assert.equal((await point.locator('[data-figure="backupEnergy"] dd').innerText()).trim(), `about ${Math.round(r99.backupEnergyKWh).toLocaleString('en-US')} kWh`);
     assert.match((await point.locator('[data-figure="lifeCycleCost"] dd').innerText()).trim(), /over 20 years$/);
     assert.match((await point.locator('[data-figure="lowestIndoor"] dd').innerText()).trim(), /°C$/);
     assert.match(await doc.innerText(), /backup heat/);

@@ -220,7 +220,7 @@ describe('the journey by keyboard alone', () => {
     await page.getByTestId('tradeoff-sentence').waitFor({ timeout: 180_000 });
     await tabTo(page, 'tradeoff', (s) => s.tag === 'input' && /^Design temperature$/.test(s.name));
     await page.keyboard.press('Home');
-    await page.getByTestId('chosen-temperature').filter({ hasText: '(99 %)' }).waitFor();
+    await page.getByTestId('chosen-temperature').filter({ hasText: '(99 % design temperature)' }).waitFor();
     const valueText = await page.getByTestId('design-slider').getAttribute('aria-valuetext');
     assert.equal(
       valueText,
@@ -228,13 +228,13 @@ describe('the journey by keyboard alone', () => {
       'the slider reads out the design point as shown',
     );
     await page.keyboard.press('End');
-    await page.getByTestId('chosen-temperature').filter({ hasText: '(50-year)' }).waitFor();
+    await page.getByTestId('chosen-temperature').filter({ hasText: '(50-year return period)' }).waitFor();
     assert.equal(
       await page.getByTestId('design-slider').getAttribute('aria-valuetext'),
       await page.getByTestId('chosen-temperature').innerText(),
     );
     await page.keyboard.press('Home');
-    await page.getByTestId('chosen-temperature').filter({ hasText: '(99 %)' }).waitFor();
+    await page.getByTestId('chosen-temperature').filter({ hasText: '(99 % design temperature)' }).waitFor();
     await tabTo(page, 'tradeoff', (s) => s.tag === 'button' && s.name.includes('New client report'));
     await page.keyboard.press('Enter');
 

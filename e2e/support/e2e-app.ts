@@ -1,4 +1,4 @@
-import { mkdirSync, readFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, renameSync } from 'node:fs';
 import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
@@ -118,32 +118,47 @@ export async function screenshot(page: Page, name: string): Promise<void> {
 }
 
 /**
- * Draws the first page of a PDF with PDF.js (from node_modules, handed to the page as blob URLs, so
- * nothing is fetched) and saves a screenshot of it, to look at what a PDF download holds.
+ * Draws every page of a PDF with PDF.js (from node_modules, handed to the page as blob URLs, so
+ * nothing is fetched) and saves a screenshot of each (`<name>-1.png`, …), to look at what a PDF
+ * download holds. Answers the number of pages.
  */
-export async function pdfFirstPageScreenshot(browser: Browser, pdf: Buffer, name: string): Promise<void> {
+export async function pdfPageScreenshots(browser: Browser, pdf: Buffer, name: string): Promise<number> {
   const dir = path.resolve('node_modules/pdfjs-dist/legacy/build');
   const lib = readFileSync(path.join(dir, 'pdf.min.mjs'), 'utf8');
   const worker = readFileSync(path.join(dir, 'pdf.worker.min.mjs'), 'utf8');
   const context = await browser.newContext({ viewport: { width: 900, height: 1200 } });
   const page = await context.newPage();
-  await page.setContent('<!doctype html><body style="margin:0;background:#888"><canvas id="c"></canvas></body>');
+  await page.setContent('<!doctype html><body style="margin:0;background:#888"></body>');
   // A string, not a function: the test runner's transpiler would wrap a function's inner helpers.
-  await page.evaluate(`(async () => {
+  const pages = await page.evaluate<number>(`(async () => {
     const url = (code) => URL.createObjectURL(new Blob([code], { type: 'text/javascript' }));
     const pdfjs = await import(url(${JSON.stringify(lib)}));
     pdfjs.GlobalWorkerOptions.workerSrc = url(${JSON.stringify(worker)});
     const bytes = Uint8Array.from(atob('${pdf.toString('base64')}'), (c) => c.charCodeAt(0));
     const doc = await pdfjs.getDocument({ data: bytes }).promise;
-    const first = await doc.getPage(1);
-    const viewport = first.getViewport({ scale: 1.4 });
-    const canvas = document.getElementById('c');
-    canvas.width = viewport.width;
-    canvas.height = viewport.height;
-    await first.render({ canvasContext: canvas.getContext('2d'), viewport }).promise;
+    for (let n = 1; n <= doc.numPages; n++) {
+      const p = await doc.getPage(n);
+      const viewport = p.getViewport({ scale: 1.4 });
+      const canvas = document.createElement('canvas');
+      canvas.id = 'page-' + n;
+      canvas.style.display = 'block';
+      canvas.style.marginBottom = '8px';
+      canvas.width = viewport.width;
+      canvas.height = viewport.height;
+      document.body.appendChild(canvas);
+      await p.render({ canvasContext: canvas.getContext('2d'), viewport }).promise;
+    }
+    return doc.numPages;
   })()`);
-  await page.locator('#c').screenshot({ path: path.join(SCREENSHOTS, `${name}.png`) });
+  for (let n = 1; n <= pages; n++) await page.locator(`#page-${n}`).screenshot({ path: path.join(SCREENSHOTS, `${name}-${n}.png`) });
   await context.close();
+  return pages;
+}
+
+/** The first page of a PDF as `<name>.png` (the other pages are drawn too, as `<name>-2.png`, …). */
+export async function pdfFirstPageScreenshot(browser: Browser, pdf: Buffer, name: string): Promise<void> {
+  await pdfPageScreenshots(browser, pdf, name);
+  renameSync(path.join(SCREENSHOTS, `${name}-1.png`), path.join(SCREENSHOTS, `${name}.png`));
 }
 
 /** Seeds the invented demo organisation into the test database (once; a second call changes nothing). */

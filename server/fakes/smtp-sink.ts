@@ -39,6 +39,7 @@ export async function startSmtpSink(options: { host?: string; smtpPort?: number;
           const message: OutboxMessage = {
             id: randomUUID(),
             from: mail.from?.text ?? '',
+            replyTo: mail.replyTo?.text ?? '',
             to: session.envelope.rcptTo.map((r) => r.address),
             subject: mail.subject ?? '',
             text,

@@ -7,6 +7,8 @@ export interface OutgoingMail {
   subject: string;
   text: string;
   html: string;
+  /** Where a reply goes (a report goes out from the product's address; replies reach the designer who sent it). */
+  replyTo?: { name: string; address: string };
 }
 
 export interface Mailer {

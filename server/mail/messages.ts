@@ -83,20 +83,23 @@ export function invitationMail(
 export function reportMail(
   to: string,
   link: string,
-  details: { organizationName: string; senderName: string; title: string; message: string; expiresAt: Date },
+  details: { organizationName: string; senderName: string; senderEmail: string; phone: string; title: string; message: string; expiresAt: Date },
 ): OutgoingMail {
   // Names and title are the sender's own words: one clean line each (they reach the subject header).
   const organizationName = headerText(details.organizationName);
   details = { ...details, organizationName, senderName: headerText(details.senderName), title: headerText(details.title, 150) };
+  const contact = [details.senderEmail, details.phone].filter((x) => x).join(' or ');
   const lines = [
-    `${details.senderName} of ${details.organizationName} sent you a heating report: “${details.title}”.`,
+    `${details.senderName} of ${details.organizationName} sent you a report on heating options for your home: “${details.title}”.`,
     ...(details.message ? [details.message] : []),
-    `The link works until ${details.expiresAt.toISOString().slice(0, 10)}; you need no account to open it.`,
+    `Open it with the link below; you need no account. The link works until ${details.expiresAt.toISOString().slice(0, 10)}.`,
+    `Questions? Reply to this e-mail${contact ? ` or contact ${details.senderName} at ${contact}` : ''}.`,
   ];
   return {
     to,
     subject: `${details.organizationName}: ${details.title}`,
     text: `${lines.join('\n\n')}\n\n${link}\n`,
     html: layout(lines, { href: link, label: 'Open the report' }),
+    ...(details.senderEmail ? { replyTo: { name: details.senderName, address: details.senderEmail } } : {}),
   };
 }

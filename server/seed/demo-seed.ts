@@ -97,7 +97,7 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
       });
     }
     // Three invented sites with 30-year hourly records from the seeded generator.
-    // The demo projects use the site with the widest useful ladder for their house (Tallowmere Vale).
+    // The demo projects use the site with the widest useful span of design temperatures for their house (Tallowmere Vale).
     let projectSiteId: string | undefined;
     for (const site of DEMO_SITES) {
       const siteId = await insertSite(trx, org.id, ownerId, {

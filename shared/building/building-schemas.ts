@@ -209,7 +209,7 @@ export const buildingSchema = z.strictObject({
   /** Duct loss as a percentage of the other losses (docs/methods.md#duct-loss-and-margins: 10–30 % for ducts outside, ≈ 0 inside [M]). */
   ductLossPct: nonNegative('duct loss', '%', 100).default(BUILDING_DEFAULTS.ductLossPct),
   /** Safety factor applied to the load after gains, %. */
-  safetyFactorPct: nonNegative('safety factor', '%', 100).default(BUILDING_DEFAULTS.safetyFactorPct),
+  safetyFactorPct: nonNegative('sizing margin', '%', 100).default(BUILDING_DEFAULTS.safetyFactorPct),
   /** Internal/solar gains credited against the load, W. */
   internalGainsW: nonNegative('internal-gain credit', 'W', 1_000_000).default(BUILDING_DEFAULTS.internalGainsW),
   /**

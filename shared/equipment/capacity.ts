@@ -10,7 +10,7 @@
  */
 import type { Building } from '../building/building-schemas';
 import { heatLoss } from '../building/heat-loss';
-import { fahrenheitToCelsius } from '../climate/units';
+import { fahrenheitToCelsius } from '../units/units';
 import type { EquipmentOption, FuelledOption, HeatPumpOption } from './equipment-schemas';
 
 /**

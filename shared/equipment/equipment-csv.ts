@@ -10,7 +10,7 @@
  * `toCsv` writes SI columns (output_w) and round-trips through `parseEquipmentCsv`.
  */
 import type { z } from 'zod';
-import { toSi } from '../building/quantities';
+import { toSi } from '../units/units';
 import { csvTextField, unguardCsvText } from '../csv/csv-field';
 import { equipmentOptionSchema, type EquipmentOption } from './equipment-schemas';
 

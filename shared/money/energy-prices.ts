@@ -5,7 +5,7 @@
  */
 import type { Decimal } from 'decimal.js';
 import { z } from 'zod';
-import { convertUnits } from '../building/quantities';
+import { convertUnits } from '../units/units';
 import { capacityAt } from '../equipment/capacity';
 import type { EquipmentOption } from '../equipment/equipment-schemas';
 import { currencyCodeSchema, divideMoney, parseMoney, UNIT_PRICE_PATTERN } from './money';

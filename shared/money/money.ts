@@ -97,6 +97,15 @@ export function formatMoney(amount: MoneyValue, currency: string, locale = 'en-U
   }).format(text);
 }
 
+/**
+ * An amount to whole currency units for summaries and reports, e.g. "$1,235" (half-even, so
+ * "1234.50" → "$1,234"); cents stay for the CSV exports and the amounts an estimator types.
+ */
+export function formatMoneyWhole(amount: MoneyValue, currency: string, locale = 'en-US'): string {
+  const text = toDecimal(amount).toFixed(0, Decimal.ROUND_HALF_EVEN) as `${number}`;
+  return new Intl.NumberFormat(locale, { style: 'currency', currency, minimumFractionDigits: 0, maximumFractionDigits: 0 }).format(text);
+}
+
 // ---------------------------------------------------------------------------------------------
 // Schemas
 

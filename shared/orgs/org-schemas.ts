@@ -58,6 +58,8 @@ export type InvitationPreview = z.infer<typeof invitationPreviewSchema>;
 export const outboxMessageSchema = z.object({
   id: z.string(),
   from: z.string(),
+  /** Where a reply goes, when the message names it (a report's sending designer). */
+  replyTo: z.string().default(''),
   to: z.array(z.string()),
   subject: z.string(),
   text: z.string(),

@@ -1,6 +1,7 @@
 /**
- * The report's one chart as an ECharts option: life-cycle cost and hours short per year against the
- * design temperature, with the presented design points marked. Used by the report page (canvas) and
+ * The report's one chart as an ECharts option: total cost over the unit's life (axis from zero, so a
+ * small difference does not look like a cliff) and the hours a year the house could get cooler than
+ * set, against the outdoor temperature each size is sized for, with the presented options marked. Used by the report page (canvas) and
  * the PDF (SVG rendered on the server), so both show the same picture.
  */
 import type { ReportView } from './report-schemas';
@@ -17,6 +18,14 @@ const TEXT = '#2A3A40';
 
 const group = (v: number) => Math.round(v).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ',');
 
+/** "The options above are marked A and B." (the chart marks the presented options with letters). */
+export function optionMarks(count: number): string {
+  const letters = 'ABC'.slice(0, Math.max(0, Math.min(3, count))).split('');
+  if (letters.length === 0) return '';
+  if (letters.length === 1) return 'The option above is marked A.';
+  return `The options above are marked ${letters.slice(0, -1).join(', ')} and ${letters.at(-1) ?? ''}.`;
+}
+
 export function reportChartOption(view: ReportView, options: { compact: boolean; forPrint?: boolean }): Record<string, unknown> {
   const { chart } = view;
   const ts = chart.rows.map((r) => r.t);
@@ -26,37 +35,45 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
   return {
     animation: false,
     textStyle: { fontFamily: options.forPrint ? PRINT_FONT : FONT, color: TEXT, fontSize: small ? 10 : 12 },
-    grid: { left: small ? 56 : 72, right: hasHours ? (small ? 40 : 56) : 16, top: small ? 40 : 48, bottom: small ? 36 : 48 },
-    legend: {
-      top: 0,
-      left: 'center',
-      data: ['Life-cycle cost', ...(hasHours ? ['Hours short per year'] : []), ...(hasBand ? ['Likely range of hours short'] : [])],
-      textStyle: { fontSize: small ? 10 : 12, fontFamily: options.forPrint ? PRINT_FONT : FONT },
-    },
+    grid: { left: small ? 52 : 72, right: hasHours ? (small ? 36 : 56) : 16, top: options.compact ? 64 : small ? 48 : 56, bottom: small ? 40 : 48 },
+    legend: { top: 0, left: 'center', itemGap: options.compact ? 8 : 16, textStyle: { fontSize: small ? 10 : 12, fontFamily: options.forPrint ? PRINT_FONT : FONT } },
     tooltip: options.forPrint ? undefined : { trigger: 'axis' },
     xAxis: {
       type: 'value',
       inverse: true,
       min: ts.length > 0 ? Math.floor(Math.min(...ts)) : undefined,
       max: ts.length > 0 ? Math.ceil(Math.max(...ts)) : undefined,
-      name: `Design temperature (${chart.temperatureUnit}), milder to colder`,
+      name: `Sized for nights down to (${chart.temperatureUnit})`,
       nameLocation: 'middle',
-      nameGap: small ? 22 : 30,
+      nameGap: small ? 24 : 30,
+      splitNumber: options.compact ? 4 : 6,
+      axisLabel: { hideOverlap: true, fontSize: small ? 10 : 12, formatter: (v: number) => String(v).replace('-', '−') },
       splitLine: { lineStyle: { color: '#E3E8E6' } },
     },
     yAxis: [
       {
         type: 'value',
-        name: `Life-cycle cost (${chart.currency})`,
-        scale: true,
-        axisLabel: { formatter: (v: number) => group(v) },
+        name: `Total cost (${chart.currency})`,
+        min: 0,
+        splitNumber: options.compact ? 3 : 5,
+        nameTextStyle: { align: 'left' },
+        axisLabel: { fontSize: small ? 10 : 12, formatter: (v: number) => (options.compact && v >= 1000 ? `${group(v / 1000)}k` : group(v)) },
         splitLine: { lineStyle: { color: '#E3E8E6' } },
       },
-      { type: 'value', name: hasHours ? 'Hours short / yr' : '', min: 0, show: hasHours, splitLine: { show: false } },
+      {
+        type: 'value',
+        name: hasHours ? (options.compact ? 'Hours / yr' : 'Hours a year cooler') : '',
+        nameTextStyle: { align: 'right' },
+        min: 0,
+        show: hasHours,
+        splitNumber: options.compact ? 3 : 5,
+        axisLabel: { fontSize: small ? 10 : 12 },
+        splitLine: { show: false },
+      },
     ],
     series: [
       {
-        name: 'Life-cycle cost',
+        name: 'Total cost over its life',
         type: 'line',
         yAxisIndex: 0,
         showSymbol: false,
@@ -70,14 +87,14 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
           data: chart.points.map((p) => ({
             xAxis: p.t,
             lineStyle: { color: EMBER, width: 2, type: 'solid' },
-            label: { formatter: p.label, color: EMBER_TEXT, fontSize: small ? 10 : 12, position: 'insideEndTop' },
+            label: { formatter: p.label, color: EMBER_TEXT, fontSize: small ? 11 : 13, fontWeight: 'bold', position: 'end' },
           })),
         },
       },
       ...(hasHours
         ? [
             {
-              name: 'Hours short per year',
+              name: options.compact ? 'Hours a year cooler' : 'Hours a year cooler than you set it',
               type: 'line',
               yAxisIndex: 1,
               showSymbol: false,

@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { unitSystemSchema } from '../auth/auth-schemas';
+import { term } from '../glossary/glossary';
 
 export const REPORT_TITLE_MAX = 160;
 export const REPORT_NOTE_MAX = 2000;
@@ -23,22 +24,35 @@ export const reportFigureKeys = [
   'unmetHours',
   'unmetWorstYear',
   'lowestIndoor',
-  'sag',
 ] as const;
 export type ReportFigure = (typeof reportFigureKeys)[number];
+/** The figures as the homeowner reads them (the glossary's plain words). */
 export const reportFigureLabels: Record<ReportFigure, string> = {
-  installedPrice: 'Installed price',
-  annualCost: 'Running cost per year, with cycling losses',
-  lifeCycleCost: 'Life-cycle cost over the study period',
-  compressor: 'Heat pump’s own capacity at the design temperature',
-  runHours: 'Equivalent full-load hours per year',
-  backupHours: 'Hours a year the backup heat runs',
-  backupEnergy: 'Backup heat energy per year',
-  unmetHours: 'Hours it falls behind, average year',
-  unmetWorstYear: 'Hours it falls behind, worst year of record',
-  lowestIndoor: 'Lowest indoor temperature over the record',
-  sag: 'How far the house could cool',
+  installedPrice: term('installedPrice', 'homeowner'),
+  annualCost: term('annualCost', 'homeowner'),
+  lifeCycleCost: term('lifeCycleCost', 'homeowner'),
+  compressor: term('compressorAtDesign', 'homeowner'),
+  runHours: term('runHours', 'homeowner'),
+  backupHours: term('backupHours', 'homeowner'),
+  backupEnergy: term('backupEnergy', 'homeowner'),
+  unmetHours: term('unmetHours', 'homeowner'),
+  unmetWorstYear: term('unmetHoursWorstYear', 'homeowner'),
+  lowestIndoor: term('lowestIndoor', 'homeowner'),
 };
+/** The same figures as the designer picks them in the composer (the trade's terms). */
+export const reportFigureDesignerLabels: Record<ReportFigure, string> = {
+  installedPrice: term('installedPrice'),
+  annualCost: term('annualCost'),
+  lifeCycleCost: term('lifeCycleCost'),
+  compressor: term('compressorAtDesign'),
+  runHours: term('runHours'),
+  backupHours: term('backupHours'),
+  backupEnergy: term('backupEnergy'),
+  unmetHours: term('unmetHours'),
+  unmetWorstYear: term('unmetHoursWorstYear'),
+  lowestIndoor: term('lowestIndoor'),
+};
+export const REPORT_PHONE_MAX = 40;
 
 /** POST /api/v1/projects/:projectId/reports */
 export const reportInputSchema = z.strictObject({
@@ -49,7 +63,14 @@ export const reportInputSchema = z.strictObject({
     .min(1, 'Enter a title')
     .max(REPORT_TITLE_MAX, `Use at most ${REPORT_TITLE_MAX} characters`),
   note: z.string({ error: 'Enter the note as text' }).trim().max(REPORT_NOTE_MAX, `Use at most ${REPORT_NOTE_MAX} characters`).default(''),
-  /** Design temperatures of the ladder rows to present, °C. */
+  /** The phone number the homeowner can call, shown with the designer's name and e-mail. */
+  contactPhone: z
+    .string({ error: 'Enter the phone number as text' })
+    .trim()
+    .max(REPORT_PHONE_MAX, `Use at most ${REPORT_PHONE_MAX} characters`)
+    .regex(/^[\d\s()+.\-/x]*$/i, 'Enter a phone number with digits, spaces and + ( ) - . / only')
+    .default(''),
+  /** Design temperatures of the sweep rows to present, °C. */
   points: z
     .array(z.number({ error: 'A design point is a temperature (°C)' }).min(-70).max(20), { error: 'Choose the design points to present' })
     .min(1, 'Choose at least one design point')
@@ -105,6 +126,7 @@ export const reportSchema = z.object({
   scenarioFrozen: z.boolean(),
   title: z.string(),
   note: z.string(),
+  contactPhone: z.string(),
   points: z.array(z.number()),
   figures: z.array(z.enum(reportFigureKeys)),
   unitSystem: unitSystemSchema,
@@ -125,7 +147,8 @@ export const linkCreatedSchema = z.object({ link: linkSchema, url: z.string() })
 export const reportOptionViewSchema = z.object({
   /** "Sized for the 99 % design temperature (−17.0 °C)". */
   heading: z.string(),
-  rungLabel: z.string(),
+  /** The short tag of the design value ("99 %", "50-yr") or the temperature. */
+  tag: z.string(),
   designC: z.number(),
   temperature: z.string(),
   unit: z.string(),
@@ -140,11 +163,15 @@ export type ReportOptionView = z.infer<typeof reportOptionViewSchema>;
 
 export const reportViewSchema = z.object({
   firm: z.object({ name: z.string(), logoUrl: z.string().nullable() }),
+  /** Who to call or write to about the report: the designer who prepared it. */
+  contact: z.object({ name: z.string(), email: z.string(), phone: z.string() }),
   title: z.string(),
   note: z.string(),
   preparedAt: z.string(),
   computedAt: z.string(),
   frozen: z.boolean(),
+  /** Whether the figures are fixed or may change, in plain words. */
+  status: z.string(),
   project: z.object({ name: z.string(), clientName: z.string(), siteAddress: z.string() }),
   building: z.string(),
   climate: z.array(z.string()),
@@ -164,6 +191,7 @@ export const reportViewSchema = z.object({
     ),
     points: z.array(z.object({ t: z.number(), label: z.string() })),
   }),
+  cautionsTitle: z.string(),
   cautions: z.array(z.string()),
   provenance: z.string(),
   unitSystem: unitSystemSchema,

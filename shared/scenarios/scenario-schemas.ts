@@ -62,7 +62,7 @@ export const designRuleSchema = z.strictObject({
 });
 
 export const scenarioSettingsSchema = z.strictObject({
-  /** Design temperatures to add to the ladder, °C. */
+  /** Design temperatures to add to the named ones, °C. */
   extraDesignC: z
     .array(
       z
@@ -104,9 +104,9 @@ export const scenarioSettingsSchema = z.strictObject({
     .default(null),
   /** Sizing margin over the design load, %; null uses the building's own safety factor. */
   safetyFactorPct: z
-    .number({ error: 'Enter the safety factor as a number (%)' })
-    .min(0, 'The safety factor cannot be negative')
-    .max(100, 'The safety factor must be at most 100 %')
+    .number({ error: 'Enter the sizing margin as a number (%)' })
+    .min(0, 'The sizing margin cannot be negative')
+    .max(100, 'The sizing margin must be at most 100 %')
     .nullable()
     .default(null),
   /** Energy prices for this scenario; null uses the organisation's prices. */
@@ -142,10 +142,18 @@ export const scenarioInputSchema = z.strictObject({
 });
 export type ScenarioInput = z.input<typeof scenarioInputSchema>;
 
-/** PATCH /api/v1/projects/:projectId/scenarios/:scenarioId (409 `stale_update`; 409 `frozen` for inputs of a frozen one) */
+/** The design point chosen on the trade-off screen, °C (null: none chosen yet). */
+export const chosenDesignCSchema = z
+  .number({ error: 'Enter the chosen design temperature as a number (°C)' })
+  .min(-70, 'A design temperature must be at least −70 °C')
+  .max(20, 'A design temperature must be at most 20 °C')
+  .nullable();
+
+/** PATCH /api/v1/projects/:projectId/scenarios/:scenarioId (409 `stale_update`; 409 `frozen` for inputs or the chosen point of a frozen one) */
 export const scenarioPatchSchema = z.strictObject({
   version: rowVersionSchema('The version of the scenario being changed is required'),
   name: scenarioName.optional(),
+  chosenDesignC: chosenDesignCSchema.optional(),
   climateSiteId: z.uuid('Choose a climate site from the list').nullable().optional(),
   equipmentListId: z.uuid('Choose an equipment list from the list').nullable().optional(),
   settings: scenarioSettingsSchema.optional(),
@@ -168,6 +176,12 @@ export const scenarioSchema = z.object({
   frozenAt: z.string().nullable(),
   /** The scenario a frozen copy was taken from (null when that one was deleted, or not frozen). */
   frozenFromId: z.uuid().nullable(),
+  /** The design point chosen on the trade-off screen, °C (a frozen copy keeps the one of its bid). */
+  chosenDesignC: z.number().nullable(),
+  /** What the chosen point installs, when its sweep is at hand (the project's scenario list shows it). */
+  chosenPoint: z
+    .object({ designC: z.number(), label: z.string(), isGrid: z.boolean(), unit: z.string().nullable(), installedPrice: z.string().nullable(), currency: z.string() })
+    .nullable(),
   version: z.int(),
   updatedByName: z.string(),
   createdAt: z.string(),
@@ -327,6 +341,8 @@ export const comparisonSchema = z.object({
       sweep: sweepAnswerSchema.nullable(),
       /** Why the scenario has no sweep (incomplete inputs). */
       problem: z.string().nullable(),
+      /** The energy prices the sweep used (the scenario's own or the organisation's). */
+      prices: energyPricesSchema.nullable(),
     }),
   ),
 });

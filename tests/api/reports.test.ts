@@ -70,12 +70,19 @@ describe('reports API', () => {
     const view = (await request(t.app).get(`/api/v1/public/reports/${tokenOf(url)}`).expect(200)).body as ReportView;
     assert.equal(view.title, 'Your heating options');
     assert.equal(view.note, 'Call me with questions.');
-    assert.deepEqual(view.options.map((o) => o.rungLabel), ['99 %', '50-year']);
-    // Every figure by default, less the three that only a heat pump has (this scenario is of furnaces).
-    assert.ok(view.options.every((o) => o.figures.length === 8));
-    assert.match(view.options[0]?.sentence ?? '', /instead of/);
+    assert.deepEqual(view.options.map((o) => o.tag), ['99 %', '50-yr']);
+    assert.ok(view.options.every((o) => o.figures.length === 7));
+    assert.match(view.options[0]?.heading ?? '', /^Option A: sized for a typical cold winter night \(−?\d+ °C\)$/);
+    assert.match(view.options[0]?.sentence ?? '', /typical winter|keeps the house at the temperature you set/);
     assert.ok(view.climate.some((c) => c.includes('about 88 hours')));
     assert.equal(view.cautions.length, 4);
+    // Written for a homeowner: none of the designer's terms or the internal scenario name in what the homeowner reads.
+    const homeownerText = JSON.stringify([view.title, view.status, view.building, view.climate, view.cautionsTitle, view.cautions, view.provenance, view.options.map((o) => [o.heading, o.unit, o.capacity, o.sentence, o.figures.map((x) => [x.label, x.text])])]);
+    for (const jargon of [/unmet/i, /design (temperature|load|point)/i, /set-point/i, /\bsag\b/i, /ladder/i, /\brung/i, /life-cycle/i, /Gas bid/, /fall(s)? behind the load/i]) {
+      assert.doesNotMatch(homeownerText, jargon);
+    }
+    // The designer who prepared it is the contact.
+    assert.equal(view.contact.email, f.email);
     assert.ok(view.expiresAt);
 
     // The same figures as the signed-in preview.
@@ -128,7 +135,9 @@ describe('reports API', () => {
       assert.ok(text.includes(price), `price ${price}`);
     }
     assert.match(text, /°F/);
-    assert.match(text, /licensed professional/);
+    assert.match(text, /licensed heating professional/);
+    assert.match(text, /Questions\?/);
+    assert.doesNotMatch(text, /Gas bid/);
   });
 
   it('e-mails the link through the sink, records the send, and records a failed send for a retry', async () => {
@@ -141,6 +150,10 @@ describe('reports API', () => {
     assert.equal(sent.links.length, 1);
     const m = await mail;
     assert.match(m.text, /As discussed\./);
+    // Replies reach the designer who sent it, not the product's sending address (RFC 5322 §3.6.2 Reply-To).
+    assert.match(m.replyTo, new RegExp(f.email.replace(/[.+]/g, '\\$&')));
+    assert.doesNotMatch(m.from, new RegExp(f.email.replace(/[.+]/g, '\\$&')));
+    assert.match(m.text, /Reply to this e-mail/);
     const link = /http:\/\/tailroom\.test\/r\/([\w.-]+)/.exec(m.text)?.[1] ?? '';
     await request(t.app).get(`/api/v1/public/reports/${link}`).expect(200);
 

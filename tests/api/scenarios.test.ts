@@ -203,6 +203,56 @@ describe('scenarios API', () => {
     await assert.rejects(t.db('scenarios').where({ id: frozen.id }).update({ settings: JSON.stringify({}) }), /frozen scenario/);
   });
 
+  it('keeps the chosen design point with the scenario: saved with its version, carried into a frozen copy, marked in both CSVs and listed', async () => {
+    const f = await fixture(t);
+    const s = await createScenario(f);
+    const a = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const r99 = a.rows.find((r) => r.label === '99 %');
+    assert.ok(r99);
+    assert.equal(s.chosenDesignC, null);
+
+    // Bad input answers 400 with the field, and changes nothing.
+    const bad = await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, chosenDesignC: 'cold' }).expect(400);
+    assert.deepEqual((bad.body as { error: { details: { path: string }[] } }).error.details.map((d) => d.path), ['chosenDesignC']);
+    await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, chosenDesignC: -90 }).expect(400);
+
+    const saved = (await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, chosenDesignC: r99.designC }).expect(200)).body as Scenario;
+    assert.equal(saved.chosenDesignC, r99.designC);
+    assert.equal(saved.version, s.version + 1);
+    // A second tab with the old version is told, and its choice does not overwrite.
+    await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, chosenDesignC: -30 }).expect(409);
+    const reloaded = (await f.agent.get(`${base(f)}/${s.id}`).expect(200)).body as Scenario;
+    assert.equal(reloaded.chosenDesignC, r99.designC);
+
+    // The project's list shows what the chosen point installs and its price.
+    const listed = ((await f.agent.get(base(f)).expect(200)).body as Scenario[]).find((x) => x.id === s.id);
+    assert.equal(listed?.chosenPoint?.label, '99 %');
+    assert.equal(listed?.chosenPoint?.installedPrice, r99.installedPrice);
+    assert.equal(listed?.chosenPoint?.unit, a.options.find((o) => o.id === r99.selectedOptionId)?.label);
+
+    // The frozen copy keeps the bid's point and refuses a change to it.
+    const frozen = (await f.agent.post(`${base(f)}/${s.id}/freeze`).send({}).expect(201)).body as Scenario;
+    assert.equal(frozen.chosenDesignC, r99.designC);
+    const refused = await f.agent.patch(`${base(f)}/${frozen.id}`).send({ version: frozen.version, chosenDesignC: -30 }).expect(409);
+    assert.equal((refused.body as { error: { code: string } }).error.code, 'frozen');
+
+    // Both CSVs mark the chosen row, under the glossary's column names.
+    const one = (await f.agent.get(`${base(f)}/${frozen.id}/sweep.csv`).expect(200)).text.trim().split('\r\n');
+    const header = one[0]?.split(',') ?? [];
+    assert.deepEqual(header.slice(0, 5), ['scenario', 'design_point', 'design_temperature_c', 'chosen', 'design_load_w']);
+    assert.ok(header.includes('lowest_indoor_c') && header.includes('equivalent_full_load_hours_per_year'));
+    assert.ok(!header.some((h) => /rung|sag/.test(h)));
+    const chosenCol = header.indexOf('chosen');
+    const marked = one.slice(1).filter((l) => l.split(',')[chosenCol] === 'yes');
+    assert.equal(marked.length, 1);
+    assert.equal(marked[0]?.split(',')[1], '99 %');
+    const cmp = await f.agent.get(`/api/v1/projects/${f.projectId}/scenario-comparison.csv`).query({ ids: [s.id, frozen.id].join(',') }).expect(200);
+    assert.equal(cmp.text.trim().split('\r\n').filter((l) => l.split(',')[chosenCol] === 'yes').length, 2);
+    // The comparison carries the prices each scenario used.
+    const json = (await f.agent.get(`/api/v1/projects/${f.projectId}/scenario-comparison`).query({ ids: [s.id, frozen.id].join(',') }).expect(200)).body as Comparison;
+    assert.deepEqual(json.entries.map((e) => e.prices), [PRICES, PRICES]);
+  });
+
   it('compares two to five scenarios in JSON and CSV, with text cells guarded against formulas', async () => {
     const f = await fixture(t);
     const a = await createScenario(f, { name: '=HYPERLINK("http://x.test")', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } });
@@ -222,8 +272,9 @@ describe('scenarios API', () => {
     assert.equal(lines[0]?.split(',')[0], 'scenario');
     assert.ok(lines.some((l) => l.startsWith(`"'=HYPERLINK(""http://x.test"")"`)), 'formula guarded');
     assert.ok(lines.some((l) => l.startsWith('Heat pump,99 %,')));
+    assert.equal(lines[0]?.split(',')[1], 'design_point');
     const one = await f.agent.get(`${base(f)}/${b.id}/sweep.csv`).expect(200);
-    assert.ok(one.text.split('\r\n').length > 10, 'the whole ladder, grid included');
+    assert.ok(one.text.split('\r\n').length > 10, 'every design temperature, grid included');
   });
 
   it('viewers read and sweep but cannot change; other organisations see 404', async () => {

@@ -29,7 +29,7 @@ import {
   timeConstantHours,
   WIND_COEFFICIENT_SI,
 } from '../../shared/building/heat-loss';
-import { fromSi, toSi } from '../../shared/building/quantities';
+import { fromSi, toSi } from '../../shared/units/units';
 import { toSi as toSiClimate } from '../../shared/units/units';
 import { assertClose } from './close-to';
 

@@ -9,13 +9,13 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import {
-  buildingQuantities,
+  quantities,
   formatQuantity,
   fromSi,
   toSi,
   unitLabel,
-  type BuildingQuantity,
-} from '../../shared/building/quantities';
+  type Quantity,
+} from '../../shared/units/units';
 import { SENSIBLE_HEAT_FACTOR_BTUH_PER_CFM_F, SENSIBLE_HEAT_FACTOR_W_PER_LPS_K } from '../../shared/building/heat-loss';
 import { toSi as toSiClimate } from '../../shared/units/units';
 import { assertClose } from './close-to';
@@ -62,7 +62,7 @@ describe('NIST SP 811 (2008) Appendix B.8 factors through the engine conversions
   });
 
   it('round-trips every quantity and leaves SI values alone', () => {
-    for (const q of Object.keys(buildingQuantities) as BuildingQuantity[]) {
+    for (const q of Object.keys(quantities) as Quantity[]) {
       assert.equal(toSi(q, 123.4, 'SI'), 123.4);
       assertClose(toSi(q, fromSi(q, 123.4, 'IP'), 'IP'), 123.4, 1e-9, q);
       assert.notEqual(unitLabel(q, 'SI'), '');

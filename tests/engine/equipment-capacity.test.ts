@@ -6,7 +6,7 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { buildingSchema, type Building } from '../../shared/building/building-schemas';
 import { heatLoss } from '../../shared/building/heat-loss';
-import { fromSi, toSi } from '../../shared/building/quantities';
+import { fromSi, toSi } from '../../shared/units/units';
 import {
   balancePoint,
   capacityAt,

@@ -11,6 +11,7 @@ import {
   currencyDecimals,
   divideMoney,
   formatMoney,
+  formatMoneyWhole,
   moneyStringSchema,
   multiplyMoney,
   parseMoney,
@@ -94,6 +95,14 @@ describe('currency formatting (Intl.NumberFormat, ISO 4217 minor units)', () => 
     // de-DE groups with "." and uses "," for decimals; the space before € is a no-break space.
     assert.equal(formatMoney('1234.565', 'EUR', 'de-DE').replace(/\s/g, ' '), '1.234,56 €');
     assert.equal(formatMoney('-0.125', 'USD'), '-$0.12');
+  });
+
+  it('rounds to whole units, half to even, for summaries and reports', () => {
+    // Half-even rounding as in the decimal.js documentation of ROUND_HALF_EVEN [S]; grouping as in the cases above.
+    assert.equal(formatMoneyWhole('1234.50', 'USD'), '$1,234');
+    assert.equal(formatMoneyWhole('1235.50', 'USD'), '$1,236');
+    assert.equal(formatMoneyWhole('22923.49', 'USD'), '$22,923');
+    assert.equal(formatMoneyWhole('1234.5', 'EUR', 'de-DE').replace(/\s/g, ' '), '1.234 €');
   });
 
   it('rounds half to even to the currency minor unit before formatting', () => {

@@ -78,7 +78,8 @@ export function auditRouter(db: Knex): Router {
         detail: r.detail,
         ip: r.ip,
         at: r.created_at.toISOString(),
-        who: r.user_name ?? r.actor_email ?? 'Unknown',
+        // Events without a person (the payment provider's confirmations) name where they came from.
+        who: r.user_name ?? r.actor_email ?? (r.type === 'plan_changed' ? 'The payment provider' : 'The system'),
       })),
     );
   });

@@ -57,6 +57,12 @@ export function logoRouter(db: Knex): Router {
     sendLogo(res, logo);
   });
 
+  /** Whether the organisation has a logo, always 200, so a page without one asks without a failed request. */
+  router.get('/organization/logo-status', authorize(db, 'org:read'), async (req, res) => {
+    const row: unknown = await db('organization_logos').where({ organization_id: orgContext(req).organizationId }).first('organization_id');
+    res.json({ hasLogo: Boolean(row) });
+  });
+
   router.put('/organization/logo', authorize(db, 'member:manage'), upload.single('logo'), async (req, res) => {
     const file = req.file;
     if (!file) throw new HttpError(400, 'invalid_file', 'Choose a PNG, JPEG or SVG file', [{ path: 'logo', message: 'Choose a file' }]);

@@ -6,8 +6,7 @@ import { createRequire } from 'node:module';
 import path from 'node:path';
 import * as echarts from 'echarts';
 import type { ReportView } from '@shared/reports/report-schemas';
-import { reportChartOption } from '@shared/reports/report-chart';
-import { SIZING_CAUTIONS_TITLE } from '@shared/reports/cautions';
+import { optionMarks, reportChartOption } from '@shared/reports/report-chart';
 
 const require = createRequire(import.meta.url);
 
@@ -57,18 +56,34 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
         : { image: `data:${logo.contentType};base64,${logo.content.toString('base64')}`, fit: [140, 48], margin: [0, 0, 0, 6] },
     );
   }
-  const optionBlocks = view.options.map((o) => ({
-    stack: [
-      { text: o.heading, style: 'h3' },
-      { text: o.unit, bold: true, color: EMBER_TEXT, margin: [0, 2, 0, 2] },
-      { text: `Capacity at ${o.temperature}: ${o.capacity}`, fontSize: 9, color: '#555' },
-      {
-        table: { widths: ['*', 'auto'], body: o.figures.map((f) => [{ text: f.label, fontSize: 9 }, { text: f.text, fontSize: 9, bold: true, alignment: 'right' }]) },
-        layout: 'lightHorizontalLines',
-        margin: [0, 4, 0, 4],
-      },
-    ],
-  }));
+  // One table with an option per column, so that every figure sits on the same line in each option.
+  const cell = (text: string, extra: Record<string, unknown> = {}) => ({ text, fontSize: 9.5, ...extra });
+  const firstFigures = view.options[0]?.figures ?? [];
+  const optionTable = {
+    table: {
+      headerRows: 1,
+      dontBreakRows: true,
+      widths: [110, ...view.options.map(() => '*')],
+      body: [
+        [cell(''), ...view.options.map((o) => cell(o.heading, { bold: true, fontSize: 10.5, color: INK }))],
+        [cell('Heating unit', { color: '#555' }), ...view.options.map((o) => cell(o.unit, { bold: true, color: EMBER_TEXT }))],
+        [cell('Heat it gives', { color: '#555' }), ...view.options.map((o) => cell(`${o.capacity} at ${o.temperature}`))],
+        ...firstFigures.map((f, k) => [
+          cell(f.label, { color: '#555' }),
+          ...view.options.map((o) => cell(o.figures[k]?.text ?? '—', { bold: true })),
+        ]),
+        [cell('In short', { color: '#555' }), ...view.options.map((o) => cell(o.sentence, { fontSize: 9 }))],
+      ],
+    },
+    layout: {
+      hLineWidth: (i: number) => (i === 1 ? 1 : 0.5),
+      vLineWidth: () => 0,
+      hLineColor: () => '#D5DCDA',
+      paddingTop: () => 3,
+      paddingBottom: () => 3,
+    },
+    margin: [0, 2, 0, 6],
+  };
   const doc = {
     pageSize: 'A4',
     pageMargins: [40, 40, 40, 48],
@@ -85,19 +100,44 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
       ...header,
       { text: view.firm.name, style: 'firm' },
       { text: view.title, style: 'h1' },
-      { text: [view.project.name, view.project.clientName, view.project.siteAddress].filter((x) => x).join(' · '), style: 'small' },
+      { text: [view.project.clientName, view.project.siteAddress].filter((x) => x).join(' · '), style: 'small' },
+      { text: `Prepared ${view.preparedAt.slice(0, 10)} by ${view.contact.name}. ${view.status}`, style: 'small', margin: [0, 2, 0, 0] },
       { text: 'The house', style: 'h2' },
       { text: view.building },
       { text: 'The climate', style: 'h2' },
       ...view.climate.map((t) => ({ text: t, margin: [0, 0, 0, 4] })),
       { text: 'The options', style: 'h2' },
-      { columns: optionBlocks, columnGap: 14 },
-      ...view.options.flatMap((o) => [o.sentence, ...o.odds].map((text) => ({ text, margin: [0, 2, 0, 4] }))),
-      { stack: [{ text: 'Cost against cold hours', style: 'h2' }, { svg: reportChartSvg(view), width: 515 }], unbreakable: true },
+      optionTable,
+      ...view.options.flatMap((o) => o.odds.map((text) => ({ text, margin: [0, 2, 0, 4] }))),
+      {
+        stack: [
+          { text: 'What each size costs, and how often it could fall short', style: 'h2' },
+          {
+            text: `Left to right: units sized for colder and colder nights. The green line is the total cost over the unit’s life (from zero); the blue area is the hours a year the house could get cooler than you set it. ${optionMarks(view.options.length)}`,
+            style: 'small',
+            margin: [0, 0, 0, 4],
+          },
+          { svg: reportChartSvg(view), width: 515 },
+        ],
+        unbreakable: true,
+      },
       ...(view.note ? [{ text: 'From your contractor', style: 'h2' }, { text: view.note }] : []),
-      { text: SIZING_CAUTIONS_TITLE, style: 'h2', color: EMBER_TEXT },
-      { ul: view.cautions, fontSize: 9.5 },
-      { text: `Prepared ${view.preparedAt.slice(0, 10)}. ${view.provenance}`, style: 'small', margin: [0, 12, 0, 0] },
+      {
+        stack: [
+          { text: 'Questions?', style: 'h2' },
+          { text: [`Contact ${view.contact.name} at ${view.firm.name}`, view.contact.email ? `: ${view.contact.email}` : '', view.contact.phone ? ` · ${view.contact.phone}` : ''].join('') },
+        ],
+        unbreakable: true,
+      },
+      // The cautions and the provenance line stay together, so no line is left alone on a last page.
+      {
+        stack: [
+          { text: view.cautionsTitle, style: 'h2', color: EMBER_TEXT },
+          { ul: view.cautions, fontSize: 9.5 },
+          { text: view.provenance, style: 'small', margin: [0, 12, 0, 0] },
+        ],
+        unbreakable: true,
+      },
     ],
   };
   return printer().createPdf(doc).getBuffer();

@@ -48,6 +48,8 @@ interface ReportRow {
   unit_system: UnitSystem;
   created_at: Date;
   created_by_name: string | null;
+  created_by_email: string | null;
+  contact_phone: string;
   scenario_name: string;
   scenario_frozen_at: Date | null;
 }
@@ -88,7 +90,7 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPoo
       .join('scenarios as s', 's.id', 'r.scenario_id')
       .leftJoin('users as u', 'u.id', 'r.created_by')
       .where('r.organization_id', organizationId)
-      .select<ReportRow[]>('r.*', 'u.name as created_by_name', 's.name as scenario_name', 's.frozen_at as scenario_frozen_at');
+      .select<ReportRow[]>('r.*', 'u.name as created_by_name', 'u.email as created_by_email', 's.name as scenario_name', 's.frozen_at as scenario_frozen_at');
   }
 
   async function toReports(rows: ReportRow[]): Promise<Report[]> {
@@ -107,6 +109,7 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPoo
       scenarioFrozen: r.scenario_frozen_at !== null,
       title: r.title,
       note: r.note,
+      contactPhone: r.contact_phone,
       points: r.points,
       figures: r.figures,
       unitSystem: r.unit_system,
@@ -138,11 +141,11 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPoo
     const logo: unknown = await db('organization_logos').where({ organization_id: row.organization_id }).first('organization_id');
     return buildReportView({
       report: { title: row.title, note: row.note, points: row.points, figures: row.figures, unitSystem: row.unit_system, createdAt: row.created_at },
-      scenarioName: row.scenario_name,
       frozenAt: scenario.frozen_at,
       sweep,
       project: { name: project.name, clientName: project.client_name, siteAddress: project.site_address, building: project.building },
       firmName: org.name,
+      contact: { name: row.created_by_name ?? org.name, email: row.created_by_email ?? '', phone: row.contact_phone },
       logoUrl: logo ? urls.logoUrl : null,
       pdfUrl: urls.pdfUrl,
       expiresAt,
@@ -164,7 +167,13 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPoo
     return { link: toLink(row), url: `${config.publicUrl}/r/${token}`, id: row.id };
   }
 
-  async function deliver(row: ReportRow, organizationName: string, senderName: string, input: { to: string; message: string; expiresInDays: number }, userId: string) {
+  async function deliver(
+    row: ReportRow,
+    organizationName: string,
+    sender: { name: string; email: string },
+    input: { to: string; message: string; expiresInDays: number },
+    userId: string,
+  ) {
     // The link, the send's record and the audit entry are written together before the e-mail goes
     // out: a failure before it leaves nothing behind, and nothing after it can make a retry send twice.
     const { url, linkId, link, sendId } = await db.transaction(async (trx) => {
@@ -178,7 +187,17 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPoo
     });
     let error: string | null = null;
     try {
-      await mailer.send(reportMail(input.to, url, { organizationName, senderName, title: row.title, message: input.message, expiresAt: new Date(link.expiresAt) }));
+      await mailer.send(
+        reportMail(input.to, url, {
+          organizationName,
+          senderName: sender.name,
+          senderEmail: sender.email,
+          phone: row.contact_phone,
+          title: row.title,
+          message: input.message,
+          expiresAt: new Date(link.expiresAt),
+        }),
+      );
     } catch (err) {
       error = err instanceof Error ? err.message : String(err);
       // The link of a failed send was never delivered: revoke it.
@@ -215,6 +234,7 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPoo
         scenario_id: scenario.id,
         title: input.title,
         note: input.note,
+        contact_phone: input.contactPhone,
         points: JSON.stringify(input.points),
         figures: JSON.stringify(input.figures),
         unit_system: input.unitSystem,
@@ -285,7 +305,7 @@ export function reportsRouter(deps: { db: Knex; pool: SweepPool; pdfPool: PdfPoo
     await consume(sendLimits.perOrganization, organizationId);
     await consume(sendLimits.perRecipient, input.to.trim().toLowerCase());
     const org = await db('organizations').where({ id: organizationId }).first<{ name: string }>('name');
-    const { sendId, error } = await deliver(row, org.name, user.name, input, user.id);
+    const { sendId, error } = await deliver(row, org.name, { name: user.name, email: user.email }, input, user.id);
     await audit(db, req, { type: 'report_sent', organizationId, userId: user.id, detail: { report: row.id, title: row.title, to: input.to, send: sendId, status: error ? 'failed' : 'sent' } });
     const [report] = await toReports([row]);
     if (error) {

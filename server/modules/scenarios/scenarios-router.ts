@@ -6,6 +6,9 @@ import { Router, type Response } from 'express';
 import type { Knex } from 'knex';
 import { z } from 'zod';
 import { csvLines, csvTextField } from '@shared/csv/csv-field';
+import { csvColumn } from '@shared/glossary/glossary';
+import { energyPricesSchema, type EnergyPrices } from '@shared/money/energy-prices';
+import { chosenRowIndex } from '@shared/sweep/tradeoff-summary';
 import {
   compareQuerySchema,
   scenarioCopySchema,
@@ -27,6 +30,7 @@ import type { SweepPool } from './sweep-pool';
 const FORMER = 'A former member';
 
 type ListedRow = ScenarioRow & {
+  chosen_design_c: number | null;
   climate_site_name: string | null;
   equipment_list_name: string | null;
   updated_by_name: string | null;
@@ -46,6 +50,8 @@ function toScenario(r: ListedRow): Scenario {
     settings: scenarioSettingsSchema.parse(r.settings),
     frozenAt: r.frozen_at ? r.frozen_at.toISOString() : null,
     frozenFromId: r.frozen_from_id,
+    chosenDesignC: r.chosen_design_c,
+    chosenPoint: null,
     version: r.version,
     updatedByName: r.updated_by_name ?? FORMER,
     createdAt: r.created_at.toISOString(),
@@ -109,8 +115,23 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
       { column: 's.created_at', order: 'asc' },
       { column: 's.id' },
     ]);
-    res.json(rows.map(toScenario));
+    res.json(await Promise.all(rows.map(async (r) => ({ ...toScenario(r), chosenPoint: await chosenPointOf(r) }))));
   });
+
+  /** What the chosen design point installs, from the frozen result or the result cache (never a new run). */
+  async function chosenPointOf(r: ListedRow): Promise<Scenario['chosenPoint']> {
+    let answer: SweepAnswer | null;
+    try {
+      answer = await sweepOf(r, { onlyCached: true });
+    } catch (error) {
+      if (error instanceof HttpError && error.code === 'scenario_incomplete') return null;
+      throw error;
+    }
+    const row = answer?.rows[chosenRowIndex(answer.rows, r.chosen_design_c)];
+    if (!answer || !row) return null;
+    const unit = row.selectedOptionId ? (answer.options.find((o) => o.id === row.selectedOptionId)?.label ?? null) : null;
+    return { designC: row.designC, label: row.label, isGrid: row.isGrid, unit, installedPrice: row.installedPrice, currency: answer.currency };
+  }
 
   router.post('/:projectId/scenarios', authorize(db, 'project:write'), async (req, res) => {
     const { projectId } = projectParam.parse(req.params);
@@ -145,7 +166,8 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     const patch = scenarioPatchSchema.parse(req.body);
     const { organizationId, user } = orgContext(req);
     const current = await findScenario(organizationId, projectId, scenarioId);
-    const changesInputs = patch.climateSiteId !== undefined || patch.equipmentListId !== undefined || patch.settings !== undefined;
+    const changesInputs =
+      patch.climateSiteId !== undefined || patch.equipmentListId !== undefined || patch.settings !== undefined || patch.chosenDesignC !== undefined;
     if (current.frozen_at && changesInputs) throw frozenError();
     await checkReferences(db, organizationId, patch);
     const update: Record<string, unknown> = { updated_by: user.id, updated_at: db.fn.now(), version: db.raw('version + 1') };
@@ -153,6 +175,7 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     if (patch.climateSiteId !== undefined) update['climate_site_id'] = patch.climateSiteId;
     if (patch.equipmentListId !== undefined) update['equipment_list_id'] = patch.equipmentListId;
     if (patch.settings !== undefined) update['settings'] = JSON.stringify(patch.settings);
+    if (patch.chosenDesignC !== undefined) update['chosen_design_c'] = patch.chosenDesignC;
     const n = await db('scenarios').where({ id: scenarioId, organization_id: organizationId, version: patch.version }).update(update);
     if (!n) throw staleUpdate(current.updated_by_name ?? FORMER, 'scenario');
     res.json(toScenario(await findScenario(organizationId, projectId, scenarioId)));
@@ -180,6 +203,7 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
         climate_site_id: source.climate_site_id,
         equipment_list_id: source.equipment_list_id,
         settings: JSON.stringify(source.settings),
+        chosen_design_c: source.chosen_design_c,
         created_by: user.id,
         updated_by: user.id,
       })
@@ -214,6 +238,8 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
         frozen_list_name: prepared.meta.equipmentListName,
         frozen_inputs: JSON.stringify({ hash: prepared.hash, ...prepared.task }),
         frozen_result: JSON.stringify(out.body),
+        // The design point of the bid.
+        chosen_design_c: source.chosen_design_c,
         created_by: user.id,
         updated_by: user.id,
       })
@@ -244,8 +270,16 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     const row = await findScenario(orgContext(req).organizationId, projectId, scenarioId);
     const answer = await sweepOf(row);
     if (!answer) throw new Error('sweep missing after a run');
-    sendCsv(res, `${row.name}-sweep.csv`, csvLines([SWEEP_CSV_HEADER, ...sweepCsvRows(row.name, answer, false)]));
+    sendCsv(res, `${row.name}-sweep.csv`, csvLines([SWEEP_CSV_HEADER, ...sweepCsvRows(row.name, answer, row.chosen_design_c, false)]));
   });
+
+  /** The prices a scenario is swept with: its own, or the organisation's. */
+  async function pricesOf(organizationId: string, r: ListedRow): Promise<EnergyPrices | null> {
+    if (r.settings.prices) return r.settings.prices;
+    const row = await db('energy_prices').where({ organization_id: organizationId }).first<{ prices: unknown } | undefined>('prices');
+    const parsed = energyPricesSchema.safeParse(row?.prices);
+    return parsed.success ? parsed.data : null;
+  }
 
   async function comparison(organizationId: string, projectId: string, ids: string[]): Promise<Comparison> {
     await requireProject(organizationId, projectId);
@@ -258,10 +292,10 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
       const r = byId.get(id);
       if (!r) continue;
       try {
-        entries.push({ scenario: toScenario(r), sweep: await sweepOf(r), problem: null });
+        entries.push({ scenario: toScenario(r), sweep: await sweepOf(r), problem: null, prices: await pricesOf(organizationId, r) });
       } catch (error) {
         if (!(error instanceof HttpError) || error.code !== 'scenario_incomplete') throw error;
-        entries.push({ scenario: toScenario(r), sweep: null, problem: error.message });
+        entries.push({ scenario: toScenario(r), sweep: null, problem: error.message, prices: null });
       }
     }
     return { entries };
@@ -278,29 +312,32 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     const { ids } = compareQuerySchema.parse(req.query);
     const { entries } = await comparison(orgContext(req).organizationId, projectId, ids);
     const lines = [SWEEP_CSV_HEADER];
-    for (const e of entries) if (e.sweep) lines.push(...sweepCsvRows(e.scenario.name, e.sweep, true));
+    for (const e of entries) if (e.sweep) lines.push(...sweepCsvRows(e.scenario.name, e.sweep, e.scenario.chosenDesignC, true));
     sendCsv(res, 'scenario-comparison.csv', csvLines(lines));
   });
 
   return router;
 }
 
+/** Column names from the glossary, so that an export names each figure as the screens do. */
 const SWEEP_CSV_HEADER = [
   'scenario',
-  'rung',
-  'design_c',
-  'design_load_w',
-  'option',
-  'capacity_at_design_w',
-  'installed_price',
-  'annual_energy_kwh',
-  'annual_cost',
-  'run_hours_per_year',
-  'unmet_hours_per_year',
-  'unmet_hours_worst_year',
-  'unmet_degree_hours_per_year',
-  'worst_sag_k',
-  'life_cycle_cost',
+  csvColumn('designPoint'),
+  csvColumn('designTemperature'),
+  'chosen',
+  csvColumn('designLoad'),
+  csvColumn('unit'),
+  csvColumn('capacityAtDesign'),
+  csvColumn('installedPrice'),
+  csvColumn('annualEnergy'),
+  csvColumn('annualCost'),
+  csvColumn('runHours'),
+  csvColumn('unmetHours'),
+  csvColumn('unmetHoursWorstYear'),
+  csvColumn('unmetDegreeHours'),
+  csvColumn('indoorDrop'),
+  csvColumn('lowestIndoor'),
+  csvColumn('lifeCycleCost'),
   'currency',
   'note',
   'climate_basis',
@@ -308,14 +345,17 @@ const SWEEP_CSV_HEADER = [
 
 const num = (v: number | null, digits: number) => (v === null ? '' : String(Number(v.toFixed(digits))));
 
-function sweepCsvRows(scenarioName: string, a: SweepAnswer, namedOnly: boolean): string[][] {
+/** A sweep's rows as CSV (the comparison: named values and the chosen point only); the chosen point says "yes". */
+function sweepCsvRows(scenarioName: string, a: SweepAnswer, chosenDesignC: number | null, namedOnly: boolean): string[][] {
   const labels = new Map(a.options.map((o) => [o.id, o.label]));
+  const chosen = a.rows[chosenRowIndex(a.rows, chosenDesignC)];
   return a.rows
-    .filter((r) => !namedOnly || !r.isGrid)
+    .filter((r) => !namedOnly || !r.isGrid || r === chosen)
     .map((r) => [
       csvTextField(scenarioName),
       csvTextField(r.label),
       num(r.designC, 2),
+      r === chosen ? 'yes' : '',
       num(r.designLoadW, 0),
       csvTextField(r.selectedOptionId ? (labels.get(r.selectedOptionId) ?? r.selectedOptionId) : ''),
       num(r.capacityAtDesignW, 0),
@@ -327,6 +367,7 @@ function sweepCsvRows(scenarioName: string, a: SweepAnswer, namedOnly: boolean):
       num(r.unmetHoursWorstYear, 0),
       num(r.unmetDegreeHoursPerYear, 1),
       num(r.worstSagC, 2),
+      r.worstSagC === null ? '' : num(a.indoorDesignC - r.worstSagC, 2),
       r.lifeCycleCost ?? '',
       a.currency,
       csvTextField(r.selectionReason ?? r.costUnavailableReason ?? r.unavailableReason ?? ''),

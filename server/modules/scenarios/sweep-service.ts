@@ -239,8 +239,9 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
   }
   const sized: Building = { ...building, safetyFactorPct: settings.safetyFactorPct ?? building.safetyFactorPct };
   const wind = resolveDesignWind(building.designWind, windValues);
-  if (wind.fellBack) notes.push(`The building's design wind choice has no value at "${site.name}"; the default ${wind.windMs} m/s is used`);
-  if (record === null) notes.push(`"${site.name}" has published values only: running cost, run-hours and unmet hours need an hourly record`);
+  // Notes are kept with cached answers, so they name no quantity in one unit system (the screen shows the wind in the user's units).
+  if (wind.fellBack) notes.push(`The building's design wind choice has no value at "${site.name}"; the trade default wind speed is used`);
+  if (record === null) notes.push(`"${site.name}" has published values only: running cost, equivalent full-load hours and unmet hours need an hourly record`);
 
   const input: SweepTask['input'] = {
     building: sized,

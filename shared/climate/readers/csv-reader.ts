@@ -6,7 +6,7 @@
  * Other columns are ignored. An empty cell, `NA` or −9999 is a missing value. Quoted fields and a
  * UTF-8 byte-order mark are accepted; lines starting with `#` and blank lines are skipped.
  */
-import { fahrenheitToCelsius, knotsToMs, mphToMs } from '../units';
+import { fahrenheitToCelsius, knotsToMs, mphToMs } from '../../units/units';
 import { parseIsoDateTime } from './iso-time';
 import { type LineParser, parseDecimal, ProblemList, type ParseResult } from './parse-result';
 import { SeriesBuilder } from './series-builder';

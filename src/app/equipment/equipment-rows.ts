@@ -7,7 +7,7 @@
 import { signal, type WritableSignal } from '@angular/core';
 import { FormControl, FormGroup } from '@angular/forms';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { fromSi, toSi, unitLabel } from '@shared/building/quantities';
+import { fromSi, toSi, unitLabel } from '@shared/units/units';
 import {
   equipmentOptionSchema,
   type EquipmentKind,
@@ -60,22 +60,22 @@ const ALL: readonly EquipmentKind[] = ['furnace', 'boiler', 'heat-pump', 'electr
 /** A column of typed values: which kinds it applies to, and how its values read. */
 export interface ValueColumn {
   field: TextField;
-  type: 'power' | 'ratio' | 'money' | 'years';
+  type: 'power' | 'ratio' | 'percent' | 'money' | 'years';
   kinds: readonly EquipmentKind[];
-  /** Header; `{u}` is replaced by the power unit, `{c}` by the currency. */
+  /** Header; `{u}` is replaced by the power unit, `{c}` by the currency, `{t:°C}` by a rating temperature in the user's unit. */
   header: string;
 }
 
 export const VALUE_COLUMNS: readonly ValueColumn[] = [
   { field: 'outputW', type: 'power', kinds: FUELLED, header: 'Output ({u})' },
   { field: 'inputW', type: 'power', kinds: FUELLED, header: 'Input ({u})' },
-  { field: 'efficiency', type: 'ratio', kinds: COMBUSTION, header: 'Efficiency (AFUE, 0–1)' },
-  { field: 'capacity8_3W', type: 'power', kinds: HEAT_PUMP, header: 'Capacity at 8.3 °C ({u})' },
-  { field: 'cop8_3', type: 'ratio', kinds: HEAT_PUMP, header: 'COP at 8.3 °C' },
-  { field: 'capacityM8_3W', type: 'power', kinds: HEAT_PUMP, header: 'Capacity at −8.3 °C ({u})' },
-  { field: 'copM8_3', type: 'ratio', kinds: HEAT_PUMP, header: 'COP at −8.3 °C' },
-  { field: 'capacityM15W', type: 'power', kinds: HEAT_PUMP, header: 'Capacity at −15 °C ({u})' },
-  { field: 'copM15', type: 'ratio', kinds: HEAT_PUMP, header: 'COP at −15 °C' },
+  { field: 'efficiency', type: 'percent', kinds: COMBUSTION, header: 'Efficiency (AFUE, %)' },
+  { field: 'capacity8_3W', type: 'power', kinds: HEAT_PUMP, header: 'Capacity at {t:H1} ({u})' },
+  { field: 'cop8_3', type: 'ratio', kinds: HEAT_PUMP, header: 'COP at {t:H1}' },
+  { field: 'capacityM8_3W', type: 'power', kinds: HEAT_PUMP, header: 'Capacity at {t:H3} ({u})' },
+  { field: 'copM8_3', type: 'ratio', kinds: HEAT_PUMP, header: 'COP at {t:H3}' },
+  { field: 'capacityM15W', type: 'power', kinds: HEAT_PUMP, header: 'Capacity at {t:low} ({u})' },
+  { field: 'copM15', type: 'ratio', kinds: HEAT_PUMP, header: 'COP at {t:low}' },
   { field: 'backupW', type: 'power', kinds: HEAT_PUMP, header: 'Backup heat ({u})' },
   { field: 'installedPrice', type: 'money', kinds: ALL, header: 'Installed price ({c})' },
   { field: 'lifeYears', type: 'years', kinds: ALL, header: 'Expected life (years)' },
@@ -83,8 +83,36 @@ export const VALUE_COLUMNS: readonly ValueColumn[] = [
   { field: 'minOutputFraction', type: 'ratio', kinds: ALL, header: 'Minimum output, fraction (blank: single-stage)' },
 ];
 
+/**
+ * The heat-pump rating temperatures as spec sheets print them: 47 °F / 17 °F / 5 °F (the rating
+ * points are defined in °F; 8.3 °C, −8.3 °C and −15 °C are their conversions).
+ */
+export const RATING_POINTS = {
+  H1: { si: '8.3 °C', ip: '47 °F' },
+  H3: { si: '−8.3 °C', ip: '17 °F' },
+  low: { si: '−15 °C', ip: '5 °F' },
+} as const;
+
+export function ratingPoint(point: keyof typeof RATING_POINTS, system: UnitSystem): string {
+  return RATING_POINTS[point][system === 'SI' ? 'si' : 'ip'];
+}
+
 export function columnHeader(column: ValueColumn, system: UnitSystem, currency: string): string {
-  return column.header.replace('{u}', unitLabel('power', system)).replace('{c}', currency);
+  return column.header
+    .replace('{u}', unitLabel('power', system))
+    .replace('{c}', currency)
+    .replace(/\{t:(H1|H3|low)\}/, (_m, p: keyof typeof RATING_POINTS) => ratingPoint(p, system));
+}
+
+/** An efficiency (a fraction) as a percentage for a cell: 0.955 → "95.5". */
+export function percentText(fraction: number | undefined): string {
+  return fraction === undefined ? '' : String(Number((fraction * 100).toFixed(2)));
+}
+
+/** A percentage typed in a cell as a fraction: "95.5" → 0.955 (NaN stays NaN for the check to report). */
+function readPercent(text: string): number | undefined {
+  const value = readNumber(text.replace(/%\s*$/, ''));
+  return value === undefined ? undefined : Number((value / 100).toFixed(6));
 }
 
 /** A power in the user's units for reading: 17584 W in IP → "60,000". */
@@ -94,7 +122,7 @@ export function formatPowerNumber(watts: number, system: UnitSystem): string {
 
 /** One stored value as a table cell reads it ('—' when the option has none). */
 export function displayValue(column: ValueColumn, option: EquipmentOption, system: UnitSystem, currency: string): string {
-  if (column.field === 'efficiency' && option.kind === 'electric') return '1';
+  if (column.field === 'efficiency' && option.kind === 'electric') return '100';
   if (!column.kinds.includes(option.kind)) return '—';
   const value = (option as Partial<Record<TextField, number | string>>)[column.field];
   if (value === undefined) return '—';
@@ -103,6 +131,8 @@ export function displayValue(column: ValueColumn, option: EquipmentOption, syste
       return formatPowerNumber(Number(value), system);
     case 'money':
       return formatMoney(String(value), currency);
+    case 'percent':
+      return percentText(Number(value));
     default:
       return String(value);
   }
@@ -225,7 +255,7 @@ export class OptionRow {
       this.setPower('inputW', option.inputW, system);
       if (option.kind !== 'electric') {
         c.fuel.setValue(option.fuel);
-        c.efficiency.setValue(text(option.efficiency));
+        c.efficiency.setValue(percentText(option.efficiency));
       }
     }
   }
@@ -258,7 +288,7 @@ export class OptionRow {
         return {
           ...common,
           fuel: v.fuel,
-          efficiency: readNumber(v.efficiency),
+          efficiency: readPercent(v.efficiency),
           outputW: power('outputW'),
           inputW: power('inputW'),
         };
@@ -287,10 +317,11 @@ export class OptionRow {
     if (result.success) return { ok: true, option: result.data };
     return {
       ok: false,
-      issues: result.error.issues.map((issue) => ({
-        field: typeof issue.path[0] === 'string' ? issue.path[0] : '',
-        message: issue.message,
-      })),
+      issues: result.error.issues.map((issue) => {
+        const field = typeof issue.path[0] === 'string' ? issue.path[0] : '';
+        // The schema speaks of a fraction; the cell takes a percentage.
+        return { field, message: field === 'efficiency' ? 'Enter the efficiency in %, more than 0 and at most 100 (for example 95)' : issue.message };
+      }),
     };
   }
 

@@ -1,5 +1,5 @@
 /**
- * What the trade-off screen shows of a sweep answer, in the user's units: ladder rows as text, the
+ * What the trade-off screen shows of a sweep answer, in the user's units: design temperatures as text, the
  * chosen point's figures and sentence, and the chart options. Pure functions, tested on their own.
  */
 import type { LineSeriesOption, BarSeriesOption } from 'echarts/charts';
@@ -11,13 +11,14 @@ import type {
 } from 'echarts/components';
 import type { ComposeOption } from 'echarts/core';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { formatMoney } from '@shared/money/money';
+import { designValueName, designValueTag, explain, term, type TermKey } from '@shared/glossary/glossary';
+import type { EnergyPrices } from '@shared/money/energy-prices';
+import { formatMoneyWhole, parseMoney } from '@shared/money/money';
 import type { SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
 import { hoursRange, oneIn, perHour } from '@shared/sweep/odds-words';
-import { tradeoffSentence } from '@shared/sweep/tradeoff-summary';
-import { formatQuantity, unitLabel } from '@shared/units/units';
-import { formatPower, groupDigits, powerInChartUnit, temperatureForChart } from '../building/building-units';
-import { unitLabel as powerUnitLabel } from '@shared/building/quantities';
+import { chosenRowIndex, defaultRowIndex, lowestIndoorC, nearestRowIndex, tradeoffSentence } from '@shared/sweep/tradeoff-summary';
+import { convertUnits, formatQuantity, unitLabel } from '@shared/units/units';
+import { formatPower, groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building/building-units';
 
 export type ChartOption = ComposeOption<
   LineSeriesOption | BarSeriesOption | GridComponentOption | TooltipComponentOption | LegendComponentOption | MarkLineComponentOption
@@ -30,9 +31,11 @@ export const TEXT = '#2A3A40';
 const FONT = '"Source Sans 3", system-ui, sans-serif';
 const SPLIT = { lineStyle: { color: '#E3E8E6' } };
 
-export interface LadderRowText {
+export interface DesignRowText {
   index: number;
   label: string;
+  /** The short tag of a named design value ("99 %", "Annual min.", "50-yr"). */
+  tag: string;
   isGrid: boolean;
   temperature: string;
   designLoad: string;
@@ -63,20 +66,22 @@ export interface LadderRowText {
   comfortPrice: string;
 }
 
-const hours = (h: number | null) => (h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h));
-
 export function optionLabelOf(answer: SweepAnswer): (id: string) => string {
   const labels = new Map(answer.options.map((o) => [o.id, o.label]));
   return (id) => labels.get(id) ?? `Option ${id}`;
 }
 
-/** The ladder as the table shows it. */
-export function ladderRows(answer: SweepAnswer, system: UnitSystem): LadderRowText[] {
+/** Unmet hours in one format everywhere: one decimal below 10, whole hours from 10 up. */
+export const hours = (h: number | null): string => (h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h));
+
+/** The design temperatures as the table shows them (money to whole units: a summary). */
+export function designRows(answer: SweepAnswer, system: UnitSystem): DesignRowText[] {
   const label = optionLabelOf(answer);
-  const money = (v: string | null) => (v === null ? '—' : formatMoney(v, answer.currency));
+  const money = (v: string | null) => (v === null ? '—' : formatMoneyWhole(v, answer.currency));
   return answer.rows.map((r, index) => ({
     index,
     label: r.label,
+    tag: designValueTag(r.label),
     isGrid: r.isGrid,
     temperature: formatQuantity('temperature', r.designC, system),
     designLoad: formatPower(r.designLoadW, system),
@@ -89,10 +94,10 @@ export function ladderRows(answer: SweepAnswer, system: UnitSystem): LadderRowTe
     runHours: hours(r.runHoursPerYear),
     unmetHours: hours(r.unmetHoursPerYear),
     unmetWorst: hours(r.unmetHoursWorstYear),
-    degreeHours: r.unmetDegreeHoursPerYear === null ? '—' : formatQuantity('temperatureDifference', r.unmetDegreeHoursPerYear, system).replace(/ (K|°F)$/, ' $1·h'),
+    degreeHours: formatQuantity('degreeHours', r.unmetDegreeHoursPerYear, system),
     backupHours: r.compressorAtDesignW === null ? '—' : hours(r.backupHoursPerYear),
     backupEnergy: r.compressorAtDesignW === null || r.backupEnergyKWh === null ? '—' : `${groupDigits(r.backupEnergyKWh)} kWh`,
-    lowestIndoor: r.lowestIndoorC === null ? '—' : formatQuantity('temperature', r.lowestIndoorC, system),
+    lowestIndoor: formatQuantity('temperature', r.lowestIndoorC ?? lowestIndoorC(r, answer.indoorDesignC), system),
     drop: r.worstDropK === null ? '—' : formatQuantity('temperatureDifference', r.worstDropK, system),
     reliability: r.reliabilityNote ?? '',
     unmetRange: hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90),
@@ -126,12 +131,7 @@ export function rulesText(answer: SweepAnswer): string[] {
   return lines;
 }
 
-/** The row shown first: the 99.6 % rung, or the first named one. */
-export function defaultIndex(rows: readonly SweepRowAnswer[]): number {
-  const i = rows.findIndex((r) => r.label === '99.6 %');
-  if (i >= 0) return i;
-  return Math.max(0, rows.findIndex((r) => !r.isGrid));
-}
+export { defaultRowIndex as defaultIndex, nearestRowIndex as nearestIndex };
 
 /** The plain sentence for the chosen row. */
 export function sentenceFor(answer: SweepAnswer, index: number, system: UnitSystem): string {
@@ -144,28 +144,15 @@ export function sentenceFor(answer: SweepAnswer, index: number, system: UnitSyst
     unitSystem: system,
     hasRecord: answer.hasRecord,
     years: answer.years.length,
+    indoorC: answer.indoorDesignC,
   });
-}
-
-/** The row nearest to a design temperature (°C). */
-export function nearestIndex(rows: readonly SweepRowAnswer[], designC: number): number {
-  let best = 0;
-  let bestD = Infinity;
-  rows.forEach((r, i) => {
-    const d = Math.abs(r.designC - designC);
-    if (d < bestD || (d === bestD && !r.isGrid)) {
-      best = i;
-      bestD = d;
-    }
-  });
-  return best;
 }
 
 const moneyNumber = (v: string | null) => (v === null ? null : Number(v));
 
 /**
  * Design temperature across; installed price and life-cycle cost on the left axis, unmet hours per
- * average year on the right; named rungs marked; the chosen point drawn as a vertical line.
+ * average year on the right (money from zero); named values marked; the chosen point drawn as a vertical line.
  */
 export function tradeoffChart(
   answer: SweepAnswer,
@@ -178,12 +165,12 @@ export function tradeoffChart(
   const rows = answer.rows;
   const chosen = rows[index];
   const tUnit = unitLabel('temperature', system);
-  const money = (v: number) => formatMoney(v.toFixed(2), answer.currency).replace(/\.00$/, '');
+  const money = (v: number) => formatMoneyWhole(v.toFixed(2), answer.currency);
   const named = rows.filter((r) => !r.isGrid);
   const xs = rows.map((r) => x(r.designC));
   const series: (LineSeriesOption | BarSeriesOption)[] = [
     {
-      name: 'Installed price',
+      name: term('installedPrice'),
       type: 'line',
       step: 'middle',
       yAxisIndex: 0,
@@ -199,7 +186,7 @@ export function tradeoffChart(
           ...named.map((r) => ({
             xAxis: x(r.designC),
             lineStyle: { color: '#9AA7AB', type: 'dotted' as const, width: 1 },
-            label: { formatter: r.label, color: TEXT, fontSize: compact ? 9 : 11, position: 'insideEndTop' as const, rotate: 90 },
+            label: { formatter: designValueTag(r.label), color: TEXT, fontSize: compact ? 9 : 11, position: 'insideEndTop' as const, rotate: 90 },
           })),
           ...(chosen
             ? [
@@ -215,7 +202,7 @@ export function tradeoffChart(
       },
     },
     {
-      name: 'Life-cycle cost',
+      name: term('lifeCycleCost'),
       type: 'line',
       yAxisIndex: 0,
       data: rows.map((r) => [x(r.designC), moneyNumber(r.lifeCycleCost)]),
@@ -226,7 +213,7 @@ export function tradeoffChart(
   ];
   if (answer.hasRecord) {
     series.push({
-      name: 'Unmet hours per year',
+      name: term('unmetHours'),
       type: 'line',
       yAxisIndex: 1,
       data: rows.map((r) => [x(r.designC), r.unmetHoursPerYear]),
@@ -282,13 +269,13 @@ export function tradeoffChart(
         type: 'value',
         name: `Cost (${answer.currency})`,
         nameTextStyle: { align: 'left' },
-        scale: true,
+        min: 0,
         axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v) },
         splitLine: SPLIT,
       },
       {
         type: 'value',
-        name: answer.hasRecord ? 'Unmet h/yr' : '',
+        name: answer.hasRecord ? 'Unmet hours / yr' : '',
         min: 0,
         show: answer.hasRecord,
         axisLabel: { fontSize: compact ? 10 : 12 },
@@ -373,8 +360,8 @@ export function capacityAtC(curve: readonly { outdoorC: number; capacityW: numbe
 export function loadDurationChart(answer: SweepAnswer, index: number, system: UnitSystem, compact: boolean): ChartOption | null {
   const points = answer.loadDuration?.points;
   if (!points || points.length === 0) return null;
-  const unit = powerUnitLabel('power', system);
-  const y = (w: number) => Math.round(powerInChartUnit(w, system));
+  const unit = powerChartUnit(system);
+  const y = (w: number) => Math.round(powerInChartUnit(w, system) * 100) / 100;
   const row = answer.rows[index];
   const option = row?.selectedOptionId ? answer.options.find((o) => o.id === row.selectedOptionId) : undefined;
   const series: LineSeriesOption[] = [
@@ -403,7 +390,7 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
     textStyle: { fontFamily: FONT, color: TEXT },
     grid: { left: compact ? 58 : 80, right: 16, top: compact ? 56 : 40, bottom: compact ? 44 : 52 },
     legend: { top: 0, left: 'center', type: compact ? 'scroll' : 'plain', textStyle: { fontSize: compact ? 11 : 13 } },
-    tooltip: { trigger: 'axis', valueFormatter: (v) => `${groupDigits(Number(v))} ${unit}` },
+    tooltip: { trigger: 'axis', valueFormatter: (v) => `${groupDigits(Number(v), 1)} ${unit}` },
     xAxis: {
       type: 'log',
       min: 1,
@@ -413,7 +400,7 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
       axisLabel: { fontSize: compact ? 10 : 12 },
       splitLine: SPLIT,
     },
-    yAxis: { type: 'value', name: `Load (${unit})`, axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT },
+    yAxis: { type: 'value', name: `Load (${unit})`, axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) }, splitLine: SPLIT },
     series,
   };
 }
@@ -464,8 +451,8 @@ export function tradeoffChartSummary(answer: SweepAnswer, system: UnitSystem): s
   if (!first || !last) return 'Trade-off chart';
   return (
     `Installed price, life-cycle cost${answer.hasRecord ? ' and unmet hours per year' : ''}${answer.uncertainty ? ' with its 10–90 % range' : ''} against the design temperature, ` +
-    `from ${formatQuantity('temperature', first.designC, system)} (${first.label}) to ${formatQuantity('temperature', last.designC, system)} (${last.label}). ` +
-    'The ladder table below lists the same figures.'
+    `from ${formatQuantity('temperature', first.designC, system)} (${designValueTag(first.label)}) to ${formatQuantity('temperature', last.designC, system)} (${designValueTag(last.label)}). ` +
+    'The table of design temperatures below lists the same figures.'
   );
 }
 
@@ -473,53 +460,163 @@ export { formatPower };
 
 const SCENARIO_COLOURS = [EMBER, INK, '#6F8F3A', '#8A5FA8', '#B8860B'];
 
-export interface ComparisonCell {
-  temperature: string;
-  unit: string;
-  installedPrice: string;
-  lifeCycleCost: string;
-  unmetHours: string;
-  /** "5–30 unmet h/yr (10–90 %)", null without a band. */
-  unmetRange: string | null;
-  /** "1-in-8 a year, 7-in-10 over its 20 years", null without odds. */
-  odds: string | null;
-  /** "$12.40 per cold hour avoided", null where not defined. */
-  comfort: string | null;
+/** Which design point the comparison lines up: 'chosen' (each scenario's own), or a named design value's label. */
+export type ComparePoint = string;
+
+export interface ComparisonColumn {
+  scenarioId: string;
+  name: string;
+  frozen: boolean;
+  /** The row compared (null: no sweep, or the scenario lacks that named value). */
+  row: SweepRowAnswer | null;
+  currency: string;
 }
 
-export interface ComparisonRow {
-  label: string;
-  cells: (ComparisonCell | null)[];
+export interface ComparisonFigureRow {
+  key: TermKey | 'prices' | 'unmetRange' | 'odds' | 'comfortPrice';
+  name: string;
+  explain: string;
+  cells: string[];
 }
 
-/** The named rungs of each compared sweep side by side (a rung a scenario lacks is null in its column). */
-export function comparisonRows(sweeps: readonly (SweepAnswer | null)[], system: UnitSystem): ComparisonRow[] {
-  const labels: string[] = [];
-  for (const s of sweeps) for (const r of s?.rows ?? []) if (!r.isGrid && !labels.includes(r.label)) labels.push(r.label);
-  return labels.map((label) => ({
-    label,
-    cells: sweeps.map((s) => {
-      const r = s?.rows.find((x) => !x.isGrid && x.label === label);
-      if (!s || !r) return null;
-      const money = (v: string | null) => (v === null ? '—' : formatMoney(v, s.currency));
-      return {
-        temperature: formatQuantity('temperature', r.designC, system),
-        unit: r.selectedOptionId ? optionLabelOf(s)(r.selectedOptionId) : 'None large enough',
-        installedPrice: money(r.installedPrice),
-        lifeCycleCost: money(r.lifeCycleCost),
-        unmetHours: r.unmetHoursPerYear === null ? '—' : groupDigits(r.unmetHoursPerYear, r.unmetHoursPerYear < 10 && r.unmetHoursPerYear > 0 ? 1 : 0),
-        unmetRange: r.unmetHoursPerYearP10 === null ? null : `${hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90)} unmet h/yr (10–90 %)`,
-        odds:
-          r.annualExceedanceProbability === null
-            ? null
-            : `${oneIn(r.annualExceedanceProbability)} a year` +
-              (r.lifetimeExceedanceProbability === null || r.lifetimeYears === null
-                ? ''
-                : `, ${oneIn(r.lifetimeExceedanceProbability)} over ${Math.round(r.lifetimeYears)} years`),
-        comfort: r.costPerAvoidedUnmetHour === null ? null : `${perHour(r.costPerAvoidedUnmetHour, s.currency)} per cold hour avoided`,
-      };
+export interface ComparisonTable {
+  columns: ComparisonColumn[];
+  rows: ComparisonFigureRow[];
+}
+
+export interface CompareEntry {
+  scenario: { id: string; name: string; frozenAt: string | null; chosenDesignC: number | null };
+  sweep: SweepAnswer | null;
+  prices: EnergyPrices | null;
+}
+
+/** The named design values of the compared sweeps, mildest first (the choices of the comparison's point). */
+export function comparePointChoices(entries: readonly CompareEntry[]): { value: ComparePoint; text: string }[] {
+  const labels: { label: string; designC: number }[] = [];
+  for (const e of entries) for (const r of e.sweep?.rows ?? []) if (!r.isGrid && !labels.some((l) => l.label === r.label)) labels.push({ label: r.label, designC: r.designC });
+  labels.sort((a, b) => b.designC - a.designC);
+  return [{ value: 'chosen', text: 'The point chosen in each scenario' }, ...labels.map((l) => ({ value: l.label, text: designValueName(l.label) }))];
+}
+
+/** Energy prices as an estimator reads them; oil and propane per US gallon in IP (1 gal = 3.785411784 L, exact). */
+export function pricesText(p: EnergyPrices | null, system: UnitSystem): string {
+  if (!p) return '—';
+  const unitPrice = new Intl.NumberFormat('en-US', { style: 'currency', currency: p.currency, minimumFractionDigits: 2, maximumFractionDigits: 4 });
+  const m = (v: string, unit: string) => `${unitPrice.format(parseMoney(v).toFixed(4) as `${number}`)}/${unit}`;
+  const perVolume = (perLitre: string) => (system === 'IP' ? m(parseMoney(perLitre).times(convertUnits(1, 'gal', 'L')).toFixed(6), 'gal') : m(perLitre, 'L'));
+  const parts = [`electricity ${m(p.electricityPerKwh, 'kWh')}`];
+  if (p.gas) parts.push(`gas ${m(p.gas.price, p.gas.unit === 'm3' ? 'm³' : p.gas.unit)}`);
+  if (p.oilPerLitre) parts.push(`oil ${perVolume(p.oilPerLitre)}`);
+  if (p.propanePerLitre) parts.push(`propane ${perVolume(p.propanePerLitre)}`);
+  return parts.join(' · ');
+}
+
+/**
+ * The estimator's comparison: one column per scenario at the chosen design point (or a named
+ * value), with the figures a bid needs, named and explained from the glossary; money to whole units.
+ */
+export function comparisonTable(entries: readonly CompareEntry[], point: ComparePoint, system: UnitSystem): ComparisonTable {
+  const columns: ComparisonColumn[] = entries.map((e) => {
+    const rows = e.sweep?.rows ?? [];
+    const row = point === 'chosen' ? (rows[chosenRowIndex(rows, e.scenario.chosenDesignC)] ?? null) : (rows.find((r) => !r.isGrid && r.label === point) ?? null);
+    return { scenarioId: e.scenario.id, name: e.scenario.name, frozen: e.scenario.frozenAt !== null, row, currency: e.sweep?.currency ?? '' };
+  });
+  const cell = (k: number, f: (r: SweepRowAnswer, a: SweepAnswer, e: CompareEntry) => string) => {
+    const e = entries[k];
+    const r = columns[k]?.row;
+    return e?.sweep && r ? f(r, e.sweep, e) : '—';
+  };
+  const money = (v: string | null, a: SweepAnswer) => (v === null ? '—' : formatMoneyWhole(v, a.currency));
+  const option = (r: SweepRowAnswer, a: SweepAnswer) => (r.selectedOptionId ? a.options.find((o) => o.id === r.selectedOptionId) : undefined);
+  const figure = (key: TermKey, f: (r: SweepRowAnswer, a: SweepAnswer, e: CompareEntry) => string): ComparisonFigureRow => ({
+    key,
+    name: term(key),
+    explain: explain(key),
+    cells: entries.map((_, k) => cell(k, f)),
+  });
+  const rows: ComparisonFigureRow[] = [
+    figure('designTemperature', (r) => `${formatQuantity('temperature', r.designC, system)}${r.isGrid ? '' : ` (${designValueTag(r.label)})`}`),
+    figure('designLoad', (r) => formatPower(r.designLoadW, system)),
+    figure('unit', (r, a) => option(r, a)?.label ?? 'None large enough'),
+    figure('capacityAtDesign', (r) => (r.capacityAtDesignW === null ? '—' : formatPower(r.capacityAtDesignW, system))),
+    figure('installedPrice', (r, a) => money(r.installedPrice, a)),
+    figure('annualCost', (r, a) => money(r.annualCost, a)),
+    figure('equipmentLife', (r, a) => {
+      const o = option(r, a);
+      return o ? `${o.lifeYears} years` : '—';
     }),
-  }));
+    figure('lifeCycleCost', (r, a) => {
+      const o = option(r, a);
+      const years = a.studyPeriodYears ?? o?.lifeYears;
+      return r.lifeCycleCost === null ? '—' : `${money(r.lifeCycleCost, a)}${years ? ` over ${years} years` : ''}`;
+    }),
+    figure('unmetHours', (r) => hours(r.unmetHoursPerYear)),
+    figure('unmetHoursWorstYear', (r) => hours(r.unmetHoursWorstYear)),
+    figure('lowestIndoor', (r, a) => formatQuantity('temperature', lowestIndoorC(r, a.indoorDesignC), system)),
+    figure('discountRate', (_r, a) => `${a.discountRatePct} %`),
+    { key: 'prices', name: 'Energy prices', explain: 'The prices the scenario was swept with: its own, or the organisation’s.', cells: entries.map((e) => pricesText(e.prices, system)) },
+    {
+      key: 'unmetRange',
+      name: 'Likely range of unmet hours',
+      explain: 'Unmet hours per average year, 10th to 90th percentile over the tolerances of the estimated inputs (air leakage, UA, prices).',
+      cells: entries.map((_, k) => cell(k, (r) => (r.unmetHoursPerYearP10 === null ? '—' : `${hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90)} h/yr`))),
+    },
+    {
+      key: 'odds',
+      name: 'Odds of a colder night',
+      explain: 'Chance that a winter brings an hour colder than the design temperature (Gumbel fit of the yearly minima), per year and over the study period.',
+      cells: entries.map((_, k) =>
+        cell(k, (r) =>
+          r.annualExceedanceProbability === null
+            ? '—'
+            : `${oneIn(r.annualExceedanceProbability)} a year` +
+              (r.lifetimeExceedanceProbability === null || r.lifetimeYears === null ? '' : `, ${oneIn(r.lifetimeExceedanceProbability)} over ${Math.round(r.lifetimeYears)} years`),
+        ),
+      ),
+    },
+    {
+      key: 'comfortPrice',
+      name: 'Price of each avoided cold hour',
+      explain: 'Extra life-cycle cost of this unit over the next milder choice, divided by the unmet hours it avoids over the study period.',
+      cells: entries.map((_, k) => cell(k, (r, a) => (r.costPerAvoidedUnmetHour === null ? '—' : `${perHour(r.costPerAvoidedUnmetHour, a.currency)} per hour`))),
+    },
+  ];
+  return { columns, rows };
+}
+
+/** The difference of each scenario from the baseline column, for the money figures and the unmet hours. */
+export function differenceRows(table: ComparisonTable, baseline: number): ComparisonFigureRow[] {
+  const base = table.columns[baseline]?.row;
+  const diffMoney = (pick: (r: SweepRowAnswer) => string | null, currency: string, k: number) => {
+    const r = table.columns[k]?.row;
+    const a = r ? pick(r) : null;
+    const b = base ? pick(base) : null;
+    if (k === baseline) return 'baseline';
+    if (a === null || b === null) return '—';
+    const d = parseMoney(a).minus(parseMoney(b));
+    if (d.isZero()) return 'same';
+    return `${d.gt(0) ? '+' : '−'}${formatMoneyWhole(d.abs().toString(), currency)}`;
+  };
+  const diffHours = (k: number) => {
+    const r = table.columns[k]?.row;
+    if (k === baseline) return 'baseline';
+    if (r?.unmetHoursPerYear == null || base?.unmetHoursPerYear == null) return '—';
+    const d = r.unmetHoursPerYear - base.unmetHoursPerYear;
+    if (Math.abs(d) < 0.05) return 'same';
+    return `${d > 0 ? '+' : '−'}${hours(Math.abs(d))} h`;
+  };
+  const money = (key: TermKey, pick: (r: SweepRowAnswer) => string | null): ComparisonFigureRow => ({
+    key,
+    name: `${term(key)}, difference`,
+    explain: `${explain(key)} Shown against the baseline scenario.`,
+    cells: table.columns.map((c, k) => diffMoney(pick, c.currency, k)),
+  });
+  return [
+    money('installedPrice', (r) => r.installedPrice),
+    money('annualCost', (r) => r.annualCost),
+    money('lifeCycleCost', (r) => r.lifeCycleCost),
+    { key: 'unmetHours', name: `${term('unmetHours')}, difference`, explain: `${explain('unmetHours')} Shown against the baseline scenario.`, cells: table.columns.map((_, k) => diffHours(k)) },
+  ];
 }
 
 /** One chart of the compared scenarios: life-cycle cost (solid) and unmet hours per year (dotted) against the design temperature. */
@@ -541,7 +638,7 @@ export function comparisonChart(entries: readonly { name: string; sweep: SweepAn
     });
     if (e.sweep.hasRecord) {
       series.push({
-        name: `${e.name}: unmet h/yr`,
+        name: `${e.name}: unmet hours / yr`,
         type: 'line',
         yAxisIndex: 1,
         data: e.sweep.rows.map((r) => [x(r.designC), r.unmetHoursPerYear]),
@@ -570,8 +667,8 @@ export function comparisonChart(entries: readonly { name: string; sweep: SweepAn
       splitLine: SPLIT,
     },
     yAxis: [
-      { type: 'value', name: `Life-cycle cost (${currency})`, scale: true, axisLabel: { formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT },
-      { type: 'value', name: 'Unmet h/yr', min: 0, splitLine: { show: false } },
+      { type: 'value', name: `Life-cycle cost (${currency})`, min: 0, axisLabel: { formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT },
+      { type: 'value', name: 'Unmet hours / yr', min: 0, splitLine: { show: false } },
     ],
     series,
   };

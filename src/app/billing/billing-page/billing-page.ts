@@ -42,6 +42,8 @@ export class BillingPage {
   protected readonly pending = signal(false);
   /** After a checkout: waiting for the provider to confirm through its webhook. */
   protected readonly waiting = signal(false);
+  /** The plan the provider confirmed after this checkout (shown once, as a success message). */
+  protected readonly confirmed = signal('');
   protected readonly interval = signal<BillingInterval>('month');
   protected readonly statusText = STATUS_TEXT;
   protected readonly plans = planIds.map((id) => PLANS[id]);
@@ -68,6 +70,8 @@ export class BillingPage {
       if (waitForConfirmation && b.usage.plan === 'starter') {
         this.waiting.set(true);
         this.poll(30);
+      } else if (waitForConfirmation) {
+        this.confirmed.set(b.usage.planName);
       }
     } catch (err) {
       this.error.set(apiErrorMessage(err, 'Billing could not be loaded.'));
@@ -83,7 +87,10 @@ export class BillingPage {
         try {
           const b = await this.api.billing();
           this.billing.set(b);
-          if (b.usage.plan !== 'starter') this.waiting.set(false);
+          if (b.usage.plan !== 'starter') {
+            this.waiting.set(false);
+            this.confirmed.set(b.usage.planName);
+          }
           else if (left > 1) this.poll(left - 1);
           else this.waiting.set(false);
         } catch {
@@ -93,6 +100,20 @@ export class BillingPage {
         }
       })();
     }, 1000);
+  }
+
+  /** A provider event as an owner reads it: "Subscription updated" rather than `customer.subscription.updated`. */
+  protected eventText(type: string): string {
+    const known: Record<string, string> = {
+      'checkout.session.completed': 'Checkout completed',
+      'customer.subscription.created': 'Subscription started',
+      'customer.subscription.updated': 'Subscription updated',
+      'customer.subscription.deleted': 'Subscription ended',
+      'invoice.paid': 'Invoice paid',
+      'invoice.payment_failed': 'Payment failed',
+    };
+    const text = known[type] ?? type.replace(/^customer\./, '').replace(/[._]/g, ' ');
+    return text.charAt(0).toUpperCase() + text.slice(1);
   }
 
   protected price(id: PlanId): string {

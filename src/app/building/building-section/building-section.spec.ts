@@ -199,7 +199,7 @@ describe('BuildingSection', () => {
       'Ventilation: 0 W',
       'Duct loss (0 %): 0 W',
       'Total heat loss: 7.7 kW',
-      'Design load (safety factor 0 %): 7.7 kW',
+      'Design load (sizing margin 0 %): 7.7 kW',
     ]);
     const equipment = t.el.querySelector('[data-testid="equipment-at-design"]')?.textContent?.replace(/\s+/g, ' ');
     // Held at 8000 W below −8.3 °C, the compressor meets 200 W/K × (21 − T) at T = −19 °C.

@@ -35,7 +35,6 @@ import {
   type ThermalMassClass,
 } from '@shared/building/building-schemas';
 import { envelopeUa, resolveDesignWind, timeConstantHours } from '@shared/building/heat-loss';
-import { formatQuantity as formatBuildingQuantity } from '@shared/building/quantities';
 import type { DesignConditions, PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
@@ -264,7 +263,7 @@ export class BuildingSection {
         areaM2: r.areaM2 ?? 0,
         ...(r.kind === 'u' ? { uValue: r.value ?? 0 } : { rValue: r.value ?? 0 }),
       }));
-    return formatBuildingQuantity('conductance', envelopeUa(rows), this.system());
+    return formatQuantity('conductance', envelopeUa(rows), this.system());
   });
   protected readonly componentsError = computed(() => this.check().issues.get('conduction.components') ?? '');
 
@@ -272,9 +271,9 @@ export class BuildingSection {
     const site = this.siteValues();
     const system = this.system();
     const siteText = (v: number | null | undefined) => {
-      if (!site) return 'Needs a climate site; until then the 6.7 m/s default is used.';
+      if (!site) return `Needs a climate site; until then the ${this.defaultWindText()} default is used.`;
       return v === null || v === undefined
-        ? 'Not given for this site; the 6.7 m/s default is used.'
+        ? `Not given for this site; the ${this.defaultWindText()} default is used.`
         : `This site: ${formatQuantity('speed', v, system)}.`;
     };
     const defaultText = this.defaultWindText();

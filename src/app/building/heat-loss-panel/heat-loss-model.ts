@@ -107,7 +107,7 @@ export function heatLossModel(
   }
   rows.push({
     key: 'design',
-    label: `Design load (safety factor ${percentText(building.safetyFactorPct)})`,
+    label: `Design load (sizing margin ${percentText(building.safetyFactorPct)})`,
     watts: r.designLoadW,
     text: p(r.designLoadW),
     colour: EMBER,

@@ -12,10 +12,9 @@ import type { ComposeOption } from 'echarts/core';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import { map } from 'rxjs';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { unitLabel } from '@shared/building/quantities';
 import { formatQuantity, unitLabel as temperatureUnitLabel } from '@shared/units/units';
 import { provideCharts } from '../../charts/provide-charts';
-import { groupDigits, powerInChartUnit, temperatureForChart } from '../building-units';
+import { groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building-units';
 import { COLD, EMBER, INK, TEXT, equipmentSummary, type HeatLossModel } from './heat-loss-model';
 
 type ChartOption = ComposeOption<
@@ -57,7 +56,7 @@ export class HeatLossPanel {
     { initialValue: false },
   );
 
-  protected readonly powerUnit = computed(() => unitLabel('power', this.unitSystem()));
+  protected readonly powerUnit = computed(() => powerChartUnit(this.unitSystem()));
   private readonly temperatureUnit = computed(() => temperatureUnitLabel('temperature', this.unitSystem()));
 
   protected readonly outdoorText = computed(() =>
@@ -111,14 +110,14 @@ export class HeatLossPanel {
       animation: false,
       textStyle: { fontFamily: FONT, color: TEXT },
       grid: { left: compact ? 104 : 210, right: compact ? 56 : 88, top: 8, bottom: compact ? 40 : 48 },
-      tooltip: { trigger: 'item', valueFormatter: (v) => `${groupDigits(Number(v))} ${unit}` },
+      tooltip: { trigger: 'item', valueFormatter: (v) => `${groupDigits(Number(v), 1)} ${unit}` },
       xAxis: {
         type: 'value',
         name: `Heat flow (${unit})`,
         nameLocation: 'middle',
         nameGap: compact ? 26 : 30,
         splitNumber: compact ? 3 : 5,
-        axisLabel: { fontSize: compact ? 10 : 12, hideOverlap: true, formatter: (v: number) => groupDigits(v) },
+        axisLabel: { fontSize: compact ? 10 : 12, hideOverlap: true, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) },
         splitLine: SPLIT,
       },
       yAxis: {
@@ -133,7 +132,7 @@ export class HeatLossPanel {
           type: 'bar',
           barMaxWidth: 22,
           data: rows.map((r) => ({
-            value: Math.round(powerInChartUnit(r.watts, system)),
+            value: Math.round(powerInChartUnit(r.watts, system) * 10) / 10,
             itemStyle: { color: r.colour },
           })),
           label: {
@@ -141,7 +140,7 @@ export class HeatLossPanel {
             position: 'right',
             fontSize: compact ? 10 : 12,
             color: TEXT,
-            formatter: (p) => groupDigits(Number(p.value)),
+            formatter: (p) => groupDigits(Number(p.value), 1),
           },
         },
       ],
@@ -155,7 +154,7 @@ export class HeatLossPanel {
     const tUnit = this.temperatureUnit();
     const m = this.model();
     const x = (c: number) => temperatureForChart(c, system);
-    const y = (w: number) => Math.round(powerInChartUnit(w, system));
+    const y = (w: number) => Math.round(powerInChartUnit(w, system) * 100) / 100;
     const pts = (points: [number, number][]) => points.map(([t, w]) => [x(t), y(w)]);
 
     const series: LineSeriesOption[] = [
@@ -184,7 +183,7 @@ export class HeatLossPanel {
     ];
     if (m.designCurve) {
       series.push({
-        name: 'With safety factor',
+        name: 'With sizing margin',
         type: 'line',
         data: pts(m.designCurve),
         showSymbol: false,
@@ -252,7 +251,7 @@ export class HeatLossPanel {
       },
       tooltip: {
         trigger: 'axis',
-        valueFormatter: (v) => `${groupDigits(Number(v))} ${unit}`,
+        valueFormatter: (v) => `${groupDigits(Number(v), 1)} ${unit}`,
       },
       xAxis: {
         type: 'value',
@@ -272,7 +271,7 @@ export class HeatLossPanel {
         axisLine: { onZero: false },
         nameLocation: 'middle',
         nameGap: compact ? 40 : 60,
-        axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v) },
+        axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) },
         splitLine: SPLIT,
       },
       series,

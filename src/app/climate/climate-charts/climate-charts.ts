@@ -15,6 +15,7 @@ import { map } from 'rxjs';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { DesignConditions } from '@shared/climate/design-conditions-schema';
 import type { ClimateChartData } from '@shared/climate-sites/climate-site-schemas';
+import { designValueName } from '@shared/glossary/glossary';
 import { fromSi, unitLabel } from '@shared/units/units';
 import { provideCharts } from '../../charts/provide-charts';
 import { HOURS_PER_YEAR, MONTH_NAMES, MONTH_SHORT_NAMES, formatNumber } from '../climate-format';
@@ -85,7 +86,7 @@ export class ClimateCharts {
     const marks: Mark[] = [
       { label: '99.6 %', valueC: c.heating.db99_6, color: COLD, type: 'solid' },
       { label: '99 %', valueC: c.heating.db99, color: COLD, type: 'dashed' },
-      { label: 'Extreme mean', valueC: c.extremeMin.mean, color: INK, type: 'dashed' },
+      { label: designValueName('Extreme mean'), valueC: c.extremeMin.mean, color: INK, type: 'dashed' },
     ];
     for (const years of ['5', '10', '20', '50'] as const) {
       const v = rp[years];

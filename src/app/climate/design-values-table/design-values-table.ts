@@ -58,9 +58,11 @@ interface RowGroup {
         color: var(--mat-sys-on-surface-variant);
       }
 
+      // Long names wrap, so the table fits its box at 1280 px.
       tbody th[scope='row'] {
         font-weight: 600;
-        white-space: nowrap;
+        min-width: 9rem;
+        max-width: 15rem;
       }
 
       .num {

@@ -9,13 +9,13 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTableModule } from '@angular/material/table';
 import type { FieldIssue } from '@shared/api/api-error';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { unitLabel } from '@shared/building/quantities';
+import { unitLabel } from '@shared/units/units';
 import { EQUIPMENT_CSV_MAX_CHARS } from '@shared/equipment/equipment-list-schemas';
 import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { formatMoney } from '@shared/money/money';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';
 import { EquipmentApi } from '../equipment-api';
-import { FUEL_LABELS, KIND_LABELS, formatPowerNumber } from '../equipment-rows';
+import { FUEL_LABELS, KIND_LABELS, formatPowerNumber, percentText, ratingPoint } from '../equipment-rows';
 
 export interface CsvImportDialogData {
   listId: string;
@@ -138,8 +138,9 @@ export class CsvImportDialog {
 
   protected rating(o: EquipmentOption): string {
     const p = (w: number) => `${formatPowerNumber(w, this.data.unitSystem)} ${this.powerUnit}`;
-    if (o.kind === 'heat-pump') return `${p(o.capacity8_3W)} at 8.3 °C, ${p(o.capacityM8_3W)} at −8.3 °C`;
-    const efficiency = o.kind === 'electric' ? '' : `, efficiency ${String(o.efficiency)}`;
+    const system = this.data.unitSystem;
+    if (o.kind === 'heat-pump') return `${p(o.capacity8_3W)} at ${ratingPoint('H1', system)}, ${p(o.capacityM8_3W)} at ${ratingPoint('H3', system)}`;
+    const efficiency = o.kind === 'electric' ? '' : `, efficiency ${percentText(o.efficiency)} %`;
     if (o.outputW !== undefined) return `${p(o.outputW)} output${efficiency}`;
     return `${o.inputW === undefined ? '—' : p(o.inputW)} input${efficiency}`;
   }

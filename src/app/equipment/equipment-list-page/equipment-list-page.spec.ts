@@ -94,6 +94,13 @@ describe('EquipmentListPage', () => {
     // 23447 W and 10550 W shown in Btu/h, rounded to whole units.
     expect(byTestId('option-0-outputW')!.value).toBe(String(Math.round(23447 / W_PER_BTUH)));
     expect(byTestId('option-1-capacity8_3W')!.value).toBe(String(Math.round(10550 / W_PER_BTUH)));
+    // Efficiency in % as AFUE is quoted; the heat-pump rating points as spec sheets print them in IP (47 / 17 / 5 °F).
+    expect(byTestId('option-0-efficiency')!.value).toBe('96');
+    const headers = fixture.nativeElement.textContent as string;
+    expect(headers).toContain('Efficiency (AFUE, %)');
+    expect(headers).toContain('Capacity at 47 °F');
+    expect(headers).toContain('COP at 17 °F');
+    expect(headers).not.toMatch(/8\.3 °C|−15 °C/);
     expect(byTestId('save')!.hasAttribute('disabled')).toBeTrue();
 
     await type('option-0-outputW', '60,000');

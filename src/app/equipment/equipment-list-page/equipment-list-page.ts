@@ -39,6 +39,7 @@ import {
   OptionRow,
   VALUE_COLUMNS,
   columnHeader,
+  ratingPoint,
   displayValue,
   priceHint,
   type ValueColumn,
@@ -86,6 +87,7 @@ export class EquipmentListPage {
   );
   protected readonly canWrite = computed(() => this.auth.can('project:write'));
   protected readonly units = computed(() => this.auth.unitSystem());
+  protected readonly lowRatingPoint = computed(() => ratingPoint('low', this.units()));
 
   /** The list as last loaded or saved; a save is made from its version. */
   protected readonly list = signal<EquipmentList | null>(null);

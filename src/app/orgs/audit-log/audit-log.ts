@@ -36,7 +36,7 @@ const LABELS: Record<string, string> = {
         <ul>
           @for (e of entries(); track e.id) {
             <li>
-              <strong>{{ label(e.type) }}</strong> · {{ e.who }} · <span class="when">{{ e.at | date: 'medium' }}</span>
+              <strong>{{ label(e.type) }}</strong>@if (change(e); as c) { <span class="change">{{ c }}</span> } · {{ e.who }} · <span class="when">{{ e.at | date: 'medium' }}</span>
               @if (e.ip) {
                 <span class="ip"> · {{ e.ip }}</span>
               }
@@ -81,6 +81,19 @@ export class AuditLog {
   /** Reads the log again (after a change on the page that it records). */
   reload(): void {
     this.log.reload();
+  }
+
+  /** "from Starter to Crew" for a plan change (the detail records "starter active" → "crew active"). */
+  protected change(e: { type: string; detail: unknown }): string {
+    if (e.type !== 'plan_changed' || typeof e.detail !== 'object' || e.detail === null) return '';
+    const d = e.detail as { from?: unknown; to?: unknown };
+    const plan = (v: unknown) => {
+      if (typeof v !== 'string') return '?';
+      const [name = '', status = ''] = v.split(' ');
+      const title = name.charAt(0).toUpperCase() + name.slice(1);
+      return status && status !== 'active' ? `${title} (${status.replace(/_/g, ' ')})` : title;
+    };
+    return `from ${plan(d.from)} to ${plan(d.to)}`;
   }
 
   protected label(type: string): string {

@@ -82,7 +82,18 @@ export class FirmLogo {
   private readonly auth = inject(AuthStore);
   private readonly cdr = inject(ChangeDetectorRef);
   protected readonly canManage = computed(() => this.auth.can('member:manage'));
-  protected readonly hasLogo = signal(true);
+  /** False until the server says there is a logo, so that a firm without one loads no missing image. */
+  protected readonly hasLogo = signal(false);
+
+  constructor() {
+    this.http.get<{ hasLogo: boolean }>('/api/v1/organization/logo-status').subscribe({
+      next: (s) => {
+        this.hasLogo.set(s.hasLogo);
+        this.cdr.markForCheck();
+      },
+      error: () => undefined,
+    });
+  }
   protected readonly stamp = signal(Date.now());
   protected readonly src = computed(() => `/api/v1/organization/logo?v=${this.stamp()}`);
   protected readonly pending = signal(false);

@@ -24,7 +24,7 @@ export interface ClimateSiteRef {
   template: `
     @let f = form();
     <div class="fields">
-      <mat-form-field class="name">
+      <mat-form-field class="name" subscriptSizing="dynamic">
         <mat-label>Project name</mat-label>
         <input matInput [formControl]="f.controls.name" autocomplete="off" />
         <mat-hint>For example the street address or the client's name</mat-hint>
@@ -45,7 +45,7 @@ export interface ClimateSiteRef {
         <mat-select [formControl]="f.controls.climateSiteId">
           <mat-option [value]="null">None chosen yet</mat-option>
           @for (s of choices(); track s.id) {
-            <mat-option [value]="s.id">{{ s.name }}{{ s.isDemo ? ' (invented demo)' : '' }}</mat-option>
+            <mat-option [value]="s.id">{{ s.name }}{{ s.isDemo && !s.name.includes('(invented') ? ' (invented demo)' : '' }}</mat-option>
           }
         </mat-select>
         @if (selectedHint(); as hint) {

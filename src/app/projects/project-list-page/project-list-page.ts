@@ -12,7 +12,7 @@ import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
-import { RouterLink } from '@angular/router';
+import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { PROJECT_NAME_MAX_LENGTH, type Project } from '@shared/projects/project-schemas';
 import { AuthStore } from '../../auth/auth-store';
@@ -48,6 +48,7 @@ export class ProjectListPage {
   private readonly api = inject(ProjectsApi);
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
+  private readonly router = inject(Router);
 
   /** Lists the archived projects instead of the active ones. */
   protected readonly showArchived = signal(false);
@@ -120,7 +121,8 @@ export class ProjectListPage {
       .subscribe((created) => {
         if (!created) return;
         this.snackBar.open(`Project “${created.name}” created`, 'Close', { duration: 4000 });
-        this.projects.reload();
+        // Open the new project: describing the building and the site is the next step.
+        void this.router.navigate(['/projects', created.id]);
       });
   }
 

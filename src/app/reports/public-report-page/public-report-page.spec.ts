@@ -32,18 +32,25 @@ describe('PublicReportPage', () => {
     return fixture.nativeElement as HTMLElement;
   }
 
-  it('shows the options, their figures, the note, the cautions and when the link ends', async () => {
+  it('shows the options, their figures, the note, the contact, the cautions and when the link ends', async () => {
     const el = await open(aReportView());
     const doc = el.querySelector('[data-testid="report-document"]');
     expect(doc).not.toBeNull();
     const options = Array.from(el.querySelectorAll<HTMLElement>('.option'));
-    expect(options.map((o) => o.dataset['rung'])).toEqual(['99 %', '50-year']);
+    expect(options.map((o) => o.dataset['tag'])).toEqual(['99 %', '50-yr']);
     expect(options[0]?.querySelector('.unit')?.textContent?.trim()).toBe('Furnace 9 kW');
-    expect(options[0]?.querySelector('[data-figure="installedPrice"] dd')?.textContent?.trim()).toBe('$4,000.00');
+    expect(options[0]?.querySelector('[data-figure="installedPrice"] dd')?.textContent?.trim()).toBe('$4,000');
+    expect(options[0]?.querySelector('.sentence')?.textContent).toContain('typical winter');
     const text = doc?.textContent?.replace(/\s+/g, ' ') ?? '';
     expect(text).toContain('Call me with questions.');
     expect(text).toContain('A licensed professional governs the final design.');
     expect(text).toContain('This link works until December 30, 2026');
+    expect(text).toContain('Please read: staying safe and warm');
+    expect(text).toContain('may still change');
+    const contact = el.querySelector('[data-testid="report-contact"]');
+    expect(contact?.textContent).toContain('Robin Frost');
+    expect(contact?.querySelector('a[href="mailto:robin@frost-heating.test"]')).not.toBeNull();
+    expect(contact?.querySelector('a[href^="tel:"]')?.textContent?.trim()).toBe('555 0100');
     expect(el.querySelector<HTMLAnchorElement>('[data-testid="report-pdf"]')?.getAttribute('href')).toBe('/api/v1/public/reports/abc/pdf');
   });
 

@@ -9,14 +9,16 @@ import { MatRadioModule } from '@angular/material/radio';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
 import {
   REPORT_NOTE_MAX,
+  REPORT_PHONE_MAX,
   REPORT_POINTS_MAX,
   REPORT_TITLE_MAX,
   reportFigureKeys,
-  reportFigureLabels,
+  reportFigureDesignerLabels,
   type Report,
   type ReportFigure,
 } from '@shared/reports/report-schemas';
 import type { SweepAnswer } from '@shared/scenarios/scenario-schemas';
+import { designValueName } from '@shared/glossary/glossary';
 import { formatQuantity } from '@shared/units/units';
 import { applyApiErrors, fieldError } from '../../core/api-errors';
 import { ReportsApi } from '../reports-api';
@@ -25,6 +27,8 @@ export interface ReportComposerData {
   projectId: string;
   scenarioId: string;
   scenarioName: string;
+  /** The report's default title comes from the project (never the internal scenario name). */
+  defaultTitle: string;
   sweep: SweepAnswer;
   /** The design point chosen on the trade-off screen (°C). */
   chosenC: number;
@@ -67,21 +71,25 @@ export class ReportComposer {
   private readonly dialogRef = inject<MatDialogRef<ReportComposer, Report>>(MatDialogRef);
   private readonly cdr = inject(ChangeDetectorRef);
   protected readonly form = inject(NonNullableFormBuilder).group({
-    title: [`Heating options for ${this.data.scenarioName}`.slice(0, REPORT_TITLE_MAX), [Validators.required, Validators.maxLength(REPORT_TITLE_MAX)]],
+    title: [this.data.defaultTitle.slice(0, REPORT_TITLE_MAX), [Validators.required, Validators.maxLength(REPORT_TITLE_MAX)]],
     note: ['', Validators.maxLength(REPORT_NOTE_MAX)],
+    contactPhone: ['', Validators.maxLength(REPORT_PHONE_MAX)],
     unitSystem: this.data.unitSystem,
   });
   protected readonly pointsMax = REPORT_POINTS_MAX;
-  /** Named rungs, plus the chosen point when it is a grid step. */
-  protected readonly rungs = computed(() =>
+  /** Named design values, plus the chosen point when it lies between them. */
+  protected readonly designPoints = computed(() =>
     this.data.sweep.rows
       .filter((r) => !r.isGrid || r.designC === this.data.chosenC)
-      .map((r) => ({ designC: r.designC, text: `${r.isGrid ? 'Chosen point' : r.label}: ${formatQuantity('temperature', r.designC, this.data.unitSystem)}` })),
+      .map((r) => ({
+        designC: r.designC,
+        text: `${r.isGrid ? 'Chosen point' : designValueName(r.label)}: ${formatQuantity('temperature', r.designC, this.data.unitSystem)}`,
+      })),
   );
   protected readonly points = signal<ReadonlySet<number>>(this.defaultPoints());
-  protected readonly figures = signal<ReadonlySet<ReportFigure>>(new Set(reportFigureKeys.filter((k) => k !== 'sag')));
+  protected readonly figures = signal<ReadonlySet<ReportFigure>>(new Set(reportFigureKeys));
   protected readonly figureKeys = reportFigureKeys;
-  protected readonly figureLabels = reportFigureLabels;
+  protected readonly figureLabels = reportFigureDesignerLabels;
   protected readonly pending = signal(false);
   protected readonly formError = signal('');
   protected readonly fieldError = fieldError;
@@ -131,6 +139,7 @@ export class ReportComposer {
         scenarioId: this.data.scenarioId,
         title: v.title.trim(),
         note: v.note,
+        contactPhone: v.contactPhone.trim(),
         points,
         figures: reportFigureKeys.filter((k) => this.figures().has(k)),
         unitSystem: v.unitSystem,

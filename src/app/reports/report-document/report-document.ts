@@ -1,9 +1,11 @@
+import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { map } from 'rxjs';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import type { EChartsCoreOption } from 'echarts/core';
-import { SIZING_CAUTIONS_TITLE } from '@shared/reports/cautions';
-import { reportChartOption } from '@shared/reports/report-chart';
+import { optionMarks, reportChartOption } from '@shared/reports/report-chart';
 import type { ReportView } from '@shared/reports/report-schemas';
 import { provideCharts } from '../../charts/provide-charts';
 
@@ -18,8 +20,18 @@ import { provideCharts } from '../../charts/provide-charts';
 })
 export class ReportDocument {
   readonly view = input.required<ReportView>();
-  protected readonly cautionsTitle = SIZING_CAUTIONS_TITLE;
-  protected readonly chart = computed(() => reportChartOption(this.view(), { compact: false }) as EChartsCoreOption);
+  /** Phone width: fewer axis labels and smaller type, so that a 390 px chart stays readable. */
+  private readonly compact = toSignal(
+    inject(BreakpointObserver)
+      .observe('(max-width: 599.98px)')
+      .pipe(map((s) => s.matches)),
+    { initialValue: false },
+  );
+  protected readonly chart = computed(() => reportChartOption(this.view(), { compact: this.compact() }) as EChartsCoreOption);
+  protected readonly marks = computed(() => optionMarks(this.view().options.length));
+  protected readonly chartLabel = computed(
+    () => `Total cost over the unit’s life and hours a year the house could get cooler than set, for units sized for milder to colder nights; options ${this.view().options.map((_, k) => 'ABC'[k] ?? '').join(', ')} marked`,
+  );
   protected readonly projectLine = computed(() => {
     const p = this.view().project;
     return [p.clientName, p.siteAddress].filter((x) => x).join(' · ');

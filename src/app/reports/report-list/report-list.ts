@@ -9,6 +9,7 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { Report } from '@shared/reports/report-schemas';
 import type { SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { ReportComposer, type ReportComposerData } from '../report-composer/report-composer';
+import { ProjectsApi } from '../../projects/projects-api';
 import { ReportsApi } from '../reports-api';
 
 /** The trade-off page's client reports of its scenario, and the start of a new one. */
@@ -77,6 +78,7 @@ export class ReportList {
   readonly canWrite = input.required<boolean>();
 
   private readonly api = inject(ReportsApi);
+  private readonly projects = inject(ProjectsApi);
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
   private readonly cdr = inject(ChangeDetectorRef);
@@ -107,10 +109,12 @@ export class ReportList {
   protected async compose(): Promise<void> {
     const sweep = this.sweep();
     if (!sweep) return;
+    const project = await this.projects.get(this.projectId()).catch(() => null);
     const data: ReportComposerData = {
       projectId: this.projectId(),
       scenarioId: this.scenarioId(),
       scenarioName: this.scenarioName(),
+      defaultTitle: project ? `Heating options for ${project.clientName || project.name}` : 'Heating options for your home',
       sweep,
       chosenC: this.chosenC() ?? sweep.rows[0]?.designC ?? 0,
       unitSystem: this.unitSystem(),

@@ -1,6 +1,6 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
+import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -15,6 +15,7 @@ import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, applyApiErrors, readApiError, fieldError } from '../../core/api-errors';
 import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
 import { ReportDocument } from '../report-document/report-document';
+import { ScenariosApi } from '../../scenarios/scenarios-api';
 import { ReportsApi } from '../reports-api';
 
 /** `/projects/:id/reports/:reportId`: share a client report by e-mail or link, manage its links, and preview it. */
@@ -36,6 +37,9 @@ export class ReportPage {
   private readonly router = inject(Router);
   private readonly cdr = inject(ChangeDetectorRef);
   private readonly fb = inject(NonNullableFormBuilder);
+  private readonly scenarios = inject(ScenariosApi);
+  /** The send form's directive: resetting through it also clears its submitted state, so no field turns red after a send. */
+  private readonly sendFormDirective = viewChild(FormGroupDirective);
 
   protected readonly canWrite = computed(() => this.auth.can('project:write'));
   protected readonly report = signal<Report | null>(null);
@@ -85,10 +89,55 @@ export class ReportPage {
       const v = this.sendForm.getRawValue();
       this.report.set(await this.api.send(r.projectId, r.id, { to: v.to.trim(), message: v.message, expiresInDays: v.expiresInDays }));
       this.snack.open(`Sent to ${v.to.trim()}`, undefined, { duration: 4000 });
-      this.sendForm.reset({ to: '', message: '', expiresInDays: LINK_DAYS_DEFAULT });
+      this.resetSendForm();
     } catch (err) {
       this.sendError.set(applyApiErrors(this.sendForm, err));
       await this.refresh();
+    } finally {
+      this.pending.set(false);
+      this.cdr.markForCheck();
+    }
+  }
+
+  private resetSendForm(): void {
+    const blank = { to: '', message: '', expiresInDays: LINK_DAYS_DEFAULT };
+    const directive = this.sendFormDirective();
+    if (directive) directive.resetForm(blank);
+    else this.sendForm.reset(blank);
+  }
+
+  /**
+   * For a live report: freezes its scenario (a dated copy whose figures never change), makes the
+   * same report of the frozen copy, sends that one, and opens it, so a sent report never changes
+   * under the homeowner.
+   */
+  protected async freezeAndSend(): Promise<void> {
+    const r = this.report();
+    if (!r || this.pending() || r.scenarioFrozen) return;
+    if (this.sendForm.invalid) {
+      this.sendForm.markAllAsTouched();
+      return;
+    }
+    this.pending.set(true);
+    this.sendError.set('');
+    const v = this.sendForm.getRawValue();
+    try {
+      const frozen = await this.scenarios.freeze(r.projectId, r.scenarioId);
+      const copy = await this.api.create(r.projectId, {
+        scenarioId: frozen.id,
+        title: r.title,
+        note: r.note,
+        contactPhone: r.contactPhone,
+        points: r.points,
+        figures: r.figures,
+        unitSystem: r.unitSystem,
+      });
+      const sent = await this.api.send(r.projectId, copy.id, { to: v.to.trim(), message: v.message, expiresInDays: v.expiresInDays });
+      this.resetSendForm();
+      await this.router.navigate(['/projects', r.projectId, 'reports', sent.id]);
+      this.snack.open(`Frozen and sent to ${v.to.trim()}. This is the frozen report; its figures never change.`, undefined, { duration: 6000 });
+    } catch (err) {
+      this.sendError.set(applyApiErrors(this.sendForm, err));
     } finally {
       this.pending.set(false);
       this.cdr.markForCheck();

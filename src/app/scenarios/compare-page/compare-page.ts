@@ -3,7 +3,9 @@ import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
+import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import { map } from 'rxjs';
@@ -12,13 +14,14 @@ import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage } from '../../core/api-errors';
 import { provideCharts } from '../../charts/provide-charts';
 import { ScenariosApi } from '../scenarios-api';
-import { comparisonChart, comparisonRows } from '../tradeoff-model';
+import { TermInfo } from '../../ui/term-info/term-info';
+import { comparePointChoices, comparisonChart, comparisonTable, differenceRows, type ComparePoint } from '../tradeoff-model';
 import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
 
 /** `/projects/:id/compare?ids=a,b…`: two to five scenarios side by side, in one table and one chart. */
 @Component({
   selector: 'app-compare-page',
-  imports: [RouterLink, NgxEchartsDirective, MatButtonModule, MatIconModule, MatProgressBarModule, TradeoffCautions],
+  imports: [RouterLink, NgxEchartsDirective, MatButtonModule, MatFormFieldModule, MatIconModule, MatProgressBarModule, MatSelectModule, TermInfo, TradeoffCautions],
   providers: [provideCharts()],
   template: `
     <section class="tr-page">
@@ -32,7 +35,10 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
         }
       </header>
       @if (loading()) {
-        <mat-progress-bar mode="indeterminate" aria-label="Sweeping the scenarios" />
+        <div class="progress" role="status" aria-live="polite">
+          <mat-progress-bar mode="indeterminate" aria-label="Sweeping the scenarios" />
+          <span>Sweeping {{ idList().length }} scenarios over the hourly record; a first sweep of a site takes a few seconds…</span>
+        </div>
       }
       @if (error()) {
         <p class="tr-alert" role="alert"><mat-icon aria-hidden="true">error</mat-icon><span>{{ error() }}</span></p>
@@ -43,15 +49,33 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
             <p class="tr-note" role="note"><mat-icon aria-hidden="true">info</mat-icon><span><strong>{{ e.scenario.name }}:</strong> {{ e.problem }}</span></p>
           }
         }
+        <div class="controls">
+          <mat-form-field subscriptSizing="dynamic">
+            <mat-label>Design point</mat-label>
+            <mat-select [value]="point()" (selectionChange)="point.set($event.value)" data-testid="compare-point">
+              @for (p of pointChoices(); track p.value) {
+                <mat-option [value]="p.value">{{ p.text }}</mat-option>
+              }
+            </mat-select>
+          </mat-form-field>
+          <mat-form-field subscriptSizing="dynamic">
+            <mat-label>Baseline for the differences</mat-label>
+            <mat-select [value]="baseline()" (selectionChange)="baseline.set($event.value)" data-testid="compare-baseline">
+              @for (col of table().columns; track col.scenarioId; let k = $index) {
+                <mat-option [value]="k">{{ col.name }}</mat-option>
+              }
+            </mat-select>
+          </mat-form-field>
+        </div>
         <div class="table-wrap" tabindex="0" role="region" aria-label="Comparison table, scrolls sideways">
           <table class="compare-table" data-testid="compare-table">
             <thead>
               <tr>
-                <th scope="col">Design point</th>
-                @for (e of c.entries; track e.scenario.id) {
-                  <th scope="col">
-                    <a [routerLink]="['/projects', id(), 'scenarios', e.scenario.id]">{{ e.scenario.name }}</a>
-                    @if (e.scenario.frozenAt) {
+                <th scope="col">Figure</th>
+                @for (col of table().columns; track col.scenarioId; let k = $index) {
+                  <th scope="col" [class.baseline]="k === baseline()">
+                    <a [routerLink]="['/projects', id(), 'scenarios', col.scenarioId]">{{ col.name }}</a>
+                    @if (col.frozen) {
                       <mat-icon class="lock" aria-label="frozen">lock</mat-icon>
                     }
                   </th>
@@ -59,30 +83,22 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
               </tr>
             </thead>
             <tbody>
-              @for (r of rows(); track r.label) {
-                <tr>
-                  <th scope="row">{{ r.label }}</th>
+              @for (r of table().rows; track r.key) {
+                <tr [attr.data-figure]="r.key">
+                  <th scope="row">{{ r.name }}<app-term-info [name]="r.name" [text]="r.explain" /></th>
                   @for (cell of r.cells; track $index) {
-                    <td>
-                      @if (cell) {
-                        <span class="temp">{{ cell.temperature }}</span>
-                        <span class="unit">{{ cell.unit }}</span>
-                        <span>{{ cell.installedPrice }} installed</span>
-                        <span>{{ cell.lifeCycleCost }} life-cycle</span>
-                        <span>{{ cell.unmetHours }} unmet h/yr</span>
-                        @if (cell.unmetRange) {
-                          <span class="range" data-testid="compare-range">{{ cell.unmetRange }}</span>
-                        }
-                        @if (cell.odds) {
-                          <span class="odds" data-testid="compare-odds">Colder night: {{ cell.odds }}</span>
-                        }
-                        @if (cell.comfort) {
-                          <span>{{ cell.comfort }}</span>
-                        }
-                      } @else {
-                        —
-                      }
-                    </td>
+                    <td [class.baseline]="$index === baseline()">{{ cell }}</td>
+                  }
+                </tr>
+              }
+            </tbody>
+            <tbody class="differences" data-testid="compare-differences">
+              <tr class="section"><th scope="rowgroup" [attr.colspan]="table().columns.length + 1">Against {{ table().columns[baseline()]?.name }}</th></tr>
+              @for (r of differences(); track r.key) {
+                <tr [attr.data-figure]="r.key">
+                  <th scope="row">{{ r.name }}</th>
+                  @for (cell of r.cells; track $index) {
+                    <td [class.baseline]="$index === baseline()">{{ cell }}</td>
                   }
                 </tr>
               }
@@ -90,7 +106,7 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
           </table>
         </div>
         <section class="chart-card" aria-labelledby="compare-chart-title">
-          <h2 id="compare-chart-title">Life-cycle cost and unmet hours</h2>
+          <h2 id="compare-chart-title">Life-cycle cost and unmet hours across the design temperatures</h2>
           <div class="chart" echarts role="img" data-testid="compare-chart" aria-label="Life-cycle cost and unmet hours per year of each scenario against the design temperature; the table lists the named points" [options]="chart()"></div>
         </section>
         <app-tradeoff-cautions />
@@ -98,6 +114,22 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
     </section>
   `,
   styles: `
+    .progress {
+      display: flex;
+      flex-direction: column;
+      gap: 0.35rem;
+      margin: 0.75rem 0;
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .controls {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 0.75rem 1rem;
+      margin-top: 0.75rem;
+    }
+    .controls mat-form-field {
+      min-width: 16rem;
+    }
     .table-wrap {
       overflow-x: auto;
       border: 1px solid var(--tr-rule);
@@ -118,15 +150,19 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
       thead th {
         background: var(--mat-sys-surface-container-low);
       }
-      td span {
-        display: block;
+      tbody th {
+        font-weight: 600;
         white-space: nowrap;
       }
-      .unit {
-        font-weight: 600;
+      td {
+        min-width: 9rem;
       }
-      .temp {
-        color: var(--mat-sys-on-surface-variant);
+      .baseline {
+        background: color-mix(in srgb, var(--tr-ink) 6%, transparent);
+      }
+      .section th {
+        background: var(--mat-sys-surface-container-low);
+        font: var(--mat-sys-title-small);
       }
     }
     .lock {
@@ -163,8 +199,12 @@ export class ComparePage {
   protected readonly comparison = signal<Comparison | null>(null);
   protected readonly loading = signal(false);
   protected readonly error = signal('');
-  private readonly idList = computed(() => this.ids().split(',').filter((x) => x.length > 0));
-  protected readonly rows = computed(() => comparisonRows(this.comparison()?.entries.map((e) => e.sweep) ?? [], this.auth.unitSystem()));
+  protected readonly idList = computed(() => this.ids().split(',').filter((x) => x.length > 0));
+  protected readonly point = signal<ComparePoint>('chosen');
+  protected readonly baseline = signal(0);
+  protected readonly pointChoices = computed(() => comparePointChoices(this.comparison()?.entries ?? []));
+  protected readonly table = computed(() => comparisonTable(this.comparison()?.entries ?? [], this.point(), this.auth.unitSystem()));
+  protected readonly differences = computed(() => differenceRows(this.table(), this.baseline()));
   protected readonly chart = computed(() =>
     comparisonChart(this.comparison()?.entries.map((e) => ({ name: e.scenario.name, sweep: e.sweep })) ?? [], this.auth.unitSystem(), this.compact()),
   );

@@ -11,6 +11,9 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { COMPARE_MAX, COMPARE_MIN, SCENARIO_NAME_MAX, type Scenario } from '@shared/scenarios/scenario-schemas';
+import { formatMoneyWhole } from '@shared/money/money';
+import { designPointText } from '@shared/sweep/tradeoff-summary';
+import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage } from '../../core/api-errors';
 import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
 import { NameDialog, type NameDialogData } from '../../ui/name-dialog/name-dialog';
@@ -42,6 +45,7 @@ export class ScenarioList {
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
   private readonly cdr = inject(ChangeDetectorRef);
+  private readonly auth = inject(AuthStore);
 
   protected readonly scenarios = signal<Scenario[] | null>(null);
   protected readonly loadError = signal('');
@@ -49,6 +53,13 @@ export class ScenarioList {
   protected readonly busy = signal(false);
   protected readonly compareMin = COMPARE_MIN;
   protected readonly compareMax = COMPARE_MAX;
+  /** "Chosen: −17 °C (99 % design temperature) · Furnace 12 kW · $4,290" when the scenario's sweep is at hand. */
+  protected chosenText(s: Scenario): string {
+    const c = s.chosenPoint;
+    if (!c) return '';
+    const price = c.installedPrice === null ? '' : ` · ${formatMoneyWhole(c.installedPrice, c.currency)}`;
+    return `${s.chosenDesignC === null ? 'Default point' : 'Chosen'}: ${designPointText(c, this.auth.unitSystem())} · ${c.unit ?? 'no unit large enough'}${price}`;
+  }
   protected readonly canCompare = computed(() => this.selected().size >= COMPARE_MIN && this.selected().size <= COMPARE_MAX);
 
   constructor() {
@@ -135,7 +146,7 @@ export class ScenarioList {
     });
     if (frozen) {
       this.snack.open(`Frozen as “${frozen.name}”`, undefined, { duration: 4000 });
-      await this.load();
+      await this.router.navigate(['/projects', this.projectId(), 'scenarios', frozen.id]);
     }
   }
 

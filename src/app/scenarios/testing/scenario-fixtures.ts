@@ -31,6 +31,8 @@ export function aScenario(fields: Partial<Scenario> = {}): Scenario {
     },
     frozenAt: null,
     frozenFromId: null,
+    chosenDesignC: null,
+    chosenPoint: null,
     version: 1,
     updatedByName: 'Sam Reed',
     createdAt: '2026-11-30T09:00:00.000Z',
@@ -82,7 +84,7 @@ function row(fields: Partial<SweepRowAnswer> & Pick<SweepRowAnswer, 'label' | 'd
 }
 
 /**
- * An invented three-rung sweep for the screens (not engine output): a 9 kW furnace at −17 °C that
+ * An invented sweep of three named design values for the screens (not engine output): a 9 kW furnace at −17 °C that
  * falls behind 12 h in an average year, a 12 kW one at −24 °C, and the 12 kW one at the 50-year −32 °C.
  */
 export function aSweepAnswer(fields: Partial<SweepAnswer> = {}): SweepAnswer {

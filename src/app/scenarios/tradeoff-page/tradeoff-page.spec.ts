@@ -58,21 +58,43 @@ describe('TradeoffPage', () => {
     return { fixture, el, byId };
   }
 
-  it('shows the sentence and the figures of the first named rung, and another rung when its ladder row is chosen', async () => {
+  it('shows the sentence and the figures of the first named value, another when its row is chosen, and saves the choice', async () => {
     const { fixture, el, byId } = await render('designer', aScenario(), aSweepAnswer());
     expect(byId('chosen-unit')).toBe('Furnace 9 kW');
-    expect(byId('tradeoff-sentence')).toContain('instead of −32.0 °C (50-year)');
+    expect(byId('tradeoff-sentence')).toContain('instead of −32.0 °C (50-year return period)');
     expect(byId('chosen-unmet')).toBe('12');
+    // Every figure has its explanation behind a button that the keyboard reaches.
+    const infos = el.querySelectorAll<HTMLButtonElement>('[data-testid="chosen-figures"] button[data-testid="term-info"]');
+    expect(infos.length).toBe(12);
+    expect(infos[0]!.getAttribute('aria-label')).toBe('About Design temperature');
     // Grid rows are hidden until asked for: three named rows.
-    const rows = Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="ladder-table"] tbody .row-button'));
+    const rows = Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="design-temps-table"] tbody .row-button'));
     expect(rows.length).toBe(3);
     rows[2]!.click();
     fixture.detectChanges();
     await fixture.whenStable();
     expect(byId('chosen-unit')).toBe('Furnace 12 kW');
-    expect(byId('chosen-temperature')).toBe('−32.0 °C (50-year)');
-    expect(byId('tradeoff-sentence')).toContain('the coldest point of the ladder');
+    expect(byId('chosen-temperature')).toBe('−32.0 °C (50-year return period)');
+    expect(byId('tradeoff-sentence')).toContain('the coldest of the design temperatures');
     expect(el.querySelector('[data-testid="tradeoff-cautions"]')).not.toBeNull();
+    // The choice is saved with the scenario's version once the user pauses.
+    await new Promise((r) => setTimeout(r, 700));
+    const patch = http.expectOne({ method: 'PATCH', url: URL });
+    expect(patch.request.body).toEqual({ version: 1, chosenDesignC: -32 });
+    patch.flush(aScenario({ chosenDesignC: -32, version: 2 }));
+    await settle();
+    fixture.detectChanges();
+    // The settings panel reads its lists again for the newer version; nothing is swept again.
+    flushSettingsLoads();
+    await settle();
+    expect(http.match({ method: 'POST', url: `${URL}/sweep` }).length).toBe(0);
+    http.verify();
+  });
+
+  it('opens on the design point saved with the scenario', async () => {
+    const { byId } = await render('designer', aScenario({ chosenDesignC: -24 }), aSweepAnswer());
+    expect(byId('chosen-temperature')).toBe('−24.0 °C (Mean annual minimum)');
+    expect(byId('chosen-unit')).toBe('Furnace 12 kW');
     http.verify();
   });
 

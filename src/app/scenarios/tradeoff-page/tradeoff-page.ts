@@ -20,6 +20,8 @@ import { SCENARIO_NAME_MAX, type Scenario, type SweepAnswer } from '@shared/scen
 import { formatMoney } from '@shared/money/money';
 import { applyDesignRule } from '@shared/sweep/design-rule';
 import { bandSentence, comfortSentence, oddsBasisSentence, oddsSentence, type OddsContext } from '@shared/sweep/odds-words';
+import { designValueName, explain, gridStepText, term, type TermKey } from '@shared/glossary/glossary';
+import { GRID_STEP_C } from '@shared/sweep/sweep';
 import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';
@@ -29,8 +31,8 @@ import { ScenarioSettingsPanel } from '../scenario-settings/scenario-settings';
 import { ScenariosApi } from '../scenarios-api';
 import {
   defaultIndex,
+  designRows,
   formatPower,
-  ladderRows,
   loadDurationChart,
   loadDurationTable,
   nearestIndex,
@@ -41,6 +43,7 @@ import {
   rulesText,
 } from '../tradeoff-model';
 import { ReportList } from '../../reports/report-list/report-list';
+import { TermInfo } from '../../ui/term-info/term-info';
 import { TradeoffCautions } from './tradeoff-cautions';
 
 /** `/projects/:id/scenarios/:scenarioId`: one scenario's sweep, the chosen design point, and its settings. */
@@ -60,6 +63,7 @@ import { TradeoffCautions } from './tradeoff-cautions';
     ScenarioSettingsPanel,
     TradeoffCautions,
     ReportList,
+    TermInfo,
   ],
   providers: [provideCharts()],
   templateUrl: './tradeoff-page.html',
@@ -99,7 +103,7 @@ export class TradeoffPage {
   protected readonly canEdit = computed(() => this.canWrite() && this.scenario()?.frozenAt === null);
   protected readonly rows = computed(() => {
     const s = this.sweep();
-    return s ? ladderRows(s, this.unitSystem()) : [];
+    return s ? designRows(s, this.unitSystem()) : [];
   });
   protected readonly tableRows = computed(() => {
     const i = this.index();
@@ -171,6 +175,62 @@ export class TradeoffPage {
     const s = this.sweep();
     return s ? rulesText(s) : [];
   });
+  protected readonly windText = computed(() => formatQuantity('speed', this.sweep()?.designWindMs, this.unitSystem()));
+  protected readonly gridStepLabel = computed(() => gridStepText(GRID_STEP_C, this.unitSystem()));
+  protected readonly terms = { designTemperatures: term('designTemperatures') };
+  protected readonly explainDesignTemperatures = explain('designTemperatures');
+  /** The table's columns, named and explained from the glossary. */
+  protected readonly columns = (
+    [
+      ['designPoint', 'Design point'],
+      ['designLoad', 'Design load'],
+      ['unit', 'Unit'],
+      ['compressorAtDesign', 'Compressor'],
+      ['installedPrice', 'Installed'],
+      ['annualCost', 'Running / yr'],
+      ['lifeCycleCost', 'Life-cycle'],
+      ['runHours', 'Full-load h / yr'],
+      ['backupHours', 'Backup h / yr'],
+      ['backupEnergy', 'Backup kWh / yr'],
+      ['unmetHours', 'Unmet h / yr'],
+      ['unmetHoursWorstYear', 'Unmet h, worst year'],
+      ['unmetDegreeHours', 'Unmet degree-h / yr'],
+      ['lowestIndoor', 'Lowest indoor'],
+    ] as const satisfies readonly (readonly [TermKey, string])[]
+  ).map(([key, name]) => ({ key, name, explain: explain(key) }));
+  /** The chosen point's figures, named and explained from the glossary. */
+  protected readonly figures = computed(() => {
+    const c = this.chosen();
+    if (!c) return [];
+    const f = (key: TermKey, value: string, extra: { lead?: boolean; testId?: string; note?: string } = {}) => ({
+      key,
+      name: term(key),
+      explain: explain(key),
+      value,
+      lead: extra.lead ?? false,
+      testId: extra.testId ?? null,
+      note: extra.note ?? '',
+    });
+    const heatPump = c.compressor !== '—';
+    return [
+      f('designTemperature', this.sliderText(), { lead: true, testId: 'chosen-temperature' }),
+      f('designLoad', c.designLoad),
+      f('unit', c.unit, { lead: true, testId: 'chosen-unit' }),
+      ...(heatPump ? [f('compressorAtDesign', c.compressor, { lead: true, testId: 'chosen-compressor' })] : []),
+      f('capacityAtDesign', this.capacityText()),
+      f('installedPrice', c.installedPrice, { testId: 'chosen-price' }),
+      f('annualCost', c.annualCost),
+      f('lifeCycleCost', c.lifeCycleCost, { note: this.lifeCycleNote(), testId: 'chosen-lcc' }),
+      f('runHours', c.runHours),
+      ...(heatPump
+        ? [f('backupHours', c.backupHours, { testId: 'chosen-backup-hours' }), f('backupEnergy', c.backupEnergy, { testId: 'chosen-backup-energy' })]
+        : []),
+      f('unmetHours', c.unmetHours, { testId: 'chosen-unmet' }),
+      f('unmetHoursWorstYear', c.unmetWorst),
+      f('unmetDegreeHours', c.degreeHours),
+      f('lowestIndoor', c.lowestIndoor, { testId: 'chosen-lowest-indoor', note: c.drop === '—' ? '' : `${c.drop} below the set-point` }),
+    ];
+  });
   protected readonly optionLabel = computed(() => {
     const s = this.sweep();
     return s ? optionLabelOf(s) : (id: string) => id;
@@ -191,6 +251,8 @@ export class TradeoffPage {
     this.loadError.set('');
     try {
       const s = await this.api.get(projectId, scenarioId);
+      // Another scenario (a frozen copy just made, say) starts from its own saved design point.
+      if (this.scenario()?.id !== s.id) this.sweep.set(null);
       this.scenario.set(s);
       await this.runSweep();
     } catch (err) {
@@ -214,9 +276,9 @@ export class TradeoffPage {
     this.cdr.markForCheck();
     try {
       const answer = await this.api.sweep(s.projectId, s.id);
-      const previous = this.chosenRow()?.designC;
+      const previous = this.chosenRow()?.designC ?? s.chosenDesignC;
       this.sweep.set(answer);
-      this.index.set(previous === undefined ? defaultIndex(answer.rows) : nearestIndex(answer.rows, previous));
+      this.index.set(previous === null ? defaultIndex(answer.rows) : nearestIndex(answer.rows, previous));
     } catch (err) {
       const e = readApiError(err);
       this.sweep.set(null);
@@ -241,6 +303,48 @@ export class TradeoffPage {
   protected select(index: number): void {
     const max = this.sliderMax();
     this.index.set(Math.min(max, Math.max(0, Math.round(index))));
+    this.scheduleSaveChoice();
+  }
+
+  private saveTimer: ReturnType<typeof setTimeout> | null = null;
+
+  /** Keeps the chosen design point with the scenario (after the user pauses), so a reload or a freeze finds it. */
+  private scheduleSaveChoice(): void {
+    if (!this.canEdit()) return;
+    if (this.saveTimer !== null) clearTimeout(this.saveTimer);
+    this.saveTimer = setTimeout(() => {
+      this.saveTimer = null;
+      void this.saveChoice();
+    }, 500);
+  }
+
+  private saving: Promise<void> = Promise.resolve();
+
+  private saveChoice(): Promise<void> {
+    this.saving = this.saving.then(async () => {
+      const s = this.scenario();
+      const designC = this.chosenRow()?.designC;
+      if (!s || designC === undefined || s.chosenDesignC === designC || s.frozenAt) return;
+      try {
+        const saved = await this.api.update(s.projectId, s.id, { version: s.version, chosenDesignC: designC });
+        // Keep the newer version (and the names) without sweeping again: nothing the sweep reads changed.
+        this.scenario.set(saved);
+      } catch (err) {
+        const e = readApiError(err);
+        if (e?.code === 'stale_update') {
+          // Someone saved the scenario meanwhile: take theirs and keep this choice on top of it.
+          const fresh = await this.api.get(s.projectId, s.id);
+          this.scenario.set(fresh);
+          const saved = await this.api.update(fresh.projectId, fresh.id, { version: fresh.version, chosenDesignC: designC }).catch(() => null);
+          if (saved) this.scenario.set(saved);
+        } else {
+          this.snack.open(apiErrorMessage(err, 'The chosen design point could not be saved.'), 'Dismiss', { duration: 6000 });
+        }
+      } finally {
+        this.cdr.markForCheck();
+      }
+    });
+    return this.saving;
   }
 
   protected onChartInit(chart: ECharts): void {
@@ -284,13 +388,22 @@ export class TradeoffPage {
       submitLabel: 'Freeze',
       maxLength: SCENARIO_NAME_MAX,
       hint: 'A dated copy keeps today’s inputs, prices and results. It can be read, compared and copied, but never changed.',
-      save: (name) => this.api.freeze(s.projectId, s.id, name),
+      save: async (name) => {
+        // The frozen copy carries the chosen design point: save a pending choice first.
+        if (this.saveTimer !== null) {
+          clearTimeout(this.saveTimer);
+          this.saveTimer = null;
+        }
+        await this.saveChoice();
+        return this.api.freeze(s.projectId, s.id, name);
+      },
     };
     const frozen = await firstValueFrom(this.dialog.open<NameDialog<Scenario>, NameDialogData<Scenario>, Scenario>(NameDialog, { data }).afterClosed());
     if (frozen) {
-      this.snack.open(`Frozen as “${frozen.name}”`, 'Open', { duration: 6000 }).onAction().subscribe(() => {
-        void this.router.navigate(['/projects', s.projectId, 'scenarios', frozen.id]);
-      });
+      await this.router.navigate(['/projects', s.projectId, 'scenarios', frozen.id]);
+      this.snack.open(`Frozen as “${frozen.name}”. This is the frozen copy; the live scenario stays editable.`, 'Back to the live one', { duration: 8000 })
+        .onAction()
+        .subscribe(() => void this.router.navigate(['/projects', s.projectId, 'scenarios', s.id]));
     }
   }
 
@@ -335,11 +448,11 @@ export class TradeoffPage {
 
   protected readonly temperature = (c: number) => formatQuantity('temperature', c, this.unitSystem());
   /**
-   * The design point at a slider position as the page shows it, e.g. "−32.5 °C (50-year)". The slider
+   * The design point at a slider position as the page shows it, e.g. "−32.5 °C (50-year return period)". The slider
    * uses it both for its bubble and for the value a screen reader reads out, so the two never differ.
    */
   protected readonly designPointText = (i: number): string => {
     const r = this.sweep()?.rows[i];
-    return r ? `${formatQuantity('temperature', r.designC, this.unitSystem())}${r.isGrid ? '' : ` (${r.label})`}` : '';
+    return r ? `${formatQuantity('temperature', r.designC, this.unitSystem())}${r.isGrid ? '' : ` (${designValueName(r.label)})`}` : '';
   };
 }
