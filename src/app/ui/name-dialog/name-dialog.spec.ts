@@ -57,7 +57,8 @@ describe('NameDialog', () => {
     expect(input.value).toBe('Old name');
     await type('  New name ');
     await click('Rename');
-    expect(save).toHaveBeenCalledOnceWith('New name');
+    // No choice is asked here, so the choice is empty.
+    expect(save).toHaveBeenCalledOnceWith('New name', '');
     expect(dialogRef.close).toHaveBeenCalledOnceWith({ name: 'New name', version: 2 });
   });
 
