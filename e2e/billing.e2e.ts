@@ -58,7 +58,9 @@ describe('plans and billing in a real browser', () => {
     await page.getByLabel(/^Project name/).fill('Fourth house');
     assert.equal(await page.getByTestId('plan-limit').count(), 0);
     await page.getByRole('button', { name: 'Create project' }).click();
-    await page.getByRole('link', { name: 'Fourth house' }).waitFor();
+    // A new project opens at once.
+    await page.waitForURL(/\/projects\/[0-9a-f-]{36}$/);
+    await page.getByRole('heading', { name: 'Fourth house' }).first().waitFor();
 
     // The only other host the browser spoke to is the provider's checkout page.
     assert.deepEqual(
