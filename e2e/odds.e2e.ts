@@ -47,7 +47,7 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     // The coldest rung: the odds are 1-in-50 a year there.
     await page.getByTestId('design-slider').focus();
     await page.keyboard.press('End');
-    await page.getByTestId('chosen-temperature').filter({ hasText: '(50-year)' }).waitFor();
+    await page.getByTestId('chosen-temperature').filter({ hasText: '(50-year return period)' }).waitFor();
     assert.match(await text(page, 'odds-sentence'), /about a 1-in-50 chance in any one winter/);
 
     // State a rule; the screen marks the point it picks, says why, and that the designer decides.
