@@ -52,7 +52,7 @@ describe('tailroom-cli sweep: odds and uncertainty', () => {
       const p = row['annualExceedanceProbability'] as number;
       assert.ok(Math.abs(p - 1 / n) < 1e-9, `${label}: ${p}`);
       if (row['selectedOptionId'] !== null) {
-        // Every unit here lasts 20 years (the hand formula, METHODS §1.5 risk over a service life).
+        // Every unit here lasts 20 years (the hand formula, docs/methods.md#odds-of-a-colder-night, risk over a service life).
         assert.ok(Math.abs((row['lifetimeExceedanceProbability'] as number) - (1 - (1 - 1 / n) ** 20)) < 1e-9, label);
       }
     }
