@@ -16,7 +16,10 @@ describe('plans and billing in a real browser', () => {
   it('an owner at the free plan’s limit upgrades through the provider’s checkout and can then add the project', async () => {
     const { context, page, offenders } = await newOwnerPage(e2e, { name: 'Olive Owner', emailPrefix: 'billing' });
     for (const name of ['First house', 'Second house', 'Third house']) {
-      const res = await page.request.post(e2e.baseUrl + '/api/v1/projects', { data: { name }, headers: { 'X-Requested-With': 'tailroom' } });
+      const res = await page.request.post(e2e.baseUrl + '/api/v1/projects', {
+        data: { name },
+        headers: { 'X-Requested-With': 'tailroom' },
+      });
       assert.equal(res.status(), 201);
     }
     await page.reload();
@@ -28,7 +31,10 @@ describe('plans and billing in a real browser', () => {
     assert.match(await limit.innerText(), /Starter plan holds 3 active projects/);
     assert.equal(await page.getByRole('button', { name: 'Create project' }).isDisabled(), true);
     await checkA11y(page, 'new-project-at-limit');
-    const refused = await page.request.post(e2e.baseUrl + '/api/v1/projects', { data: { name: 'Fourth house' }, headers: { 'X-Requested-With': 'tailroom' } });
+    const refused = await page.request.post(e2e.baseUrl + '/api/v1/projects', {
+      data: { name: 'Fourth house' },
+      headers: { 'X-Requested-With': 'tailroom' },
+    });
     assert.equal(refused.status(), 402);
     await limit.getByRole('link', { name: /Upgrade/ }).click();
     await page.waitForURL(/\/billing$/);

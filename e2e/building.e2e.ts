@@ -104,7 +104,10 @@ describe('a project’s building in a real browser', () => {
     const live = await designLoadBtuh(page);
     assert.ok(Math.abs(live - expectedBtuh) <= 100, `live ${live} Btu/h vs ${expectedBtuh.toFixed(0)} Btu/h`);
     await page.getByRole('button', { name: 'Save building' }).click();
-    await page.getByText(/Building saved/i).first().waitFor();
+    await page
+      .getByText(/Building saved/i)
+      .first()
+      .waitFor();
     await page.waitForTimeout(300);
     await screenshot(page, 'building-1280');
     await checkA11y(page, 'project-building');
@@ -113,11 +116,20 @@ describe('a project’s building in a real browser', () => {
     await page.reload();
     await page.getByTestId('design-load').waitFor();
     assert.equal(await designLoadBtuh(page), live);
-    assert.equal(await page.getByTestId('building-section').getByLabel(/^Conduction UA/).inputValue(), '300');
+    assert.equal(
+      await page
+        .getByTestId('building-section')
+        .getByLabel(/^Conduction UA/)
+        .inputValue(),
+      '300',
+    );
     await page.getByRole('radio', { name: 'SI units (metric)' }).click();
     await page.getByTestId('design-load').filter({ hasText: /kW/ }).waitFor();
     await page.getByRole('radio', { name: 'IP units (inch-pound)' }).click();
-    await page.getByTestId('design-load').filter({ hasText: /Btu\/h/ }).waitFor();
+    await page
+      .getByTestId('design-load')
+      .filter({ hasText: /Btu\/h/ })
+      .waitFor();
     assert.equal(await designLoadBtuh(page), live);
 
     await page.setViewportSize({ width: 390, height: 844 });

@@ -2,7 +2,16 @@ import assert from 'node:assert/strict';
 import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
-import { SCREENSHOTS, guardOffline, pdfFirstPageScreenshot, screenshot, seedDemoData, signInAsDemo, startE2eApp, type E2eApp } from './support/e2e-app';
+import {
+  SCREENSHOTS,
+  guardOffline,
+  pdfFirstPageScreenshot,
+  screenshot,
+  seedDemoData,
+  signInAsDemo,
+  startE2eApp,
+  type E2eApp,
+} from './support/e2e-app';
 
 let e2e: E2eApp;
 before(async () => {
@@ -51,7 +60,11 @@ describe('a site with published values only, estimated from a demo record', () =
     await page.getByTestId('estimate-reference').click();
     await page.getByRole('option', { name: /^Kettlerun Crossing \(invented\)/ }).click();
     await page.getByTestId('estimate-button').click();
-    await page.getByTestId('estimate-panel').getByTestId('estimate-label').filter({ hasText: LABEL }).waitFor({ timeout: 120_000 });
+    await page
+      .getByTestId('estimate-panel')
+      .getByTestId('estimate-label')
+      .filter({ hasText: LABEL })
+      .waitFor({ timeout: 120_000 });
     const table = page.getByTestId('recent-years-table');
     await table.waitFor();
     const header = await table.locator('thead').innerText();
@@ -94,7 +107,10 @@ describe('a site with published values only, estimated from a demo record', () =
     const label = page.getByTestId('estimate-label').filter({ hasText: LABEL });
     await label.waitFor({ timeout: 180_000 });
     assert.match(await page.getByTestId('climate-basis').innerText(), /Whole record \(1995–2024, 30 years\)/);
-    await page.getByTestId('tradeoff-sentence').filter({ hasText: /average year/ }).waitFor({ timeout: 60_000 });
+    await page
+      .getByTestId('tradeoff-sentence')
+      .filter({ hasText: /average year/ })
+      .waitFor({ timeout: 60_000 });
     await page.getByTestId('tradeoff-chart').locator('canvas').first().waitFor();
     await page.getByTestId('load-duration-chart').locator('canvas').first().waitFor();
     await page.waitForTimeout(300);
@@ -115,7 +131,9 @@ describe('a site with published values only, estimated from a demo record', () =
     await screenshot(page, 'climate-basis-report-1280');
 
     const [, projectId, reportId] = /\/projects\/([^/]+)\/reports\/([^/?#]+)/.exec(new URL(page.url()).pathname) ?? [];
-    const pdf = await page.request.get(`${e2e.baseUrl}/api/v1/projects/${projectId ?? ''}/reports/${reportId ?? ''}/pdf`);
+    const pdf = await page.request.get(
+      `${e2e.baseUrl}/api/v1/projects/${projectId ?? ''}/reports/${reportId ?? ''}/pdf`,
+    );
     assert.equal(pdf.status(), 200);
     const bytes = await pdf.body();
     writeFileSync(path.join(SCREENSHOTS, 'climate-basis-report.pdf'), bytes);

@@ -28,7 +28,12 @@ describe('climate sites in a real browser', () => {
     // (at the stored 32-bit precision).
     const f32 = (c: Float64Array) => Float64Array.from(Float32Array.from(c));
     const expected = computeDesignConditions(
-      { ...series, dryBulbC: f32(series.dryBulbC), dewPointC: f32(series.dewPointC), windSpeedMs: f32(series.windSpeedMs) },
+      {
+        ...series,
+        dryBulbC: f32(series.dryBulbC),
+        dewPointC: f32(series.dewPointC),
+        windSpeedMs: f32(series.windSpeedMs),
+      },
       { elevationM: site.elevationM },
     );
     assert.ok(expected.ok);
@@ -72,7 +77,9 @@ describe('climate sites in a real browser', () => {
     await page.getByLabel(/^Notes/).fill('Checked against the generated file');
     await page.getByRole('button', { name: 'Save changes' }).click();
     await page.getByTestId('design-values').waitFor();
-    assert.ok((await page.getByTestId('design-values').locator('[data-key="heating-99.6"]').innerText()).includes(shown));
+    assert.ok(
+      (await page.getByTestId('design-values').locator('[data-key="heating-99.6"]').innerText()).includes(shown),
+    );
     await page.waitForTimeout(300); // let the canvas paint
     await screenshot(page, 'climate-site-1280');
     await checkA11y(page, 'climate-site');
@@ -84,7 +91,11 @@ describe('climate sites in a real browser', () => {
     // In IP units the same value reads in °F.
     await page.getByRole('radio', { name: 'IP units (inch-pound)' }).click();
     const f = ((expected.conditions.heating.db99_6 * 9) / 5 + 32).toFixed(0).replace('-', '−');
-    await page.getByTestId('design-values').locator('[data-key="heating-99.6"]').filter({ hasText: `${f} °F` }).waitFor();
+    await page
+      .getByTestId('design-values')
+      .locator('[data-key="heating-99.6"]')
+      .filter({ hasText: `${f} °F` })
+      .waitFor();
 
     await page.goto(e2e.baseUrl + '/climate-sites');
     await page.getByRole('link', { name: `${site.name} test upload` }).waitFor();

@@ -3,10 +3,30 @@ import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
 import { checkA11y } from './support/a11y';
-import { SCREENSHOTS, guardOffline, pdfPageScreenshots, screenshot, seedDemoData, signInAsDemo, startE2eApp, type E2eApp } from './support/e2e-app';
+import {
+  SCREENSHOTS,
+  guardOffline,
+  pdfPageScreenshots,
+  screenshot,
+  seedDemoData,
+  signInAsDemo,
+  startE2eApp,
+  type E2eApp,
+} from './support/e2e-app';
 
 /** Words of the designer's screens that must not reach the homeowner. */
-const DESIGNER_ONLY = [/unmet/i, /design (temperature|load|point)/i, /set-point/i, /\bsag\b/i, /ladder/i, /\brung/i, /life-cycle/i, /return period/i, /equivalent full-load/i, /fall(s)? behind the load/i];
+const DESIGNER_ONLY = [
+  /unmet/i,
+  /design (temperature|load|point)/i,
+  /set-point/i,
+  /\bsag\b/i,
+  /ladder/i,
+  /\brung/i,
+  /life-cycle/i,
+  /return period/i,
+  /equivalent full-load/i,
+  /fall(s)? behind the load/i,
+];
 
 let e2e: E2eApp;
 before(async () => {
@@ -32,12 +52,17 @@ describe('a client report in a real browser', () => {
     await page.getByTestId('design-slider').focus();
     await page.keyboard.press('Home');
     await page.getByTestId('chosen-temperature').filter({ hasText: '(99 % design temperature)' }).waitFor();
-    const shown = { unit: await page.getByTestId('chosen-unit').innerText(), price: await page.getByTestId('chosen-price').innerText() };
+    const shown = {
+      unit: await page.getByTestId('chosen-unit').innerText(),
+      price: await page.getByTestId('chosen-price').innerText(),
+    };
 
     // Compose: the chosen point and the coldest are ticked by default.
     await page.getByRole('button', { name: 'New client report' }).click();
     await page.getByLabel(/^Title/).fill('Heat pump options for the Old Mill duplex');
-    await page.getByLabel(/^Note to the client/).fill('The smaller unit keeps up on all but the coldest few hours; the backup heater covers them.');
+    await page
+      .getByLabel(/^Note to the client/)
+      .fill('The smaller unit keeps up on all but the coldest few hours; the backup heater covers them.');
     await page.getByLabel(/^Your phone/).fill('555 0142');
     await checkA11y(page, 'report-composer');
     await page.getByRole('button', { name: 'Create report' }).click();

@@ -20,7 +20,10 @@ const password = 'a long enough passphrase';
 const orgName = `Northgate Heating ${stamp}`;
 
 async function fontFamilyOf(page: Page, selector: string): Promise<string> {
-  return page.locator(selector).first().evaluate((el) => getComputedStyle(el).fontFamily);
+  return page
+    .locator(selector)
+    .first()
+    .evaluate((el) => getComputedStyle(el).fontFamily);
 }
 
 async function shippedFontLoaded(page: Page): Promise<boolean> {
@@ -104,7 +107,12 @@ describe('the app shell in a real browser', () => {
     await owner.waitForURL(/\/team$/);
     await owner.getByLabel(/^E-mail/).fill(designerEmail);
     await owner.getByRole('button', { name: 'Send invitation' }).click();
-    await owner.locator('table').filter({ hasText: designerEmail }).getByText(/pending/i).first().waitFor();
+    await owner
+      .locator('table')
+      .filter({ hasText: designerEmail })
+      .getByText(/pending/i)
+      .first()
+      .waitFor();
     await screenshot(owner, 'team-1280');
     await checkA11y(owner, 'team');
 
@@ -146,7 +154,12 @@ describe('the app shell in a real browser', () => {
 
     // The owner sees the designer among the members.
     await owner.goto(e2e.baseUrl + '/team');
-    await owner.locator('table').filter({ hasText: designerEmail }).getByText(/designer/i).first().waitFor();
+    await owner
+      .locator('table')
+      .filter({ hasText: designerEmail })
+      .getByText(/designer/i)
+      .first()
+      .waitFor();
 
     assert.deepEqual(offenders, [], 'no request leaves the app');
     await ownerContext.close();

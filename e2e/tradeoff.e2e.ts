@@ -30,7 +30,9 @@ describe('the trade-off screen on the demo data', () => {
     /** Waits (bounded) until the scenario, as stored, holds this chosen design point. */
     const savedChoice = async (designC: number) => {
       for (let tries = 0; tries < 40; tries++) {
-        const stored = (await (await page.request.get(`${e2e.baseUrl}/api/v1${scenarioUrl}`)).json()) as { chosenDesignC: number | null };
+        const stored = (await (await page.request.get(`${e2e.baseUrl}/api/v1${scenarioUrl}`)).json()) as {
+          chosenDesignC: number | null;
+        };
         if (stored.chosenDesignC === designC) return;
         await page.waitForTimeout(250);
       }
@@ -45,7 +47,11 @@ describe('the trade-off screen on the demo data', () => {
     await slider.focus();
     await page.keyboard.press('Home');
     await page.getByTestId('chosen-temperature').filter({ hasText: '(99 % design temperature)' }).waitFor();
-    const mild = { sentence: await text(page, 'tradeoff-sentence'), unit: await text(page, 'chosen-unit'), price: await text(page, 'chosen-price') };
+    const mild = {
+      sentence: await text(page, 'tradeoff-sentence'),
+      unit: await text(page, 'chosen-unit'),
+      price: await text(page, 'chosen-price'),
+    };
     assert.match(mild.sentence, /instead of .*\(50-year return period\)/);
     assert.match(mild.sentence, /less installed/);
     assert.match(mild.sentence, /average year/);
@@ -53,14 +59,20 @@ describe('the trade-off screen on the demo data', () => {
     // End: the coldest value; a larger (dearer) unit, and the sentence says so.
     await page.keyboard.press('End');
     await page.getByTestId('chosen-temperature').filter({ hasText: '(50-year return period)' }).waitFor();
-    const cold = { sentence: await text(page, 'tradeoff-sentence'), unit: await text(page, 'chosen-unit'), price: await text(page, 'chosen-price') };
+    const cold = {
+      sentence: await text(page, 'tradeoff-sentence'),
+      unit: await text(page, 'chosen-unit'),
+      price: await text(page, 'chosen-price'),
+    };
     assert.notEqual(cold.unit, mild.unit);
     assert.notEqual(cold.price, mild.price);
     assert.notEqual(cold.sentence, mild.sentence);
     assert.match(cold.sentence, /the coldest of the design temperatures/);
 
     // The numbers shown are the API's for that value (the screen rounds money to whole dollars).
-    const api = await page.request.post(`${e2e.baseUrl}/api/v1${scenarioUrl}/sweep`, { headers: { 'X-Requested-With': 'tailroom' } });
+    const api = await page.request.post(`${e2e.baseUrl}/api/v1${scenarioUrl}/sweep`, {
+      headers: { 'X-Requested-With': 'tailroom' },
+    });
     const body = (await api.json()) as { rows: { label: string; installedPrice: string; designC: number }[] };
     const fifty = body.rows.find((r) => r.label === '50-year');
     assert.ok(fifty);
@@ -78,7 +90,9 @@ describe('the trade-off screen on the demo data', () => {
     const box = await page.getByTestId('tradeoff-chart').boundingBox();
     assert.ok(box);
     await page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
-    await page.waitForFunction(() => !document.querySelector('[data-testid="chosen-temperature"]')?.textContent?.includes('50-year'));
+    await page.waitForFunction(
+      () => !document.querySelector('[data-testid="chosen-temperature"]')?.textContent?.includes('50-year'),
+    );
     assert.notEqual(await text(page, 'chosen-temperature'), '');
     await slider.focus();
     await page.keyboard.press('Home');
@@ -106,8 +120,15 @@ describe('the trade-off screen on the demo data', () => {
     await page.getByRole('link', { name: 'Project', exact: true }).click();
     const list = page.getByTestId('scenario-list');
     // The project's list shows each scenario's chosen point, unit and price.
-    const chosenLine = await list.locator('[data-scenario="Gas furnace bid (demo) · sent"] [data-testid="scenario-chosen"]').innerText();
-    assert.ok(chosenLine.includes('99 % design temperature') && chosenLine.includes(mild.unit) && chosenLine.includes(mild.price), chosenLine);
+    const chosenLine = await list
+      .locator('[data-scenario="Gas furnace bid (demo) · sent"] [data-testid="scenario-chosen"]')
+      .innerText();
+    assert.ok(
+      chosenLine.includes('99 % design temperature') &&
+        chosenLine.includes(mild.unit) &&
+        chosenLine.includes(mild.price),
+      chosenLine,
+    );
     await list.waitFor();
     await checkA11y(page, 'project');
     await list.getByRole('checkbox', { name: 'Compare Gas furnace bid (demo) · sent' }).check();
@@ -120,7 +141,18 @@ describe('the trade-off screen on the demo data', () => {
     assert.match(header, /Gas furnace bid \(demo\) · sent/);
     assert.match(header, /Heat pump bid \(demo\)/);
     const tableBody = await table.locator('tbody').first().innerText();
-    for (const figure of ['Design load', 'Unit selected', 'Capacity at the design temperature', 'Installed price', 'Running cost per year', 'Equipment life', 'Life-cycle cost', 'Unmet hours per year', 'Real discount rate', 'Energy prices']) {
+    for (const figure of [
+      'Design load',
+      'Unit selected',
+      'Capacity at the design temperature',
+      'Installed price',
+      'Running cost per year',
+      'Equipment life',
+      'Life-cycle cost',
+      'Unmet hours per year',
+      'Real discount rate',
+      'Energy prices',
+    ]) {
       assert.match(tableBody, new RegExp(figure), figure);
     }
     assert.match(await page.getByTestId('compare-differences').innerText(), /baseline/);

@@ -14,13 +14,21 @@ import {
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
-import { MatFormFieldModule } from '@angular/material/form-field';
+import {
+  MAT_FORM_FIELD_DEFAULT_OPTIONS,
+  MatFormFieldModule,
+  type MatFormFieldDefaultOptions,
+} from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { EnergyPrices, GasPriceUnit } from '@shared/money/energy-prices';
-import { EXTRA_DESIGN_TEMPERATURES_MAX, type Scenario, type ScenarioSettings } from '@shared/scenarios/scenario-schemas';
+import {
+  EXTRA_DESIGN_TEMPERATURES_MAX,
+  type Scenario,
+  type ScenarioSettings,
+} from '@shared/scenarios/scenario-schemas';
 import { MAX_DRAWS } from '@shared/sweep/tolerances';
 import { fromSi, toSi, unitLabel } from '@shared/units/units';
 import { applyApiErrors, fieldError, saveFailure } from '../../core/api-errors';
@@ -60,6 +68,13 @@ export function formatTemperatures(valuesC: readonly number[], system: UnitSyste
   ],
   templateUrl: './scenario-settings.html',
   styleUrl: './scenario-settings.scss',
+  // Several hints here run to two lines: let the space under a field grow rather than overlap the next row.
+  providers: [
+    {
+      provide: MAT_FORM_FIELD_DEFAULT_OPTIONS,
+      useValue: { appearance: 'outline', subscriptSizing: 'dynamic' } satisfies MatFormFieldDefaultOptions,
+    },
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class ScenarioSettingsPanel {
@@ -82,7 +97,12 @@ export class ScenarioSettingsPanel {
     wholeList: this.fb.control(true),
     safetyFactorPct: this.fb.control('', [Validators.pattern(/^\d{0,3}(\.\d+)?$/), Validators.max(100)]),
     discountRatePct: this.fb.control('3', [Validators.required, Validators.min(0), Validators.max(30)]),
-    studyPeriodYears: this.fb.control('20', [Validators.required, Validators.min(1), Validators.max(100), Validators.pattern(/^\d+$/)]),
+    studyPeriodYears: this.fb.control('20', [
+      Validators.required,
+      Validators.min(1),
+      Validators.max(100),
+      Validators.pattern(/^\d+$/),
+    ]),
     energyEscalationPctPerYear: this.fb.control('0', [Validators.required, Validators.min(-10), Validators.max(20)]),
     heatPumpSizing: this.fb.control<HeatPumpSizing>('compressor'),
     equipmentFamily: this.fb.control<EquipmentFamily | 'all'>('all'),
@@ -99,8 +119,18 @@ export class ScenarioSettingsPanel {
     uaPct: this.fb.control(10, [Validators.required, Validators.min(0), Validators.max(90)]),
     airLeakagePct: this.fb.control(25, [Validators.required, Validators.min(0), Validators.max(90)]),
     pricesPct: this.fb.control(15, [Validators.required, Validators.min(0), Validators.max(90)]),
-    draws: this.fb.control(300, [Validators.required, Validators.min(0), Validators.max(MAX_DRAWS), Validators.pattern(/^\d+$/)]),
-    seed: this.fb.control(1, [Validators.required, Validators.min(0), Validators.max(4_294_967_295), Validators.pattern(/^\d+$/)]),
+    draws: this.fb.control(300, [
+      Validators.required,
+      Validators.min(0),
+      Validators.max(MAX_DRAWS),
+      Validators.pattern(/^\d+$/),
+    ]),
+    seed: this.fb.control(1, [
+      Validators.required,
+      Validators.min(0),
+      Validators.max(4_294_967_295),
+      Validators.pattern(/^\d+$/),
+    ]),
     ruleMaxWorstHours: this.fb.control<number | null>(null, [Validators.min(0), Validators.max(8784)]),
     ruleMaxOddsPct: this.fb.control<number | null>(null, [Validators.min(0), Validators.max(100)]),
   });
@@ -128,35 +158,42 @@ export class ScenarioSettingsPanel {
   }
 
   private show(s: Scenario): void {
+    const previous = this.current;
     this.current = s;
+    // Choosing a design point saves it with the scenario (a new version, same settings): keep what
+    // the user is typing here and only take the new version.
+    if (previous?.id === s.id && sameSettings(previous, s)) return;
     const st = s.settings;
-    this.form.reset({
-      climateSiteId: s.climateSiteId,
-      equipmentListId: s.equipmentListId,
-      wholeList: st.optionLabels === null,
-      safetyFactorPct: st.safetyFactorPct === null ? '' : String(st.safetyFactorPct),
-      discountRatePct: String(st.discountRatePct),
-      studyPeriodYears: String(st.studyPeriodYears),
-      energyEscalationPctPerYear: String(st.energyEscalationPctPerYear),
-      heatPumpSizing: st.heatPumpSizing,
-      equipmentFamily: st.equipmentFamily ?? 'all',
-      extraDesign: formatTemperatures(st.extraDesignC, this.unitSystem()),
-      climateBasisYears: st.climateBasisYears === null ? '' : String(st.climateBasisYears),
-      ownPrices: st.prices !== null,
-      currency: st.prices?.currency ?? 'USD',
-      electricityPerKwh: st.prices?.electricityPerKwh ?? '',
-      gasUnit: st.prices?.gas?.unit ?? 'm3',
-      gasPrice: st.prices?.gas?.price ?? '',
-      oilPerLitre: st.prices?.oilPerLitre ?? '',
-      propanePerLitre: st.prices?.propanePerLitre ?? '',
-      uaPct: st.tolerances.uaPct,
-      airLeakagePct: st.tolerances.airLeakagePct,
-      pricesPct: st.tolerances.pricesPct,
-      draws: st.uncertainty.draws,
-      seed: st.uncertainty.seed,
-      ruleMaxWorstHours: st.rule?.maxUnmetHoursWorstYear ?? null,
-      ruleMaxOddsPct: st.rule?.maxLifetimeOddsPct ?? null,
-    }, { emitEvent: false });
+    this.form.reset(
+      {
+        climateSiteId: s.climateSiteId,
+        equipmentListId: s.equipmentListId,
+        wholeList: st.optionLabels === null,
+        safetyFactorPct: st.safetyFactorPct === null ? '' : String(st.safetyFactorPct),
+        discountRatePct: String(st.discountRatePct),
+        studyPeriodYears: String(st.studyPeriodYears),
+        energyEscalationPctPerYear: String(st.energyEscalationPctPerYear),
+        heatPumpSizing: st.heatPumpSizing,
+        equipmentFamily: st.equipmentFamily ?? 'all',
+        extraDesign: formatTemperatures(st.extraDesignC, this.unitSystem()),
+        climateBasisYears: st.climateBasisYears === null ? '' : String(st.climateBasisYears),
+        ownPrices: st.prices !== null,
+        currency: st.prices?.currency ?? 'USD',
+        electricityPerKwh: st.prices?.electricityPerKwh ?? '',
+        gasUnit: st.prices?.gas?.unit ?? 'm3',
+        gasPrice: st.prices?.gas?.price ?? '',
+        oilPerLitre: st.prices?.oilPerLitre ?? '',
+        propanePerLitre: st.prices?.propanePerLitre ?? '',
+        uaPct: st.tolerances.uaPct,
+        airLeakagePct: st.tolerances.airLeakagePct,
+        pricesPct: st.tolerances.pricesPct,
+        draws: st.uncertainty.draws,
+        seed: st.uncertainty.seed,
+        ruleMaxWorstHours: st.rule?.maxUnmetHoursWorstYear ?? null,
+        ruleMaxOddsPct: st.rule?.maxLifetimeOddsPct ?? null,
+      },
+      { emitEvent: false },
+    );
     void this.loadOptions(s.equipmentListId, st.optionLabels);
   }
 
@@ -208,11 +245,14 @@ export class ScenarioSettingsPanel {
   private settingsValue(): ScenarioSettings | string {
     const v = this.form.getRawValue();
     const extra = parseTemperatures(v.extraDesign, this.unitSystem());
-    if (extra === null) return `Enter the extra design temperatures as numbers in ${this.temperatureUnit()}, separated by commas`;
-    if (extra.length > EXTRA_DESIGN_TEMPERATURES_MAX) return `Add at most ${EXTRA_DESIGN_TEMPERATURES_MAX} design temperatures`;
+    if (extra === null)
+      return `Enter the extra design temperatures as numbers in ${this.temperatureUnit()}, separated by commas`;
+    if (extra.length > EXTRA_DESIGN_TEMPERATURES_MAX)
+      return `Add at most ${EXTRA_DESIGN_TEMPERATURES_MAX} design temperatures`;
     let prices: EnergyPrices | null = null;
     if (v.ownPrices) {
-      if (!PRICE_PATTERN.test(v.electricityPerKwh)) return 'Enter this scenario’s electricity price per kWh, or use the organisation’s prices';
+      if (!PRICE_PATTERN.test(v.electricityPerKwh))
+        return 'Enter this scenario’s electricity price per kWh, or use the organisation’s prices';
       prices = {
         currency: v.currency,
         electricityPerKwh: v.electricityPerKwh,
@@ -290,4 +330,13 @@ export class ScenarioSettingsPanel {
     this.saved.emit(latest);
     this.cdr.markForCheck();
   }
+}
+
+/** Same site, list and settings: only the version or the chosen design point differ. */
+function sameSettings(a: Scenario, b: Scenario): boolean {
+  return (
+    a.climateSiteId === b.climateSiteId &&
+    a.equipmentListId === b.equipmentListId &&
+    JSON.stringify(a.settings) === JSON.stringify(b.settings)
+  );
 }
