@@ -14,6 +14,8 @@ const COLD = '#4F8FBF';
 /** Ember's darker text tone, for words drawn in ember (4.8:1 on white). */
 const EMBER_TEXT = '#B44E33';
 const GREEN = '#6F8F3A';
+/** The shaded band's legend entry. */
+const BAND_NAME = 'Likely range of those hours';
 const TEXT = '#2A3A40';
 
 const group = (v: number) => Math.round(v).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ',');
@@ -36,7 +38,16 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
     animation: false,
     textStyle: { fontFamily: options.forPrint ? PRINT_FONT : FONT, color: TEXT, fontSize: small ? 10 : 12 },
     grid: { left: small ? 52 : 72, right: hasHours ? (small ? 36 : 56) : 16, top: options.compact ? 64 : small ? 48 : 56, bottom: small ? 40 : 48 },
-    legend: { top: 0, left: 'center', itemGap: options.compact ? 8 : 16, textStyle: { fontSize: small ? 10 : 12, fontFamily: options.forPrint ? PRINT_FONT : FONT } },
+    legend: {
+      // The band's invisible lower edge stays out of the legend.
+      data: [
+        'Total cost over its life',
+        ...(hasHours ? [options.compact ? 'Hours a year cooler' : 'Hours a year cooler than you set it'] : []),
+        ...(hasBand ? [BAND_NAME] : []),
+      ],
+      top: 0,
+      left: 'center',
+      itemGap: options.compact ? 8 : 16, textStyle: { fontSize: small ? 10 : 12, fontFamily: options.forPrint ? PRINT_FONT : FONT } },
     tooltip: options.forPrint ? undefined : { trigger: 'axis' },
     xAxis: {
       type: 'value',
@@ -121,7 +132,7 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
               tooltip: { show: false },
             },
             {
-              name: 'Likely range of hours short',
+              name: BAND_NAME,
               type: 'line',
               yAxisIndex: 1,
               stack: 'band',
