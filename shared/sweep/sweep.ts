@@ -631,7 +631,7 @@ function warningsOf(input: SweepInput, common: Common): SweepWarning[] {
     if (!hasReturnPeriods) {
       warnings.push({
         code: 'no-return-periods',
-        message: 'The record is too short for return-period temperatures (5- to 50-year); the ladder stops at the coldest value it has.',
+        message: 'The record is too short for return-period temperatures (5- to 50-year); the design temperatures stop at the coldest value it has.',
       });
     } else if (years < 10) {
       warnings.push({
