@@ -9,7 +9,7 @@ import request from 'supertest';
 import type { Report, ReportView } from '../../shared/reports/report-schemas';
 import type { Scenario } from '../../shared/scenarios/scenario-schemas';
 import { newReportToken, verifyReportToken, hashReportToken } from '../../server/modules/reports/report-tokens';
-import { sanitizeSvg, sniffImage } from '../../server/modules/reports/logo-router';
+import { sanitizeSvg, sniffImage } from '../../server/modules/orgs/logo-service';
 import { fixture, type Fixture } from '../support/scenario-fixture';
 import { createTestApp, inviteMember, newAgent, PASSWORD, signUp, useTestApp } from '../support/test-app';
 
