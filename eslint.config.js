@@ -61,6 +61,31 @@ export default defineConfig(
     },
   },
   {
+    // A router parses, authorises, calls its area's service and responds: it never touches the
+    // database itself (docs/architecture.md#layers-of-a-server-module).
+    files: ['server/modules/**/*-router.ts'],
+    rules: {
+      '@typescript-eslint/no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            { group: ['knex', 'pg'], allowTypeImports: true, message: 'A router does not query the database: call a service.' },
+            { group: ['**/db', '**/db.js'], message: 'A router does not query the database: call a service.' },
+            { group: ['**/*-repo', '**/*-repo.js'], allowTypeImports: true, message: 'A router calls services; only services call repositories.' },
+          ],
+        },
+      ],
+      'no-restricted-syntax': [
+        'error',
+        { selector: 'CallExpression[callee.name=/^(db|trx|knex|conn)$/]', message: 'A router does not query the database: call a service.' },
+        {
+          selector: 'MemberExpression[object.name=/^(db|trx|knex|conn)$/][property.name=/^(transaction|raw|fn|select|from|insert|update|delete|schema)$/]',
+          message: 'A router does not query the database: call a service.',
+        },
+      ],
+    },
+  },
+  {
     files: ['src/**/*.html'],
     extends: [...angular.configs.templateRecommended, ...angular.configs.templateAccessibility],
   },

@@ -10,8 +10,8 @@ import { createServer, request as httpRequest } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { describe, it } from 'node:test';
 import request from 'supertest';
-import type { Report } from '../../shared/reports/report-schemas';
-import type { Scenario } from '../../shared/scenarios/scenario-schemas';
+import { reportSchema } from '../../shared/reports/report-schemas';
+import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
 import { FAKE_STRIPE_WEBHOOK_SECRET, parseConfig } from '../../server/config';
 import { headerText } from '../../server/mail/header-text';
 import { fixture, type Fixture } from '../support/scenario-fixture';
@@ -20,9 +20,9 @@ import { createTestApp, inviteMember, newAgent, PASSWORD, signUp, uniqueEmail, u
 const t = useTestApp();
 
 async function reportOf(f: Fixture): Promise<string> {
-  const scenario = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Gas bid', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } }).expect(201)).body as Scenario;
+  const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Gas bid', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } }).expect(201)).body);
   const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200)).body as { rows: { designC: number }[] };
-  const report = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'Your heating options', points: [sweep.rows[0]?.designC ?? -10] }).expect(201)).body as Report;
+  const report = reportSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'Your heating options', points: [sweep.rows[0]?.designC ?? -10] }).expect(201)).body);
   return `/api/v1/projects/${f.projectId}/reports/${report.id}`;
 }
 

@@ -10,7 +10,7 @@ import type { AddressInfo } from 'node:net';
 import { after, before, beforeEach, describe, it } from 'node:test';
 import request from 'supertest';
 import Stripe from 'stripe';
-import type { Billing } from '../../shared/billing/billing-schemas';
+import { type Billing, billingSchema } from '../../shared/billing/billing-schemas';
 import { FAKE_STRIPE_SECRET_KEY, FAKE_STRIPE_WEBHOOK_SECRET } from '../../server/config';
 import { startPaymentFake, TEST_CARDS, type PaymentFake } from '../../server/fakes/payment-fake';
 import { createTestApp, inviteMember, resetDb, signUp, uniqueEmail, type TestApp } from '../support/test-app';
@@ -61,7 +61,7 @@ async function upgrade(owner: Awaited<ReturnType<typeof signUp>>, card: string =
   return paid;
 }
 
-const billingOf = async (owner: Awaited<ReturnType<typeof signUp>>) => (await owner.agent.get('/api/v1/billing').expect(200)).body as Billing;
+const billingOf = async (owner: Awaited<ReturnType<typeof signUp>>) => billingSchema.parse((await owner.agent.get('/api/v1/billing').expect(200)).body);
 
 function signed(event: object): { body: string; header: string } {
   const body = JSON.stringify(event);

@@ -6,10 +6,10 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { gzipSync } from 'node:zlib';
-import type { ClimateSite, ClimateUpload, RecentYears } from '../../shared/climate-sites/climate-site-schemas';
+import { climateSiteSchema, climateUploadSchema, recentYearsSchema } from '../../shared/climate-sites/climate-site-schemas';
 import { computeDesignConditions } from '../../shared/climate/design-conditions';
 import { DEMO_SITES, generateDemoSeries, seriesToIsdLite } from '../../shared/climate/demo-weather';
-import type { Scenario, SweepAnswer } from '../../shared/scenarios/scenario-schemas';
+import { scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { insertSite } from '../../server/modules/climate/climate-repo';
 import { storeRecord } from '../../server/modules/climate/climate-service';
 import { atStoragePrecision } from '../../server/modules/climate/series-codec';
@@ -50,7 +50,7 @@ async function withReference(f: Fixture) {
     .post('/api/v1/climate-sites')
     .send({ name: 'Hollin Ford (invented)', sourceKind: 'published', publishedValues: published })
     .expect(201);
-  return { referenceId, targetId: (res.body as ClimateSite).id, published };
+  return { referenceId, targetId: climateSiteSchema.parse(res.body).id, published };
 }
 
 describe('an hourly record estimated from published values', () => {
@@ -58,7 +58,7 @@ describe('an hourly record estimated from published values', () => {
     const f = await fixture(t);
     const { referenceId, targetId, published } = await withReference(f);
     const res = await f.agent.post(`/api/v1/climate-sites/${targetId}/estimate`).send({ referenceSiteId: referenceId }).expect(200);
-    const site = res.body as ClimateSite;
+    const site = climateSiteSchema.parse(res.body);
     assert.ok(site.estimate && site.computed);
     assert.equal(site.estimate.referenceSiteId, referenceId);
     assert.equal(site.estimate.label, "Hour-by-hour figures estimated from Reference airport (invented)'s record, adjusted to Hollin Ford (invented)'s published values.");
@@ -78,7 +78,7 @@ describe('an hourly record estimated from published values', () => {
     assert.equal(error.code, 'estimate_refused');
     assert.equal(error.details[0]?.path, 'referenceSiteId');
     assert.match(error.details[0]?.message ?? '', /only 4 qualifying year/);
-    const after = (await f.agent.get(`/api/v1/climate-sites/${targetId}`).expect(200)).body as ClimateSite;
+    const after = climateSiteSchema.parse((await f.agent.get(`/api/v1/climate-sites/${targetId}`).expect(200)).body);
     assert.equal(after.computed, null);
     assert.equal(after.estimate, null);
     const bad = await f.agent.post(`/api/v1/climate-sites/${targetId}/estimate`).send({ referenceSiteId: 'nope' }).expect(400);
@@ -92,7 +92,7 @@ describe('an hourly record estimated from published values', () => {
     await f.agent.post(`/api/v1/climate-sites/${targetId}/estimate`).send({ referenceSiteId: referenceId }).expect(200);
     const changed = { ...published, heating: { db99_6: published.heating.db99_6 - 1, db99: published.heating.db99 - 1 } };
     const res = await f.agent.patch(`/api/v1/climate-sites/${targetId}`).send({ publishedValues: changed }).expect(200);
-    const site = res.body as ClimateSite;
+    const site = climateSiteSchema.parse(res.body);
     assert.equal(site.estimate?.matched.db99_6, changed.heating.db99_6);
     assertClose(site.computed?.conditions.heating.db99_6, changed.heating.db99_6, 0.01, 'new 99.6 %');
   });
@@ -101,8 +101,8 @@ describe('an hourly record estimated from published values', () => {
     const f = await fixture(t);
     const { referenceId, targetId } = await withReference(f);
     await f.agent.post(`/api/v1/climate-sites/${targetId}/estimate`).send({ referenceSiteId: referenceId }).expect(200);
-    const scenario = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Estimated', climateSiteId: targetId }).expect(201)).body as Scenario;
-    const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).send({}).expect(200)).body as SweepAnswer;
+    const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Estimated', climateSiteId: targetId }).expect(201)).body);
+    const sweep = sweepAnswerSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).send({}).expect(200)).body);
     assert.equal(sweep.hasRecord, true);
     assert.equal(sweep.years.length, 12);
     assert.ok(sweep.rows.some((r) => r.unmetHoursPerYear !== null && r.worstSagC !== null));
@@ -117,7 +117,7 @@ describe('recent years of a record', () => {
     const f = await fixture(t);
     const { referenceId } = await withReference(f);
     const res = await f.agent.get(`/api/v1/climate-sites/${referenceId}/recent-years`).expect(200);
-    const answer = res.body as RecentYears;
+    const answer = recentYearsSchema.parse(res.body);
     assert.deepEqual(answer.windows.map((w) => [w.latestYears, w.firstYear, w.lastYear, w.qualifyingYearCount]), [
       [null, 2013, 2024, 12],
       [10, 2015, 2024, 10],
@@ -133,10 +133,10 @@ describe('recent years of a record', () => {
   it('sweeps a scenario over the latest 8 years only, and refuses fewer than 8', async () => {
     const f = await fixture(t);
     const { referenceId } = await withReference(f);
-    const whole = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Whole', climateSiteId: referenceId }).expect(201)).body as Scenario;
-    const recent = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Recent', climateSiteId: referenceId, settings: { climateBasisYears: 8 } }).expect(201)).body as Scenario;
-    const a = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${whole.id}/sweep`).send({}).expect(200)).body as SweepAnswer;
-    const b = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${recent.id}/sweep`).send({}).expect(200)).body as SweepAnswer;
+    const whole = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Whole', climateSiteId: referenceId }).expect(201)).body);
+    const recent = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Recent', climateSiteId: referenceId, settings: { climateBasisYears: 8 } }).expect(201)).body);
+    const a = sweepAnswerSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${whole.id}/sweep`).send({}).expect(200)).body);
+    const b = sweepAnswerSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${recent.id}/sweep`).send({}).expect(200)).body);
     assert.equal(a.years.length, 12);
     assert.deepEqual(b.years, [2017, 2018, 2019, 2020, 2021, 2022, 2023, 2024]);
     assert.equal(a.climateBasis?.description, 'Whole record (2013–2024, 12 years)');
@@ -153,19 +153,19 @@ describe('yearly ISD-Lite files in bulk', () => {
   it('reads the station and years from the file names, names the record after the station and reports the missing year', async () => {
     const f = await fixture(t);
     const site = await f.agent.post('/api/v1/climate-sites').send({ name: 'Station upload (invented)', sourceKind: 'hourly' }).expect(201);
-    const siteId = (site.body as ClimateSite).id;
+    const siteId = climateSiteSchema.parse(site.body).id;
     let request = f.agent.post(`/api/v1/climate-sites/${siteId}/uploads`);
     for (const year of [2020, 2021, 2023]) {
       const one = generateDemoSeries(demo ?? DEMO_SITES[0]!, { years: 1, endYear: year });
       request = request.attach('files', gzipSync(Buffer.from(seriesToIsdLite(one))), `725090-14739-${year}.gz`);
     }
     const res = await request.expect(201);
-    const upload = res.body as ClimateUpload;
+    const upload = climateUploadSchema.parse(res.body);
     assert.equal(upload.format, 'isd-lite');
     assert.deepEqual(upload.station, { id: '725090-14739', years: [2020, 2021, 2023], missingYears: [2022] });
     assert.equal(upload.fileName, 'ISD-Lite station 725090-14739, 2020–2023 (3 files)');
     assert.match(upload.warnings[0] ?? '', /^No file for 2022 of ISD-Lite station 725090-14739/);
-    const stored = (await f.agent.post(`/api/v1/climate-uploads/${upload.id}/confirm`).send().expect(200)).body as ClimateSite;
+    const stored = climateSiteSchema.parse((await f.agent.post(`/api/v1/climate-uploads/${upload.id}/confirm`).send().expect(200)).body);
     assert.equal(stored.computed?.fileName, 'ISD-Lite station 725090-14739, 2020–2023 (3 files)');
     assert.deepEqual(stored.computed?.conditions.period.qualifyingYears, [2020, 2021, 2023]);
   });
@@ -174,8 +174,8 @@ describe('yearly ISD-Lite files in bulk', () => {
     const f = await fixture(t);
     const site = await f.agent.post('/api/v1/climate-sites').send({ name: 'Plain upload (invented)', sourceKind: 'hourly' }).expect(201);
     const one = generateDemoSeries(demo ?? DEMO_SITES[0]!, { years: 1, endYear: 2021 });
-    const res = await f.agent.post(`/api/v1/climate-sites/${(site.body as ClimateSite).id}/uploads`).attach('files', Buffer.from(seriesToIsdLite(one)), 'station.txt').expect(201);
-    assert.equal((res.body as ClimateUpload).station, null);
-    assert.equal((res.body as ClimateUpload).fileName, 'station.txt');
+    const res = await f.agent.post(`/api/v1/climate-sites/${climateSiteSchema.parse(site.body).id}/uploads`).attach('files', Buffer.from(seriesToIsdLite(one)), 'station.txt').expect(201);
+    assert.equal(climateUploadSchema.parse(res.body).station, null);
+    assert.equal(climateUploadSchema.parse(res.body).fileName, 'station.txt');
   });
 });

@@ -9,8 +9,8 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import { PNG } from 'pngjs';
-import type { ReportView, Report } from '../../shared/reports/report-schemas';
-import type { Scenario } from '../../shared/scenarios/scenario-schemas';
+import { type ReportView, reportSchema } from '../../shared/reports/report-schemas';
+import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
 import { createPdfPool } from '../../server/modules/reports/pdf-pool';
 import { printable } from '../../server/modules/reports/pdf-worker';
 import { corruptPng, hugePng, hugeSvg, junkJpeg, realJpeg, realPng } from '../support/hostile-images';
@@ -37,19 +37,19 @@ async function pdfText(buffer: Buffer): Promise<string> {
 
 /** A scenario, a report on it and a public link to it. */
 async function sharedReport(f: Fixture, fields: { scenarioName?: string; optionLabels?: string[]; title?: string; note?: string } = {}) {
-  const scenario = (
+  const scenario = scenarioSchema.parse((
     await f.agent
       .post(`/api/v1/projects/${f.projectId}/scenarios`)
       .send({ name: fields.scenarioName ?? 'Gas bid', settings: { optionLabels: fields.optionLabels ?? ['F 6 kW', 'F 9 kW', 'F 14 kW'] } })
       .expect(201)
-  ).body as Scenario;
+  ).body);
   const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200)).body as { rows: { designC: number }[] };
-  const report = (
+  const report = reportSchema.parse((
     await f.agent
       .post(`/api/v1/projects/${f.projectId}/reports`)
       .send({ scenarioId: scenario.id, title: fields.title ?? 'Your heating options', note: fields.note ?? '', points: [sweep.rows[0]?.designC] })
       .expect(201)
-  ).body as Report;
+  ).body);
   const { url } = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({ expiresInDays: 10 }).expect(201)).body as { url: string };
   return { scenario, report, token: url.split('/r/')[1] ?? '' };
 }
@@ -231,7 +231,7 @@ describe('NUL and lone surrogates', () => {
     const f = await fixture(t);
     const { scenario, report } = await sharedReport(f);
     const project = (await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(200)).body as { version: number };
-    const fresh = (await f.agent.get(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}`).expect(200)).body as Scenario;
+    const fresh = scenarioSchema.parse((await f.agent.get(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}`).expect(200)).body);
     const cases: { method: 'post' | 'patch' | 'put'; url: string; body: (s: string) => Record<string, unknown>; path: string; agent?: request.Agent }[] = [
       { method: 'post', url: '/api/v1/auth/sign-up', body: (s) => ({ email: 'someone@example.test', name: 'A person', organizationName: s }), path: 'organizationName', agent: newAgent(t.app) },
       { method: 'post', url: '/api/v1/auth/sign-up', body: (s) => ({ email: 'someone@example.test', name: s }), path: 'name', agent: newAgent(t.app) },

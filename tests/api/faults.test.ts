@@ -13,9 +13,9 @@ import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
-import type { Billing } from '../../shared/billing/billing-schemas';
-import type { Report } from '../../shared/reports/report-schemas';
-import type { Scenario } from '../../shared/scenarios/scenario-schemas';
+import { billingSchema } from '../../shared/billing/billing-schemas';
+import { reportSchema } from '../../shared/reports/report-schemas';
+import { scenarioListSchema, scenarioSchema } from '../../shared/scenarios/scenario-schemas';
 import { FAKE_STRIPE_SECRET_KEY, FAKE_STRIPE_WEBHOOK_SECRET } from '../../server/config';
 import { createDb } from '../../server/db';
 import { startPaymentFake, TEST_CARDS, type PaymentFake } from '../../server/fakes/payment-fake';
@@ -104,7 +104,7 @@ describe('faults', () => {
     await fake.idle();
     const back = await owner.agent.get('/api/v1/projects').expect(200);
     assert.deepEqual((back.body as { name: string }[]).map((p) => p.name), ['Before the outage']);
-    const billing = (await owner.agent.get('/api/v1/billing').expect(200)).body as Billing;
+    const billing = billingSchema.parse((await owner.agent.get('/api/v1/billing').expect(200)).body);
     assert.equal(billing.usage.plan, 'crew');
     assert.equal(billing.events.length, 2);
     assert.ok(fake.deliveries().every((d) => d.status === 'delivered' && d.attempts >= 2));
@@ -176,9 +176,9 @@ describe('faults', () => {
     const f = await fixture(t);
     const record = await loadRecord(t.db, f.siteId);
     const storedRow = () => t.db('climate_records').where({ climate_site_id: f.siteId }).first('hour_count', 'sweep_index_key');
-    const scenario = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Backed up' }).expect(201)).body as Scenario;
+    const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Backed up' }).expect(201)).body);
     const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200)).body as { rows: { designC: number }[] };
-    const report = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'Backed-up report', points: [sweep.rows[0]?.designC ?? -10] }).expect(201)).body as Report;
+    const report = reportSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'Backed-up report', points: [sweep.rows[0]?.designC ?? -10] }).expect(201)).body);
     const { url } = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)).body as { url: string };
     const token = url.split('/r/')[1] ?? '';
     const file = path.join(dir, 'backup.dump');
@@ -193,7 +193,7 @@ describe('faults', () => {
 
     restoreDatabase(databaseUrl, file, bin);
     await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(200);
-    const scenarios = (await f.agent.get(`/api/v1/projects/${f.projectId}/scenarios`).expect(200)).body as Scenario[];
+    const scenarios = scenarioListSchema.parse((await f.agent.get(`/api/v1/projects/${f.projectId}/scenarios`).expect(200)).body);
     assert.deepEqual(scenarios.map((s) => s.name), ['Backed up']);
     const view = (await f.agent.get(`/api/v1/public/reports/${token}`).expect(200)).body as { title: string };
     assert.equal(view.title, 'Backed-up report');

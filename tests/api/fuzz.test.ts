@@ -6,7 +6,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import fc from 'fast-check';
-import type { Scenario } from '../../shared/scenarios/scenario-schemas';
+import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
 import { fixture } from '../support/scenario-fixture';
 import { linkToken, newAgent, setPlan, signUp, uniqueEmail, useTestApp } from '../support/test-app';
 
@@ -46,7 +46,7 @@ describe('hostile JSON bodies', () => {
   it('never get a 500 from any write route, and a refused one stores nothing', async () => {
     const f = await fixture(t);
     await setPlan(t.db, f.organizationId);
-    const scenario = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Fuzz' }).expect(201)).body as Scenario;
+    const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Fuzz' }).expect(201)).body);
     const ids: Record<string, string> = {
       projectId: f.projectId,
       scenarioId: scenario.id,

@@ -14,7 +14,7 @@ import { gzipSync } from 'node:zlib';
 import request from 'supertest';
 import { CLIMATE_UPLOAD_MAX_BYTES } from '../../shared/climate-sites/climate-site-schemas';
 import { DEMO_SITES, generateDemoSeries, seriesToCsv } from '../../shared/climate/demo-weather';
-import { baseName } from '../../server/modules/climate/climate-router';
+import { baseName } from '../../server/modules/climate/uploads-service';
 import { createTestApp, PASSWORD, signUp, useTestApp } from '../support/test-app';
 
 const t = useTestApp();

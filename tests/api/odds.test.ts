@@ -7,18 +7,18 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { returnPeriodMinimum } from '../../shared/climate/extremes';
-import type { Scenario, SweepAnswer } from '../../shared/scenarios/scenario-schemas';
+import { type Scenario, scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { fixture, type Fixture } from '../support/scenario-fixture';
 import { useTestApp } from '../support/test-app';
 
 const t = useTestApp();
 const base = (f: Fixture) => `/api/v1/projects/${f.projectId}/scenarios`;
-const sweepOf = async (f: Fixture, id: string) => (await f.agent.post(`${base(f)}/${id}/sweep`).expect(200)).body as SweepAnswer;
+const sweepOf = async (f: Fixture, id: string) => sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${id}/sweep`).expect(200)).body);
 
 describe('odds and uncertainty through the API', () => {
   it('sweeps with the odds and the band, reproducibly, and with zero tolerances the band is the nominal sweep', async () => {
     const f = await fixture(t);
-    const s = (await f.agent.post(base(f)).send({ name: 'Odds', settings: { uncertainty: { draws: 40, seed: 5 } } }).expect(201)).body as Scenario;
+    const s = scenarioSchema.parse((await f.agent.post(base(f)).send({ name: 'Odds', settings: { uncertainty: { draws: 40, seed: 5 } } }).expect(201)).body);
     assert.deepEqual(s.settings.tolerances, { uaPct: 10, airLeakagePct: 25, pricesPct: 15 });
     const a = await sweepOf(f, s.id);
     assert.deepEqual(a.uncertainty, { draws: 40, seed: 5, tolerances: { uaPct: 10, airLeakagePct: 25, pricesPct: 15 } });
@@ -33,7 +33,7 @@ describe('odds and uncertainty through the API', () => {
 
     const patch = (settings: Scenario['settings'], version: number) =>
       f.agent.patch(`${base(f)}/${s.id}`).send({ version, settings }).expect(200);
-    const zero = (await patch({ ...s.settings, tolerances: { uaPct: 0, airLeakagePct: 0, pricesPct: 0 } }, s.version)).body as Scenario;
+    const zero = scenarioSchema.parse((await patch({ ...s.settings, tolerances: { uaPct: 0, airLeakagePct: 0, pricesPct: 0 } }, s.version)).body);
     const z = await sweepOf(f, s.id);
     assert.equal(z.cached, false);
     for (const r of z.rows) {
@@ -50,7 +50,7 @@ describe('odds and uncertainty through the API', () => {
 
   it('refuses bad tolerances, draws and rules with field paths, and keeps the stored settings', async () => {
     const f = await fixture(t);
-    const s = (await f.agent.post(base(f)).send({ name: 'Odds' }).expect(201)).body as Scenario;
+    const s = scenarioSchema.parse((await f.agent.post(base(f)).send({ name: 'Odds' }).expect(201)).body);
     const res = await f.agent
       .patch(`${base(f)}/${s.id}`)
       .send({
@@ -72,7 +72,7 @@ describe('odds and uncertainty through the API', () => {
       'settings.uncertainty.draws',
       'settings.uncertainty.seed',
     ]);
-    const stored = (await f.agent.get(`${base(f)}/${s.id}`).expect(200)).body as Scenario;
+    const stored = scenarioSchema.parse((await f.agent.get(`${base(f)}/${s.id}`).expect(200)).body);
     assert.deepEqual(stored.settings, s.settings);
     assert.equal(stored.version, s.version);
   });
@@ -88,7 +88,7 @@ describe('odds and uncertainty through the API', () => {
           extremeMin: { mean: -22, sd: 3, returnPeriod: { '50': returnPeriodMinimum(-22, 3, 50) } },
         }),
       });
-    const s = (await f.agent.post(base(f)).send({ name: 'Published', climateSiteId: f.publishedSiteId }).expect(201)).body as Scenario;
+    const s = scenarioSchema.parse((await f.agent.post(base(f)).send({ name: 'Published', climateSiteId: f.publishedSiteId }).expect(201)).body);
     const a = await sweepOf(f, s.id);
     assert.deepEqual(a.odds, { meanC: -22, sdK: 3, source: 'published', years: null, shortRecord: false });
     assert.equal(a.uncertainty, null);

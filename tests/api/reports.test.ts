@@ -6,10 +6,10 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
-import type { Report, ReportView } from '../../shared/reports/report-schemas';
-import type { Scenario } from '../../shared/scenarios/scenario-schemas';
+import { type Report, reportSchema, reportViewSchema } from '../../shared/reports/report-schemas';
+import { type Scenario, scenarioSchema } from '../../shared/scenarios/scenario-schemas';
 import { newReportToken, verifyReportToken, hashReportToken } from '../../server/modules/reports/report-tokens';
-import { sanitizeSvg, sniffImage } from '../../server/modules/reports/logo-router';
+import { sanitizeSvg, sniffImage } from '../../server/modules/orgs/logo-service';
 import { fixture, type Fixture } from '../support/scenario-fixture';
 import { createTestApp, inviteMember, newAgent, PASSWORD, signUp, useTestApp } from '../support/test-app';
 
@@ -28,14 +28,14 @@ async function pdfText(buffer: Buffer): Promise<string> {
 }
 
 async function reportOf(f: Fixture, body: Record<string, unknown> = {}): Promise<{ scenario: Scenario; report: Report }> {
-  const scenario = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Gas bid', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } }).expect(201)).body as Scenario;
+  const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Gas bid', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } }).expect(201)).body);
   const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200)).body as { rows: { label: string; designC: number }[] };
   const at = (label: string) => sweep.rows.find((r) => r.label === label)?.designC ?? 0;
   const res = await f.agent
     .post(`/api/v1/projects/${f.projectId}/reports`)
     .send({ scenarioId: scenario.id, title: 'Your heating options', note: 'Call me with questions.', points: [at('99 %'), at('50-year')], ...body })
     .expect(201);
-  return { scenario, report: res.body as Report };
+  return { scenario, report: reportSchema.parse(res.body) };
 }
 
 const tokenOf = (url: string) => url.split('/r/')[1] ?? '';
@@ -67,7 +67,7 @@ describe('reports API', () => {
     const stored = await t.db('report_links').select('token_hash');
     assert.deepEqual(stored.map((r: { token_hash: string }) => r.token_hash), [hashReportToken(tokenOf(url))]);
 
-    const view = (await request(t.app).get(`/api/v1/public/reports/${tokenOf(url)}`).expect(200)).body as ReportView;
+    const view = reportViewSchema.parse((await request(t.app).get(`/api/v1/public/reports/${tokenOf(url)}`).expect(200)).body);
     assert.equal(view.title, 'Your heating options');
     assert.equal(view.note, 'Call me with questions.');
     assert.deepEqual(view.options.map((o) => o.tag), ['99 %', '50-yr']);
@@ -86,7 +86,7 @@ describe('reports API', () => {
     assert.ok(view.expiresAt);
 
     // The same figures as the signed-in preview.
-    const preview = (await f.agent.get(`/api/v1/projects/${f.projectId}/reports/${report.id}/view`).expect(200)).body as ReportView;
+    const preview = reportViewSchema.parse((await f.agent.get(`/api/v1/projects/${f.projectId}/reports/${report.id}/view`).expect(200)).body);
     assert.deepEqual(preview.options, view.options);
   });
 
@@ -96,7 +96,7 @@ describe('reports API', () => {
     const base = `/api/v1/projects/${f.projectId}/reports/${report.id}`;
     const a = (await f.agent.post(`${base}/links`).send({}).expect(201)).body as { url: string; link: { id: string } };
     const b = (await f.agent.post(`${base}/links`).send({}).expect(201)).body as { url: string; link: { id: string } };
-    const revoked = (await f.agent.delete(`${base}/links/${a.link.id}`).expect(200)).body as Report;
+    const revoked = reportSchema.parse((await f.agent.delete(`${base}/links/${a.link.id}`).expect(200)).body);
     assert.equal(revoked.links.find((l) => l.id === a.link.id)?.status, 'revoked');
     const gone = await request(t.app).get(`/api/v1/public/reports/${tokenOf(a.url)}`).expect(410);
     assert.equal((gone.body as { error: { code: string } }).error.code, 'link_revoked');
@@ -116,7 +116,7 @@ describe('reports API', () => {
     const f = await fixture(t);
     const { report } = await reportOf(f, { unitSystem: 'IP' });
     const { url } = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)).body as { url: string };
-    const view = (await request(t.app).get(`/api/v1/public/reports/${tokenOf(url)}`).expect(200)).body as ReportView;
+    const view = reportViewSchema.parse((await request(t.app).get(`/api/v1/public/reports/${tokenOf(url)}`).expect(200)).body);
     const res = await request(t.app)
       .get(`/api/v1/public/reports/${tokenOf(url)}/pdf`)
       .buffer(true)
@@ -145,7 +145,7 @@ describe('reports API', () => {
     const { report } = await reportOf(f);
     const base = `/api/v1/projects/${f.projectId}/reports/${report.id}`;
     const mail = t.sink.waitFor((m) => m.to.includes('client@example.test'));
-    const sent = (await f.agent.post(`${base}/send`).send({ to: 'client@example.test', message: 'As discussed.' }).expect(201)).body as Report;
+    const sent = reportSchema.parse((await f.agent.post(`${base}/send`).send({ to: 'client@example.test', message: 'As discussed.' }).expect(201)).body);
     assert.equal(sent.sends[0]?.status, 'sent');
     assert.equal(sent.links.length, 1);
     const m = await mail;

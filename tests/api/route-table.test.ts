@@ -8,8 +8,8 @@ import { randomUUID } from 'node:crypto';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import { can, roles, type Role } from '../../shared/auth/roles';
-import type { Report } from '../../shared/reports/report-schemas';
-import type { Scenario } from '../../shared/scenarios/scenario-schemas';
+import { reportSchema } from '../../shared/reports/report-schemas';
+import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
 import { fixture } from '../support/scenario-fixture';
 import { inviteMember, setPlan, signUp, uniqueEmail, useTestApp } from '../support/test-app';
 
@@ -48,10 +48,10 @@ describe('the route table', () => {
     // Organisation A with real objects of every kind, and a member of each role.
     const f = await fixture(t);
     await setPlan(t.db, f.organizationId);
-    const scenario = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'S' }).expect(201)).body as Scenario;
+    const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'S' }).expect(201)).body);
     await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200);
     const rung = (await t.db('sweep_results').first<{ result: { rows: { designC: number }[] } }>('result')).result.rows[0]?.designC ?? -10;
-    const report = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'R', points: [rung] }).expect(201)).body as Report;
+    const report = reportSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'R', points: [rung] }).expect(201)).body);
     const link = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)).body as { link: { id: string } };
     const invitation = (await f.agent.post('/api/v1/invitations').send({ email: uniqueEmail('pending'), role: 'viewer' }).expect(201)).body as { id: string };
     const members: Record<Role, { agent: request.Agent; userId: string }> = {

@@ -9,7 +9,7 @@ import { describe, it } from 'node:test';
 import { resolveDesignWind } from '../../shared/building/heat-loss';
 import { computeDesignConditions } from '../../shared/climate/design-conditions';
 import { equipmentOptionSchema } from '../../shared/equipment/equipment-schemas';
-import type { Comparison, Scenario, SweepAnswer } from '../../shared/scenarios/scenario-schemas';
+import { type Scenario, type SweepAnswer, comparisonSchema, scenarioListSchema, scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { sweepNaive, type SweepOption } from '../../shared/sweep/sweep';
 import { loadRecord } from '../../server/modules/climate/climate-repo';
 import { BUILDING, OPTIONS, PRICES, fixture, type Fixture } from '../support/scenario-fixture';
@@ -21,7 +21,7 @@ const base = (f: Fixture) => `/api/v1/projects/${f.projectId}/scenarios`;
 
 async function createScenario(f: Fixture, body: Record<string, unknown> = {}): Promise<Scenario> {
   const res = await f.agent.post(base(f)).send({ name: 'Base bid', ...body }).expect(201);
-  return res.body as Scenario;
+  return scenarioSchema.parse(res.body);
 }
 
 describe('scenarios API', () => {
@@ -34,13 +34,13 @@ describe('scenarios API', () => {
     assert.equal(s.settings.optionLabels, null);
     assert.equal(s.frozenAt, null);
     const renamed = await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, name: 'Renamed' }).expect(200);
-    assert.equal((renamed.body as Scenario).name, 'Renamed');
+    assert.equal(scenarioSchema.parse(renamed.body).name, 'Renamed');
     const stale = await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, name: 'Again' }).expect(409);
     assert.equal((stale.body as { error: { code: string } }).error.code, 'stale_update');
     const copy = await f.agent.post(`${base(f)}/${s.id}/duplicate`).send({}).expect(201);
-    assert.equal((copy.body as Scenario).name, 'Renamed (copy)');
+    assert.equal(scenarioSchema.parse(copy.body).name, 'Renamed (copy)');
     const list = await f.agent.get(base(f)).expect(200);
-    assert.deepEqual((list.body as Scenario[]).map((x) => x.name), ['Renamed', 'Renamed (copy)']);
+    assert.deepEqual(scenarioListSchema.parse(list.body).map((x) => x.name), ['Renamed', 'Renamed (copy)']);
     await f.agent.delete(`${base(f)}/${s.id}`).expect(204);
     await f.agent.delete(`${base(f)}/${s.id}`).expect(404);
   });
@@ -69,7 +69,7 @@ describe('scenarios API', () => {
     const f = await fixture(t);
     const s = await createScenario(f, { settings: { extraDesignC: [-12.3], discountRatePct: 4 } });
     await f.agent.get(`${base(f)}/${s.id}/sweep`).expect(404);
-    const first = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const first = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
     assert.equal(first.cached, false);
     assert.equal(first.hasRecord, true);
     assert.equal(first.years.length, 4);
@@ -109,25 +109,25 @@ describe('scenarios API', () => {
       }
     }
 
-    const second = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const second = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
     assert.equal(second.cached, true);
     assert.equal(second.inputHash, first.inputHash);
-    const read = (await f.agent.get(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const read = sweepAnswerSchema.parse((await f.agent.get(`${base(f)}/${s.id}/sweep`).expect(200)).body);
     assert.deepEqual(read.rows, first.rows);
 
     // Another input, another hash.
     await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, settings: { ...s.settings, discountRatePct: 7 } }).expect(200);
     await f.agent.get(`${base(f)}/${s.id}/sweep`).expect(404);
-    const third = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const third = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
     assert.notEqual(third.inputHash, first.inputHash);
 
     // A change to the project's building, the list or the prices gives another sweep too.
     await f.agent.put(`/api/v1/projects/${f.projectId}/building`).send({ version: 2, building: { ...BUILDING, conduction: { mode: 'ua', uaWPerK: 200 } } }).expect(200);
-    const fourth = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const fourth = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
     assert.notEqual(fourth.inputHash, third.inputHash);
     assert.ok((fourth.rows[0]?.designLoadW ?? 0) > (third.rows[0]?.designLoadW ?? 0));
     await f.agent.put('/api/v1/energy-prices').send({ version: 1, prices: { ...PRICES, electricityPerKwh: '0.2000' } }).expect(200);
-    const fifth = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const fifth = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
     assert.notEqual(fifth.inputHash, fourth.inputHash);
   });
 
@@ -136,11 +136,11 @@ describe('scenarios API', () => {
     const s = await createScenario(f);
     const url = `${base(f)}/${s.id}/sweep`;
     const first = await f.agent.post(url).expect(200);
-    assert.equal((first.body as SweepAnswer).cached, false);
+    assert.equal(sweepAnswerSchema.parse(first.body).cached, false);
     const cached = await f.agent.get(url).expect(200);
     const etag = cached.headers['etag'];
     assert.ok(typeof etag === 'string' && etag.length > 10, 'an entity tag');
-    assert.equal((cached.body as SweepAnswer).cached, true);
+    assert.equal(sweepAnswerSchema.parse(cached.body).cached, true);
     const again = await f.agent.post(url).expect(200);
     assert.equal(again.headers['etag'], etag, 'the same answer has the same tag');
     assert.deepEqual(again.body, cached.body);
@@ -149,19 +149,19 @@ describe('scenarios API', () => {
     // The names in the answer follow renames, though the figures (and the input hash) do not change.
     await f.agent.patch(`/api/v1/climate-sites/${f.siteId}`).send({ name: 'Renamed hourly site (invented)' }).expect(200);
     const renamedSite = await f.agent.get(url).set('If-None-Match', etag).expect(200);
-    assert.equal((renamedSite.body as SweepAnswer).climateSiteName, 'Renamed hourly site (invented)');
-    assert.equal((renamedSite.body as SweepAnswer).inputHash, (cached.body as SweepAnswer).inputHash);
+    assert.equal(sweepAnswerSchema.parse(renamedSite.body).climateSiteName, 'Renamed hourly site (invented)');
+    assert.equal(sweepAnswerSchema.parse(renamedSite.body).inputHash, sweepAnswerSchema.parse(cached.body).inputHash);
     assert.notEqual(renamedSite.headers['etag'], etag);
     await f.agent.patch(`/api/v1/equipment-lists/${f.listId}`).send({ version: 2, name: 'Renamed list' }).expect(200);
     const renamedList = await f.agent.post(url).expect(200);
-    assert.equal((renamedList.body as SweepAnswer).equipmentListName, 'Renamed list');
+    assert.equal(sweepAnswerSchema.parse(renamedList.body).equipmentListName, 'Renamed list');
     assert.notEqual(renamedList.headers['etag'], renamedSite.headers['etag']);
   });
 
   it('a subset of the list, and a typed-in site gives capacity and price with the hour-based figures marked unavailable', async () => {
     const f = await fixture(t);
     const s = await createScenario(f, { climateSiteId: f.publishedSiteId, settings: { optionLabels: ['F 9 kW', 'F 14 kW', 'Gone'] } });
-    const a = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const a = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
     assert.equal(a.hasRecord, false);
     assert.equal(a.loadDuration, null);
     assert.deepEqual(a.options.map((o) => o.label), ['F 9 kW', 'F 14 kW']);
@@ -177,12 +177,12 @@ describe('scenarios API', () => {
   it('freezes an immutable dated copy: its inputs cannot change, its result stays when the list changes', async () => {
     const f = await fixture(t);
     const s = await createScenario(f);
-    const frozen = (await f.agent.post(`${base(f)}/${s.id}/freeze`).send({}).expect(201)).body as Scenario;
+    const frozen = scenarioSchema.parse((await f.agent.post(`${base(f)}/${s.id}/freeze`).send({}).expect(201)).body);
     assert.ok(frozen.frozenAt);
     assert.equal(frozen.frozenFromId, s.id);
     assert.match(frozen.name, /^Base bid · bid \d{4}-\d{2}-\d{2}$/);
     assert.deepEqual(frozen.settings.prices, PRICES);
-    const before = (await f.agent.post(`${base(f)}/${frozen.id}/sweep`).expect(200)).body as SweepAnswer;
+    const before = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${frozen.id}/sweep`).expect(200)).body);
     assert.equal(before.frozen, true);
 
     const refused = await f.agent.patch(`${base(f)}/${frozen.id}`).send({ version: frozen.version, settings: { ...frozen.settings, discountRatePct: 9 } }).expect(409);
@@ -193,8 +193,8 @@ describe('scenarios API', () => {
     // The list's prices double: the live scenario changes, the frozen copy does not.
     const doubled = OPTIONS.map((o) => ({ ...o, installedPrice: (Number(o.installedPrice) * 2).toFixed(2) }));
     await f.agent.put(`/api/v1/equipment-lists/${f.listId}/options`).send({ version: 2, options: doubled }).expect(200);
-    const live = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
-    const after = (await f.agent.post(`${base(f)}/${frozen.id}/sweep`).expect(200)).body as SweepAnswer;
+    const live = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
+    const after = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${frozen.id}/sweep`).expect(200)).body);
     assert.deepEqual(after.rows, before.rows);
     const priced = (a: SweepAnswer) => a.rows.find((r) => r.installedPrice !== null)?.installedPrice;
     assert.equal(Number(priced(live)), 2 * Number(priced(before)));
@@ -206,7 +206,7 @@ describe('scenarios API', () => {
   it('keeps the chosen design point with the scenario: saved with its version, carried into a frozen copy, marked in both CSVs and listed', async () => {
     const f = await fixture(t);
     const s = await createScenario(f);
-    const a = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const a = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
     const r99 = a.rows.find((r) => r.label === '99 %');
     assert.ok(r99);
     assert.equal(s.chosenDesignC, null);
@@ -216,22 +216,22 @@ describe('scenarios API', () => {
     assert.deepEqual((bad.body as { error: { details: { path: string }[] } }).error.details.map((d) => d.path), ['chosenDesignC']);
     await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, chosenDesignC: -90 }).expect(400);
 
-    const saved = (await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, chosenDesignC: r99.designC }).expect(200)).body as Scenario;
+    const saved = scenarioSchema.parse((await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, chosenDesignC: r99.designC }).expect(200)).body);
     assert.equal(saved.chosenDesignC, r99.designC);
     assert.equal(saved.version, s.version + 1);
     // A second tab with the old version is told, and its choice does not overwrite.
     await f.agent.patch(`${base(f)}/${s.id}`).send({ version: s.version, chosenDesignC: -30 }).expect(409);
-    const reloaded = (await f.agent.get(`${base(f)}/${s.id}`).expect(200)).body as Scenario;
+    const reloaded = scenarioSchema.parse((await f.agent.get(`${base(f)}/${s.id}`).expect(200)).body);
     assert.equal(reloaded.chosenDesignC, r99.designC);
 
     // The project's list shows what the chosen point installs and its price.
-    const listed = ((await f.agent.get(base(f)).expect(200)).body as Scenario[]).find((x) => x.id === s.id);
+    const listed = (scenarioListSchema.parse((await f.agent.get(base(f)).expect(200)).body)).find((x) => x.id === s.id);
     assert.equal(listed?.chosenPoint?.label, '99 %');
     assert.equal(listed?.chosenPoint?.installedPrice, r99.installedPrice);
     assert.equal(listed?.chosenPoint?.unit, a.options.find((o) => o.id === r99.selectedOptionId)?.label);
 
     // The frozen copy keeps the bid's point and refuses a change to it.
-    const frozen = (await f.agent.post(`${base(f)}/${s.id}/freeze`).send({}).expect(201)).body as Scenario;
+    const frozen = scenarioSchema.parse((await f.agent.post(`${base(f)}/${s.id}/freeze`).send({}).expect(201)).body);
     assert.equal(frozen.chosenDesignC, r99.designC);
     const refused = await f.agent.patch(`${base(f)}/${frozen.id}`).send({ version: frozen.version, chosenDesignC: -30 }).expect(409);
     assert.equal((refused.body as { error: { code: string } }).error.code, 'frozen');
@@ -249,7 +249,7 @@ describe('scenarios API', () => {
     const cmp = await f.agent.get(`/api/v1/projects/${f.projectId}/scenario-comparison.csv`).query({ ids: [s.id, frozen.id].join(',') }).expect(200);
     assert.equal(cmp.text.trim().split('\r\n').filter((l) => l.split(',')[chosenCol] === 'yes').length, 2);
     // The comparison carries the prices each scenario used.
-    const json = (await f.agent.get(`/api/v1/projects/${f.projectId}/scenario-comparison`).query({ ids: [s.id, frozen.id].join(',') }).expect(200)).body as Comparison;
+    const json = comparisonSchema.parse((await f.agent.get(`/api/v1/projects/${f.projectId}/scenario-comparison`).query({ ids: [s.id, frozen.id].join(',') }).expect(200)).body);
     assert.deepEqual(json.entries.map((e) => e.prices), [PRICES, PRICES]);
   });
 
@@ -260,7 +260,7 @@ describe('scenarios API', () => {
     const c = await createScenario(f, { name: 'No list', equipmentListId: null });
     const url = `/api/v1/projects/${f.projectId}/scenario-comparison`;
     const res = await f.agent.get(url).query({ ids: [a.id, b.id, c.id].join(',') }).expect(200);
-    const cmp = res.body as Comparison;
+    const cmp = comparisonSchema.parse(res.body);
     assert.deepEqual(cmp.entries.map((e) => e.scenario.name), [a.name, 'Heat pump', 'No list']);
     assert.ok(cmp.entries[0]?.sweep && cmp.entries[1]?.sweep);
     assert.match(cmp.entries[2]?.problem ?? '', /equipment list/);

@@ -4,7 +4,7 @@
  */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import type { Scenario, SweepAnswer } from '../../shared/scenarios/scenario-schemas';
+import { type Scenario, scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { BUILDING, OPTIONS, fixture, type Fixture } from '../support/scenario-fixture';
 import { useTestApp } from '../support/test-app';
 
@@ -17,7 +17,7 @@ interface ErrorBody {
 const details = (body: unknown) => (body as ErrorBody).error.details ?? [];
 
 async function createScenario(f: Fixture, settings: Record<string, unknown> = {}): Promise<Scenario> {
-  return (await f.agent.post(base(f)).send({ name: 'Bid', settings }).expect(201)).body as Scenario;
+  return scenarioSchema.parse((await f.agent.post(base(f)).send({ name: 'Bid', settings }).expect(201)).body);
 }
 
 const sweepRows = async (): Promise<number> => Number((await t.db('sweep_results').count<{ count: string }[]>('* as count'))[0]?.count ?? 0);
@@ -81,7 +81,7 @@ describe('bad scenarios through the API', () => {
   it('a scenario of one family sweeps only that family, under the compressor rule by default, with the study period stated', async () => {
     const f = await fixture(t);
     const s = await createScenario(f, { equipmentFamily: 'heat-pump', studyPeriodYears: 25 });
-    const answer = (await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body as SweepAnswer;
+    const answer = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
     assert.deepEqual(answer.options.map((o) => o.kind), ['heat-pump']);
     assert.equal(answer.heatPumpSizing, 'compressor');
     assert.equal(answer.selectionRule, 'smallest-capacity');
@@ -93,7 +93,7 @@ describe('bad scenarios through the API', () => {
       assert.ok(r.backupHoursPerYear !== null && r.backupEnergyKWh !== null && r.lowestIndoorC !== null);
       assert.equal(r.worstSagC, r.worstDropK);
     }
-    const mixed = (await f.agent.post(`${base(f)}/${(await createScenario(f)).id}/sweep`).expect(200)).body as SweepAnswer;
+    const mixed = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${(await createScenario(f)).id}/sweep`).expect(200)).body);
     assert.equal(mixed.selectionRule, 'lowest-life-cycle-cost');
     assert.ok(mixed.warnings.some((w) => w.code === 'mixed-families'));
   });

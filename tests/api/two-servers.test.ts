@@ -10,8 +10,8 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { after, before, describe, it } from 'node:test';
-import type { Billing } from '../../shared/billing/billing-schemas';
-import type { Scenario } from '../../shared/scenarios/scenario-schemas';
+import { billingSchema } from '../../shared/billing/billing-schemas';
+import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
 import { FAKE_STRIPE_SECRET_KEY, FAKE_STRIPE_WEBHOOK_SECRET } from '../../server/config';
 import { startPaymentFake, TEST_CARDS, type PaymentFake } from '../../server/fakes/payment-fake';
 import { fixture } from '../support/scenario-fixture';
@@ -174,7 +174,7 @@ describe('two server processes on one database', () => {
     assert.equal(paid.status, 303);
     await fake.idle();
     assert.ok(fake.deliveries().every((d) => d.status === 'delivered'), JSON.stringify(fake.deliveries()));
-    const billing = (await call(portB(), 'GET', '/api/v1/billing')).body as Billing;
+    const billing = billingSchema.parse((await call(portB(), 'GET', '/api/v1/billing')).body);
     assert.equal(billing.usage.plan, 'crew');
     const ids = billing.events.map((e) => e.id);
     assert.equal(new Set(ids).size, ids.length, 'each event recorded once');
@@ -189,7 +189,7 @@ describe('two server processes on one database', () => {
     const { cookie } = await signInOn(portA(), f.email);
     const call = client(cookie);
     const base = `/api/v1/projects/${f.projectId}/scenarios`;
-    const scenario = (await call(portA(), 'POST', base, { name: 'Shared', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } })).body as Scenario;
+    const scenario = scenarioSchema.parse((await call(portA(), 'POST', base, { name: 'Shared', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } })).body);
     const first = await call(portA(), 'POST', `${base}/${scenario.id}/sweep`);
     assert.equal(first.status, 200);
     assert.equal((first.body as { cached: boolean }).cached, false);

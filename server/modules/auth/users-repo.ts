@@ -4,6 +4,8 @@ import type { Role } from '@shared/auth/roles';
 import { prepared } from '../../db';
 import { HttpError } from '../../http/http-error';
 
+export const TABLES = ['users'] as const;
+
 export interface UserRecord {
   id: string;
   email: string;
@@ -83,4 +85,17 @@ export async function update(
   if (patch.unitSystem !== undefined) row.unit_system = patch.unitSystem;
   if (patch.passwordHash !== undefined) row.password_hash = patch.passwordHash;
   await db('users').where({ id }).update(row);
+}
+
+/** The name and e-mail address of each of these users that still has an account, by id. */
+export async function contactsByIds(db: Knex, ids: readonly string[]): Promise<Map<string, { name: string; email: string }>> {
+  const wanted = [...new Set(ids)];
+  const rows = wanted.length ? await db('users').whereIn('id', wanted).select<{ id: string; name: string; email: string }[]>('id', 'name', 'email') : [];
+  return new Map(rows.map((r) => [r.id, { name: r.name, email: r.email }]));
+}
+
+/** The id of the account with this address, compared without case (for the audit of a failed sign-in). */
+export async function idByEmailAnyCase(db: Knex, email: string): Promise<string | null> {
+  const row = await db('users').whereRaw('lower(email) = lower(?)', [email]).first<{ id: string } | undefined>('id');
+  return row?.id ?? null;
 }

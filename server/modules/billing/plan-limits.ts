@@ -6,34 +6,29 @@
 import type { Knex } from 'knex';
 import { PLANS, type PlanId, type Usage } from '@shared/billing/billing-schemas';
 import { HttpError } from '../../http/http-error';
+import { pendingCount } from '../orgs/invitations-repo';
+import { lockOrganization, memberCount } from '../orgs/orgs-repo';
+import { countActiveProjects } from '../projects/projects-service';
+import { findPlan } from './billing-repo';
 
 const PAYING = ['active', 'trialing', 'past_due'];
 
 export async function planOf(db: Knex, organizationId: string): Promise<PlanId> {
-  const row = await db('billing_accounts').where({ organization_id: organizationId }).first<{ plan: PlanId; status: string } | undefined>('plan', 'status');
-  return row && PAYING.includes(row.status) ? row.plan : 'starter';
+  const row = await findPlan(db, organizationId);
+  return row && PAYING.includes(row.status) ? (row.plan as PlanId) : 'starter';
 }
 
 export async function usageOf(db: Knex, organizationId: string): Promise<Usage> {
   const plan = PLANS[await planOf(db, organizationId)];
-  const [projects] = await db('projects').where({ organization_id: organizationId }).whereNull('archived_at').count<{ n: number }[]>('id as n');
-  const [members] = await db('memberships').where({ organization_id: organizationId }).count<{ n: number }[]>('user_id as n');
-  const [pending] = await db('invitations')
-    .where({ organization_id: organizationId })
-    .whereNull('accepted_at')
-    .whereNull('revoked_at')
-    .where('expires_at', '>', db.fn.now())
-    .count<{ n: number }[]>('id as n');
+  const projects = await countActiveProjects(db, organizationId);
+  const members = await memberCount(db, organizationId);
+  const pending = await pendingCount(db, organizationId);
   return {
     plan: plan.id,
     planName: plan.name,
-    projects: { used: projects?.n ?? 0, limit: plan.maxProjects },
-    members: { used: (members?.n ?? 0) + (pending?.n ?? 0), limit: plan.maxMembers },
+    projects: { used: projects, limit: plan.maxProjects },
+    members: { used: members + pending, limit: plan.maxMembers },
   };
-}
-
-async function lockOrganization(trx: Knex.Transaction, organizationId: string): Promise<void> {
-  await trx('organizations').where({ id: organizationId }).forUpdate().first('id');
 }
 
 /** 402 when one more active project would pass the plan's limit. */

@@ -378,3 +378,17 @@ export async function chartData(
     );
   return row;
 }
+
+/** Whether the site is the organisation's (a project or scenario may name only its own). */
+export async function siteBelongsTo(db: Knex, organizationId: string, id: string): Promise<boolean> {
+  const row: unknown = await db('climate_sites').where({ id, organization_id: organizationId }).first('id');
+  return Boolean(row);
+}
+
+/** The file name and row count of the record a site's stored conditions were computed from. */
+export function computationSource(db: Knex, siteId: string): Promise<{ file_name: string | null; row_count: number } | undefined> {
+  return db('design_conditions').where({ climate_site_id: siteId }).first<{ file_name: string | null; row_count: number } | undefined>('file_name', 'row_count');
+}
+
+/** The tables this area owns: no other area names them (tests/api/module-tables.test.ts). */
+export const TABLES = ['climate_sites', 'climate_records', 'design_conditions'] as const;

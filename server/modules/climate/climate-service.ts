@@ -107,9 +107,7 @@ export async function storeRecord(
 
 /** Recomputes a site's stored conditions from its stored record (after its elevation or the method changed). */
 export async function recompute(trx: Knex.Transaction, siteId: string, elevationM: number | null): Promise<void> {
-  const current = await trx('design_conditions')
-    .where({ climate_site_id: siteId })
-    .first<{ file_name: string | null; row_count: number } | undefined>('file_name', 'row_count');
+  const current = await repo.computationSource(trx, siteId);
   if (!current) return;
   const series = await repo.loadRecord(trx, siteId);
   const computed = storedComputation(analyse(series, elevationM), { fileName: current.file_name, rowCount: current.row_count });
@@ -236,3 +234,96 @@ export async function recentYears(db: Knex, site: ClimateSite): Promise<RecentYe
   }
   return answer;
 }
+
+// --- Climate sites: the rules behind /api/v1/climate-sites ---------------------------------------
+
+export const siteNotFound = () => new HttpError(404, 'not_found', 'That climate site was not found');
+
+/** The site, or 404. */
+export async function requireSite(db: Knex, organizationId: string, siteId: string): Promise<ClimateSite> {
+  const site = await repo.findSite(db, organizationId, siteId);
+  if (!site) throw siteNotFound();
+  return site;
+}
+
+export async function createSite(db: Knex, organizationId: string, userId: string, input: repo.SiteWrite & { name: string; sourceKind: ClimateSite['sourceKind'] }): Promise<{ id: string; site: ClimateSite | undefined }> {
+  const id = await repo.insertSite(db, organizationId, userId, input);
+  return { id, site: await repo.findSite(db, organizationId, id) };
+}
+
+/** The site as it is shown: its conditions recomputed if they were stored by an older method, its estimate made again if its reference changed. */
+export async function currentSite(db: Knex, organizationId: string, siteId: string): Promise<ClimateSite | undefined> {
+  let site: ClimateSite | undefined = await requireSite(db, organizationId, siteId);
+  if (site.computed && site.computed.methodVersion !== METHOD_VERSION) {
+    // Stored with an older method: recompute from the stored record.
+    const elevation = site.elevationM;
+    await db.transaction((trx) => recompute(trx, siteId, elevation));
+    site = await repo.findSite(db, organizationId, siteId);
+  }
+  const referenceId = site?.estimate?.referenceSiteId;
+  if (site && referenceId && estimateIsStale(site, await repo.findSite(db, organizationId, referenceId))) {
+    // The reference's record or the method changed since: estimate again (a refusal keeps the stored estimate).
+    try {
+      await db.transaction((trx) => estimateRecord(trx, organizationId, siteId, referenceId));
+      site = await repo.findSite(db, organizationId, siteId);
+    } catch (err) {
+      if (!(err instanceof HttpError)) throw err;
+    }
+  }
+  return site;
+}
+
+export async function estimateSite(db: Knex, organizationId: string, siteId: string, referenceSiteId: string): Promise<ClimateSite | undefined> {
+  await requireSite(db, organizationId, siteId);
+  await db.transaction((trx) => estimateRecord(trx, organizationId, siteId, referenceSiteId));
+  return repo.findSite(db, organizationId, siteId);
+}
+
+export async function siteRecentYears(db: Knex, organizationId: string, siteId: string): Promise<RecentYears> {
+  const answer = await recentYears(db, await requireSite(db, organizationId, siteId));
+  if (!answer) throw new HttpError(404, 'no_record', 'This site has no hourly record yet');
+  return answer;
+}
+
+export async function patchSite(db: Knex, organizationId: string, siteId: string, patch: repo.SiteWrite): Promise<ClimateSite | undefined> {
+  await db.transaction(async (trx) => {
+    const before = await repo.findSite(trx, organizationId, siteId);
+    if (!before) throw siteNotFound();
+    if (patch.publishedValues && before.sourceKind !== 'published') {
+      throw new HttpError(422, 'not_published', 'This site computes its values from an hourly record', [
+        { path: 'publishedValues', message: 'Only sites with published values take typed-in values' },
+      ]);
+    }
+    await repo.updateSite(trx, organizationId, siteId, patch);
+    // The station pressure, and so the humidity ratios, follow the elevation.
+    if (patch.elevationM !== undefined && patch.elevationM !== before.elevationM && before.computed) {
+      await recompute(trx, siteId, patch.elevationM);
+    }
+    // An estimated record follows the published values it was matched to (a refusal undoes the change).
+    const after = await repo.findSite(trx, organizationId, siteId);
+    const referenceId = after?.estimate?.referenceSiteId;
+    if (after && referenceId && estimateIsStale(after, undefined)) {
+      await estimateRecord(trx, organizationId, siteId, referenceId);
+    }
+    // Sites estimated from this one follow its record.
+    if (patch.elevationM !== undefined && patch.elevationM !== before.elevationM && before.computed) {
+      await refreshEstimatesFrom(trx, organizationId, siteId);
+    }
+  });
+  return repo.findSite(db, organizationId, siteId);
+}
+
+export async function deleteSite(db: Knex, organizationId: string, siteId: string): Promise<void> {
+  if (!(await repo.deleteSite(db, organizationId, siteId))) throw siteNotFound();
+}
+
+export async function siteChartData(db: Knex, organizationId: string, siteId: string): Promise<NonNullable<Awaited<ReturnType<typeof repo.chartData>>>> {
+  const data = await repo.chartData(db, organizationId, siteId);
+  if (!data) {
+    await requireSite(db, organizationId, siteId);
+    throw new HttpError(404, 'no_record', 'This site has no hourly record yet');
+  }
+  return data;
+}
+
+export const listSites = repo.listSites;

@@ -3,6 +3,8 @@ import type { MembershipSummary } from '@shared/auth/auth-schemas';
 import type { Role } from '@shared/auth/roles';
 import type { Member } from '@shared/orgs/org-schemas';
 
+export const TABLES = ['organizations', 'memberships'] as const;
+
 export async function createOrganization(db: Knex, name: string, ownerId: string): Promise<string> {
   const [org] = await db('organizations').insert({ name }).returning<{ id: string }[]>('id');
   if (!org) throw new Error('insert returned no row');
@@ -73,4 +75,60 @@ export async function lockedOwnerCount(trx: Knex.Transaction, organizationId: st
     .forUpdate()
     .select('user_id');
   return rows.length;
+}
+
+/** The organisation's name (an organisation is never deleted while it has a session or a report). */
+export async function organizationName(db: Knex, organizationId: string): Promise<string> {
+  const row = await db('organizations').where({ id: organizationId }).first<{ name: string } | undefined>('name');
+  if (!row) throw new Error('organisation not found');
+  return row.name;
+}
+
+export async function setRole(db: Knex, organizationId: string, userId: string, role: Role): Promise<void> {
+  await db('memberships').where({ organization_id: organizationId, user_id: userId }).update({ role, updated_at: db.fn.now() });
+}
+
+export async function removeMember(db: Knex, organizationId: string, userId: string): Promise<void> {
+  await db('memberships').where({ organization_id: organizationId, user_id: userId }).delete();
+}
+
+/** Whether a member of the organisation has this e-mail address. */
+export async function isMemberByEmail(db: Knex, organizationId: string, email: string): Promise<boolean> {
+  const row: unknown = await db('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .where({ 'm.organization_id': organizationId, 'u.email': email })
+    .first('m.user_id');
+  return Boolean(row);
+}
+
+export async function memberCount(db: Knex, organizationId: string): Promise<number> {
+  const [row] = await db('memberships').where({ organization_id: organizationId }).count<{ n: number }[]>('user_id as n');
+  return row?.n ?? 0;
+}
+
+/** Locks the organisation's row for the caller's transaction (plan limits are checked under it). */
+export async function lockOrganization(trx: Knex.Transaction, organizationId: string): Promise<void> {
+  await trx('organizations').where({ id: organizationId }).forUpdate().first('id');
+}
+
+/** The organisations that still exist among these ids. */
+export async function existingOrganizations(db: Knex, ids: readonly string[]): Promise<Set<string>> {
+  if (ids.length === 0) return new Set();
+  const rows = await db('organizations').whereIn('id', ids).select<{ id: string }[]>('id');
+  return new Set(rows.map((r) => r.id));
+}
+
+/** The user ids of the organisation's members. */
+export async function memberUserIds(db: Knex, organizationId: string): Promise<string[]> {
+  const rows = await db('memberships').where({ organization_id: organizationId }).select<{ user_id: string }[]>('user_id');
+  return rows.map((r) => r.user_id);
+}
+
+/** The e-mail addresses of the organisation's members, in lower case. */
+export async function memberAddresses(db: Knex, organizationId: string): Promise<string[]> {
+  const rows = await db('memberships as m')
+    .join('users as u', 'u.id', 'm.user_id')
+    .where('m.organization_id', organizationId)
+    .select<{ address: string }[]>(db.raw('lower(u.email) as address'));
+  return rows.map((r) => r.address);
 }

@@ -4,7 +4,6 @@
  * database keeps only the SHA-256 of the whole token.
  */
 import { createHash, createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
-import type { Knex } from 'knex';
 
 const TAG_BYTES = 16;
 
@@ -29,21 +28,4 @@ export function verifyReportToken(secret: string, token: string): boolean {
 
 export function hashReportToken(token: string): string {
   return createHash('sha256').update(token).digest('hex');
-}
-
-/**
- * The HTTP status the report page of a link should answer with: 200 for a working link, 410 for an
- * expired or withdrawn one, 404 for one that is forged or unknown (the page itself explains which).
- */
-export async function reportLinkHttpStatus(
-  db: Knex,
-  secret: string,
-  token: string,
-): Promise<200 | 404 | 410> {
-  if (!verifyReportToken(secret, token)) return 404;
-  const link = await db('report_links')
-    .where({ token_hash: hashReportToken(token) })
-    .first<{ expires_at: Date; revoked_at: Date | null } | undefined>('expires_at', 'revoked_at');
-  if (!link) return 404;
-  return link.revoked_at || link.expires_at.getTime() <= Date.now() ? 410 : 200;
 }

@@ -12,38 +12,22 @@ import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import { capacityAt } from '@shared/equipment/capacity';
 import { equipmentOptionSchema, type EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { energyPricesSchema, type EnergyPrices } from '@shared/money/energy-prices';
-import { scenarioSettingsSchema, type ScenarioSettings, type SweepAnswer, type SweepOptionAnswer } from '@shared/scenarios/scenario-schemas';
+import { scenarioSettingsSchema, type SweepAnswer, type SweepOptionAnswer } from '@shared/scenarios/scenario-schemas';
 import { pricePerKwhOfFuel } from '@shared/money/energy-prices';
 import { familyOf, type SweepDesignValues, type SweepOption } from '@shared/sweep/sweep';
 import { HttpError } from '../../http/http-error';
 import { findSite } from '../climate/climate-repo';
+import { listForSweep, storedPrices } from '../equipment/equipment-service';
+import { findBuilding } from '../projects/projects-service';
+import * as repo from './scenarios-repo';
+import type { ScenarioRow, SweepAnswerBody } from './scenarios-repo';
 import type { SweepPool } from './sweep-pool';
 import type { SweepTask } from './sweep-worker';
 
 /** Bumped whenever the sweep's figures or the answer's shape change, so that old cache entries are not used. */
 export const SWEEP_VERSION = 'sweep-2.1.0';
 
-export interface ScenarioRow {
-  id: string;
-  organization_id: string;
-  project_id: string;
-  name: string;
-  climate_site_id: string | null;
-  equipment_list_id: string | null;
-  settings: ScenarioSettings;
-  frozen_at: Date | null;
-  frozen_from_id: string | null;
-  frozen_site_name: string | null;
-  frozen_list_name: string | null;
-  frozen_inputs: unknown;
-  frozen_result: SweepAnswerBody | null;
-  version: number;
-  /** The sweep inputs' key, when the row was read with `joinInputsKey`. */
-  inputs_key?: string;
-}
-
-/** A sweep answer without what depends on who asks and how (scenario id, cached, frozen). */
-export type SweepAnswerBody = Omit<SweepAnswer, 'scenarioId' | 'cached' | 'frozen'>;
+export type { ScenarioRow, SweepAnswerBody } from './scenarios-repo';
 
 export interface PreparedSweep {
   hash: string;
@@ -122,9 +106,7 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
   const settings = scenarioSettingsSchema.parse(scenario.settings);
   const problems: FieldIssue[] = [];
   const orgId = scenario.organization_id;
-  const project = await db('projects')
-    .where({ id: scenario.project_id, organization_id: orgId })
-    .first<{ building: Building | null } | undefined>('building');
+  const project = await findBuilding(db, orgId, scenario.project_id);
   const building = project?.building ?? null;
   if (building === null) problems.push({ path: 'building', message: 'Describe the building on the project page first' });
 
@@ -167,18 +149,13 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     problems.push({ path: 'climateSiteId', message: `"${site.name}" has no design values yet: upload and confirm its hourly record` });
   }
 
-  const list = scenario.equipment_list_id
-    ? await db('equipment_lists').where({ id: scenario.equipment_list_id, organization_id: orgId }).first<{ name: string } | undefined>('name')
-    : undefined;
+  const list = scenario.equipment_list_id ? await listForSweep(db, orgId, scenario.equipment_list_id) : undefined;
   const options: SweepOption[] = [];
   const notes: string[] = [];
   if (!list) {
     problems.push({ path: 'equipmentListId', message: 'Choose an equipment list' });
   } else {
-    const rows = await db('equipment_options')
-      .where({ equipment_list_id: scenario.equipment_list_id })
-      .orderBy('position')
-      .select<{ position: number; option: unknown }[]>('position', 'option');
+    const rows = list.options;
     const wanted = settings.optionLabels;
     const family = settings.equipmentFamily;
     const seen = new Set<string>();
@@ -207,8 +184,8 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
 
   let prices = settings.prices;
   if (prices === null) {
-    const row = await db('energy_prices').where({ organization_id: orgId }).first<{ prices: unknown } | undefined>('prices');
-    prices = row ? energyPricesSchema.parse(row.prices) : null;
+    const stored = await storedPrices(db, orgId);
+    prices = stored === undefined ? null : energyPricesSchema.parse(stored);
   }
   if (prices === null) {
     problems.push({ path: 'settings.prices', message: 'Enter the organisation’s energy prices, or give this scenario its own' });
@@ -313,10 +290,10 @@ export async function computeSweep(
 ): Promise<{ body: SweepAnswerBody; cached: boolean } | null> {
   const remembered = recent.get(prepared.hash);
   if (remembered) return { body: { ...remembered, ...prepared.meta }, cached: true };
-  const hit = await db('sweep_results').where({ input_hash: prepared.hash }).first<{ result: SweepAnswerBody; used_at: Date } | undefined>('result', 'used_at');
+  const hit = await repo.findResult(db, prepared.hash);
   if (hit) {
     // The last-used time is for pruning old entries: an hour's precision is enough, and spares a write per read.
-    if (Date.now() - hit.used_at.getTime() > 3_600_000) await db('sweep_results').where({ input_hash: prepared.hash }).update({ used_at: db.fn.now() });
+    if (Date.now() - hit.used_at.getTime() > 3_600_000) await repo.touchResult(db, prepared.hash);
     remember(prepared.hash, hit.result);
     return { body: { ...hit.result, ...prepared.meta }, cached: true };
   }
@@ -338,40 +315,13 @@ export async function computeSweep(
     odds: result.odds,
     uncertainty: result.uncertainty,
   };
-  await db('sweep_results')
-    .insert({ input_hash: prepared.hash, result: JSON.stringify(body) })
-    .onConflict('input_hash')
-    .ignore();
+  await repo.insertResult(db, prepared.hash, body);
   remember(prepared.hash, body);
   return { body, cached: false };
 }
 
-/**
- * Everything that can change a scenario's sweep inputs moves one of these: the scenario's, project's,
- * list's and prices' versions, the site's last update and computation, and the references themselves.
- * `joinInputsKey` adds it as `inputs_key` to a query of `scenarios as s` that left-joins
- * `climate_sites as cs` and `equipment_lists as el`, so that it comes with the scenario row.
- */
-export function joinInputsKey<Q extends Knex.QueryBuilder>(db: Knex, query: Q): Q {
-  return query
-    .join('projects as p', 'p.id', 's.project_id')
-    .leftJoin('energy_prices as ep', 'ep.organization_id', 's.organization_id')
-    .leftJoin('design_conditions as dc', 'dc.climate_site_id', 's.climate_site_id')
-    .select(
-      db.raw(
-        'json_build_array(s.version, s.climate_site_id, s.equipment_list_id, p.version, el.version, ep.version, cs.updated_at, dc.computed_at)::text as inputs_key',
-      ),
-    ) as Q;
-}
-
-async function inputsKey(db: Knex, row: ScenarioRow): Promise<string> {
-  if (row.inputs_key !== undefined) return row.inputs_key;
-  const query = db('scenarios as s')
-    .leftJoin('climate_sites as cs', 'cs.id', 's.climate_site_id')
-    .leftJoin('equipment_lists as el', 'el.id', 's.equipment_list_id')
-    .where('s.id', row.id);
-  const r = await joinInputsKey(db, query).first<{ inputs_key: string } | undefined>();
-  return r?.inputs_key ?? 'gone';
+function inputsKey(db: Knex, row: ScenarioRow): Promise<string> {
+  return row.inputs_key !== undefined ? Promise.resolve(row.inputs_key) : repo.inputsKeyOf(db, row.id);
 }
 
 const PREPARED_MAX = 500;

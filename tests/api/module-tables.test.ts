@@ -1,0 +1,140 @@
+/**
+ * Each server area owns its tables (the `TABLES` export of its `*-repo.ts` files) and no other area
+ * names them in a query: it calls that area's service or repository instead
+ * (docs/architecture.md#layers-of-a-server-module). The scan reads every file of `server/modules/<area>/`
+ * for table names in string literals: a literal that is a table name (`'projects'`,
+ * `'projects as p'`), or SQL text that reads or writes one (`FROM projects`, `JOIN projects`).
+ * The few read-only joins kept for speed are listed below with their reason; the list may only shrink.
+ */
+import assert from 'node:assert/strict';
+import { readdirSync, readFileSync } from 'node:fs';
+import path from 'node:path';
+import { describe, it } from 'node:test';
+
+const ROOT = path.resolve(import.meta.dirname, '../..');
+const MODULES = path.join(ROOT, 'server/modules');
+
+/** Tables that belong to no area: the rate limiter's counters (server/http). */
+const OUTSIDE_MODULES = new Set(['rate_limit_hits']);
+
+/**
+ * Read-only joins to another area's table, each kept on purpose: `file` (under server/modules) may
+ * name `table`. Anything else is a failure, and so is an entry that is no longer needed.
+ */
+const ALLOWED: readonly { file: string; table: string; reason: string }[] = [
+  // Display names of people and references, read with the row in one (prepared) query.
+  { file: 'projects/projects-repo.ts', table: 'users', reason: 'names of who created and last changed a project' },
+  { file: 'projects/projects-repo.ts', table: 'climate_sites', reason: 'the climate site name shown with a project' },
+  { file: 'projects/projects-repo.ts', table: 'equipment_lists', reason: 'the equipment list name shown with a project' },
+  { file: 'scenarios/scenarios-repo.ts', table: 'users', reason: 'the name of who last changed a scenario' },
+  { file: 'scenarios/scenarios-repo.ts', table: 'climate_sites', reason: 'site name and last update, part of the sweep inputs key' },
+  { file: 'scenarios/scenarios-repo.ts', table: 'equipment_lists', reason: 'list name and version, part of the sweep inputs key' },
+  { file: 'scenarios/scenarios-repo.ts', table: 'projects', reason: 'the project version, part of the sweep inputs key' },
+  { file: 'scenarios/scenarios-repo.ts', table: 'energy_prices', reason: 'the prices version, part of the sweep inputs key' },
+  { file: 'scenarios/scenarios-repo.ts', table: 'design_conditions', reason: 'the computation time, part of the sweep inputs key' },
+  { file: 'equipment/equipment-repo.ts', table: 'users', reason: 'the name of who last changed a list or the prices' },
+  { file: 'orgs/orgs-repo.ts', table: 'users', reason: 'members are listed with their names and addresses' },
+  { file: 'orgs/invitations-repo.ts', table: 'users', reason: 'the name of who sent an invitation' },
+  { file: 'auth/users-repo.ts', table: 'memberships', reason: 'the user and the role in the session’s organisation, in one query per request' },
+];
+
+function filesOf(dir: string): string[] {
+  return readdirSync(dir, { withFileTypes: true }).flatMap((e) =>
+    e.isDirectory() ? filesOf(path.join(dir, e.name)) : e.name.endsWith('.ts') ? [path.join(dir, e.name)] : [],
+  );
+}
+
+const areas = readdirSync(MODULES, { withFileTypes: true })
+  .filter((e) => e.isDirectory())
+  .map((e) => e.name);
+
+/** Table → owning area, from the repositories' `TABLES` exports. */
+async function ownership(): Promise<Map<string, string>> {
+  const owners = new Map<string, string>();
+  for (const area of areas) {
+    for (const file of filesOf(path.join(MODULES, area)).filter((f) => f.endsWith('-repo.ts'))) {
+      const mod = (await import(file)) as { TABLES?: readonly string[] };
+      assert.ok(mod.TABLES, `${path.relative(ROOT, file)} declares the tables it owns (export const TABLES)`);
+      for (const table of mod.TABLES) {
+        assert.equal(owners.get(table) ?? area, area, `${table} is owned by ${owners.get(table) ?? ''} and by ${area}`);
+        owners.set(table, area);
+      }
+    }
+  }
+  return owners;
+}
+
+/** The string literals of a TypeScript source (quoted and template), comments and field paths of error details left out. */
+export function stringLiterals(source: string): string[] {
+  const out: string[] = [];
+  const re = /\/\/[^\n]*|\/\*[\s\S]*?\*\/|\bpath:\s*'[^'\n]*'|'((?:[^'\\\n]|\\.)*)'|"((?:[^"\\\n]|\\.)*)"|`((?:[^`\\]|\\.)*)`/g;
+  for (const m of source.matchAll(re)) {
+    const text = m[1] ?? m[2] ?? m[3];
+    if (text !== undefined) out.push(text);
+  }
+  return out;
+}
+
+/** The tables a piece of source names in its queries. */
+export function tablesNamed(source: string, tables: Iterable<string>): Set<string> {
+  const found = new Set<string>();
+  const literals = stringLiterals(source);
+  for (const table of tables) {
+    const whole = new RegExp(`^${table}(\\s+as\\s+\\w+)?$`, 'i');
+    const inSql = new RegExp(`\\b(from|join|into|update|table)\\s+"?${table}"?(\\s|$|\\)|,)`, 'i');
+    if (literals.some((l) => whole.test(l.trim()) || inSql.test(l))) found.add(table);
+  }
+  return found;
+}
+
+/** Every (file, table) where a file of one area names another area's table. */
+function crossings(owners: Map<string, string>): { file: string; table: string }[] {
+  const out: { file: string; table: string }[] = [];
+  for (const area of areas) {
+    for (const file of filesOf(path.join(MODULES, area))) {
+      const named = tablesNamed(readFileSync(file, 'utf8'), owners.keys());
+      for (const table of named) {
+        if (owners.get(table) !== area) out.push({ file: path.relative(MODULES, file), table });
+      }
+    }
+  }
+  return out;
+}
+
+describe('tables and the areas that own them', () => {
+  it('finds table names in queries and not in prose', () => {
+    const source = [
+      "db('projects as p').leftJoin('users as u', 'u.id', 'p.created_by');",
+      'db.raw(`SELECT count(*) FROM equipment_options o WHERE o.id = ?`);',
+      '// a comment about scenarios and reports',
+      "throw new HttpError(404, 'not_found', 'That project was not found; the projects page lists them', [{ path: 'projects', message: '' }]);",
+    ].join('\n');
+    assert.deepEqual([...tablesNamed(source, ['projects', 'users', 'equipment_options', 'scenarios', 'reports'])].sort(), [
+      'equipment_options',
+      'projects',
+      'users',
+    ]);
+  });
+
+  it('gives every table of the schema exactly one owning area', async () => {
+    const owners = await ownership();
+    const migrations = readdirSync(path.join(ROOT, 'migrations')).map((f) => readFileSync(path.join(ROOT, 'migrations', f), 'utf8'));
+    const created = new Set(migrations.flatMap((m) => [...m.matchAll(/createTable\('(\w+)'/g)].map((x) => x[1] ?? '')));
+    // Tables a later migration drops for good (their records moved elsewhere).
+    created.delete('hourly_observations');
+    created.add('session'); // made by the migration of the session store
+    const unowned = [...created].filter((t) => !owners.has(t) && !OUTSIDE_MODULES.has(t)).sort();
+    assert.deepEqual(unowned, [], 'tables without an owning area');
+  });
+
+  it('lets no area query another area’s tables beyond the listed read-only joins', async () => {
+    const owners = await ownership();
+    const found = crossings(owners);
+    const key = (c: { file: string; table: string }) => `${c.file} → ${c.table}`;
+    const allowed = new Set(ALLOWED.map(key));
+    assert.deepEqual(found.map(key).filter((k) => !allowed.has(k)).sort(), [], 'queries of another area’s tables');
+    const used = new Set(found.map(key));
+    assert.deepEqual([...allowed].filter((k) => !used.has(k)).sort(), [], 'listed joins that are no longer there (remove them)');
+    for (const a of ALLOWED) assert.ok(owners.has(a.table), `${a.table} is a known table`);
+  });
+});
