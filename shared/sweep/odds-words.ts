@@ -92,18 +92,19 @@ export function oddsSentence(index: number, ctx: OddsContext): string {
     parts.push(` (${n} of the ${ctx.odds.years} winters on record had one)`);
   }
   if (row.lifetimeExceedanceProbability !== null && row.lifetimeYears !== null) {
-    parts.push(`, and ${plainOdds(row.lifetimeExceedanceProbability)} over the ${Math.round(row.lifetimeYears)} years the unit is in service`);
+    // L is the study period of the life-cycle cost (docs/methods.md#odds-of-a-colder-night).
+    parts.push(`, and ${plainOdds(row.lifetimeExceedanceProbability)} over the ${Math.round(row.lifetimeYears)}-year study period`);
   }
   return `${parts.join('')}.`;
 }
 
-/** The homeowner's sentence on the lifetime odds (null without them). */
+/** The homeowner's sentence on the odds over the years the costs are compared over (null without them). */
 export function plainLifetimeSentence(row: OddsRow, system: UnitSystem): string | null {
   if (row.lifetimeExceedanceProbability === null || row.lifetimeYears === null) return null;
   const years = Math.round(row.lifetimeYears);
   return (
     `There is ${plainOdds(row.lifetimeExceedanceProbability)} of at least one night colder than ${temperature(row, system)} ` +
-    `while this unit is in service (${years} ${years === 1 ? 'year' : 'years'}).`
+    `in the next ${years === 1 ? 'year' : `${years} years`}, the period over which the costs are compared.`
   );
 }
 
@@ -148,7 +149,8 @@ export function plainComfortSentence(index: number, ctx: OddsContext): string | 
   const { into } = stepsAround(index, ctx.rows);
   const v = into?.costPerAvoidedUnmetHour ?? null;
   if (v === null || v <= 0) return null;
-  return `Compared with the next smaller unit, each hour of cold it avoids costs about ${formatMoney(v.toFixed(2), ctx.currency)} over its life.`;
+  const years = into?.lifetimeYears == null ? '' : ` over ${Math.round(into.lifetimeYears)} years`;
+  return `Compared with the next smaller unit, each hour of cold it avoids costs about ${formatMoney(v.toFixed(2), ctx.currency)}${years}.`;
 }
 
 /** What the tolerances are about, in plain words, by the largest. */

@@ -72,11 +72,11 @@ describe('odds in words', () => {
   it('says the annual, record and lifetime odds of the chosen point', () => {
     assert.equal(
       oddsSentence(1, ctx),
-      'A night colder than −20.0 °C: about a 1-in-8 chance in any one winter (3 of the 30 winters on record had one), and about a 9-in-10 chance over the 20 years the unit is in service.',
+      'A night colder than −20.0 °C: about a 1-in-8 chance in any one winter (3 of the 30 winters on record had one), and about a 9-in-10 chance over the 20-year study period.',
     );
     assert.equal(
       plainLifetimeSentence(rows[2]!, 'IP'),
-      'There is about a 1-in-4 chance of at least one night colder than −8 °F while this unit is in service (20 years).',
+      'There is about a 1-in-4 chance of at least one night colder than −8 °F in the next 20 years, the period over which the costs are compared.',
     );
     assert.match(oddsBasisSentence({ ...ctx.odds!, years: 6, shortRecord: true }) ?? '', /fewer than 10 years on record these odds mean little/);
     assert.match(oddsBasisSentence({ meanC: -20, sdK: 3, source: 'published', years: null, shortRecord: false }) ?? '', /published mean and standard deviation/);
@@ -89,7 +89,7 @@ describe('odds in words', () => {
       'Going up to this unit at −20.0 °C costs about $2.40 for each cold hour it avoids in an average year over 20 years ($0.60 if every year were like the worst on record). ' +
         'The next larger unit, from −26.0 °C, costs about $41.00 for each cold hour it avoids in an average year over 20 years.',
     );
-    assert.equal(plainComfortSentence(2, ctx), 'Compared with the next smaller unit, each hour of cold it avoids costs about $2.40 over its life.');
+    assert.equal(plainComfortSentence(2, ctx), 'Compared with the next smaller unit, each hour of cold it avoids costs about $2.40 over 20 years.');
     assert.equal(comfortSentence(0, { ...ctx, rows: [rows[0]!] }), '');
   });
 

@@ -85,7 +85,7 @@ describe('lifetime odds', () => {
     assert.equal(plainOdds(0.97), 'a near-certain chance');
     assert.equal(
       lifetimeOddsSentence(0.25, 20),
-      'There is about a 1-in-4 chance of at least one night colder than this while this unit is in service (20 years).',
+      'There is about a 1-in-4 chance of at least one night colder than this in the next 20 years, the period over which the costs are compared.',
     );
   });
 });
