@@ -4,7 +4,7 @@
  * #price-of-comfort, #uncertainty-band). Pure; every temperature honours the unit system.
  */
 import type { UnitSystem } from '../auth/auth-schemas';
-import { formatMoney } from '../money/money';
+import { formatMoney, formatMoneyWhole } from '../money/money';
 import { formatQuantity } from '../units/units';
 import { plainOdds, type ExtremeStats } from './odds';
 
@@ -179,7 +179,8 @@ export function bandSentence(index: number, ctx: OddsContext): string {
     parts.push(`, in the worst year from ${shortHours(row.unmetHoursWorstYearP10)} to ${shortHours(row.unmetHoursWorstYearP90)}`);
   }
   if (row.lifeCycleCostP10 !== null && row.lifeCycleCostP90 !== null) {
-    parts.push(`; the life-cycle cost from ${formatMoney(row.lifeCycleCostP10, ctx.currency)} to ${formatMoney(row.lifeCycleCostP90, ctx.currency)}`);
+    // Whole units, as every other life-cycle cost on the screens.
+    parts.push(`; the life-cycle cost from ${formatMoneyWhole(row.lifeCycleCostP10, ctx.currency)} to ${formatMoneyWhole(row.lifeCycleCostP90, ctx.currency)}`);
   }
   const share = row.selectionChangeShare ?? 0;
   parts.push(share > 0 ? `. A different unit would be selected in ${Math.round(share * 100)} % of the draws.` : '. The selected unit is the same in every draw.');

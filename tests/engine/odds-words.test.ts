@@ -53,8 +53,8 @@ const rows: OddsRow[] = [
     unmetHoursPerYearP90: 30,
     unmetHoursWorstYearP10: 20,
     unmetHoursWorstYearP90: 90,
-    lifeCycleCostP10: '10100.00',
-    lifeCycleCostP90: '12300.00',
+    lifeCycleCostP10: '10100.40',
+    lifeCycleCostP90: '12299.60',
     selectionChangeShare: 0.12,
   }),
   row({ designC: -22, selectedOptionId: 'b', annualExceedanceProbability: 0.05, lifetimeExceedanceProbability: 0.25, lifetimeYears: 20 }),
@@ -97,7 +97,7 @@ describe('odds in words', () => {
     assert.equal(
       bandSentence(1, ctx),
       'Over 300 draws with UA ±10 %, air leakage ±25 % and prices ±15 %, the unmet hours per average year range from 5 to 30 (10th to 90th percentile), ' +
-        'in the worst year from 20 to 90; the life-cycle cost from $10,100.00 to $12,300.00. A different unit would be selected in 12 % of the draws.',
+        'in the worst year from 20 to 90; the life-cycle cost from $10,100 to $12,300. A different unit would be selected in 12 % of the draws.',
     );
     assert.equal(
       plainBandSentence(rows[1]!, ctx),
