@@ -61,7 +61,7 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     await pick.waitFor();
     assert.match(
       await pick.innerText(),
-      /The rule — the lowest life-cycle cost with at most 40 unmet hours in the worst year of record and at most 60 % lifetime odds/,
+      /The rule — the lowest life-cycle cost with at most 40 unmet hours in the worst year of record and at most 60 % odds of a colder night over the study period/,
     );
     assert.match(await pick.innerText(), /licensed designer decides/);
     await page.getByTestId('tradeoff-cautions').waitFor();
