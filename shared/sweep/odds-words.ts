@@ -134,7 +134,7 @@ export function comfortSentence(index: number, ctx: OddsContext): string {
     const years = step.lifetimeYears === null ? '' : ` over ${Math.round(step.lifetimeYears)} years`;
     const what =
       avg <= 0
-        ? `${lead} costs nothing extra over its life and avoids cold hours as well`
+        ? `${lead} costs nothing extra over the study period and avoids cold hours as well`
         : `${lead} costs about ${money(avg)} for each cold hour it avoids in an average year${years}` +
           (worst !== null ? ` (${money(worst)} if every year were like the worst on record)` : '');
     parts.push(`${what}.`);

@@ -54,7 +54,7 @@ function figureText(key: ReportFigure, r: SweepRowAnswer, a: SweepAnswer, system
     case 'backupHours':
       return r.compressorAtDesignW === null ? 'not a heat pump' : hours(r.backupHoursPerYear);
     case 'backupEnergy':
-      return r.compressorAtDesignW === null ? 'not a heat pump' : r.backupEnergyKWh === null ? 'not known' : `about ${Math.round(r.backupEnergyKWh).toLocaleString('en-US')} kWh`;
+      return r.compressorAtDesignW === null ? 'not a heat pump' : r.backupEnergyKWh === null ? 'not known' : Math.round(r.backupEnergyKWh) === 0 ? 'none' : `about ${Math.round(r.backupEnergyKWh).toLocaleString('en-US')} kWh`;
     case 'unmetHours':
       return hours(r.unmetHoursPerYear);
     case 'unmetWorstYear':
