@@ -7,6 +7,7 @@ import type { UnitSystem } from '../auth/auth-schemas';
 import { formatMoney, formatMoneyWhole } from '../money/money';
 import { formatQuantity } from '../units/units';
 import { plainOdds, type ExtremeStats } from './odds';
+import { wholeDegrees } from './tradeoff-summary';
 
 /** The row fields the sentences read. */
 export interface OddsRow {
@@ -103,7 +104,7 @@ export function plainLifetimeSentence(row: OddsRow, system: UnitSystem): string 
   if (row.lifetimeExceedanceProbability === null || row.lifetimeYears === null) return null;
   const years = Math.round(row.lifetimeYears);
   return (
-    `There is ${plainOdds(row.lifetimeExceedanceProbability)} of at least one night colder than ${temperature(row, system)} ` +
+    `There is ${plainOdds(row.lifetimeExceedanceProbability)} of at least one night colder than ${wholeDegrees(row.designC, system)} ` +
     `in the next ${years === 1 ? 'year' : `${years} years`}, the period over which the costs are compared.`
   );
 }

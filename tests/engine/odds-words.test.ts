@@ -78,6 +78,11 @@ describe('odds in words', () => {
       plainLifetimeSentence(rows[2]!, 'IP'),
       'There is about a 1-in-4 chance of at least one night colder than −8 °F in the next 20 years, the period over which the costs are compared.',
     );
+    // The homeowner reads whole degrees, as everywhere else in the report (−22.4 °C → −22 °C).
+    assert.equal(
+      plainLifetimeSentence({ ...rows[2]!, designC: -22.4 }, 'SI'),
+      'There is about a 1-in-4 chance of at least one night colder than −22 °C in the next 20 years, the period over which the costs are compared.',
+    );
     assert.match(oddsBasisSentence({ ...ctx.odds!, years: 6, shortRecord: true }) ?? '', /fewer than 10 years on record these odds mean little/);
     assert.match(oddsBasisSentence({ meanC: -20, sdK: 3, source: 'published', years: null, shortRecord: false }) ?? '', /published mean and standard deviation/);
   });
