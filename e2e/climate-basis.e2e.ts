@@ -2,6 +2,7 @@ import assert from 'node:assert/strict';
 import { writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
+import { checkA11y } from './support/a11y';
 import {
   SCREENSHOTS,
   guardOffline,
@@ -82,6 +83,7 @@ describe('a site with published values only, estimated from a demo record', () =
     await page.getByTestId('trend-chart').scrollIntoViewIfNeeded();
     await page.waitForTimeout(300);
     await screenshot(page, 'climate-basis-trend-1280');
+    await checkA11y(page, 'climate-basis-site');
 
     // A copy of a demo bid, moved to the new site.
     await page.goto(e2e.baseUrl + '/projects');
@@ -115,6 +117,7 @@ describe('a site with published values only, estimated from a demo record', () =
     await page.getByTestId('load-duration-chart').locator('canvas').first().waitFor();
     await page.waitForTimeout(300);
     await screenshot(page, 'climate-basis-tradeoff-1280');
+    await checkA11y(page, 'climate-basis-tradeoff');
 
     // The report and its PDF say the same.
     await page.getByRole('button', { name: 'New client report' }).click();
@@ -129,6 +132,7 @@ describe('a site with published values only, estimated from a demo record', () =
     await page.locator('.report canvas').first().waitFor();
     await page.getByText(LABEL).scrollIntoViewIfNeeded();
     await screenshot(page, 'climate-basis-report-1280');
+    await checkA11y(page, 'climate-basis-report');
 
     const [, projectId, reportId] = /\/projects\/([^/]+)\/reports\/([^/?#]+)/.exec(new URL(page.url()).pathname) ?? [];
     const pdf = await page.request.get(
@@ -149,6 +153,7 @@ describe('a site with published values only, estimated from a demo record', () =
     assert.match(await compare.locator('thead').innerText(), /latest 15 years/);
     await page.getByTestId('compare-chart').locator('canvas').first().waitFor();
     await screenshot(page, 'climate-basis-compare-1280');
+    await checkA11y(page, 'climate-basis-compare');
 
     assert.deepEqual(offenders, []);
     await context.close();

@@ -1,5 +1,6 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
+import { checkA11y } from './support/a11y';
 import { guardOffline, screenshot, seedDemoData, signInAsDemo, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -77,6 +78,7 @@ describe('a heat-pump scenario in a real browser', () => {
     await page.getByTestId('design-temps-table').getByText('Backup kWh / yr').waitFor();
     await page.getByTestId('tradeoff-chart').locator('canvas').first().waitFor();
     await screenshot(page, 'heat-pump-tradeoff-1280');
+    await checkA11y(page, 'heat-pump-tradeoff');
 
     // The client report presents the same figures in plain words.
     await page.getByRole('button', { name: 'New client report' }).click();
@@ -90,12 +92,13 @@ describe('a heat-pump scenario in a real browser', () => {
     assert.match((await point.locator('[data-figure="backupHours"] dd').innerText()).trim(), /^(about [\d.,]+|none)$/);
     assert.equal(
       (await point.locator('[data-figure="backupEnergy"] dd').innerText()).trim(),
-      `about ${Math.round(r99.backupEnergyKWh).toLocaleString('en-US')} kWh`,
+      Math.round(r99.backupEnergyKWh) === 0 ? 'none' : `about ${Math.round(r99.backupEnergyKWh).toLocaleString('en-US')} kWh`,
     );
     assert.match((await point.locator('[data-figure="lifeCycleCost"] dd').innerText()).trim(), /over 20 years$/);
     assert.match((await point.locator('[data-figure="lowestIndoor"] dd').innerText()).trim(), /°C$/);
     assert.match(await doc.innerText(), /backup heat/);
     await screenshot(page, 'heat-pump-report-1280');
+    await checkA11y(page, 'heat-pump-report');
     assert.deepEqual(offenders, []);
     await context.close();
   });

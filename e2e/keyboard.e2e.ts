@@ -3,6 +3,7 @@ import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../server/seed/demo-seed';
+import { checkA11y } from './support/a11y';
 import { SCREENSHOTS, guardOffline, seedDemoData, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -261,13 +262,14 @@ describe('the journey by keyboard alone', () => {
     // The report is live, so the first send button freezes the scenario, sends a frozen copy and
     // opens it; the focus lands on the new page's heading, as on any page change.
     const liveUrl = page.url();
-    await tabTo(page, 'report', (s) => s.tag === 'button' && s.name.endsWith("Freeze and send"));
+    await tabTo(page, 'report', (s) => s.tag === 'button' && s.name.endsWith('Freeze and send'));
     await page.keyboard.press('Enter');
     await page.waitForURL((u) => u.href !== liveUrl && u.pathname.includes('/reports/'));
     await page.getByTestId('report-sends').getByText(client).waitFor();
     await expectLanded(page, /^Heat pump options, sent by keyboard$/, /^Client report · Tailroom$/);
     assert.match(await page.getByTestId('send-form').innerText(), /\bSend\b/);
     assert.doesNotMatch(await page.getByTestId('send-form').innerText(), /Freeze and send/);
+    await checkA11y(page, 'report-sent');
 
     // At a phone's width and in IP units, the toolbar's stops show their focus on the ink too.
     await page.setViewportSize({ width: 390, height: 844 });
@@ -283,6 +285,7 @@ describe('the journey by keyboard alone', () => {
     await focusScreenshot(page, ip, 'toolbar-390-IP-units-selected');
     await tabTo(page, 'toolbar-390', named(/^Account$/));
     await tabTo(page, 'projects-390-ip', (s) => s.tag === 'a' && s.name.includes('Old Mill duplex'));
+    await checkA11y(page, 'projects-ip');
     // Back to SI for the other browser tests that sign in as this account.
     await page.getByRole('radio', { name: 'SI units (metric)' }).focus();
     await page.keyboard.press('Space');

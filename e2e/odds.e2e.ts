@@ -1,6 +1,7 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
+import { checkA11y } from './support/a11y';
 import { guardOffline, screenshot, seedDemoData, signInAsDemo, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -34,17 +35,18 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
 
     // The odds of a colder night at the chosen point (99.6 % on opening), the band and its column.
     await screenshot(page, 'odds-opened-1280');
+    await checkA11y(page, 'odds-tradeoff');
     const odds = await text(page, 'odds-sentence');
     // At the 99.6 % value most winters have a colder hour: the odds may read "a near-certain chance".
     assert.match(odds, /A night colder than .*: .*chance in any one winter/);
     assert.match(odds, /winters on record had one/);
-    assert.match(odds, /over the \d+ years the unit is in service/);
+    assert.match(odds, /over the \d+-year study period/);
     await page.getByTestId('band-sentence').waitFor();
     assert.match(await text(page, 'band-sentence'), /range from [\d.,]+ to [\d.,]+ \(10th to 90th percentile\)/);
-    assert.ok((await page.getByTestId('unmet-range').count()) > 0, 'the ladder lists the range');
+    assert.ok((await page.getByTestId('unmet-range').count()) > 0, 'the table of design temperatures lists the range');
     assert.match((await page.getByTestId('tradeoff-chart').getAttribute('aria-label')) ?? '', /10–90 % range/);
 
-    // The coldest rung: the odds are 1-in-50 a year there.
+    // The coldest design temperature: the odds are 1-in-50 a year there.
     await page.getByTestId('design-slider').focus();
     await page.keyboard.press('End');
     await page.getByTestId('chosen-temperature').filter({ hasText: '(50-year return period)' }).waitFor();
@@ -59,7 +61,7 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     await pick.waitFor();
     assert.match(
       await pick.innerText(),
-      /The rule — the lowest life-cycle cost with at most 40 unmet hours in the worst year of record and at most 60 % lifetime odds/,
+      /The rule — the lowest life-cycle cost with at most 40 unmet hours in the worst year of record and at most 60 % odds of a colder night over the study period/,
     );
     assert.match(await pick.innerText(), /licensed designer decides/);
     await page.getByTestId('tradeoff-cautions').waitFor();
@@ -70,7 +72,7 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     await page.getByTestId('tradeoff-chart').locator('canvas').first().waitFor();
     await screenshot(page, 'odds-tradeoff-1280');
     await page.getByTestId('design-temps-table').scrollIntoViewIfNeeded();
-    await screenshot(page, 'odds-ladder-1280');
+    await screenshot(page, 'odds-table-1280');
 
     // The comparison: the range, the odds and the price of comfort beside each scenario's figures.
     const scenarioUrl = page.url();
@@ -90,6 +92,7 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     assert.match(await page.locator('tr[data-figure="unmetRange"] td').first().innerText(), /h\/yr|—/);
     await page.getByTestId('compare-chart').locator('canvas').first().waitFor();
     await screenshot(page, 'odds-compare-1280');
+    await checkA11y(page, 'odds-compare');
 
     // The homeowner's report says the odds in plain words.
     await page.goto(scenarioUrl);
@@ -102,7 +105,7 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     const plain = await page.getByTestId('report-odds').allInnerTexts();
     assert.ok(
       plain.some((s) =>
-        /chance of at least one night colder than .* while this unit is in service \(\d+ years\)\./.test(s),
+        /chance of at least one night colder than .* in the next \d+ years, the period over which the costs are compared\./.test(s),
       ),
       plain.join(' | '),
     );
@@ -116,6 +119,7 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     );
     await page.getByTestId('report-odds').first().scrollIntoViewIfNeeded();
     await screenshot(page, 'odds-report-1280');
+    await checkA11y(page, 'odds-report');
 
     // A phone-sized screen.
     await page.setViewportSize({ width: 390, height: 844 });

@@ -1,6 +1,7 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import type { Page } from 'playwright-core';
+import { checkA11y } from './support/a11y';
 import { guardOffline, screenshot, seedDemoData, signInAsDemo, startE2eApp, type E2eApp } from './support/e2e-app';
 
 let e2e: E2eApp;
@@ -65,6 +66,7 @@ describe('one vocabulary and the reader’s units', () => {
       await page.keyboard.press('Tab');
       await page.locator('.mat-mdc-tooltip').filter({ hasText: 'Hours of an average year' }).waitFor();
       await screenshot(page, 'tradeoff-ip-1280');
+      await checkA11y(page, 'tradeoff-ip');
 
       // The project's building section.
       await page.goto(projectUrl);
@@ -73,6 +75,7 @@ describe('one vocabulary and the reader’s units', () => {
       assertNoSi(building, 'the building section');
       assert.match(building, /mph/);
       assert.doesNotMatch(building, /Safety factor/);
+      await checkA11y(page, 'project-building-ip');
 
       // An equipment list with heat pumps: rating points in °F, AFUE in %.
       await page.goto(e2e.baseUrl + '/equipment-lists');
@@ -86,6 +89,7 @@ describe('one vocabulary and the reader’s units', () => {
       assert.match(equipment, /Efficiency \(AFUE, %\)/);
       assert.match(equipment, /47 °F/);
       assert.doesNotMatch(equipment, /8\.3 °C|−15 °C/);
+      await checkA11y(page, 'equipment-list-ip');
 
       // The comparison of the project's two bids, with its difference rows.
       await page.goto(projectUrl);
@@ -99,6 +103,7 @@ describe('one vocabulary and the reader’s units', () => {
       assert.match(compare, /Running cost per year/);
       assert.match(compare, /baseline/);
       await screenshot(page, 'compare-ip-1280');
+      await checkA11y(page, 'compare-ip');
 
       // A report made in IP, as the homeowner reads it.
       await page.goto(projectUrl);
@@ -116,6 +121,7 @@ describe('one vocabulary and the reader’s units', () => {
       assert.match(report, /°F/);
       assert.match(report, /^Heating options for /m, 'the title comes from the project');
       await screenshot(page, 'report-ip-preview-1280');
+      await checkA11y(page, 'report-ip');
     } finally {
       // Leave the demo designer in SI for the other browser tests.
       // Through the API, so that an open dialog cannot hide the first failure.

@@ -1,6 +1,6 @@
 /**
  * Speed of the uncertainty band: the Monte Carlo of 300 draws over a 30-year hourly record (invented
- * demo weather), 25 equipment options, on the ladder the trade-off screen sweeps. Run alone with
+ * demo weather), 25 equipment options, at the design temperatures the trade-off screen sweeps. Run alone with
  * `node --import tsx scripts/bench-odds.ts`, or as part of `npm run bench`.
  */
 import { computeDesignConditions } from '../shared/climate/design-conditions';
@@ -49,7 +49,7 @@ export function benchOdds(runs = 5, draws = 300, log: (line: string) => void = c
     monteCarloCpuMs: median(cpu),
   };
   log(
-    `Uncertainty band: Monte Carlo of ${draws} draws (UA ±${DEFAULT_TOLERANCES.uaPct} %, air leakage ±${DEFAULT_TOLERANCES.airLeakagePct} %, prices ±${DEFAULT_TOLERANCES.pricesPct} %) over ${result.years} years × ${result.rows} ladder rows × ${input.options.length} options, median of ${runs}: ${result.monteCarloMs.toFixed(0)} ms (${(result.monteCarloMs / draws).toFixed(2)} ms a draw; CPU time ${result.monteCarloCpuMs.toFixed(0)} ms)`,
+    `Uncertainty band: Monte Carlo of ${draws} draws (UA ±${DEFAULT_TOLERANCES.uaPct} %, air leakage ±${DEFAULT_TOLERANCES.airLeakagePct} %, prices ±${DEFAULT_TOLERANCES.pricesPct} %) over ${result.years} years × ${result.rows} design temperatures × ${input.options.length} options, median of ${runs}: ${result.monteCarloMs.toFixed(0)} ms (${(result.monteCarloMs / draws).toFixed(2)} ms a draw; CPU time ${result.monteCarloCpuMs.toFixed(0)} ms)`,
   );
   return result;
 }

@@ -1,6 +1,6 @@
 /**
  * Sweep speed: one full sweep over a 30-year hourly record (invented demo weather), at least 60
- * ladder rows and 25 equipment options, by the fast path and by the naive loop in the same run.
+ * design-temperature rows and 25 equipment options, by the fast path and by the naive loop in the same run.
  * Run alone with `node --import tsx scripts/bench-sweep.ts`, or as part of `npm run bench`.
  */
 import { computeDesignConditions } from '../shared/climate/design-conditions';
@@ -85,7 +85,7 @@ export function benchSweep(runs = 7, log: (line: string) => void = console.log):
     designConditions: conditions.conditions,
     designWindMs: 6.7,
   };
-  // Quarter-degree extras between the grid points until the ladder has at least 60 rows.
+  // Quarter-degree extras between the grid points until the sweep has at least 60 design temperatures.
   const extraDesignC: number[] = [];
   const top = conditions.conditions.heating.db99;
   for (let t = Math.floor(top * 2) / 2 - 0.25; designLadder(base.designConditions, extraDesignC).length < 60; t -= 0.5) extraDesignC.push(t);
@@ -125,12 +125,12 @@ export function benchSweep(runs = 7, log: (line: string) => void = console.log):
     naiveMs: median(naive),
   };
   log(
-    `Sweep: ${result.years} years (${result.hours} hours) × ${result.rows} ladder rows × ${result.options} options, median of ${runs} (naive ${naiveRuns})`,
+    `Sweep: ${result.years} years (${result.hours} hours) × ${result.rows} design temperatures × ${result.options} options, median of ${runs} (naive ${naiveRuns})`,
   );
   log(`  indexing the record once (grouping hours by temperature): ${result.indexMs.toFixed(1)} ms`);
   log(`  fast sweep on the indexed record: ${result.fastMs.toFixed(1)} ms`);
   log(`  fast sweep including indexing: ${result.coldFastMs.toFixed(1)} ms`);
-  log(`  naive loop (for every ladder row: choose among the options, then walk every hour): ${result.naiveMs.toFixed(0)} ms`);
+  log(`  naive loop (for every design temperature: choose among the options, then walk every hour): ${result.naiveMs.toFixed(0)} ms`);
   log(`  naive / fast: ${(result.naiveMs / result.fastMs).toFixed(0)}× (including indexing: ${(result.naiveMs / result.coldFastMs).toFixed(0)}×)`);
   return result;
 }

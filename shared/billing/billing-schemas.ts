@@ -21,7 +21,7 @@ export interface Plan {
 }
 
 export const PLANS: Readonly<Record<PlanId, Plan>> = {
-  starter: { id: 'starter', name: 'Starter', maxProjects: 3, maxMembers: 2, prices: null },
+  starter: { id: 'starter', name: 'Starter', maxProjects: 3, maxMembers: 3, prices: null },
   crew: { id: 'crew', name: 'Crew', maxProjects: 25, maxMembers: 10, prices: { month: '39.00', year: '390.00' } },
   firm: { id: 'firm', name: 'Firm', maxProjects: null, maxMembers: 50, prices: { month: '119.00', year: '1190.00' } },
 };

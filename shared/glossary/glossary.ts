@@ -100,7 +100,7 @@ export const glossary = {
   },
   lifeCycleCost: {
     designer: 'Life-cycle cost',
-    homeowner: 'Total cost over its life',
+    homeowner: 'Total cost over the years compared',
     explain: 'Installed price plus the present value of the running costs over the study period, at the real discount rate.',
     csv: 'life_cycle_cost',
   },

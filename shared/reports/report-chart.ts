@@ -1,5 +1,5 @@
 /**
- * The report's one chart as an ECharts option: total cost over the unit's life (axis from zero, so a
+ * The report's one chart as an ECharts option: total cost over the years compared (axis from zero, so a
  * small difference does not look like a cliff) and the hours a year the house could get cooler than
  * set, against the outdoor temperature each size is sized for, with the presented options marked. Used by the report page (canvas) and
  * the PDF (SVG rendered on the server), so both show the same picture.
@@ -41,7 +41,7 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
     legend: {
       // The band's invisible lower edge stays out of the legend.
       data: [
-        'Total cost over its life',
+        'Total cost over the years compared',
         ...(hasHours ? [options.compact ? 'Hours a year cooler' : 'Hours a year cooler than you set it'] : []),
         ...(hasBand ? [BAND_NAME] : []),
       ],
@@ -84,7 +84,7 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
     ],
     series: [
       {
-        name: 'Total cost over its life',
+        name: 'Total cost over the years compared',
         type: 'line',
         yAxisIndex: 0,
         showSymbol: false,

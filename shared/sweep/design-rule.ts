@@ -37,7 +37,7 @@ export function describeRule(rule: DesignRule): string {
   }
   if (rule.maxLifetimeOddsPct !== null) {
     const oneIn = rule.maxLifetimeOddsPct > 0 ? Math.round(100 / rule.maxLifetimeOddsPct) : null;
-    limits.push(`at most ${rule.maxLifetimeOddsPct} % lifetime odds of a colder night${oneIn !== null && oneIn > 1 ? ` (about 1-in-${oneIn})` : ''}`);
+    limits.push(`at most ${rule.maxLifetimeOddsPct} % odds of a colder night over the study period${oneIn !== null && oneIn > 1 ? ` (about 1-in-${oneIn})` : ''}`);
   }
   return `the lowest life-cycle cost${limits.length > 0 ? ' with ' + limits.join(' and ') : ''}`;
 }
@@ -82,6 +82,6 @@ export function applyDesignRule(rows: readonly RuleRow[], rule: DesignRule): Rul
   const picked = rows[best];
   return {
     index: best,
-    reason: `The rule — ${words} — picks ${picked?.label ?? ''}: of the design temperatures within its limits, this one has the lowest life-cycle cost.`,
+    reason: `The rule — ${words} — picks the point marked “${picked?.label ?? ''}”: of the design temperatures within its limits, this one has the lowest life-cycle cost.`,
   };
 }

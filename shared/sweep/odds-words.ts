@@ -4,9 +4,10 @@
  * #price-of-comfort, #uncertainty-band). Pure; every temperature honours the unit system.
  */
 import type { UnitSystem } from '../auth/auth-schemas';
-import { formatMoney } from '../money/money';
+import { formatMoney, formatMoneyWhole } from '../money/money';
 import { formatQuantity } from '../units/units';
 import { plainOdds, type ExtremeStats } from './odds';
+import { wholeDegrees } from './tradeoff-summary';
 
 /** The row fields the sentences read. */
 export interface OddsRow {
@@ -92,18 +93,19 @@ export function oddsSentence(index: number, ctx: OddsContext): string {
     parts.push(` (${n} of the ${ctx.odds.years} winters on record had one)`);
   }
   if (row.lifetimeExceedanceProbability !== null && row.lifetimeYears !== null) {
-    parts.push(`, and ${plainOdds(row.lifetimeExceedanceProbability)} over the ${Math.round(row.lifetimeYears)} years the unit is in service`);
+    // L is the study period of the life-cycle cost (docs/methods.md#odds-of-a-colder-night).
+    parts.push(`, and ${plainOdds(row.lifetimeExceedanceProbability)} over the ${Math.round(row.lifetimeYears)}-year study period`);
   }
   return `${parts.join('')}.`;
 }
 
-/** The homeowner's sentence on the lifetime odds (null without them). */
+/** The homeowner's sentence on the odds over the years the costs are compared over (null without them). */
 export function plainLifetimeSentence(row: OddsRow, system: UnitSystem): string | null {
   if (row.lifetimeExceedanceProbability === null || row.lifetimeYears === null) return null;
   const years = Math.round(row.lifetimeYears);
   return (
-    `There is ${plainOdds(row.lifetimeExceedanceProbability)} of at least one night colder than ${temperature(row, system)} ` +
-    `while this unit is in service (${years} ${years === 1 ? 'year' : 'years'}).`
+    `There is ${plainOdds(row.lifetimeExceedanceProbability)} of at least one night colder than ${wholeDegrees(row.designC, system)} ` +
+    `in the next ${years === 1 ? 'year' : `${years} years`}, the period over which the costs are compared.`
   );
 }
 
@@ -133,7 +135,7 @@ export function comfortSentence(index: number, ctx: OddsContext): string {
     const years = step.lifetimeYears === null ? '' : ` over ${Math.round(step.lifetimeYears)} years`;
     const what =
       avg <= 0
-        ? `${lead} costs nothing extra over its life and avoids cold hours as well`
+        ? `${lead} costs nothing extra over the study period and avoids cold hours as well`
         : `${lead} costs about ${money(avg)} for each cold hour it avoids in an average year${years}` +
           (worst !== null ? ` (${money(worst)} if every year were like the worst on record)` : '');
     parts.push(`${what}.`);
@@ -148,7 +150,8 @@ export function plainComfortSentence(index: number, ctx: OddsContext): string | 
   const { into } = stepsAround(index, ctx.rows);
   const v = into?.costPerAvoidedUnmetHour ?? null;
   if (v === null || v <= 0) return null;
-  return `Compared with the next smaller unit, each hour of cold it avoids costs about ${formatMoney(v.toFixed(2), ctx.currency)} over its life.`;
+  const years = into?.lifetimeYears == null ? '' : ` over ${Math.round(into.lifetimeYears)} years`;
+  return `Compared with the next smaller unit, each hour of cold it avoids costs about ${formatMoney(v.toFixed(2), ctx.currency)}${years}.`;
 }
 
 /** What the tolerances are about, in plain words, by the largest. */
@@ -177,7 +180,8 @@ export function bandSentence(index: number, ctx: OddsContext): string {
     parts.push(`, in the worst year from ${shortHours(row.unmetHoursWorstYearP10)} to ${shortHours(row.unmetHoursWorstYearP90)}`);
   }
   if (row.lifeCycleCostP10 !== null && row.lifeCycleCostP90 !== null) {
-    parts.push(`; the life-cycle cost from ${formatMoney(row.lifeCycleCostP10, ctx.currency)} to ${formatMoney(row.lifeCycleCostP90, ctx.currency)}`);
+    // Whole units, as every other life-cycle cost on the screens.
+    parts.push(`; the life-cycle cost from ${formatMoneyWhole(row.lifeCycleCostP10, ctx.currency)} to ${formatMoneyWhole(row.lifeCycleCostP90, ctx.currency)}`);
   }
   const share = row.selectionChangeShare ?? 0;
   parts.push(share > 0 ? `. A different unit would be selected in ${Math.round(share * 100)} % of the draws.` : '. The selected unit is the same in every draw.');

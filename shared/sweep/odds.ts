@@ -138,10 +138,10 @@ export function plainOdds(probability: number): string {
 }
 
 /**
- * The homeowner's sentence for the lifetime odds: "about a 1-in-4 chance of at least one night colder
- * than this while this unit is in service (20 years)".
+ * The homeowner's sentence for the odds over the study period: "about a 1-in-4 chance of at least one
+ * night colder than this in the next 20 years, the period over which the costs are compared".
  */
 export function lifetimeOddsSentence(probability: number, years: number): string {
-  const span = `${Math.round(years)} ${Math.round(years) === 1 ? 'year' : 'years'}`;
-  return `There is ${plainOdds(probability)} of at least one night colder than this while this unit is in service (${span}).`;
+  const span = Math.round(years) === 1 ? 'year' : `${Math.round(years)} years`;
+  return `There is ${plainOdds(probability)} of at least one night colder than this in the next ${span}, the period over which the costs are compared.`;
 }

@@ -188,11 +188,12 @@ describe('billing', () => {
     assert.match((portal.body as { url: string }).url, /\/portal\/bps_/);
   });
 
-  it('holds two members on the free plan, counting open invitations', async () => {
+  it('holds three members on the free plan, counting open invitations', async () => {
     const owner = await signUp(t);
-    await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('first'), role: 'viewer' }).expect(201);
-    const refused = await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('second'), role: 'viewer' }).expect(402);
-    assert.match((refused.body as { error: { message: string } }).error.message, /Starter plan holds 2 members/);
+    await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('first'), role: 'designer' }).expect(201);
+    await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('second'), role: 'viewer' }).expect(201);
+    const refused = await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('third'), role: 'viewer' }).expect(402);
+    assert.match((refused.body as { error: { message: string } }).error.message, /Starter plan holds 3 members/);
   });
 
   it('is for owners only', async () => {

@@ -28,6 +28,18 @@ describe('demo data', () => {
     }
   });
 
+  it('fits its plan: the Team and billing pages read within the limits', async () => {
+    const agent = newAgent(t.app);
+    await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[0].email, password: DEMO_PASSWORD }).expect(200);
+    const usage = (await agent.get('/api/v1/billing/usage').expect(200)).body as {
+      members: { used: number; limit: number };
+      projects: { used: number; limit: number | null };
+    };
+    assert.equal(usage.members.used, DEMO_ACCOUNTS.length);
+    assert.ok(usage.members.used <= usage.members.limit, `${usage.members.used} of ${usage.members.limit} members`);
+    assert.ok(usage.projects.limit === null || usage.projects.used <= usage.projects.limit);
+  });
+
   it('labels its climate sites as invented and gives each hourly one 30 qualifying years', async () => {
     const agent = newAgent(t.app);
     await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD }).expect(200);
@@ -41,7 +53,7 @@ describe('demo data', () => {
     }
   });
 
-  it('gives each demo project two bid scenarios whose sweeps show a trade-off across the ladder', async () => {
+  it('gives each demo project two bid scenarios whose sweeps show a trade-off across the design temperatures', async () => {
     const agent = newAgent(t.app);
     await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD }).expect(200);
     const projects = (await agent.get('/api/v1/projects').expect(200)).body as { id: string }[];
@@ -57,8 +69,8 @@ describe('demo data', () => {
       };
       assert.equal(sweep.years.length, 30);
       const named = sweep.rows.filter((r) => !r.isGrid);
-      assert.ok(named.every((r) => r.selectedOptionId !== null), `${sc.name}: a unit at every named rung`);
-      // The mildest rung installs a smaller unit than the coldest, and falls short more often.
+      assert.ok(named.every((r) => r.selectedOptionId !== null), `${sc.name}: a unit at every named design temperature`);
+      // The mildest design temperature installs a smaller unit than the coldest, and falls short more often.
       assert.notEqual(named[0]?.selectedOptionId, named.at(-1)?.selectedOptionId, `${sc.name}: one unit everywhere`);
       // A heat pump sized on its compressor falls short onto its backup heat: there the trade-off is in backup hours.
       const shortfall = (r: (typeof named)[number] | undefined) => (r?.unmetHoursPerYear ?? 0) + (r?.backupHoursPerYear ?? 0);

@@ -75,9 +75,13 @@ describe('reports API', () => {
     assert.match(view.options[0]?.heading ?? '', /^Option A: sized for a typical cold winter night \(−?\d+ °C\)$/);
     assert.match(view.options[0]?.sentence ?? '', /typical winter|keeps the house at the temperature you set/);
     assert.ok(view.climate.some((c) => c.includes('about 88 hours')));
+    // Each option's odds in one paragraph led by its letter, in whole degrees, over the years the costs are compared.
+    assert.deepEqual(view.options.map((o) => o.odds.length), [1, 1]);
+    assert.match(view.options[0]?.odds[0] ?? '', /^Option A: There is .+ of at least one night colder than −?\d+ °C in the next \d+ years, the period over which the costs are compared\./);
+    assert.match(view.options[1]?.odds[0] ?? '', /^Option B: /);
     assert.equal(view.cautions.length, 4);
     // Written for a homeowner: none of the designer's terms or the internal scenario name in what the homeowner reads.
-    const homeownerText = JSON.stringify([view.title, view.status, view.building, view.climate, view.cautionsTitle, view.cautions, view.provenance, view.options.map((o) => [o.heading, o.unit, o.capacity, o.sentence, o.figures.map((x) => [x.label, x.text])])]);
+    const homeownerText = JSON.stringify([view.title, view.status, view.building, view.climate, view.cautionsTitle, view.cautions, view.provenance, view.options.map((o) => [o.heading, o.unit, o.capacity, o.sentence, o.figures.map((x) => [x.label, x.text]), o.odds])]);
     for (const jargon of [/unmet/i, /design (temperature|load|point)/i, /set-point/i, /\bsag\b/i, /ladder/i, /\brung/i, /life-cycle/i, /Gas bid/, /fall(s)? behind the load/i]) {
       assert.doesNotMatch(homeownerText, jargon);
     }

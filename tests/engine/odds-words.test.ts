@@ -53,8 +53,8 @@ const rows: OddsRow[] = [
     unmetHoursPerYearP90: 30,
     unmetHoursWorstYearP10: 20,
     unmetHoursWorstYearP90: 90,
-    lifeCycleCostP10: '10100.00',
-    lifeCycleCostP90: '12300.00',
+    lifeCycleCostP10: '10100.40',
+    lifeCycleCostP90: '12299.60',
     selectionChangeShare: 0.12,
   }),
   row({ designC: -22, selectedOptionId: 'b', annualExceedanceProbability: 0.05, lifetimeExceedanceProbability: 0.25, lifetimeYears: 20 }),
@@ -72,11 +72,16 @@ describe('odds in words', () => {
   it('says the annual, record and lifetime odds of the chosen point', () => {
     assert.equal(
       oddsSentence(1, ctx),
-      'A night colder than −20.0 °C: about a 1-in-8 chance in any one winter (3 of the 30 winters on record had one), and about a 9-in-10 chance over the 20 years the unit is in service.',
+      'A night colder than −20.0 °C: about a 1-in-8 chance in any one winter (3 of the 30 winters on record had one), and about a 9-in-10 chance over the 20-year study period.',
     );
     assert.equal(
       plainLifetimeSentence(rows[2]!, 'IP'),
-      'There is about a 1-in-4 chance of at least one night colder than −8 °F while this unit is in service (20 years).',
+      'There is about a 1-in-4 chance of at least one night colder than −8 °F in the next 20 years, the period over which the costs are compared.',
+    );
+    // The homeowner reads whole degrees, as everywhere else in the report (−22.4 °C → −22 °C).
+    assert.equal(
+      plainLifetimeSentence({ ...rows[2]!, designC: -22.4 }, 'SI'),
+      'There is about a 1-in-4 chance of at least one night colder than −22 °C in the next 20 years, the period over which the costs are compared.',
     );
     assert.match(oddsBasisSentence({ ...ctx.odds!, years: 6, shortRecord: true }) ?? '', /fewer than 10 years on record these odds mean little/);
     assert.match(oddsBasisSentence({ meanC: -20, sdK: 3, source: 'published', years: null, shortRecord: false }) ?? '', /published mean and standard deviation/);
@@ -89,7 +94,7 @@ describe('odds in words', () => {
       'Going up to this unit at −20.0 °C costs about $2.40 for each cold hour it avoids in an average year over 20 years ($0.60 if every year were like the worst on record). ' +
         'The next larger unit, from −26.0 °C, costs about $41.00 for each cold hour it avoids in an average year over 20 years.',
     );
-    assert.equal(plainComfortSentence(2, ctx), 'Compared with the next smaller unit, each hour of cold it avoids costs about $2.40 over its life.');
+    assert.equal(plainComfortSentence(2, ctx), 'Compared with the next smaller unit, each hour of cold it avoids costs about $2.40 over 20 years.');
     assert.equal(comfortSentence(0, { ...ctx, rows: [rows[0]!] }), '');
   });
 
@@ -97,7 +102,7 @@ describe('odds in words', () => {
     assert.equal(
       bandSentence(1, ctx),
       'Over 300 draws with UA ±10 %, air leakage ±25 % and prices ±15 %, the unmet hours per average year range from 5 to 30 (10th to 90th percentile), ' +
-        'in the worst year from 20 to 90; the life-cycle cost from $10,100.00 to $12,300.00. A different unit would be selected in 12 % of the draws.',
+        'in the worst year from 20 to 90; the life-cycle cost from $10,100 to $12,300. A different unit would be selected in 12 % of the draws.',
     );
     assert.equal(
       plainBandSentence(rows[1]!, ctx),

@@ -85,7 +85,7 @@ describe('lifetime odds', () => {
     assert.equal(plainOdds(0.97), 'a near-certain chance');
     assert.equal(
       lifetimeOddsSentence(0.25, 20),
-      'There is about a 1-in-4 chance of at least one night colder than this while this unit is in service (20 years).',
+      'There is about a 1-in-4 chance of at least one night colder than this in the next 20 years, the period over which the costs are compared.',
     );
   });
 });
@@ -172,7 +172,8 @@ describe('stated rule', () => {
   it('picks the lowest life-cycle cost within the limits, and says why', () => {
     const pick = applyDesignRule(rows, { maxUnmetHoursWorstYear: 10, maxLifetimeOddsPct: 20 });
     assert.equal(pick.index, 3);
-    assert.match(pick.reason, /picks 20-year/);
+    assert.match(pick.reason, /picks the point marked “20-year”/);
+    assert.match(pick.reason, /at most 20 % odds of a colder night over the study period/);
     assert.match(pick.reason, /at most 10 unmet hours in the worst year of record/);
     assert.match(pick.reason, /1-in-5/);
     assert.equal(applyDesignRule(rows, { maxUnmetHoursWorstYear: 40, maxLifetimeOddsPct: null }).index, 1);

@@ -33,6 +33,6 @@ describe('report chart legend', () => {
 
   it('leaves the band out of the legend when there is no band', () => {
     const option = reportChartOption(view(false), { compact: false });
-    assert.deepEqual((option['legend'] as { data: string[] }).data, ['Total cost over its life', 'Hours a year cooler than you set it']);
+    assert.deepEqual((option['legend'] as { data: string[] }).data, ['Total cost over the years compared', 'Hours a year cooler than you set it']);
   });
 });

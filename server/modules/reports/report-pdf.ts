@@ -113,7 +113,7 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
         stack: [
           { text: 'What each size costs, and how often it could fall short', style: 'h2' },
           {
-            text: `Left to right: units sized for colder and colder nights. The green line is the total cost over the unit’s life (from zero); the blue area is the hours a year the house could get cooler than you set it. ${optionMarks(view.options.length)}`,
+            text: `Left to right: units sized for colder and colder nights. The green line is the total cost over the years compared (from zero); the blue area is the hours a year the house could get cooler than you set it. ${optionMarks(view.options.length)}`,
             style: 'small',
             margin: [0, 0, 0, 4],
           },

@@ -54,7 +54,7 @@ function figureText(key: ReportFigure, r: SweepRowAnswer, a: SweepAnswer, system
     case 'backupHours':
       return r.compressorAtDesignW === null ? 'not a heat pump' : hours(r.backupHoursPerYear);
     case 'backupEnergy':
-      return r.compressorAtDesignW === null ? 'not a heat pump' : r.backupEnergyKWh === null ? 'not known' : `about ${Math.round(r.backupEnergyKWh).toLocaleString('en-US')} kWh`;
+      return r.compressorAtDesignW === null ? 'not a heat pump' : r.backupEnergyKWh === null ? 'not known' : Math.round(r.backupEnergyKWh) === 0 ? 'none' : `about ${Math.round(r.backupEnergyKWh).toLocaleString('en-US')} kWh`;
     case 'unmetHours':
       return hours(r.unmetHoursPerYear);
     case 'unmetWorstYear':
@@ -123,13 +123,15 @@ export function buildReportView(src: ReportSource): ReportView {
   const options = report.points.flatMap((t, k) => {
     const r = a.rows[nearestRowIndex(a.rows, t)];
     if (!r) return [];
-    const odds = [
+    const letter = letters[k] ?? String(k + 1);
+    // One paragraph per option, led by its letter: the sentences stand below the option cards.
+    const oddsLines = [
       plainLifetimeSentence(r, system),
       plainBandSentence(r, oddsContext),
       plainComfortSentence(a.rows.indexOf(r), oddsContext),
     ].filter((x): x is string => x !== null);
+    const odds = oddsLines.length > 0 ? [`Option ${letter}: ${oddsLines.join(' ')}`] : [];
     const unit = r.selectedOptionId ? (labelOf.get(r.selectedOptionId) ?? r.selectedOptionId) : 'No unit on the list is big enough';
-    const letter = letters[k] ?? String(k + 1);
     return [
       {
         heading: r.isGrid

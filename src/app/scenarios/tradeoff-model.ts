@@ -186,7 +186,8 @@ export function tradeoffChart(
           ...named.map((r) => ({
             xAxis: x(r.designC),
             lineStyle: { color: '#9AA7AB', type: 'dotted' as const, width: 1 },
-            label: { formatter: designValueTag(r.label), color: TEXT, fontSize: compact ? 9 : 11, position: 'insideEndTop' as const, rotate: 90 },
+            // On the page's paper colour, so the cost lines passing behind do not strike the tag through.
+            label: { formatter: designValueTag(r.label), color: TEXT, fontSize: compact ? 9 : 11, position: 'insideEndTop' as const, rotate: 90, backgroundColor: 'rgba(247, 248, 246, 0.9)', padding: [1, 2] },
           })),
           ...(chosen
             ? [

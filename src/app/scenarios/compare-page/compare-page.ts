@@ -128,7 +128,8 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
       margin-top: 0.75rem;
     }
     .controls mat-form-field {
-      min-width: 16rem;
+      /* Wide enough for "The point chosen in each scenario" without an ellipsis, never wider than a phone. */
+      min-width: min(22rem, 100%);
     }
     .table-wrap {
       overflow-x: auto;
