@@ -41,6 +41,11 @@ function invalidAnswer(): HttpErrorResponse {
   });
 }
 
+/** A request the API refuses with `answer` (HttpClient rejects with the HttpErrorResponse itself). */
+function refusal(answer: HttpErrorResponse): () => Promise<never> {
+  return () => jasmine.createSpy('refused').and.rejectWith(answer)() as Promise<never>;
+}
+
 /** A promise with its resolve and reject at hand, to hold a request open. */
 function deferred<T>() {
   let resolve!: (value: T) => void;
@@ -56,9 +61,9 @@ describe('VersionedEdit', () => {
   it('saves from the record’s version and keeps the answer as the new record', async () => {
     const edit = new VersionedEdit<Note>({ record: signal(FIRST) });
     const sent: number[] = [];
-    const saved = await edit.save(async (n) => {
+    const saved = await edit.save((n) => {
       sent.push(n.version);
-      return { ...n, version: n.version + 1, text: 'Boiler room, east' };
+      return Promise.resolve({ ...n, version: n.version + 1, text: 'Boiler room, east' });
     });
     expect(sent).toEqual([3]);
     expect(saved?.version).toBe(4);
@@ -98,7 +103,7 @@ describe('VersionedEdit', () => {
     const placeErrors = jasmine.createSpy('placeErrors').and.returnValue('placed');
     const edit = new VersionedEdit<Note>({ record: signal(FIRST), load, placeErrors });
 
-    const saved = await edit.save(() => Promise.reject(staleAnswer()));
+    const saved = await edit.save(refusal(staleAnswer()));
     expect(saved).toBeNull();
     expect(edit.isStale()).toBeTrue();
     expect(edit.error()).toContain('Robin Ash');
@@ -114,17 +119,17 @@ describe('VersionedEdit', () => {
 
     // The next save is made from their version.
     const versions: number[] = [];
-    await edit.save(async (n) => {
+    await edit.save((n) => {
       versions.push(n.version);
-      return { ...n, version: 5 };
+      return Promise.resolve({ ...n, version: 5 });
     });
     expect(versions).toEqual([4]);
   });
 
   it('keeps the stale state and shows why when the reload itself fails', async () => {
     const offline = new HttpErrorResponse({ status: 0, url: '/api/v1/notes/n1' });
-    const edit = new VersionedEdit<Note>({ record: signal(FIRST), load: () => Promise.reject(offline) });
-    await edit.save(() => Promise.reject(staleAnswer()));
+    const edit = new VersionedEdit<Note>({ record: signal(FIRST), load: refusal(offline) });
+    await edit.save(refusal(staleAnswer()));
     expect(await edit.reload()).toBeNull();
     expect(edit.record()).toBe(FIRST);
     expect(edit.isStale()).toBeTrue();
@@ -134,7 +139,7 @@ describe('VersionedEdit', () => {
   it('without a way to reload shows a stale save like any other refusal', async () => {
     const form = new FormGroup({ text: new FormControl('') });
     const edit = new VersionedEdit<Note>({ record: signal(FIRST), placeErrors: (e) => applyApiErrors(form, e) });
-    await edit.save(() => Promise.reject(staleAnswer()));
+    await edit.save(refusal(staleAnswer()));
     expect(edit.isStale()).toBeFalse();
     expect(edit.error()).toContain('Robin Ash');
   });
@@ -146,7 +151,7 @@ describe('VersionedEdit', () => {
       load: () => Promise.resolve(THEIRS),
       placeErrors: (e) => applyApiErrors(form, e),
     });
-    await edit.save(() => Promise.reject(invalidAnswer()));
+    await edit.save(refusal(invalidAnswer()));
     expect(form.controls.text.errors).toEqual({ server: 'Use at most 40 characters' });
     expect(edit.error()).toBe('Some fields are not valid');
     expect(edit.isStale()).toBeFalse();
@@ -164,10 +169,9 @@ describe('VersionedEdit', () => {
     const load = jasmine.createSpy('load').and.resolveTo(THEIRS);
     const edit = new VersionedEdit<Note>({ record: signal(FIRST), load });
     const versions: number[] = [];
-    const saved = await edit.saveOverLatest(async (n) => {
+    const saved = await edit.saveOverLatest((n) => {
       versions.push(n.version);
-      if (n.version === FIRST.version) throw staleAnswer();
-      return { ...n, version: n.version + 1 };
+      return n.version === FIRST.version ? refusal(staleAnswer())() : Promise.resolve({ ...n, version: n.version + 1 });
     });
     expect(versions).toEqual([3, 4]);
     expect(saved?.version).toBe(5);
@@ -177,7 +181,7 @@ describe('VersionedEdit', () => {
 
   it('gives up after one retry when the record keeps changing', async () => {
     const edit = new VersionedEdit<Note>({ record: signal(FIRST), load: () => Promise.resolve(THEIRS) });
-    const request = jasmine.createSpy('request').and.callFake(() => Promise.reject(staleAnswer()));
+    const request = jasmine.createSpy('request').and.callFake(refusal(staleAnswer()));
     expect(await edit.saveOverLatest(request)).toBeNull();
     expect(request).toHaveBeenCalledTimes(2);
     expect(edit.isStale()).toBeTrue();

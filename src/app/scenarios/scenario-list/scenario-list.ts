@@ -123,7 +123,8 @@ export class ScenarioList {
       label: 'Scenario name',
       initial: s.name,
       submitLabel: 'Rename',
-      save: (name) => this.api.update(this.projectId(), s.id, { version: s.version, name }),
+      save: (name, _choice, current) => this.api.update(this.projectId(), s.id, { version: (current ?? s).version, name }),
+      versioned: { record: s, load: (latest) => this.api.get(latest.projectId, latest.id) },
     });
     if (saved) await this.load();
   }
@@ -166,8 +167,8 @@ export class ScenarioList {
     });
   }
 
-  private async askName<T>(data: Omit<NameDialogData<T>, 'maxLength'>): Promise<T | undefined> {
-    const ref = this.dialog.open<NameDialog<T>, NameDialogData<T>, T>(NameDialog, { data: { ...data, maxLength: SCENARIO_NAME_MAX } });
+  private async askName<T, R = unknown>(data: Omit<NameDialogData<T, R>, 'maxLength'>): Promise<T | undefined> {
+    const ref = this.dialog.open<NameDialog<T, R>, NameDialogData<T, R>, T>(NameDialog, { data: { ...data, maxLength: SCENARIO_NAME_MAX } });
     return firstValueFrom(ref.afterClosed());
   }
 

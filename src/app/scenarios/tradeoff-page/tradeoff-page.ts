@@ -25,6 +25,7 @@ import { GRID_STEP_C } from '@shared/sweep/sweep';
 import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';
+import { VersionedEdit } from '../../core/versioned-edit';
 import { provideCharts } from '../../charts/provide-charts';
 import { NameDialog, type NameDialogData } from '../../ui/name-dialog/name-dialog';
 import { ScenarioSettingsPanel } from '../scenario-settings/scenario-settings';
@@ -319,29 +320,27 @@ export class TradeoffPage {
   }
 
   private saving: Promise<void> = Promise.resolve();
+  /**
+   * Saves the chosen design point over the scenario's version. Keeping the newer version (and the
+   * names) needs no new sweep: nothing the sweep reads changed. When someone saved the scenario
+   * meanwhile, theirs is taken and this choice saved on top of it.
+   */
+  private readonly choiceEdit = new VersionedEdit<Scenario>({
+    record: this.scenario,
+    load: (s) => this.api.get(s.projectId, s.id),
+    placeErrors: (e) => apiErrorMessage(e, 'The chosen design point could not be saved.'),
+  });
 
   private saveChoice(): Promise<void> {
     this.saving = this.saving.then(async () => {
       const s = this.scenario();
       const designC = this.chosenRow()?.designC;
       if (!s || designC === undefined || s.chosenDesignC === designC || s.frozenAt) return;
-      try {
-        const saved = await this.api.update(s.projectId, s.id, { version: s.version, chosenDesignC: designC });
-        // Keep the newer version (and the names) without sweeping again: nothing the sweep reads changed.
-        this.scenario.set(saved);
-      } catch (err) {
-        const e = readApiError(err);
-        if (e?.code === 'stale_update') {
-          // Someone saved the scenario meanwhile: take theirs and keep this choice on top of it.
-          const fresh = await this.api.get(s.projectId, s.id);
-          this.scenario.set(fresh);
-          const saved = await this.api.update(fresh.projectId, fresh.id, { version: fresh.version, chosenDesignC: designC }).catch(() => null);
-          if (saved) this.scenario.set(saved);
-        } else {
-          this.snack.open(apiErrorMessage(err, 'The chosen design point could not be saved.'), 'Dismiss', { duration: 6000 });
-        }
-      } finally {
-        this.cdr.markForCheck();
+      const saved = await this.choiceEdit.saveOverLatest((base) =>
+        this.api.update(base.projectId, base.id, { version: base.version, chosenDesignC: designC }),
+      );
+      if (!saved && !this.choiceEdit.isStale()) {
+        this.snack.open(this.choiceEdit.error(), 'Dismiss', { duration: 6000 });
       }
     });
     return this.saving;
