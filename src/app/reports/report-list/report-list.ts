@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -81,7 +81,6 @@ export class ReportList {
   private readonly projects = inject(ProjectsApi);
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
   protected readonly reports = signal<Report[]>([]);
 
   constructor() {
@@ -97,8 +96,6 @@ export class ReportList {
       this.reports.set(await this.api.list(projectId, scenarioId));
     } catch {
       this.reports.set([]);
-    } finally {
-      this.cdr.markForCheck();
     }
   }
 

@@ -1,5 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -188,7 +188,6 @@ export class ComparePage {
 
   private readonly api = inject(ScenariosApi);
   private readonly auth = inject(AuthStore);
-  private readonly cdr = inject(ChangeDetectorRef);
   private readonly compact = toSignal(
     inject(BreakpointObserver)
       .observe('(max-width: 599.98px)')
@@ -228,7 +227,6 @@ export class ComparePage {
       this.error.set(apiErrorMessage(err, 'The scenarios could not be compared.'));
     } finally {
       this.loading.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

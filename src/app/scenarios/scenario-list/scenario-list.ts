@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatChipsModule } from '@angular/material/chips';
@@ -44,7 +44,6 @@ export class ScenarioList {
   private readonly dialog = inject(MatDialog);
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
   private readonly auth = inject(AuthStore);
 
   protected readonly scenarios = signal<Scenario[] | null>(null);
@@ -74,8 +73,6 @@ export class ScenarioList {
       this.scenarios.set(await this.api.list(projectId));
     } catch (err) {
       this.loadError.set(apiErrorMessage(err, 'The scenarios could not be loaded.'));
-    } finally {
-      this.cdr.markForCheck();
     }
   }
 
@@ -181,7 +178,6 @@ export class ScenarioList {
       this.snack.open(apiErrorMessage(err), 'Dismiss', { duration: 8000 });
     } finally {
       this.busy.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

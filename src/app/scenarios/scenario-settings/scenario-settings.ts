@@ -215,8 +215,6 @@ export class ScenarioSettingsPanel {
       this.chosenLabels.set(new Set(chosen ?? labels));
     } catch {
       this.listOptions.set([]);
-    } finally {
-      this.cdr.markForCheck();
     }
   }
 

@@ -1,6 +1,6 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatChipsModule } from '@angular/material/chips';
@@ -81,7 +81,6 @@ export class TradeoffPage {
   private readonly dialog = inject(MatDialog);
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   protected readonly compact = toSignal(
     inject(BreakpointObserver)
@@ -262,8 +261,6 @@ export class TradeoffPage {
           ? 'This scenario was not found. It may have been deleted, or it belongs to another organisation.'
           : apiErrorMessage(err, 'The scenario could not be loaded.'),
       );
-    } finally {
-      this.cdr.markForCheck();
     }
   }
 
@@ -274,7 +271,6 @@ export class TradeoffPage {
     this.sweeping.set(true);
     this.sweepError.set('');
     this.sweepProblems.set([]);
-    this.cdr.markForCheck();
     try {
       const answer = await this.api.sweep(s.projectId, s.id);
       const previous = this.chosenRow()?.designC ?? s.chosenDesignC;
@@ -287,7 +283,6 @@ export class TradeoffPage {
       this.sweepProblems.set(e?.code === 'scenario_incomplete' ? (e.details ?? []) : []);
     } finally {
       this.sweeping.set(false);
-      this.cdr.markForCheck();
     }
   }
 
@@ -355,7 +350,6 @@ export class TradeoffPage {
       const [xValue] = chart.convertFromPixel('grid', [e.offsetX, e.offsetY]) as [number, number];
       const c = this.unitSystem() === 'SI' ? xValue : ((xValue - 32) * 5) / 9;
       this.select(nearestIndex(s.rows, c));
-      this.cdr.markForCheck();
     };
     zr.on('mousedown', (e) => {
       this.dragging = true;
