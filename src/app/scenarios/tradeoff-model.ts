@@ -19,17 +19,28 @@ import { hoursRange, oneIn, perHour } from '@shared/sweep/odds-words';
 import { chosenRowIndex, defaultRowIndex, lowestIndoorC, nearestRowIndex, tradeoffSentence } from '@shared/sweep/tradeoff-summary';
 import { convertUnits, formatQuantity, unitLabel } from '@shared/units/units';
 import { formatPower, groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building/building-units';
+import {
+  BAND_EDGE,
+  BAND_FILL,
+  CHART_TEXT,
+  COLD,
+  COLD_FILL,
+  EMBER,
+  EMBER_FILL,
+  FAINT,
+  GREEN,
+  INK,
+  RULE,
+  RULE_TEXT,
+  SCENARIO_COLOURS,
+  SPLIT_LINE,
+  TEXT,
+} from '../charts/chart-theme';
 
 export type ChartOption = ComposeOption<
   LineSeriesOption | BarSeriesOption | GridComponentOption | TooltipComponentOption | LegendComponentOption | MarkLineComponentOption
 >;
 
-export const EMBER = '#C9583A';
-export const COLD = '#4F8FBF';
-export const INK = '#1D4E5F';
-export const TEXT = '#2A3A40';
-const FONT = '"Source Sans 3", system-ui, sans-serif';
-const SPLIT = { lineStyle: { color: '#E3E8E6' } };
 
 export interface DesignRowText {
   index: number;
@@ -185,7 +196,7 @@ export function tradeoffChart(
         data: [
           ...named.map((r) => ({
             xAxis: x(r.designC),
-            lineStyle: { color: '#9AA7AB', type: 'dotted' as const, width: 1 },
+            lineStyle: { color: FAINT, type: 'dotted' as const, width: 1 },
             label: { formatter: designValueTag(r.label), color: TEXT, fontSize: compact ? 9 : 11, position: 'insideEndTop' as const, rotate: 90 },
           })),
           ...(chosen
@@ -207,8 +218,8 @@ export function tradeoffChart(
       yAxisIndex: 0,
       data: rows.map((r) => [x(r.designC), moneyNumber(r.lifeCycleCost)]),
       showSymbol: false,
-      lineStyle: { color: '#6F8F3A', width: 2 },
-      itemStyle: { color: '#6F8F3A' },
+      lineStyle: { color: GREEN, width: 2 },
+      itemStyle: { color: GREEN },
     },
   ];
   if (answer.hasRecord) {
@@ -218,7 +229,7 @@ export function tradeoffChart(
       yAxisIndex: 1,
       data: rows.map((r) => [x(r.designC), r.unmetHoursPerYear]),
       showSymbol: false,
-      areaStyle: { color: 'rgba(79, 143, 191, 0.18)' },
+      areaStyle: { color: COLD_FILL },
       lineStyle: { color: COLD, width: 2 },
       itemStyle: { color: COLD },
     });
@@ -226,7 +237,7 @@ export function tradeoffChart(
   }
   return {
     animation: false,
-    textStyle: { fontFamily: FONT, color: TEXT },
+    textStyle: CHART_TEXT,
     grid: { left: compact ? 58 : 80, right: answer.hasRecord ? (compact ? 44 : 64) : 16, top: compact ? 64 : 48, bottom: compact ? 44 : 52 },
     legend: {
       top: 0,
@@ -262,7 +273,7 @@ export function tradeoffChart(
       nameLocation: 'middle',
       nameGap: compact ? 26 : 32,
       axisLabel: { fontSize: compact ? 10 : 12, hideOverlap: true },
-      splitLine: SPLIT,
+      splitLine: SPLIT_LINE,
     },
     yAxis: [
       {
@@ -271,7 +282,7 @@ export function tradeoffChart(
         nameTextStyle: { align: 'left' },
         min: 0,
         axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v) },
-        splitLine: SPLIT,
+        splitLine: SPLIT_LINE,
       },
       {
         type: 'value',
@@ -321,8 +332,8 @@ function unmetBandSeries(answer: SweepAnswer, x: (c: number) => number): LineSer
       showSymbol: false,
       silent: true,
       lineStyle: { opacity: 0 },
-      areaStyle: { color: 'rgba(138, 95, 168, 0.22)' },
-      itemStyle: { color: 'rgba(138, 95, 168, 0.55)' },
+      areaStyle: { color: BAND_FILL },
+      itemStyle: { color: BAND_EDGE },
     },
   ];
 }
@@ -334,8 +345,8 @@ function ruleMark(answer: SweepAnswer, ruleIndex: number | null, x: (c: number) 
   return [
     {
       xAxis: x(r.designC),
-      lineStyle: { color: '#3E7B3A', type: 'dashed' as const, width: 2 },
-      label: { formatter: 'Rule', color: '#2F5F2C', fontSize: compact ? 10 : 12, position: 'end' as const, fontWeight: 'bold' as const },
+      lineStyle: { color: RULE, type: 'dashed' as const, width: 2 },
+      label: { formatter: 'Rule', color: RULE_TEXT, fontSize: compact ? 10 : 12, position: 'end' as const, fontWeight: 'bold' as const },
     },
   ];
 }
@@ -370,7 +381,7 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
       type: 'line',
       data: points.map((p) => [Math.round(p.hoursPerYear * 10) / 10, y(p.loadW)]),
       showSymbol: false,
-      areaStyle: { color: 'rgba(201, 88, 58, 0.15)' },
+      areaStyle: { color: EMBER_FILL },
       lineStyle: { color: EMBER, width: 2.5 },
       itemStyle: { color: EMBER },
     },
@@ -387,7 +398,7 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
   }
   return {
     animation: false,
-    textStyle: { fontFamily: FONT, color: TEXT },
+    textStyle: CHART_TEXT,
     grid: { left: compact ? 58 : 80, right: 16, top: compact ? 56 : 40, bottom: compact ? 44 : 52 },
     legend: { top: 0, left: 'center', type: compact ? 'scroll' : 'plain', textStyle: { fontSize: compact ? 11 : 13 } },
     tooltip: { trigger: 'axis', valueFormatter: (v) => `${groupDigits(Number(v), 1)} ${unit}` },
@@ -398,9 +409,9 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
       nameLocation: 'middle',
       nameGap: compact ? 26 : 32,
       axisLabel: { fontSize: compact ? 10 : 12 },
-      splitLine: SPLIT,
+      splitLine: SPLIT_LINE,
     },
-    yAxis: { type: 'value', name: `Load (${unit})`, axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) }, splitLine: SPLIT },
+    yAxis: { type: 'value', name: `Load (${unit})`, axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) }, splitLine: SPLIT_LINE },
     series,
   };
 }
@@ -458,7 +469,6 @@ export function tradeoffChartSummary(answer: SweepAnswer, system: UnitSystem): s
 
 export { formatPower };
 
-const SCENARIO_COLOURS = [EMBER, INK, '#6F8F3A', '#8A5FA8', '#B8860B'];
 
 /** Which design point the comparison lines up: 'chosen' (each scenario's own), or a named design value's label. */
 export type ComparePoint = string;
@@ -652,7 +662,7 @@ export function comparisonChart(entries: readonly { name: string; sweep: SweepAn
   const xs = entries.flatMap((e) => e.sweep?.rows.map((r) => x(r.designC)) ?? []);
   return {
     animation: false,
-    textStyle: { fontFamily: FONT, color: TEXT },
+    textStyle: CHART_TEXT,
     grid: { left: compact ? 58 : 80, right: compact ? 44 : 64, top: compact ? 72 : 24 + 24 * Math.ceil(series.length / 2), bottom: compact ? 44 : 52 },
     legend: { top: 0, left: 'center', type: compact ? 'scroll' : 'plain', textStyle: { fontSize: compact ? 11 : 12 } },
     tooltip: { trigger: 'axis' },
@@ -664,10 +674,10 @@ export function comparisonChart(entries: readonly { name: string; sweep: SweepAn
       name: `Design temperature (${tUnit}), milder to colder`,
       nameLocation: 'middle',
       nameGap: compact ? 26 : 32,
-      splitLine: SPLIT,
+      splitLine: SPLIT_LINE,
     },
     yAxis: [
-      { type: 'value', name: `Life-cycle cost (${currency})`, min: 0, axisLabel: { formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT },
+      { type: 'value', name: `Life-cycle cost (${currency})`, min: 0, axisLabel: { formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT_LINE },
       { type: 'value', name: 'Unmet hours / yr', min: 0, splitLine: { show: false } },
     ],
     series,
