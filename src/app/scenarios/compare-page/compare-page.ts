@@ -15,7 +15,8 @@ import { apiErrorMessage } from '../../core/api-errors';
 import { provideCharts } from '../../charts/provide-charts';
 import { ScenariosApi } from '../scenarios-api';
 import { TermInfo } from '../../ui/term-info/term-info';
-import { comparePointChoices, comparisonChart, comparisonTable, differenceRows, type ComparePoint } from '../tradeoff-model';
+import { comparePointChoices, comparisonTable, differenceRows, type ComparePoint } from '../compare-rows';
+import { comparisonChart } from '../tradeoff-charts';
 import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
 
 /** `/projects/:id/compare?ids=a,b…`: two to five scenarios side by side, in one table and one chart. */

@@ -30,19 +30,18 @@ import { provideCharts } from '../../charts/provide-charts';
 import { NameDialog, type NameDialogData } from '../../ui/name-dialog/name-dialog';
 import { ScenarioSettingsPanel } from '../scenario-settings/scenario-settings';
 import { ScenariosApi } from '../scenarios-api';
+import { loadDurationChart, tradeoffChart } from '../tradeoff-charts';
 import {
   defaultIndex,
   designRows,
   formatPower,
-  loadDurationChart,
   loadDurationTable,
   nearestIndex,
   optionLabelOf,
   sentenceFor,
-  tradeoffChart,
   tradeoffChartSummary,
   rulesText,
-} from '../tradeoff-model';
+} from '../tradeoff-text';
 import { ReportList } from '../../reports/report-list/report-list';
 import { TermInfo } from '../../ui/term-info/term-info';
 import { TradeoffCautions } from './tradeoff-cautions';
