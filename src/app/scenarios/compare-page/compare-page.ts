@@ -1,5 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, resource, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -196,10 +196,17 @@ export class ComparePage {
     { initialValue: false },
   );
 
-  protected readonly comparison = signal<Comparison | null>(null);
-  protected readonly loading = signal(false);
-  protected readonly error = signal('');
   protected readonly idList = computed(() => this.ids().split(',').filter((x) => x.length > 0));
+  private readonly loaded = resource({
+    params: () => ({ projectId: this.id(), ids: this.idList() }),
+    loader: ({ params }) => this.api.compare(params.projectId, params.ids),
+  });
+  protected readonly comparison = computed<Comparison | null>(() => (this.loaded.hasValue() ? this.loaded.value() : null));
+  protected readonly loading = this.loaded.isLoading;
+  protected readonly error = computed(() => {
+    const err = this.loaded.error();
+    return err ? apiErrorMessage(err, 'The scenarios could not be compared.') : '';
+  });
   protected readonly point = signal<ComparePoint>('chosen');
   protected readonly baseline = signal(0);
   protected readonly pointChoices = computed(() => comparePointChoices(this.comparison()?.entries ?? []));
@@ -209,25 +216,4 @@ export class ComparePage {
     comparisonChart(this.comparison()?.entries.map((e) => ({ name: e.scenario.name, sweep: e.sweep })) ?? [], this.auth.unitSystem(), this.compact()),
   );
   protected readonly csvUrl = computed(() => this.api.compareCsvUrl(this.id(), this.idList()));
-
-  constructor() {
-    effect(() => {
-      const projectId = this.id();
-      const ids = this.idList();
-      untracked(() => void this.load(projectId, ids));
-    });
-  }
-
-  private async load(projectId: string, ids: string[]): Promise<void> {
-    this.loading.set(true);
-    this.error.set('');
-    try {
-      this.comparison.set(await this.api.compare(projectId, ids));
-    } catch (err) {
-      this.comparison.set(null);
-      this.error.set(apiErrorMessage(err, 'The scenarios could not be compared.'));
-    } finally {
-      this.loading.set(false);
-    }
-  }
 }
