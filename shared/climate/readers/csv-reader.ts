@@ -99,10 +99,70 @@ export function splitCsvLine(line: string, delimiter = ','): string[] | undefine
 
 /** A cell as a number: NaN for missing (empty, NA, −9999), undefined when it is not a number. */
 function parseCell(text: string): number | undefined {
-  if (text === '' || text.toUpperCase() === 'NA' || text.toUpperCase() === 'N/A') return NaN;
+  if (text === '') return NaN;
   const v = parseDecimal(text);
-  if (v === undefined) return undefined;
+  if (v === undefined) {
+    const upper = text.toUpperCase();
+    return upper === 'NA' || upper === 'N/A' ? NaN : undefined;
+  }
   return v === MISSING_SENTINEL ? NaN : v;
+}
+
+/** A value cell of a row read in full: its number, or undefined after reporting it. */
+function cellOf(
+  p: ColumnPlan,
+  fields: string[],
+  index: number,
+  lineNumber: number,
+  problems: ProblemList,
+): number | undefined {
+  if (index < 0) return NaN;
+  const text = fields[index] ?? '';
+  const v = parseCell(text);
+  if (v === undefined) problems.add(lineNumber, `Column "${p.names[index] ?? ''}": "${text}" is not a number`);
+  return v;
+}
+
+/** A value cell of a row read quickly: NaN for an empty cell or the missing-value sentinel, undefined for anything to read in full. */
+function quickCell(line: string, starts: Int32Array, ends: Int32Array, index: number): number | undefined {
+  if (index < 0) return NaN;
+  const start = starts[index] ?? 0;
+  const end = ends[index] ?? 0;
+  if (start === end) return NaN;
+  const v = quickDecimal(line, start, end);
+  return v === MISSING_SENTINEL ? NaN : v;
+}
+
+const POWERS_OF_TEN = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
+
+/**
+ * `line[start, end)` as a plain decimal (sign, digits, optional fraction; at most 15 digits, no
+ * exponent), or undefined for any other text. Exact: the digits make an integer below 2⁵³ and the
+ * power of ten is exact, so their quotient is the correctly rounded value, as `Number` gives.
+ */
+function quickDecimal(line: string, start: number, end: number): number | undefined {
+  let i = start;
+  let c = line.charCodeAt(i);
+  let negative = false;
+  if (c === 45 || c === 43) {
+    negative = c === 45;
+    i++;
+  }
+  let mantissa = 0;
+  let digits = 0;
+  let fraction = -1;
+  for (; i < end; i++) {
+    c = line.charCodeAt(i);
+    if (c >= 48 && c <= 57) {
+      mantissa = mantissa * 10 + (c - 48);
+      digits++;
+      if (fraction >= 0) fraction++;
+    } else if (c === 46 && fraction < 0) fraction = 0;
+    else return undefined;
+  }
+  if (digits === 0 || digits > 15) return undefined;
+  const value = fraction > 0 ? mantissa / (POWERS_OF_TEN[fraction] ?? NaN) : mantissa;
+  return negative ? -value : value;
 }
 
 export interface CsvHeaderInspection {
@@ -115,7 +175,13 @@ export interface CsvHeaderInspection {
 }
 
 function unitTokens(name: string): Set<string> {
-  return new Set(name.toLowerCase().replace('°', 'deg').split(/[^a-z0-9]+/).filter((t) => t.length > 0));
+  return new Set(
+    name
+      .toLowerCase()
+      .replace('°', 'deg')
+      .split(/[^a-z0-9]+/)
+      .filter((t) => t.length > 0),
+  );
 }
 
 /** Reads a header line and suggests which column holds each field. */
@@ -264,21 +330,18 @@ export function createCsvParser(options: CsvParserOptions = {}): LineParser {
       problems.add(lineNumber, timeText === '' ? 'The time is missing' : `Cannot read the time "${timeText}"`);
       return;
     }
-    const cells: number[] = [];
-    for (const index of [p.dryBulb, p.dewPoint, p.wind, p.pressure]) {
-      if (index < 0) {
-        cells.push(NaN);
-        continue;
-      }
-      const text = fields[index] ?? '';
-      const v = parseCell(text);
-      if (v === undefined) {
-        problems.add(lineNumber, `Column "${p.names[index] ?? ''}": "${text}" is not a number`);
-        return;
-      }
-      cells.push(v);
-    }
-    const [db = NaN, dp = NaN, ws = NaN, pressure = NaN] = cells;
+    const db = cellOf(p, fields, p.dryBulb, lineNumber, problems);
+    if (db === undefined) return;
+    const dp = cellOf(p, fields, p.dewPoint, lineNumber, problems);
+    if (dp === undefined) return;
+    const ws = cellOf(p, fields, p.wind, lineNumber, problems);
+    if (ws === undefined) return;
+    const pressure = cellOf(p, fields, p.pressure, lineNumber, problems);
+    if (pressure === undefined) return;
+    accept(p, time, db, dp, ws, pressure);
+  };
+
+  const accept = (p: ColumnPlan, time: number, db: number, dp: number, ws: number, pressure: number): void => {
     builder.push(
       time,
       p.dryBulbFahrenheit ? fahrenheitToCelsius(db) : db,
@@ -289,20 +352,58 @@ export function createCsvParser(options: CsvParserOptions = {}): LineParser {
     rows++;
   };
 
+  /**
+   * A row of the usual form (no quotes, no spaces around values, plain decimals, a time of the common
+   * form) read without splitting it into strings; false for anything else, which `readRow` then reads
+   * in full and reports on. The same values as `readRow` (quickDecimal is exact).
+   */
+  const readRowQuick = (p: ColumnPlan, line: string): boolean => {
+    if (line.includes('"')) return false;
+    const starts = bounds.starts;
+    const ends = bounds.ends;
+    if (starts.length < p.width) {
+      bounds.starts = new Int32Array(p.width);
+      bounds.ends = new Int32Array(p.width);
+      return readRowQuick(p, line);
+    }
+    let start = 0;
+    for (let k = 0; k < p.width; k++) {
+      const next = line.indexOf(p.delimiter, start);
+      const last = k === p.width - 1;
+      if (last ? next !== -1 : next === -1) return false;
+      starts[k] = start;
+      ends[k] = last ? line.length : next;
+      start = next + 1;
+    }
+    const time = parseIsoDateTime(line.slice(starts[p.time] ?? 0, ends[p.time] ?? 0));
+    if (time === undefined) return false;
+    const db = quickCell(line, starts, ends, p.dryBulb);
+    const dp = quickCell(line, starts, ends, p.dewPoint);
+    const ws = quickCell(line, starts, ends, p.wind);
+    const pressure = quickCell(line, starts, ends, p.pressure);
+    if (db === undefined || dp === undefined || ws === undefined || pressure === undefined) return false;
+    accept(p, time, db, dp, ws, pressure);
+    return true;
+  };
+  const bounds = { starts: new Int32Array(0), ends: new Int32Array(0) };
+
   return {
     push(rawLine: string, lineNumber?: number): void {
       lineCounter++;
       const ln = lineNumber ?? lineCounter;
       lastLine = ln;
-      const line = (lineCounter === 1 ? rawLine.replace(BOM, '') : rawLine).replace(/\r$/, '');
-      if (line.trim() === '' || line.trimStart().startsWith('#')) return;
+      let line = lineCounter === 1 ? rawLine.replace(BOM, '') : rawLine;
+      if (line.charCodeAt(line.length - 1) === 13) line = line.slice(0, -1); // \r
+      // Blank lines and comments are skipped; a data row starts with a digit and needs no trimming to tell.
+      const first = line.charCodeAt(0);
+      if (!(first >= 48 && first <= 57) && (line.trim() === '' || line.trimStart().startsWith('#'))) return;
       if (headerFailed) return;
       if (plan === undefined) {
         headerLine = ln;
         readHeader(line, ln);
         return;
       }
-      readRow(plan, line, ln);
+      if (!readRowQuick(plan, line)) readRow(plan, line, ln);
     },
     finish(): ParseResult {
       if (plan === undefined && !headerFailed) problems.add(Math.max(1, lastLine), 'The file is empty');

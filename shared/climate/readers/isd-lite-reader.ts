@@ -37,18 +37,87 @@ export function looksLikeIsdLite(line: string): boolean {
 }
 
 /** Creates an incremental parser for ISD-Lite text. */
+const isBlank = (c: number): boolean => c === 32 || c === 9 || c === 13;
+
+/**
+ * The twelve whole numbers of a line of the usual form (spaces or tabs between signed digits), read
+ * without splitting the line; false for anything else, which the full reading then reports on. The
+ * same values as the full reading (at most 15 digits a number, so that each is exact).
+ */
+function readIsdFields(line: string, out: Float64Array): boolean {
+  const n = line.length;
+  let i = 0;
+  let k = 0;
+  for (;;) {
+    while (i < n && isBlank(line.charCodeAt(i))) i++;
+    if (i >= n) break;
+    if (k === ISD_LITE_FIELDS) return false;
+    let c = line.charCodeAt(i);
+    let sign = 1;
+    if (c === 45) {
+      sign = -1;
+      i++;
+    } else if (c === 43) i++;
+    let v = 0;
+    let digits = 0;
+    while (i < n && (c = line.charCodeAt(i)) >= 48 && c <= 57) {
+      v = v * 10 + (c - 48);
+      i++;
+      digits++;
+    }
+    if (digits === 0 || digits > 15 || (i < n && !isBlank(line.charCodeAt(i)))) return false;
+    out[k++] = sign * v;
+  }
+  return k === ISD_LITE_FIELDS;
+}
+
 export function createIsdLiteParser(): LineParser {
   const builder = new SeriesBuilder();
   const problems = new ProblemList();
   let lineCounter = 0;
   let lastLine = 0;
   let rows = 0;
+  const quick = new Float64Array(ISD_LITE_FIELDS);
+  const scaled = (v: number): number => (v === ISD_MISSING ? NaN : v / ISD_SCALE);
+  const accept = (
+    ln: number,
+    year: number,
+    month: number,
+    day: number,
+    hour: number,
+    temperature: number,
+    dewPoint: number,
+    windSpeed: number,
+    line: string,
+  ): void => {
+    const time = utcMillis(year, month, day, hour);
+    if (time === undefined) {
+      problems.add(ln, `Not a valid date and hour: ${line.trim().split(/\s+/).slice(0, 4).join(' ')}`);
+      return;
+    }
+    builder.push(time, scaled(temperature), scaled(dewPoint), scaled(windSpeed), NaN);
+    rows++;
+  };
 
   return {
     push(rawLine: string, lineNumber?: number): void {
       lineCounter++;
       const ln = lineNumber ?? lineCounter;
       lastLine = ln;
+      if (readIsdFields(rawLine, quick)) {
+        accept(
+          ln,
+          quick[0] ?? 0,
+          quick[1] ?? 0,
+          quick[2] ?? 0,
+          quick[3] ?? 0,
+          quick[4] ?? 0,
+          quick[5] ?? 0,
+          quick[8] ?? 0,
+          rawLine,
+        );
+        return;
+      }
       const line = rawLine.replace(/^\uFEFF/, '').trim();
       if (line === '') return;
       const fields = line.split(/\s+/);
@@ -67,14 +136,7 @@ export function createIsdLiteParser(): LineParser {
         values.push(v);
       }
       const [year = 0, month = 0, day = 0, hour = 0, temperature = 0, dewPoint = 0, , , windSpeed = 0] = values;
-      const time = utcMillis(year, month, day, hour);
-      if (time === undefined) {
-        problems.add(ln, `Not a valid date and hour: ${fields.slice(0, 4).join(' ')}`);
-        return;
-      }
-      const scaled = (v: number): number => (v === ISD_MISSING ? NaN : v / ISD_SCALE);
-      builder.push(time, scaled(temperature), scaled(dewPoint), scaled(windSpeed), NaN);
-      rows++;
+      accept(ln, year, month, day, hour, temperature, dewPoint, windSpeed, line);
     },
     finish(): ParseResult {
       if (rows === 0 && problems.count === 0) problems.add(Math.max(1, lastLine), 'The file is empty');

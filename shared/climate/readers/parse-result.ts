@@ -39,10 +39,39 @@ export class ProblemList {
   }
 }
 
-/** Strict decimal number syntax: optional sign, digits with an optional fraction, optional exponent. */
-const NUMBER_PATTERN = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
-
-/** Parses decimal text; undefined when it is not a number. */
+/**
+ * Parses decimal text; undefined when it is not a number. Strict syntax, the same as
+ * `/^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/` (optional sign, digits with an optional
+ * fraction, optional exponent), checked character by character: a large upload has a million cells.
+ */
 export function parseDecimal(text: string): number | undefined {
-  return NUMBER_PATTERN.test(text) ? Number(text) : undefined;
+  const n = text.length;
+  let i = 0;
+  let c = text.charCodeAt(0);
+  if (c === 43 || c === 45) i++; // + -
+  let digits = 0;
+  while (i < n && (c = text.charCodeAt(i)) >= 48 && c <= 57) {
+    i++;
+    digits++;
+  }
+  if (i < n && text.charCodeAt(i) === 46) {
+    i++;
+    while (i < n && (c = text.charCodeAt(i)) >= 48 && c <= 57) {
+      i++;
+      digits++;
+    }
+  }
+  if (digits === 0) return undefined;
+  if (i < n && ((c = text.charCodeAt(i)) === 101 || c === 69)) {
+    i++;
+    c = text.charCodeAt(i);
+    if (c === 43 || c === 45) i++;
+    let exponentDigits = 0;
+    while (i < n && (c = text.charCodeAt(i)) >= 48 && c <= 57) {
+      i++;
+      exponentDigits++;
+    }
+    if (exponentDigits === 0) return undefined;
+  }
+  return i === n ? Number(text) : undefined;
 }
