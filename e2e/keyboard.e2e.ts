@@ -261,9 +261,9 @@ describe('the journey by keyboard alone', () => {
     // The report is live, so the first send button freezes the scenario, sends a frozen copy and
     // opens it; the focus lands on the new page's heading, as on any page change.
     const liveUrl = page.url();
-    await tabTo(page, 'report', (s) => s.tag === 'button' && /Freeze and send$/.test(s.name));
+    await tabTo(page, 'report', (s) => s.tag === 'button' && s.name.endsWith('Freeze and send'));
     await page.keyboard.press('Enter');
-    await page.waitForURL((u) => u.href !== liveUrl && /\/reports\//.test(u.pathname));
+    await page.waitForURL((u) => u.href !== liveUrl && u.pathname.includes('/reports/'));
     await page.getByTestId('report-sends').getByText(client).waitFor();
     await expectLanded(page, /^Heat pump options, sent by keyboard$/, /^Client report · Tailroom$/);
     assert.match(await page.getByTestId('send-form').innerText(), /\bSend\b/);
