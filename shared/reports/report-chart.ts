@@ -4,19 +4,24 @@
  * set, against the outdoor temperature each size is sized for, with the presented options marked. Used by the report page (canvas) and
  * the PDF (SVG rendered on the server), so both show the same picture.
  */
+import {
+  BAND_EDGE,
+  BAND_FILL,
+  CHART_FONT as FONT,
+  COLD,
+  COLD_FILL,
+  EMBER,
+  EMBER_TEXT,
+  GREEN,
+  SPLIT,
+  TEXT,
+} from '../charts/chart-palette';
 import type { ReportView } from './report-schemas';
 
-const FONT = '"Source Sans 3", system-ui, sans-serif';
 /** The PDF's font name (pdfmake's registered Source Sans 3); no quotes, which would break the SVG attribute. */
 const PRINT_FONT = 'SourceSans';
-const EMBER = '#C9583A';
-const COLD = '#4F8FBF';
-/** Ember's darker text tone, for words drawn in ember (4.8:1 on white). */
-const EMBER_TEXT = '#B44E33';
-const GREEN = '#6F8F3A';
 /** The shaded band's legend entry. */
 const BAND_NAME = 'Likely range of those hours';
-const TEXT = '#2A3A40';
 
 const group = (v: number) => Math.round(v).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ',');
 
@@ -59,7 +64,7 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
       nameGap: small ? 24 : 30,
       splitNumber: options.compact ? 4 : 6,
       axisLabel: { hideOverlap: true, fontSize: small ? 10 : 12, formatter: (v: number) => String(v).replace('-', '−') },
-      splitLine: { lineStyle: { color: '#E3E8E6' } },
+      splitLine: { lineStyle: { color: SPLIT } },
     },
     yAxis: [
       {
@@ -69,7 +74,7 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
         splitNumber: options.compact ? 3 : 5,
         nameTextStyle: { align: 'left' },
         axisLabel: { fontSize: small ? 10 : 12, formatter: (v: number) => (options.compact && v >= 1000 ? `${group(v / 1000)}k` : group(v)) },
-        splitLine: { lineStyle: { color: '#E3E8E6' } },
+        splitLine: { lineStyle: { color: SPLIT } },
       },
       {
         type: 'value',
@@ -110,7 +115,7 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
               yAxisIndex: 1,
               showSymbol: false,
               data: chart.rows.map((r) => [r.t, r.unmetHours]),
-              areaStyle: { color: 'rgba(79, 143, 191, 0.18)' },
+              areaStyle: { color: COLD_FILL },
               lineStyle: { color: COLD, width: 2 },
               itemStyle: { color: COLD },
             },
@@ -140,8 +145,8 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
               silent: true,
               data: chart.rows.map((r) => [r.t, r.unmetLow === null || r.unmetHigh === null ? null : r.unmetHigh - r.unmetLow]),
               lineStyle: { opacity: 0 },
-              areaStyle: { color: 'rgba(138, 95, 168, 0.22)' },
-              itemStyle: { color: 'rgba(138, 95, 168, 0.55)' },
+              areaStyle: { color: BAND_FILL },
+              itemStyle: { color: BAND_EDGE },
             },
           ]
         : []),

@@ -1,6 +1,6 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import { FormControl, FormGroup } from '@angular/forms';
-import { apiErrorMessage, applyApiErrors, safeReturnUrl, saveFailure } from './api-errors';
+import { apiErrorMessage, applyApiErrors, safeReturnUrl } from './api-errors';
 
 function failure(status: number, body: unknown): HttpErrorResponse {
   return new HttpErrorResponse({ status, error: body, url: '/api/v1/x' });
@@ -37,15 +37,5 @@ describe('api errors', () => {
     expect(safeReturnUrl('//elsewhere.example')).toBeNull();
     expect(safeReturnUrl('https://elsewhere.example/')).toBeNull();
     expect(safeReturnUrl('/sign-in?returnUrl=%2Fteam')).toBeNull();
-  });
-
-  it('tells a stale save (someone saved first) from other failures, which go to the field placer', () => {
-    const placer = jasmine.createSpy('placer').and.returnValue('Check the fields');
-    const stale = failure(409, { error: { code: 'stale_update', message: 'Ann saved this after you opened it', details: [] } });
-    expect(saveFailure(stale, placer)).toEqual({ stale: true, message: 'Ann saved this after you opened it' });
-    expect(placer).not.toHaveBeenCalled();
-    const invalid = failure(400, { error: { code: 'invalid_input', message: 'x', details: [{ path: 'name', message: 'y' }] } });
-    expect(saveFailure(invalid, placer)).toEqual({ stale: false, message: 'Check the fields' });
-    expect(placer).toHaveBeenCalledOnceWith(invalid);
   });
 });

@@ -87,16 +87,6 @@ export function fieldError(control: AbstractControl, texts: ErrorTexts = {}): st
   return 'This value is not valid';
 }
 
-/**
- * What a failed save shows: whether someone else saved first (409 `stale_update`; the page then
- * offers Reload, and the typed values stay) and the message. Any other failure goes through
- * `placeFieldErrors`, which puts field details on their controls and answers the message left.
- */
-export function saveFailure(err: unknown, placeFieldErrors: (err: unknown) => string): { stale: boolean; message: string } {
-  if (apiErrorCode(err) === 'stale_update') return { stale: true, message: apiErrorMessage(err) };
-  return { stale: false, message: placeFieldErrors(err) };
-}
-
 /** A path inside this app to return to after signing in, or null if `url` is not one. */
 export function safeReturnUrl(url: string | null | undefined): string | null {
   if (!url || !url.startsWith('/') || url.startsWith('//') || url.startsWith('/\\')) return null;

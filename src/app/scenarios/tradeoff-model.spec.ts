@@ -1,7 +1,9 @@
 import type { SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { aSweepAnswer } from './testing/scenario-fixtures';
 import { aScenario } from './testing/scenario-fixtures';
-import { capacityAtC, comparisonTable, defaultIndex, designRows, differenceRows, loadDurationChart, loadDurationTable, nearestIndex, pricesText, sentenceFor, tradeoffChart } from './tradeoff-model';
+import { comparisonTable, differenceRows } from './compare-rows';
+import { loadDurationChart, tradeoffChart } from './tradeoff-charts';
+import { capacityAtC, defaultIndex, designRows, loadDurationTable, nearestIndex, pricesText, sentenceFor } from './tradeoff-text';
 
 describe('trade-off model', () => {
   const answer = aSweepAnswer();

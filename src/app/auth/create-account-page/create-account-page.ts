@@ -1,6 +1,5 @@
 import {
   ChangeDetectionStrategy,
-  ChangeDetectorRef,
   Component,
   type ElementRef,
   Injector,
@@ -49,7 +48,6 @@ import { AuthStore } from '../auth-store';
 export class CreateAccountPage {
   // services
   private readonly auth = inject(AuthStore);
-  private readonly cdr = inject(ChangeDetectorRef);
   private readonly injector = inject(Injector);
 
   // inputs (query parameters)
@@ -122,7 +120,6 @@ export class CreateAccountPage {
       this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

@@ -1,5 +1,5 @@
 import { HttpErrorResponse, httpResource } from '@angular/common/http';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -34,7 +34,6 @@ export class FinishSignUpPage {
   // services
   private readonly auth = inject(AuthStore);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   // inputs (route parameter, query parameter)
   readonly token = input.required<string>();
@@ -89,7 +88,6 @@ export class FinishSignUpPage {
       else this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

@@ -1,5 +1,5 @@
 import { HttpClient } from '@angular/common/http';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -20,7 +20,6 @@ import { AuthCard } from '../../ui/auth-card/auth-card';
 export class ForgotPasswordPage {
   // services
   private readonly http = inject(HttpClient);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   protected readonly form = inject(NonNullableFormBuilder).group({
     email: ['', [Validators.required, emailAddress]],
@@ -46,7 +45,6 @@ export class ForgotPasswordPage {
       this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

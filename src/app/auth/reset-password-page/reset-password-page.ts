@@ -1,5 +1,5 @@
 import { HttpClient } from '@angular/common/http';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -18,7 +18,6 @@ import { NewPasswordFields, newPasswordForm } from '../new-password-fields/new-p
 export class ResetPasswordPage {
   // services
   private readonly http = inject(HttpClient);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   // inputs (route parameter)
   readonly token = input.required<string>();
@@ -48,7 +47,6 @@ export class ResetPasswordPage {
       this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

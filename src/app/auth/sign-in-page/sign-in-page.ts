@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -21,7 +21,6 @@ export class SignInPage {
   // services
   private readonly auth = inject(AuthStore);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   // inputs (query parameters)
   readonly returnUrl = input<string>();
@@ -50,7 +49,6 @@ export class SignInPage {
       this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatDialog } from '@angular/material/dialog';
@@ -34,7 +34,6 @@ export class BillingPage {
 
   private readonly api = inject(BillingApi);
   private readonly dialog = inject(MatDialog);
-  private readonly cdr = inject(ChangeDetectorRef);
   private readonly destroyRef = inject(DestroyRef);
 
   protected readonly billing = signal<Billing | null>(null);
@@ -75,8 +74,6 @@ export class BillingPage {
       }
     } catch (err) {
       this.error.set(apiErrorMessage(err, 'Billing could not be loaded.'));
-    } finally {
-      this.cdr.markForCheck();
     }
   }
 
@@ -95,8 +92,6 @@ export class BillingPage {
           else this.waiting.set(false);
         } catch {
           if (left > 1) this.poll(left - 1);
-        } finally {
-          this.cdr.markForCheck();
         }
       })();
     }, 1000);
@@ -168,7 +163,6 @@ export class BillingPage {
       this.error.set(apiErrorMessage(err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

@@ -8,6 +8,7 @@ import type { Building } from '@shared/building/building-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { sessionWithUnits } from '../../climate/testing/climate-fixtures';
 import { settle } from '../../testing/test-sessions';
+import { nextRequest } from '../../testing/until';
 import { LIST_ID, aBuilding, aSite, anEquipmentList } from '../testing/building-fixtures';
 import { BuildingSection } from './building-section';
 
@@ -52,8 +53,7 @@ describe('BuildingSection', () => {
     fixture.componentRef.setInput('equipmentListId', listId);
     fixture.componentRef.setInput('projectVersion', version);
     fixture.detectChanges();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: BUILDING_URL }).flush({ version, building });
+    (await nextRequest(http, { method: 'GET', url: BUILDING_URL })).flush({ version, building });
     if (siteId) http.expectOne({ method: 'GET', url: `/api/v1/climate-sites/${siteId}` }).flush(aSite(siteId));
     if (listId) http.expectOne({ method: 'GET', url: `/api/v1/equipment-lists/${listId}` }).flush(anEquipmentList());
     const stable = async () => {

@@ -1,6 +1,5 @@
 import {
   ChangeDetectionStrategy,
-  ChangeDetectorRef,
   Component,
   DestroyRef,
   computed,
@@ -38,7 +37,8 @@ import { envelopeUa, resolveDesignWind, timeConstantHours } from '@shared/buildi
 import type { DesignConditions, PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
-import { apiErrorMessage, readApiError, saveFailure } from '../../core/api-errors';
+import { apiErrorMessage, readApiError } from '../../core/api-errors';
+import { VersionedEdit } from '../../core/versioned-edit';
 import { ClimateSitesApi } from '../../climate/climate-sites-api';
 import { BuildingApi } from '../building-api';
 import {
@@ -140,7 +140,6 @@ export class BuildingSection {
   private readonly sitesApi = inject(ClimateSitesApi);
   private readonly fb = inject(NonNullableFormBuilder);
   private readonly snackBar = inject(MatSnackBar);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   readonly projectId = input.required<string>();
   readonly climateSiteId = input<string | null>(null);
@@ -179,12 +178,14 @@ export class BuildingSection {
   protected readonly check = computed(() => checkBuilding(this.value()));
   private readonly serverIssues = new Map<string, ServerIssue>();
 
-  /** The version saves are made from; the building as last loaded or saved. */
-  private readonly version = signal<number | null>(null);
-  private readonly savedBuilding = signal<Building | null>(null);
-  protected readonly pending = signal(false);
-  protected readonly formError = signal('');
-  protected readonly stale = signal(false);
+  /**
+   * The building as last loaded or saved, with the project's version saves are made from; a stale
+   * save keeps the typed values, and Reload shows the latest saved building and keeps them aside.
+   */
+  protected readonly edit = new VersionedEdit<ProjectBuildingAnswer>({
+    load: () => this.api.get(this.projectId()),
+    placeErrors: (e) => this.applyServerErrors(e),
+  });
   /** The user's values, kept aside when the latest saved building was loaded over them. */
   protected readonly kept = signal<BuildingFormValue | null>(null);
 
@@ -324,9 +325,9 @@ export class BuildingSection {
     });
     effect(() => {
       const page = this.projectVersion();
-      const own = untracked(() => this.version());
+      const own = untracked(() => this.edit.record());
       // The page saved the project's details from the same version: the building is unchanged.
-      if (page !== null && own !== null && page > own) this.version.set(page);
+      if (page !== null && own !== null && page > own.version) this.edit.record.set({ ...own, version: page });
     });
   }
 
@@ -352,53 +353,29 @@ export class BuildingSection {
   }
 
   protected async save(): Promise<void> {
-    const projectId = this.projectId();
-    const version = this.version();
-    if (this.pending() || !this.canWrite() || version === null) return;
+    if (this.edit.isPending() || !this.canWrite() || this.edit.record() === null) return;
     this.form.markAllAsTouched();
     const check = this.check();
     if (!check.ok) {
       const unplaced = showIssues(this.form, check.issues, this.serverIssues);
-      this.formError.set(['Some values need attention; see the marked fields.', ...unplaced].join(' '));
+      this.edit.refuse(['Some values need attention; see the marked fields.', ...unplaced].join(' '));
       return;
     }
-    this.pending.set(true);
-    this.formError.set('');
-    this.stale.set(false);
-    try {
-      const answer = await this.api.put(projectId, version, check.building);
-      this.show(answer);
-      this.kept.set(null);
-      this.saved.emit(answer.version);
-      this.snackBar.open('Building saved', 'Close', { duration: 4000 });
-    } catch (err) {
-      // A stale save keeps the typed values; Reload shows the latest saved building and keeps them aside.
-      const failure = saveFailure(err, (e) => this.applyServerErrors(e));
-      this.stale.set(failure.stale);
-      this.formError.set(failure.message);
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+    const answer = await this.edit.save((base) => this.api.put(this.projectId(), base.version, check.building));
+    if (!answer) return;
+    this.show(answer);
+    this.kept.set(null);
+    this.saved.emit(answer.version);
+    this.snackBar.open('Building saved', 'Close', { duration: 4000 });
   }
 
   /** Loads the latest saved building and keeps the user's values aside, ready to put back. */
   protected async reload(): Promise<void> {
-    if (this.pending()) return;
     const typed = this.form.getRawValue();
-    this.pending.set(true);
-    this.formError.set('');
-    try {
-      const latest = await this.api.get(this.projectId());
-      this.show(latest);
-      this.stale.set(false);
-      this.kept.set(typed);
-    } catch (err) {
-      this.formError.set(apiErrorMessage(err));
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+    const latest = await this.edit.reload();
+    if (!latest) return;
+    this.show(latest);
+    this.kept.set(typed);
   }
 
   /** Puts the values kept aside back into the form, to be saved over the latest version. */
@@ -415,16 +392,14 @@ export class BuildingSection {
 
   /** Puts the form back to the building as saved. */
   protected discard(): void {
-    this.fill(this.savedBuilding());
-    this.formError.set('');
-    this.stale.set(false);
+    this.fill(this.edit.record()?.building ?? null);
+    this.edit.clear();
     this.serverIssues.clear();
     this.changed();
   }
 
   private show(answer: ProjectBuildingAnswer): void {
-    this.version.set(answer.version);
-    this.savedBuilding.set(answer.building);
+    this.edit.record.set(answer);
     this.serverIssues.clear();
     this.fill(answer.building);
   }

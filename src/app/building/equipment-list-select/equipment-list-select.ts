@@ -1,4 +1,14 @@
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, output, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  linkedSignal,
+  output,
+  signal,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
@@ -6,7 +16,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
 import type { Project } from '@shared/projects/project-schemas';
-import { apiErrorCode, apiErrorMessage } from '../../core/api-errors';
+import { VersionedEdit } from '../../core/versioned-edit';
 import { ProjectsApi, type EquipmentListChoice } from '../../projects/projects-api';
 
 /** The equipment list a project compares its heat loss with: chosen here, saved on the project. */
@@ -20,12 +30,12 @@ import { ProjectsApi, type EquipmentListChoice } from '../../projects/projects-a
         The heating units you could install for this project, with their output in the cold and their installed prices,
         come from one of your organisation's equipment lists.
       </p>
-      @if (error()) {
+      @if (edit.error()) {
         <div class="tr-alert" role="alert">
           <mat-icon aria-hidden="true">error</mat-icon>
-          <span class="alert-text">{{ error() }}</span>
-          @if (stale()) {
-            <button mat-stroked-button type="button" [disabled]="pending()" (click)="reload()">Reload</button>
+          <span class="alert-text">{{ edit.error() }}</span>
+          @if (edit.isStale()) {
+            <button mat-stroked-button type="button" [disabled]="edit.isPending()" (click)="reload()">Reload</button>
           }
         </div>
       }
@@ -35,7 +45,7 @@ import { ProjectsApi, type EquipmentListChoice } from '../../projects/projects-a
           <mat-select
             [value]="selected()"
             (selectionChange)="choose($event.value)"
-            [disabled]="!canWrite() || pending()"
+            [disabled]="!canWrite() || edit.isPending()"
           >
             <mat-option [value]="null">None chosen</mat-option>
             @for (l of choices(); track l.id) {
@@ -118,9 +128,11 @@ export class EquipmentListSelect {
   });
 
   protected readonly selected = signal<string | null>(null);
-  protected readonly pending = signal(false);
-  protected readonly error = signal('');
-  protected readonly stale = signal(false);
+  /** Saves the choice over the project's version; after someone else saved, Reload takes theirs. */
+  protected readonly edit = new VersionedEdit<Project>({
+    record: linkedSignal(() => this.project()),
+    load: (p) => this.api.get(p.id),
+  });
 
   constructor() {
     effect(() => this.selected.set(this.project().equipmentListId));
@@ -128,35 +140,19 @@ export class EquipmentListSelect {
 
   protected async choose(listId: string | null): Promise<void> {
     const project = this.project();
-    if (!this.canWrite() || this.pending() || listId === project.equipmentListId) return;
+    if (!this.canWrite() || this.edit.isPending() || listId === project.equipmentListId) return;
     this.selected.set(listId);
-    this.pending.set(true);
-    this.error.set('');
-    this.stale.set(false);
-    try {
-      const saved = await this.api.update(project.id, { version: project.version, equipmentListId: listId });
-      this.changed.emit(saved);
-      this.snackBar.open(listId ? 'Equipment list chosen' : 'Equipment list removed', 'Close', { duration: 4000 });
-    } catch (err) {
+    const saved = await this.edit.save((p) => this.api.update(p.id, { version: p.version, equipmentListId: listId }));
+    if (!saved) {
       this.selected.set(project.equipmentListId);
-      this.stale.set(apiErrorCode(err) === 'stale_update');
-      this.error.set(apiErrorMessage(err));
-    } finally {
-      this.pending.set(false);
+      return;
     }
+    this.changed.emit(saved);
+    this.snackBar.open(listId ? 'Equipment list chosen' : 'Equipment list removed', 'Close', { duration: 4000 });
   }
 
   protected async reload(): Promise<void> {
-    this.pending.set(true);
-    try {
-      const latest = await this.api.get(this.project().id);
-      this.error.set('');
-      this.stale.set(false);
-      this.changed.emit(latest);
-    } catch (err) {
-      this.error.set(apiErrorMessage(err));
-    } finally {
-      this.pending.set(false);
-    }
+    const latest = await this.edit.reload();
+    if (latest) this.changed.emit(latest);
   }
 }

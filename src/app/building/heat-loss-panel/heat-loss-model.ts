@@ -9,16 +9,9 @@ import { heatLoss, type HeatLoss } from '@shared/building/heat-loss';
 import { balancePoint, capacityAt } from '@shared/equipment/capacity';
 import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { formatQuantity } from '@shared/units/units';
+import { COLD, EMBER, EQUIPMENT_COLOURS, INK } from '../../charts/chart-theme';
 import { formatPower } from '../building-units';
 
-/** Tailroom colours (see styles.scss). */
-export const EMBER = '#C9583A';
-export const COLD = '#4F8FBF';
-export const INK = '#1D4E5F';
-export const SLATE = '#5E6E75';
-export const TEXT = '#2A3A40';
-/** Further line colours for equipment, after glacier and ink. */
-export const EQUIPMENT_COLOURS = [COLD, INK, '#6F8F3A', '#8A5FA8', '#B8860B', '#2F8F83', '#7A6F5A'];
 
 /** The coldest temperature the chart reaches when the site gives nothing colder, °C. */
 export const CHART_FLOOR_C = -30;

@@ -15,7 +15,8 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import { formatQuantity, unitLabel as temperatureUnitLabel } from '@shared/units/units';
 import { provideCharts } from '../../charts/provide-charts';
 import { groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building-units';
-import { COLD, EMBER, INK, TEXT, equipmentSummary, type HeatLossModel } from './heat-loss-model';
+import { CHART_TEXT, COLD, EMBER, INK, SPLIT_LINE, TEXT, WHITE } from '../../charts/chart-theme';
+import { equipmentSummary, type HeatLossModel } from './heat-loss-model';
 
 type ChartOption = ComposeOption<
   | LineSeriesOption
@@ -26,8 +27,6 @@ type ChartOption = ComposeOption<
   | MarkLineComponentOption
 >;
 
-const FONT = '"Source Sans 3", system-ui, sans-serif';
-const SPLIT = { lineStyle: { color: '#E3E8E6' } };
 
 /**
  * The building's heat loss as it stands in the form: the breakdown at the design temperature, and the
@@ -108,7 +107,7 @@ export class HeatLossPanel {
     const rows = this.model().rows;
     return {
       animation: false,
-      textStyle: { fontFamily: FONT, color: TEXT },
+      textStyle: CHART_TEXT,
       grid: { left: compact ? 104 : 210, right: compact ? 56 : 88, top: 8, bottom: compact ? 40 : 48 },
       tooltip: { trigger: 'item', valueFormatter: (v) => `${groupDigits(Number(v), 1)} ${unit}` },
       xAxis: {
@@ -118,7 +117,7 @@ export class HeatLossPanel {
         nameGap: compact ? 26 : 30,
         splitNumber: compact ? 3 : 5,
         axisLabel: { fontSize: compact ? 10 : 12, hideOverlap: true, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) },
-        splitLine: SPLIT,
+        splitLine: SPLIT_LINE,
       },
       yAxis: {
         type: 'category',
@@ -217,7 +216,7 @@ export class HeatLossPanel {
         symbolSize: compact ? 10 : 13,
         showSymbol: true,
         lineStyle: { opacity: 0 },
-        itemStyle: { color: INK, borderColor: '#FFFFFF', borderWidth: 1 },
+        itemStyle: { color: INK, borderColor: WHITE, borderWidth: 1 },
         label: {
           show: true,
           position: 'top',
@@ -234,7 +233,7 @@ export class HeatLossPanel {
     const xMax = Math.ceil(x(m.rangeC.max) / step) * step;
     return {
       animation: false,
-      textStyle: { fontFamily: FONT, color: TEXT },
+      textStyle: CHART_TEXT,
       // On a phone the legend scrolls (the options are also listed under the chart); wider, it wraps.
       grid: {
         left: compact ? 52 : 76,
@@ -262,7 +261,7 @@ export class HeatLossPanel {
         nameLocation: 'middle',
         nameGap: compact ? 28 : 32,
         axisLabel: { fontSize: compact ? 10 : 12 },
-        splitLine: SPLIT,
+        splitLine: SPLIT_LINE,
       },
       yAxis: {
         type: 'value',
@@ -272,7 +271,7 @@ export class HeatLossPanel {
         nameLocation: 'middle',
         nameGap: compact ? 40 : 60,
         axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) },
-        splitLine: SPLIT,
+        splitLine: SPLIT_LINE,
       },
       series,
     };

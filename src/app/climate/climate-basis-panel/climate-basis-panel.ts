@@ -13,16 +13,13 @@ import { NgxEchartsDirective } from 'ngx-echarts';
 import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { ClimateSite, RecentYears } from '@shared/climate-sites/climate-site-schemas';
 import { formatQuantity, fromSi, unitLabel } from '@shared/units/units';
+import { CHART_TEXT, COLD, EMBER, INK } from '../../charts/chart-theme';
 import { provideCharts } from '../../charts/provide-charts';
 import { apiErrorMessage } from '../../core/api-errors';
 import { ClimateSitesApi } from '../climate-sites-api';
 
 type ChartOption = ComposeOption<LineSeriesOption | GridComponentOption | TooltipComponentOption | LegendComponentOption>;
 
-const INK = '#1D4E5F';
-const COLD = '#4F8FBF';
-const EMBER = '#C9583A';
-const TEXT = '#2A3A40';
 
 /**
  * A site's climate basis: for a site with published values, an hour-by-hour record estimated from a
@@ -108,7 +105,7 @@ export class ClimateBasisPanel {
     }
     return {
       animation: false,
-      textStyle: { fontFamily: '"Source Sans 3", system-ui, sans-serif', color: TEXT },
+      textStyle: CHART_TEXT,
       grid: { left: 56, right: 16, top: 40, bottom: 44 },
       legend: { top: 0, data: ['Coldest hour', '99.6 % value of the year', 'Trend of the coldest hour'] },
       tooltip: { trigger: 'axis' },

@@ -17,6 +17,7 @@ import type { DesignConditions } from '@shared/climate/design-conditions-schema'
 import type { ClimateChartData } from '@shared/climate-sites/climate-site-schemas';
 import { designValueName } from '@shared/glossary/glossary';
 import { fromSi, unitLabel } from '@shared/units/units';
+import { CHART_TEXT, COLD, COLD_TEXT, EMBER, INK, INK_BARS, SLATE, SPLIT_LINE, TEXT } from '../../charts/chart-theme';
 import { provideCharts } from '../../charts/provide-charts';
 import { HOURS_PER_YEAR, MONTH_NAMES, MONTH_SHORT_NAMES, formatNumber } from '../climate-format';
 
@@ -31,14 +32,6 @@ type ChartOption = ComposeOption<
 >;
 type MarkLineData = NonNullable<MarkLineComponentOption['data']>[number];
 
-/** Tailroom colours (see styles.scss). */
-const INK = '#1D4E5F';
-const COLD = '#4F8FBF';
-const EMBER = '#C9583A';
-/** Glacier's darker text tone, for words drawn in glacier blue (5.3:1 on paper). */
-const COLD_TEXT = '#356C97';
-const SLATE = '#5E6E75';
-const TEXT = '#2A3A40';
 
 /** The lowest share of hours the log axis shows, % (about one hour in 1.1 years). */
 const LOG_FLOOR_PERCENT = 0.01;
@@ -136,7 +129,7 @@ export class ClimateCharts {
 
     return {
       animation: false,
-      textStyle: { fontFamily: '"Source Sans 3", system-ui, sans-serif', color: TEXT },
+      textStyle: CHART_TEXT,
       grid: { left: compact ? 48 : 64, right: compact ? 12 : 24, top: compact ? 40 : 48, bottom: compact ? 48 : 56 },
       legend: {
         top: 0,
@@ -158,7 +151,7 @@ export class ClimateCharts {
         nameLocation: 'middle',
         nameGap: compact ? 28 : 32,
         axisLabel: { fontSize: compact ? 10 : 12 },
-        splitLine: { lineStyle: { color: '#E3E8E6' } },
+        splitLine: SPLIT_LINE,
       },
       yAxis: {
         type: 'log',
@@ -170,7 +163,7 @@ export class ClimateCharts {
         nameLocation: 'middle',
         nameGap: compact ? 36 : 48,
         axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => `${v}` },
-        splitLine: { lineStyle: { color: '#E3E8E6' } },
+        splitLine: SPLIT_LINE,
       },
       series: [
         {
@@ -213,7 +206,7 @@ export class ClimateCharts {
     const rows = this.monthlyRows();
     return {
       animation: false,
-      textStyle: { fontFamily: '"Source Sans 3", system-ui, sans-serif', color: TEXT },
+      textStyle: CHART_TEXT,
       grid: { left: compact ? 44 : 64, right: compact ? 8 : 24, top: compact ? 40 : 48, bottom: compact ? 28 : 36 },
       legend: { top: 0, left: 'center', textStyle: { fontSize: compact ? 11 : 13 } },
       tooltip: { trigger: 'axis', valueFormatter: (value) => `${formatNumber(Number(value), 1)} ${unit}` },
@@ -228,14 +221,14 @@ export class ClimateCharts {
         nameLocation: 'middle',
         nameGap: compact ? 32 : 44,
         axisLabel: { fontSize: compact ? 10 : 12 },
-        splitLine: { lineStyle: { color: '#E3E8E6' } },
+        splitLine: SPLIT_LINE,
       },
       series: [
         {
           name: 'Mean',
           type: 'bar',
           data: rows.map((r) => r.mean),
-          itemStyle: { color: 'rgba(29, 78, 95, 0.55)' },
+          itemStyle: { color: INK_BARS },
           barMaxWidth: 28,
         },
         {

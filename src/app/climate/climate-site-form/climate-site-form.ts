@@ -1,6 +1,5 @@
 import {
   ChangeDetectionStrategy,
-  ChangeDetectorRef,
   Component,
   type OnInit,
   computed,
@@ -84,7 +83,6 @@ export class ClimateSiteForm implements OnInit {
   // services
   private readonly api = inject(ClimateSitesApi);
   private readonly auth = inject(AuthStore);
-  private readonly cdr = inject(ChangeDetectorRef);
   private readonly fb = inject(NonNullableFormBuilder);
 
   /** Which kind of site to create (ignored when editing). */
@@ -206,7 +204,6 @@ export class ClimateSiteForm implements OnInit {
       this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 

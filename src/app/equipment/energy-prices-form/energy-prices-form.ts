@@ -1,13 +1,4 @@
-import {
-  ChangeDetectionStrategy,
-  ChangeDetectorRef,
-  Component,
-  computed,
-  effect,
-  inject,
-  signal,
-  untracked,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, signal, untracked } from '@angular/core';
 import {
   type AbstractControl,
   NonNullableFormBuilder,
@@ -26,7 +17,8 @@ import type { EnergyPricesAnswer } from '@shared/equipment/equipment-list-schema
 import type { EnergyPrices, GasPriceUnit } from '@shared/money/energy-prices';
 import { UNIT_PRICE_PATTERN } from '@shared/money/money';
 import { AuthStore } from '../../auth/auth-store';
-import { apiErrorMessage, applyApiErrors, fieldError, saveFailure } from '../../core/api-errors';
+import { applyApiErrors, fieldError } from '../../core/api-errors';
+import { VersionedEdit } from '../../core/versioned-edit';
 import { DEFAULT_CURRENCY, EquipmentApi } from '../equipment-api';
 
 const CURRENCIES = ['USD', 'CAD', 'EUR', 'GBP', 'AUD', 'NZD', 'CHF', 'SEK', 'NOK', 'DKK'] as const;
@@ -75,12 +67,16 @@ export class EnergyPricesForm {
   protected readonly auth = inject(AuthStore);
   private readonly api = inject(EquipmentApi);
   private readonly snackBar = inject(MatSnackBar);
-  private readonly cdr = inject(ChangeDetectorRef);
   private readonly fb = inject(NonNullableFormBuilder);
 
   protected readonly loaded = this.api.energyPricesResource();
+  /** Saves over the prices' version; after someone else saved, Reload takes theirs and keeps the typed values. */
+  protected readonly edit = new VersionedEdit<EnergyPricesAnswer>({
+    load: () => this.api.getEnergyPrices(),
+    placeErrors: (e) => applyApiErrors(this.form, e),
+  });
   /** The prices as last loaded or saved; a save is made from its version. */
-  protected readonly answer = signal<EnergyPricesAnswer | null>(null);
+  protected readonly answer = this.edit.record;
   protected readonly canWrite = computed(() => this.auth.can('project:write'));
   protected readonly gasUnits = GAS_UNITS;
   protected readonly currencies = computed(() => {
@@ -102,10 +98,6 @@ export class EnergyPricesForm {
   });
   protected readonly controls = this.form.controls.prices.controls;
 
-  protected readonly pending = signal(false);
-  protected readonly formError = signal('');
-  /** Someone saved prices after they were loaded here. */
-  protected readonly stale = signal(false);
   /** After a reload: the prices someone else saved, while the form keeps the user's values. */
   protected readonly latestSaved = signal('');
 
@@ -127,46 +119,22 @@ export class EnergyPricesForm {
   }
 
   protected async save(): Promise<void> {
-    const base = this.answer();
-    if (!base || this.pending() || !this.canWrite()) return;
+    if (!this.answer() || this.edit.isPending() || !this.canWrite()) return;
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
     }
-    this.pending.set(true);
-    this.formError.set('');
-    this.stale.set(false);
-    try {
-      const saved = await this.api.saveEnergyPrices(base.version, this.value());
-      this.show(saved);
-      this.latestSaved.set('');
-      this.snackBar.open('Energy prices saved', 'Close', { duration: 4000 });
-    } catch (err) {
-      const failure = saveFailure(err, (e) => applyApiErrors(this.form, e));
-      this.stale.set(failure.stale);
-      this.formError.set(failure.message);
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+    const saved = await this.edit.save((base) => this.api.saveEnergyPrices(base.version, this.value()));
+    if (!saved) return;
+    this.show(saved);
+    this.latestSaved.set('');
+    this.snackBar.open('Energy prices saved', 'Close', { duration: 4000 });
   }
 
   /** Takes the latest saved version, keeping the typed values so that Save puts them over it. */
   protected async reload(): Promise<void> {
-    if (this.pending()) return;
-    this.pending.set(true);
-    this.formError.set('');
-    try {
-      const latest = await this.api.getEnergyPrices();
-      this.answer.set(latest);
-      this.stale.set(false);
-      this.latestSaved.set(latest.prices ? describePrices(latest.prices) : 'no prices');
-    } catch (err) {
-      this.formError.set(apiErrorMessage(err));
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+    const latest = await this.edit.reload();
+    if (latest) this.latestSaved.set(latest.prices ? describePrices(latest.prices) : 'no prices');
   }
 
   /** The typed prices, trimmed; fuels left empty are left out. */

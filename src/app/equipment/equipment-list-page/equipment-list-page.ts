@@ -1,7 +1,6 @@
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
-  ChangeDetectorRef,
   Component,
   computed,
   effect,
@@ -26,7 +25,8 @@ import type { UnitSystem } from '@shared/auth/auth-schemas';
 import { EQUIPMENT_OPTIONS_MAX, type EquipmentList } from '@shared/equipment/equipment-list-schemas';
 import { equipmentKinds, type EquipmentKind, type EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../../auth/auth-store';
-import { apiErrorCode, apiErrorMessage, fieldError, readApiError, saveFailure } from '../../core/api-errors';
+import { apiErrorCode, apiErrorMessage, fieldError, readApiError } from '../../core/api-errors';
+import { VersionedEdit } from '../../core/versioned-edit';
 import {
   CsvImportDialog,
   type CsvImportDialogData,
@@ -74,7 +74,6 @@ export class EquipmentListPage {
   private readonly api = inject(EquipmentApi);
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   /** Route parameter. */
   readonly id = input.required<string>();
@@ -89,15 +88,16 @@ export class EquipmentListPage {
   protected readonly units = computed(() => this.auth.unitSystem());
   protected readonly lowRatingPoint = computed(() => ratingPoint('low', this.units()));
 
-  /** The list as last loaded or saved; a save is made from its version. */
-  protected readonly list = signal<EquipmentList | null>(null);
   protected readonly rows = signal<readonly OptionRow[]>([]);
+  /** Saves the table over the list's version; after someone else saved, loads theirs on request. */
+  protected readonly edit = new VersionedEdit<EquipmentList>({
+    load: (list) => this.api.get(list.id),
+    placeErrors: (e) => this.placeServerErrors(e),
+  });
+  /** The list as last loaded or saved; a save is made from its version. */
+  protected readonly list = this.edit.record;
   /** The table differs from the saved list. */
   protected readonly changed = signal(false);
-  protected readonly pending = signal(false);
-  protected readonly formError = signal('');
-  /** Someone saved the list after it was loaded here: the save was refused. */
-  protected readonly stale = signal(false);
   /** The user kept their changes over a newer saved list: saving replaces it. */
   protected readonly overriding = signal(false);
 
@@ -170,9 +170,8 @@ export class EquipmentListPage {
   }
 
   protected async save(): Promise<void> {
-    const base = this.list();
-    if (!base || this.pending() || !this.canWrite()) return;
-    this.formError.set('');
+    if (!this.list() || this.edit.isPending() || !this.canWrite()) return;
+    this.edit.clear();
     const options: EquipmentOption[] = [];
     const problems: string[] = [];
     let rowsWithProblems = 0;
@@ -189,40 +188,28 @@ export class EquipmentListPage {
     });
     if (rowsWithProblems > 0) {
       const rows = rowsWithProblems === 1 ? '1 row needs' : `${rowsWithProblems} rows need`;
-      this.formError.set([`${rows} attention before the list can be saved; the messages are under the cells.`, ...problems].join(' '));
+      this.edit.refuse([`${rows} attention before the list can be saved; the messages are under the cells.`, ...problems].join(' '));
       return;
     }
     if (options.length > EQUIPMENT_OPTIONS_MAX) {
-      this.formError.set(`A list holds at most ${EQUIPMENT_OPTIONS_MAX} options; remove some rows first.`);
+      this.edit.refuse(`A list holds at most ${EQUIPMENT_OPTIONS_MAX} options; remove some rows first.`);
       return;
     }
-    this.pending.set(true);
-    this.stale.set(false);
-    try {
-      const saved = await this.api.saveOptions(base.id, base.version, options);
-      this.show(saved);
-      this.snackBar.open('Equipment list saved', 'Close', { duration: 4000 });
-    } catch (err) {
-      const failure = saveFailure(err, (e) => this.placeServerErrors(e));
-      this.stale.set(failure.stale);
-      this.formError.set(failure.message);
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+    const saved = await this.edit.save((base) => this.api.saveOptions(base.id, base.version, options));
+    if (!saved) return;
+    this.show(saved);
+    this.snackBar.open('Equipment list saved', 'Close', { duration: 4000 });
   }
 
   /** After a refused save: shows the list as saved now, dropping the changes made here. */
   protected async loadLatest(): Promise<void> {
-    await this.fetchLatest((latest) => this.show(latest));
+    const latest = await this.edit.reload();
+    if (latest) this.show(latest);
   }
 
   /** After a refused save: keeps the table as edited here, so that saving replaces the newer list. */
   protected async keepMine(): Promise<void> {
-    await this.fetchLatest((latest) => {
-      this.list.set(latest);
-      this.overriding.set(true);
-    });
+    if (await this.edit.reload()) this.overriding.set(true);
   }
 
   protected async openImport(): Promise<void> {
@@ -257,25 +244,8 @@ export class EquipmentListPage {
     this.list.set(list);
     this.rows.set(list.options.map((o) => this.newRow(o)));
     this.changed.set(false);
-    this.stale.set(false);
     this.overriding.set(false);
-    this.formError.set('');
-  }
-
-  private async fetchLatest(apply: (latest: EquipmentList) => void): Promise<void> {
-    const base = this.list();
-    if (!base || this.pending()) return;
-    this.pending.set(true);
-    this.formError.set('');
-    try {
-      apply(await this.api.get(base.id));
-      this.stale.set(false);
-    } catch (err) {
-      this.formError.set(apiErrorMessage(err));
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+    this.edit.clear();
   }
 
   /** Puts each `options.N.field` detail of a refused save under its cell; returns the message for the rest. */

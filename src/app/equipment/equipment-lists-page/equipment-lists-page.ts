@@ -79,9 +79,7 @@ export class EquipmentListsPage {
   }
 
   protected async rename(list: EquipmentListSummary): Promise<void> {
-    /** The list as last loaded: its version is the one a rename is made from. */
-    let current: EquipmentListSummary = list;
-    const data: NameDialogData<EquipmentList> = {
+    const data: NameDialogData<EquipmentList, EquipmentListSummary> = {
       title: 'Rename equipment list',
       label: 'List name',
       initial: list.name,
@@ -90,14 +88,15 @@ export class EquipmentListsPage {
       requiredMessage: 'Enter a list name',
       testId: 'list-name',
       closeIfUnchanged: true,
-      save: (name) => this.api.rename(current.id, current.version, name),
-      reload: async () => {
-        current = await this.api.get(current.id);
-      },
+      save: (name, _choice, current) => this.api.rename(list.id, (current ?? list).version, name),
+      versioned: { record: list, load: (l) => this.api.get(l.id) },
     };
     const renamed = await firstValueFrom(
       this.dialog
-        .open<NameDialog<EquipmentList>, NameDialogData<EquipmentList>, EquipmentList>(NameDialog, { data, autoFocus: 'first-tabbable' })
+        .open<NameDialog<EquipmentList, EquipmentListSummary>, typeof data, EquipmentList>(NameDialog, {
+          data,
+          autoFocus: 'first-tabbable',
+        })
         .afterClosed(),
     );
     if (!renamed) return;

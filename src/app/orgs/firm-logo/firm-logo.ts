@@ -1,5 +1,5 @@
 import { HttpClient } from '@angular/common/http';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { firstValueFrom } from 'rxjs';
@@ -80,7 +80,6 @@ import { apiErrorMessage } from '../../core/api-errors';
 export class FirmLogo {
   private readonly http = inject(HttpClient);
   private readonly auth = inject(AuthStore);
-  private readonly cdr = inject(ChangeDetectorRef);
   protected readonly canManage = computed(() => this.auth.can('member:manage'));
   /** False until the server says there is a logo, so that a firm without one loads no missing image. */
   protected readonly hasLogo = signal(false);
@@ -89,7 +88,6 @@ export class FirmLogo {
     this.http.get<{ hasLogo: boolean }>('/api/v1/organization/logo-status').subscribe({
       next: (s) => {
         this.hasLogo.set(s.hasLogo);
-        this.cdr.markForCheck();
       },
       error: () => undefined,
     });
@@ -133,7 +131,6 @@ export class FirmLogo {
       this.error.set(apiErrorMessage(err, 'The logo could not be saved.'));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

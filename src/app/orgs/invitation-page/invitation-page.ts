@@ -1,7 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import {
   ChangeDetectionStrategy,
-  ChangeDetectorRef,
   Component,
   type OnInit,
   computed,
@@ -45,7 +44,6 @@ export class InvitationPage implements OnInit {
   protected readonly auth = inject(AuthStore);
   private readonly http = inject(HttpClient);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   // inputs (route parameter)
   readonly token = input.required<string>();
@@ -104,7 +102,6 @@ export class InvitationPage implements OnInit {
       );
     } finally {
       this.loading.set(false);
-      this.cdr.markForCheck();
     }
   }
 
@@ -148,7 +145,6 @@ export class InvitationPage implements OnInit {
       else this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

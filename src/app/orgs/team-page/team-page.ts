@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, inject, signal, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal, viewChild } from '@angular/core';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -46,7 +46,6 @@ export class TeamPage {
   private readonly api = inject(TeamApi);
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   protected readonly roles = roles;
   protected readonly roleLabels = roleLabels;
@@ -129,7 +128,6 @@ export class TeamPage {
       this.inviteError.set(applyApiErrors(this.inviteForm, err));
     } finally {
       this.invitePending.set(false);
-      this.cdr.markForCheck();
     }
   }
 

@@ -1,5 +1,5 @@
 import { httpResource } from '@angular/common/http';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -54,7 +54,6 @@ export class NewProjectDialog {
   // services
   private readonly api = inject(ProjectsApi);
   private readonly dialogRef = inject<MatDialogRef<NewProjectDialog, Project>>(MatDialogRef);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   protected readonly form = projectDetailsForm(inject(NonNullableFormBuilder));
   private readonly siteChoices = this.api.climateSiteChoicesResource();
@@ -92,7 +91,6 @@ export class NewProjectDialog {
       this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

@@ -127,9 +127,7 @@ export class ProjectListPage {
   }
 
   protected async rename(project: Project): Promise<void> {
-    /** The project as last loaded: its version is the one a save is made from. */
-    let current = project;
-    const data: NameDialogData<Project> = {
+    const data: NameDialogData<Project, Project> = {
       title: 'Rename project',
       label: 'Project name',
       initial: project.name,
@@ -137,14 +135,12 @@ export class ProjectListPage {
       maxLength: PROJECT_NAME_MAX_LENGTH,
       requiredMessage: 'Enter a project name',
       closeIfUnchanged: true,
-      save: (name) => this.api.update(current.id, { version: current.version, name }),
-      reload: async () => {
-        current = await this.api.get(current.id);
-      },
+      save: (name, _choice, current) => this.api.update(project.id, { version: (current ?? project).version, name }),
+      versioned: { record: project, load: (p) => this.api.get(p.id) },
     };
     const renamed = await firstValueFrom(
       this.dialog
-        .open<NameDialog<Project>, NameDialogData<Project>, Project>(NameDialog, { data, autoFocus: 'first-tabbable' })
+        .open<NameDialog<Project, Project>, NameDialogData<Project, Project>, Project>(NameDialog, { data, autoFocus: 'first-tabbable' })
         .afterClosed(),
     );
     if (!renamed) return;

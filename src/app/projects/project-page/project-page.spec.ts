@@ -15,6 +15,7 @@ import {
   someEquipmentListSummaries,
 } from '../../building/testing/building-fixtures';
 import { settle, signedInSession } from '../../testing/test-sessions';
+import { nextRequest } from '../../testing/until';
 import { PROJECT_ID, SITE_ID, aProject, someClimateSites } from '../testing/project-fixtures';
 import { SCENARIO_A, SCENARIO_B, aScenario } from '../../scenarios/testing/scenario-fixtures';
 import { ProjectPage } from './project-page';
@@ -57,8 +58,7 @@ describe('ProjectPage', () => {
     const fixture = TestBed.createComponent(ProjectPage);
     fixture.componentRef.setInput('id', PROJECT_ID);
     fixture.detectChanges();
-    await settle(1);
-    const get = http.expectOne({ method: 'GET', url: PROJECT_URL });
+    const get = await nextRequest(http, { method: 'GET', url: PROJECT_URL });
     if ('status' in project) get.flush(project.body, { status: project.status, statusText: 'Error' });
     else get.flush(project);
     http.expectOne({ method: 'GET', url: '/api/v1/climate-sites' }).flush(someClimateSites());
@@ -174,8 +174,7 @@ describe('ProjectPage', () => {
     const patch = http.expectOne({ method: 'PATCH', url: PROJECT_URL });
     expect(patch.request.body).toEqual({ version: 3, equipmentListId: LIST_ID });
     patch.flush(maple({ equipmentListId: LIST_ID, equipmentListName: 'Spring price list', version: 4 }));
-    await settle();
-    http.expectOne({ method: 'GET', url: `/api/v1/equipment-lists/${LIST_ID}` }).flush(anEquipmentList());
+    (await nextRequest(http, { method: 'GET', url: `/api/v1/equipment-lists/${LIST_ID}` })).flush(anEquipmentList());
     await stable();
     expect(el.querySelector('[data-testid="equipment-list-link"]')?.getAttribute('href')).toBe(
       `/equipment-lists/${LIST_ID}`,

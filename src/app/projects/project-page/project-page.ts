@@ -1,7 +1,6 @@
 import { DatePipe } from '@angular/common';
 import {
   ChangeDetectionStrategy,
-  ChangeDetectorRef,
   Component,
   computed,
   effect,
@@ -19,7 +18,8 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
 import type { Project } from '@shared/projects/project-schemas';
 import { AuthStore } from '../../auth/auth-store';
-import { apiErrorCode, apiErrorMessage, applyApiErrors, saveFailure } from '../../core/api-errors';
+import { apiErrorCode, applyApiErrors } from '../../core/api-errors';
+import { VersionedEdit } from '../../core/versioned-edit';
 import { BuildingSection } from '../../building/building-section/building-section';
 import { EquipmentListSelect } from '../../building/equipment-list-select/equipment-list-select';
 import { ProjectFields, type ClimateSiteRef } from '../project-fields/project-fields';
@@ -76,7 +76,6 @@ export class ProjectPage {
   protected readonly auth = inject(AuthStore);
   private readonly api = inject(ProjectsApi);
   private readonly snackBar = inject(MatSnackBar);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   /** Route parameter. */
   readonly id = input.required<string>();
@@ -88,19 +87,20 @@ export class ProjectPage {
     this.siteChoices.hasValue() ? this.siteChoices.value() : [],
   );
 
+  protected readonly form = projectDetailsForm(inject(NonNullableFormBuilder));
+  /** Saves the details over the project's `version`; after someone else saved, reloads theirs. */
+  protected readonly edit = new VersionedEdit<Project>({
+    load: (p) => this.api.get(p.id),
+    placeErrors: (e) => applyApiErrors(this.form, e),
+  });
   /** The project as last loaded or saved; the form's changes are made from its `version`. */
-  protected readonly project = signal<Project | null>(null);
+  protected readonly project = this.edit.record;
   protected readonly currentSite = computed<ClimateSiteRef | null>(() => {
     const p = this.project();
     return p?.climateSiteId ? { id: p.climateSiteId, name: p.climateSiteName ?? 'Chosen climate site' } : null;
   });
   protected readonly canWrite = computed(() => this.auth.can('project:write'));
 
-  protected readonly form = projectDetailsForm(inject(NonNullableFormBuilder));
-  protected readonly pending = signal(false);
-  protected readonly formError = signal('');
-  /** Someone saved the project after it was loaded here: the save was refused. */
-  protected readonly stale = signal(false);
   /** The user's values that were replaced by the latest saved version on reload. */
   protected readonly unsaved = signal<UnsavedChange[]>([]);
 
@@ -117,47 +117,28 @@ export class ProjectPage {
   }
 
   protected async save(): Promise<void> {
-    const base = this.project();
-    if (!base || this.pending() || !this.canWrite()) return;
+    if (!this.project() || this.edit.isPending() || !this.canWrite()) return;
     if (!checkProjectDetails(this.form)) return;
-    this.pending.set(true);
-    this.formError.set('');
-    this.stale.set(false);
-    try {
-      const saved = await this.api.update(base.id, { version: base.version, ...projectDetailsValue(this.form) });
-      this.show(saved);
-      this.unsaved.set([]);
-      this.snackBar.open('Project saved', 'Close', { duration: 4000 });
-    } catch (err) {
-      // A stale save keeps the typed values in the form; Reload shows the latest version and keeps them aside.
-      const failure = saveFailure(err, (e) => applyApiErrors(this.form, e));
-      this.stale.set(failure.stale);
-      this.formError.set(failure.message);
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+    // A stale save keeps the typed values in the form; Reload shows the latest version and keeps them aside.
+    const saved = await this.edit.save((base) =>
+      this.api.update(base.id, { version: base.version, ...projectDetailsValue(this.form) }),
+    );
+    if (!saved) return;
+    this.show(saved);
+    this.unsaved.set([]);
+    this.snackBar.open('Project saved', 'Close', { duration: 4000 });
   }
 
   /** Loads the latest saved version into the form and keeps the user's own changes ready to apply again. */
   protected async reload(): Promise<void> {
     const base = this.project();
-    if (!base || this.pending()) return;
+    if (!base) return;
     const typed = projectDetailsValue(this.form);
-    this.pending.set(true);
-    this.formError.set('');
-    try {
-      const latest = await this.api.get(base.id);
-      const changes = this.changesFrom(typed, latest, base);
-      this.show(latest);
-      this.stale.set(false);
-      this.unsaved.set(changes);
-    } catch (err) {
-      this.formError.set(apiErrorMessage(err));
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+    const latest = await this.edit.reload();
+    if (!latest) return;
+    const changes = this.changesFrom(typed, latest, base);
+    this.show(latest);
+    this.unsaved.set(changes);
   }
 
   /** Puts the changes kept aside on reload back into the form, to be saved over the latest version. */
@@ -178,8 +159,7 @@ export class ProjectPage {
   protected discardChanges(): void {
     const project = this.project();
     if (project) this.show(project);
-    this.formError.set('');
-    this.stale.set(false);
+    this.edit.clear();
   }
 
   /** The project as saved by the equipment select; the details form keeps what the user is typing. */

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, effect, inject, input, signal, untracked } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -71,7 +71,6 @@ import { ReportsApi } from '../reports-api';
 export class PublicReportPage {
   readonly token = input.required<string>();
   private readonly api = inject(ReportsApi);
-  private readonly cdr = inject(ChangeDetectorRef);
   protected readonly view = signal<ReportView | null>(null);
   protected readonly loading = signal(true);
   protected readonly gone = signal('');
@@ -96,7 +95,6 @@ export class PublicReportPage {
       }
     } finally {
       this.loading.set(false);
-      this.cdr.markForCheck();
     }
   }
 

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -69,7 +69,6 @@ export class ReportComposer {
   protected readonly data = inject<ReportComposerData>(MAT_DIALOG_DATA);
   private readonly api = inject(ReportsApi);
   private readonly dialogRef = inject<MatDialogRef<ReportComposer, Report>>(MatDialogRef);
-  private readonly cdr = inject(ChangeDetectorRef);
   protected readonly form = inject(NonNullableFormBuilder).group({
     title: [this.data.defaultTitle.slice(0, REPORT_TITLE_MAX), [Validators.required, Validators.maxLength(REPORT_TITLE_MAX)]],
     note: ['', Validators.maxLength(REPORT_NOTE_MAX)],
@@ -149,7 +148,6 @@ export class ReportComposer {
       this.formError.set(applyApiErrors(this.form, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, resource } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -81,26 +81,12 @@ export class ReportList {
   private readonly projects = inject(ProjectsApi);
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
-  protected readonly reports = signal<Report[]>([]);
-
-  constructor() {
-    effect(() => {
-      const projectId = this.projectId();
-      const scenarioId = this.scenarioId();
-      untracked(() => void this.load(projectId, scenarioId));
-    });
-  }
-
-  private async load(projectId: string, scenarioId: string): Promise<void> {
-    try {
-      this.reports.set(await this.api.list(projectId, scenarioId));
-    } catch {
-      this.reports.set([]);
-    } finally {
-      this.cdr.markForCheck();
-    }
-  }
+  private readonly loaded = resource({
+    params: () => ({ projectId: this.projectId(), scenarioId: this.scenarioId() }),
+    loader: ({ params }) => this.api.list(params.projectId, params.scenarioId),
+  });
+  /** The scenario's reports; none while they load or when they could not be loaded. */
+  protected readonly reports = computed<Report[]>(() => (this.loaded.hasValue() ? this.loaded.value() : []));
 
   protected activeLinks(r: Report): number {
     return r.links.filter((l) => l.status === 'active').length;

@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -35,7 +35,6 @@ export class ReportPage {
   private readonly dialog = inject(MatDialog);
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
   private readonly fb = inject(NonNullableFormBuilder);
   private readonly scenarios = inject(ScenariosApi);
   /** The send form's directive: resetting through it also clears its submitted state, so no field turns red after a send. */
@@ -71,8 +70,6 @@ export class ReportPage {
       this.view.set(await this.api.preview(projectId, reportId));
     } catch (err) {
       this.loadError.set(readApiError(err)?.code === 'not_found' ? 'This report was not found.' : apiErrorMessage(err, 'The report could not be loaded.'));
-    } finally {
-      this.cdr.markForCheck();
     }
   }
 
@@ -95,7 +92,6 @@ export class ReportPage {
       await this.refresh();
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 
@@ -140,7 +136,6 @@ export class ReportPage {
       this.sendError.set(applyApiErrors(this.sendForm, err));
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 
@@ -212,7 +207,6 @@ export class ReportPage {
       this.snack.open(apiErrorMessage(err), 'Dismiss', { duration: 8000 });
     } finally {
       this.pending.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

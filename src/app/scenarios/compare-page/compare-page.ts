@@ -1,5 +1,5 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, resource, signal } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
@@ -15,7 +15,8 @@ import { apiErrorMessage } from '../../core/api-errors';
 import { provideCharts } from '../../charts/provide-charts';
 import { ScenariosApi } from '../scenarios-api';
 import { TermInfo } from '../../ui/term-info/term-info';
-import { comparePointChoices, comparisonChart, comparisonTable, differenceRows, type ComparePoint } from '../tradeoff-model';
+import { comparePointChoices, comparisonTable, differenceRows, type ComparePoint } from '../compare-rows';
+import { comparisonChart } from '../tradeoff-charts';
 import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
 
 /** `/projects/:id/compare?ids=a,b…`: two to five scenarios side by side, in one table and one chart. */
@@ -189,7 +190,6 @@ export class ComparePage {
 
   private readonly api = inject(ScenariosApi);
   private readonly auth = inject(AuthStore);
-  private readonly cdr = inject(ChangeDetectorRef);
   private readonly compact = toSignal(
     inject(BreakpointObserver)
       .observe('(max-width: 599.98px)')
@@ -197,10 +197,17 @@ export class ComparePage {
     { initialValue: false },
   );
 
-  protected readonly comparison = signal<Comparison | null>(null);
-  protected readonly loading = signal(false);
-  protected readonly error = signal('');
   protected readonly idList = computed(() => this.ids().split(',').filter((x) => x.length > 0));
+  private readonly loaded = resource({
+    params: () => ({ projectId: this.id(), ids: this.idList() }),
+    loader: ({ params }) => this.api.compare(params.projectId, params.ids),
+  });
+  protected readonly comparison = computed<Comparison | null>(() => (this.loaded.hasValue() ? this.loaded.value() : null));
+  protected readonly loading = this.loaded.isLoading;
+  protected readonly error = computed(() => {
+    const err = this.loaded.error();
+    return err ? apiErrorMessage(err, 'The scenarios could not be compared.') : '';
+  });
   protected readonly point = signal<ComparePoint>('chosen');
   protected readonly baseline = signal(0);
   protected readonly pointChoices = computed(() => comparePointChoices(this.comparison()?.entries ?? []));
@@ -210,26 +217,4 @@ export class ComparePage {
     comparisonChart(this.comparison()?.entries.map((e) => ({ name: e.scenario.name, sweep: e.sweep })) ?? [], this.auth.unitSystem(), this.compact()),
   );
   protected readonly csvUrl = computed(() => this.api.compareCsvUrl(this.id(), this.idList()));
-
-  constructor() {
-    effect(() => {
-      const projectId = this.id();
-      const ids = this.idList();
-      untracked(() => void this.load(projectId, ids));
-    });
-  }
-
-  private async load(projectId: string, ids: string[]): Promise<void> {
-    this.loading.set(true);
-    this.error.set('');
-    try {
-      this.comparison.set(await this.api.compare(projectId, ids));
-    } catch (err) {
-      this.comparison.set(null);
-      this.error.set(apiErrorMessage(err, 'The scenarios could not be compared.'));
-    } finally {
-      this.loading.set(false);
-      this.cdr.markForCheck();
-    }
-  }
 }

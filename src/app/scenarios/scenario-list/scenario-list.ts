@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatChipsModule } from '@angular/material/chips';
@@ -44,7 +44,6 @@ export class ScenarioList {
   private readonly dialog = inject(MatDialog);
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
   private readonly auth = inject(AuthStore);
 
   protected readonly scenarios = signal<Scenario[] | null>(null);
@@ -74,8 +73,6 @@ export class ScenarioList {
       this.scenarios.set(await this.api.list(projectId));
     } catch (err) {
       this.loadError.set(apiErrorMessage(err, 'The scenarios could not be loaded.'));
-    } finally {
-      this.cdr.markForCheck();
     }
   }
 
@@ -123,7 +120,8 @@ export class ScenarioList {
       label: 'Scenario name',
       initial: s.name,
       submitLabel: 'Rename',
-      save: (name) => this.api.update(this.projectId(), s.id, { version: s.version, name }),
+      save: (name, _choice, current) => this.api.update(this.projectId(), s.id, { version: (current ?? s).version, name }),
+      versioned: { record: s, load: (latest) => this.api.get(latest.projectId, latest.id) },
     });
     if (saved) await this.load();
   }
@@ -166,8 +164,8 @@ export class ScenarioList {
     });
   }
 
-  private async askName<T>(data: Omit<NameDialogData<T>, 'maxLength'>): Promise<T | undefined> {
-    const ref = this.dialog.open<NameDialog<T>, NameDialogData<T>, T>(NameDialog, { data: { ...data, maxLength: SCENARIO_NAME_MAX } });
+  private async askName<T, R = unknown>(data: Omit<NameDialogData<T, R>, 'maxLength'>): Promise<T | undefined> {
+    const ref = this.dialog.open<NameDialog<T, R>, NameDialogData<T, R>, T>(NameDialog, { data: { ...data, maxLength: SCENARIO_NAME_MAX } });
     return firstValueFrom(ref.afterClosed());
   }
 
@@ -180,7 +178,6 @@ export class ScenarioList {
       this.snack.open(apiErrorMessage(err), 'Dismiss', { duration: 8000 });
     } finally {
       this.busy.set(false);
-      this.cdr.markForCheck();
     }
   }
 }

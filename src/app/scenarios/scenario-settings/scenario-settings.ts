@@ -31,7 +31,8 @@ import {
 } from '@shared/scenarios/scenario-schemas';
 import { MAX_DRAWS } from '@shared/sweep/tolerances';
 import { fromSi, toSi, unitLabel } from '@shared/units/units';
-import { applyApiErrors, fieldError, saveFailure } from '../../core/api-errors';
+import { applyApiErrors, fieldError } from '../../core/api-errors';
+import { VersionedEdit } from '../../core/versioned-edit';
 import { EquipmentApi } from '../../equipment/equipment-api';
 import { ProjectsApi } from '../../projects/projects-api';
 import { ScenariosApi } from '../scenarios-api';
@@ -136,14 +137,15 @@ export class ScenarioSettingsPanel {
   });
   protected readonly chosenLabels = signal<ReadonlySet<string>>(new Set());
   protected readonly listOptions = signal<string[]>([]);
-  protected readonly pending = signal(false);
-  protected readonly formError = signal('');
-  protected readonly stale = signal(false);
+  /** The scenario as last shown or saved (saves are made from its version); Reload loads the latest over the form. */
+  protected readonly edit = new VersionedEdit<Scenario>({
+    load: (s) => this.api.get(s.projectId, s.id),
+    placeErrors: (e) => applyApiErrors(this.form, e),
+  });
   protected readonly temperatureUnit = computed(() => unitLabel('temperature', this.unitSystem()));
   protected readonly extraMax = EXTRA_DESIGN_TEMPERATURES_MAX;
   protected readonly maxDraws = MAX_DRAWS;
   protected readonly fieldError = fieldError;
-  private current: Scenario | null = null;
 
   constructor() {
     effect(() => {
@@ -158,8 +160,12 @@ export class ScenarioSettingsPanel {
   }
 
   private show(s: Scenario): void {
-    const previous = this.current;
-    this.current = s;
+    const previous = this.edit.record();
+    this.edit.record.set(s);
+    this.fillUnlessSame(previous, s);
+  }
+
+  private fillUnlessSame(previous: Scenario | null, s: Scenario): void {
     // Choosing a design point saves it with the scenario (a new version, same settings): keep what
     // the user is typing here and only take the new version.
     if (previous?.id === s.id && sameSettings(previous, s)) return;
@@ -209,8 +215,6 @@ export class ScenarioSettingsPanel {
       this.chosenLabels.set(new Set(chosen ?? labels));
     } catch {
       this.listOptions.set([]);
-    } finally {
-      this.cdr.markForCheck();
     }
   }
 
@@ -284,51 +288,37 @@ export class ScenarioSettingsPanel {
   }
 
   protected async save(): Promise<void> {
-    const base = this.current;
-    if (!base || this.pending()) return;
+    if (!this.edit.record() || this.edit.isPending()) return;
     if (this.form.invalid) {
       this.form.markAllAsTouched();
       return;
     }
     const settings = this.settingsValue();
     if (typeof settings === 'string') {
-      this.formError.set(settings);
+      this.edit.refuse(settings);
       return;
     }
     const v = this.form.getRawValue();
-    this.pending.set(true);
-    this.formError.set('');
-    this.stale.set(false);
-    try {
-      const saved = await this.api.update(base.projectId, base.id, {
+    const saved = await this.edit.save((base) =>
+      this.api.update(base.projectId, base.id, {
         version: base.version,
         climateSiteId: v.climateSiteId,
         equipmentListId: v.equipmentListId,
         settings,
-      });
-      this.current = saved;
-      this.form.markAsPristine();
-      this.saved.emit(saved);
-    } catch (err) {
-      const failure = saveFailure(err, (e) => applyApiErrors(this.form, e));
-      this.stale.set(failure.stale);
-      this.formError.set(failure.message);
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+      }),
+    );
+    if (!saved) return;
+    this.form.markAsPristine();
+    this.saved.emit(saved);
   }
 
   /** Loads the latest saved scenario over the form (after someone else saved). */
   protected async reload(): Promise<void> {
-    const base = this.current;
-    if (!base) return;
-    const latest = await this.api.get(base.projectId, base.id);
-    this.stale.set(false);
-    this.formError.set('');
-    this.show(latest);
+    const previous = this.edit.record();
+    const latest = await this.edit.reload();
+    if (!latest) return;
+    this.fillUnlessSame(previous, latest);
     this.saved.emit(latest);
-    this.cdr.markForCheck();
   }
 }
 

@@ -1,6 +1,6 @@
 import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatChipsModule } from '@angular/material/chips';
@@ -25,23 +25,23 @@ import { GRID_STEP_C } from '@shared/sweep/sweep';
 import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';
+import { VersionedEdit } from '../../core/versioned-edit';
 import { provideCharts } from '../../charts/provide-charts';
 import { NameDialog, type NameDialogData } from '../../ui/name-dialog/name-dialog';
 import { ScenarioSettingsPanel } from '../scenario-settings/scenario-settings';
 import { ScenariosApi } from '../scenarios-api';
+import { loadDurationChart, tradeoffChart } from '../tradeoff-charts';
 import {
   defaultIndex,
   designRows,
   formatPower,
-  loadDurationChart,
   loadDurationTable,
   nearestIndex,
   optionLabelOf,
   sentenceFor,
-  tradeoffChart,
   tradeoffChartSummary,
   rulesText,
-} from '../tradeoff-model';
+} from '../tradeoff-text';
 import { ReportList } from '../../reports/report-list/report-list';
 import { TermInfo } from '../../ui/term-info/term-info';
 import { TradeoffCautions } from './tradeoff-cautions';
@@ -80,7 +80,6 @@ export class TradeoffPage {
   private readonly dialog = inject(MatDialog);
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
-  private readonly cdr = inject(ChangeDetectorRef);
 
   protected readonly compact = toSignal(
     inject(BreakpointObserver)
@@ -261,8 +260,6 @@ export class TradeoffPage {
           ? 'This scenario was not found. It may have been deleted, or it belongs to another organisation.'
           : apiErrorMessage(err, 'The scenario could not be loaded.'),
       );
-    } finally {
-      this.cdr.markForCheck();
     }
   }
 
@@ -273,7 +270,6 @@ export class TradeoffPage {
     this.sweeping.set(true);
     this.sweepError.set('');
     this.sweepProblems.set([]);
-    this.cdr.markForCheck();
     try {
       const answer = await this.api.sweep(s.projectId, s.id);
       const previous = this.chosenRow()?.designC ?? s.chosenDesignC;
@@ -286,7 +282,6 @@ export class TradeoffPage {
       this.sweepProblems.set(e?.code === 'scenario_incomplete' ? (e.details ?? []) : []);
     } finally {
       this.sweeping.set(false);
-      this.cdr.markForCheck();
     }
   }
 
@@ -319,29 +314,27 @@ export class TradeoffPage {
   }
 
   private saving: Promise<void> = Promise.resolve();
+  /**
+   * Saves the chosen design point over the scenario's version. Keeping the newer version (and the
+   * names) needs no new sweep: nothing the sweep reads changed. When someone saved the scenario
+   * meanwhile, theirs is taken and this choice saved on top of it.
+   */
+  private readonly choiceEdit = new VersionedEdit<Scenario>({
+    record: this.scenario,
+    load: (s) => this.api.get(s.projectId, s.id),
+    placeErrors: (e) => apiErrorMessage(e, 'The chosen design point could not be saved.'),
+  });
 
   private saveChoice(): Promise<void> {
     this.saving = this.saving.then(async () => {
       const s = this.scenario();
       const designC = this.chosenRow()?.designC;
       if (!s || designC === undefined || s.chosenDesignC === designC || s.frozenAt) return;
-      try {
-        const saved = await this.api.update(s.projectId, s.id, { version: s.version, chosenDesignC: designC });
-        // Keep the newer version (and the names) without sweeping again: nothing the sweep reads changed.
-        this.scenario.set(saved);
-      } catch (err) {
-        const e = readApiError(err);
-        if (e?.code === 'stale_update') {
-          // Someone saved the scenario meanwhile: take theirs and keep this choice on top of it.
-          const fresh = await this.api.get(s.projectId, s.id);
-          this.scenario.set(fresh);
-          const saved = await this.api.update(fresh.projectId, fresh.id, { version: fresh.version, chosenDesignC: designC }).catch(() => null);
-          if (saved) this.scenario.set(saved);
-        } else {
-          this.snack.open(apiErrorMessage(err, 'The chosen design point could not be saved.'), 'Dismiss', { duration: 6000 });
-        }
-      } finally {
-        this.cdr.markForCheck();
+      const saved = await this.choiceEdit.saveOverLatest((base) =>
+        this.api.update(base.projectId, base.id, { version: base.version, chosenDesignC: designC }),
+      );
+      if (!saved && !this.choiceEdit.isStale()) {
+        this.snack.open(this.choiceEdit.error(), 'Dismiss', { duration: 6000 });
       }
     });
     return this.saving;
@@ -356,7 +349,6 @@ export class TradeoffPage {
       const [xValue] = chart.convertFromPixel('grid', [e.offsetX, e.offsetY]) as [number, number];
       const c = this.unitSystem() === 'SI' ? xValue : ((xValue - 32) * 5) / 9;
       this.select(nearestIndex(s.rows, c));
-      this.cdr.markForCheck();
     };
     zr.on('mousedown', (e) => {
       this.dragging = true;

@@ -14,10 +14,10 @@ const failure = (status: number, code: string, message: string, details: unknown
   new HttpErrorResponse({ status, error: { error: { code, message, details } }, url: '/api/v1/x' });
 
 describe('NameDialog', () => {
-  let dialogRef: jasmine.SpyObj<MatDialogRef<NameDialog<Saved>, Saved>>;
+  let dialogRef: jasmine.SpyObj<MatDialogRef<NameDialog<Saved, Saved>, Saved>>;
 
-  async function render(data: Partial<NameDialogData<Saved>> & Pick<NameDialogData<Saved>, 'save'>) {
-    dialogRef = jasmine.createSpyObj<MatDialogRef<NameDialog<Saved>, Saved>>('MatDialogRef', ['close']);
+  async function render(data: Partial<NameDialogData<Saved, Saved>> & Pick<NameDialogData<Saved, Saved>, 'save'>) {
+    dialogRef = jasmine.createSpyObj<MatDialogRef<NameDialog<Saved, Saved>, Saved>>('MatDialogRef', ['close']);
     TestBed.configureTestingModule({
       imports: [NameDialog],
       providers: [
@@ -29,7 +29,7 @@ describe('NameDialog', () => {
         },
       ],
     });
-    const fixture = TestBed.createComponent(NameDialog<Saved>);
+    const fixture = TestBed.createComponent(NameDialog<Saved, Saved>);
     fixture.detectChanges();
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;
@@ -58,7 +58,7 @@ describe('NameDialog', () => {
     await type('  New name ');
     await click('Rename');
     // No choice is asked here, so the choice is empty.
-    expect(save).toHaveBeenCalledOnceWith('New name', '');
+    expect(save).toHaveBeenCalledOnceWith('New name', '', null);
     expect(dialogRef.close).toHaveBeenCalledOnceWith({ name: 'New name', version: 2 });
   });
 
@@ -84,14 +84,18 @@ describe('NameDialog', () => {
   });
 
   it('offers Reload when someone saved first, then saves the typed name over the latest version', async () => {
-    let version = 1;
     const save = jasmine.createSpy('save').and.rejectWith(failure(409, 'stale_update', 'Ann saved this project after you opened it'));
-    const reload = jasmine.createSpy('reload').and.callFake(() => {
-      version = 5;
-      save.and.callFake((name: string) => Promise.resolve({ name, version: version + 1 }));
-      return Promise.resolve();
+    const load = jasmine.createSpy('load').and.callFake(() => {
+      // After the reload, a save made from the latest version (5) goes through.
+      save.and.callFake((name: string, _choice: string, current: Saved | null) =>
+        Promise.resolve({ name, version: (current?.version ?? 0) + 1 }),
+      );
+      return Promise.resolve({ name: 'Ann’s name', version: 5 });
     });
-    const { type, click, el, buttons, input } = await render({ save, reload });
+    const { type, click, el, buttons, input } = await render({
+      save,
+      versioned: { record: { name: 'Old name', version: 1 }, load },
+    });
     await type('Mine');
     await click('Rename');
     expect(el.querySelector('[role="alert"]')?.textContent).toContain('Ann saved this project after you opened it');
@@ -99,7 +103,7 @@ describe('NameDialog', () => {
     expect(dialogRef.close).not.toHaveBeenCalled();
 
     await click('Reload');
-    expect(reload).toHaveBeenCalledTimes(1);
+    expect(load).toHaveBeenCalledOnceWith({ name: 'Old name', version: 1 });
     expect(input.value).toBe('Mine');
     expect(buttons()).not.toContain('Reload');
     await click('Rename');

@@ -1,13 +1,14 @@
-import { ChangeDetectionStrategy, ChangeDetectorRef, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
-import { applyApiErrors, fieldError, saveFailure } from '../../core/api-errors';
+import { applyApiErrors, fieldError } from '../../core/api-errors';
+import { VersionedEdit } from '../../core/versioned-edit';
 
-export interface NameDialogData<T> {
+export interface NameDialogData<T, R = unknown> {
   title: string;
   /** Label of the name field, e.g. "Scenario name". */
   label: string;
@@ -26,13 +27,17 @@ export interface NameDialogData<T> {
   autocomplete?: string;
   /** An optional question asked with the name, answered by one of its choices. */
   choice?: { legend: string; options: readonly { value: string; label: string }[]; initial: string; testId?: string };
-  /** Saves the name (and the choice, when asked); the dialog closes with its answer, or shows the error and stays open. */
-  save: (name: string, choice: string) => Promise<T>;
   /**
-   * For a rename: loads the thing again after someone else saved it first (409 `stale_update`), so
-   * that the typed name can be saved over the latest version. The dialog then offers "Reload".
+   * Saves the name (and the choice, when asked) over `current`, the renamed thing as last loaded
+   * (null without `versioned`); the dialog closes with its answer, or shows the error and stays open.
    */
-  reload?: () => Promise<void>;
+  save: (name: string, choice: string, current: R | null) => Promise<T>;
+  /**
+   * For a rename: the thing as the caller loaded it, and how to load it again after someone else
+   * saved it first (409 `stale_update`), so that the typed name can be saved over the latest
+   * version. The dialog then offers "Reload".
+   */
+  versioned?: { record: R; load: (current: R) => Promise<R> };
   /** Close without saving when the name is left as it was (a rename). */
   closeIfUnchanged?: boolean;
 }
@@ -48,11 +53,11 @@ export interface NameDialogData<T> {
         @if (data.hint) {
           <p class="hint">{{ data.hint }}</p>
         }
-        @if (formError()) {
+        @if (edit.error()) {
           <div class="tr-alert" role="alert">
-            <span>{{ formError() }}</span>
-            @if (stale()) {
-              <button mat-button type="button" [disabled]="pending()" (click)="reload()">Reload</button>
+            <span>{{ edit.error() }}</span>
+            @if (edit.isStale()) {
+              <button mat-button type="button" [disabled]="edit.isPending()" (click)="reload()">Reload</button>
             }
           </div>
         }
@@ -83,7 +88,7 @@ export interface NameDialogData<T> {
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="pending()">{{ data.submitLabel }}</button>
+        <button mat-flat-button type="submit" [disabled]="edit.isPending()">{{ data.submitLabel }}</button>
       </mat-dialog-actions>
     </form>
   `,
@@ -111,22 +116,23 @@ export interface NameDialogData<T> {
   `,
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
-export class NameDialog<T> {
-  protected readonly data = inject<NameDialogData<T>>(MAT_DIALOG_DATA);
-  private readonly dialogRef = inject<MatDialogRef<NameDialog<T>, T>>(MatDialogRef);
-  private readonly cdr = inject(ChangeDetectorRef);
+export class NameDialog<T, R = unknown> {
+  protected readonly data = inject<NameDialogData<T, R>>(MAT_DIALOG_DATA);
+  private readonly dialogRef = inject<MatDialogRef<NameDialog<T, R>, T>>(MatDialogRef);
   protected readonly form = inject(NonNullableFormBuilder).group({
     name: [this.data.initial, [Validators.required, Validators.maxLength(this.data.maxLength)]],
     choice: [this.data.choice?.initial ?? ''],
   });
-  protected readonly pending = signal(false);
-  protected readonly formError = signal('');
-  /** Someone else saved first (a rename with `reload`). */
-  protected readonly stale = signal(false);
+  /** Without `versioned` a stale save is shown like any other failure: there is nothing to reload. */
+  protected readonly edit = new VersionedEdit<R>({
+    record: signal(this.data.versioned?.record ?? null),
+    ...(this.data.versioned ? { load: this.data.versioned.load } : {}),
+    placeErrors: (e) => applyApiErrors(this.form, e),
+  });
   protected readonly fieldError = fieldError;
 
   protected async submit(): Promise<void> {
-    if (this.pending()) return;
+    if (this.edit.isPending()) return;
     const name = this.form.controls.name.value.trim();
     if (!name) this.form.controls.name.setValue('');
     if (this.form.invalid) {
@@ -137,32 +143,13 @@ export class NameDialog<T> {
       this.dialogRef.close();
       return;
     }
-    await this.run(async () => {
-      this.dialogRef.close(await this.data.save(name, this.form.controls.choice.value));
-    });
+    const choice = this.form.controls.choice.value;
+    const answer = await this.edit.send(() => this.data.save(name, choice, this.edit.record()));
+    if (answer !== null) this.dialogRef.close(answer);
   }
 
-  /** Loads the latest version through the caller's `reload`; the typed name stays. */
+  /** Loads the latest version through the caller's `load`; the typed name stays. */
   protected async reload(): Promise<void> {
-    const reload = this.data.reload;
-    if (reload) await this.run(reload);
-  }
-
-  private async run(action: () => Promise<void>): Promise<void> {
-    this.pending.set(true);
-    this.formError.set('');
-    this.stale.set(false);
-    try {
-      await action();
-    } catch (err) {
-      const place = (e: unknown) => applyApiErrors(this.form, e);
-      // Without `reload` there is nothing to offer: a stale save is shown like any other failure.
-      const failure = this.data.reload ? saveFailure(err, place) : { stale: false, message: place(err) };
-      this.stale.set(failure.stale);
-      this.formError.set(failure.message);
-    } finally {
-      this.pending.set(false);
-      this.cdr.markForCheck();
-    }
+    await this.edit.reload();
   }
 }
