@@ -12,7 +12,9 @@
  * arrays, each starting on an 8-byte boundary. Float arrays whose values are exact in a narrower
  * type (whole hours, float32 readings) are stored narrow and widened on reading.
  */
-import { buildBins, indexSweepRecord, type Bins, type Hours, type SweepRecord, type SweepRecordIndex } from './sweep';
+import { buildBins, indexSweepRecord, type Bins, type SweepRecordIndex } from './sweep-bins';
+import type { Hours } from './sweep-prepare';
+import type { SweepRecord } from './sweep-types';
 
 /** Changes whenever the packed layout or the meaning of `Hours`/`Bins` changes: a stored index of another format is rebuilt. */
 export const SWEEP_INDEX_FORMAT = 'sweep-index-2';
