@@ -3,10 +3,9 @@
  * sentence (the trade's terms) for the trade-off screen, and the homeowner's sentence (plain words)
  * for the client report. Pure; money with decimal.js, shown to whole units.
  */
-import type { UnitSystem } from '../auth/auth-schemas';
 import { designValueName } from '../glossary/glossary';
 import { formatMoneyWhole, parseMoney } from '../money/money';
-import { formatPower, formatQuantity, fromSi, unitLabel } from '../units/units';
+import { formatPower, formatQuantity, fromSi, unitLabel, type UnitSystem } from '../units/units';
 import type { SweepRow } from './sweep';
 
 export interface SummaryContext {

@@ -2,9 +2,8 @@
  * What the client sees of a report: plain-words paragraphs and the chosen design points with the
  * figures the designer picked, formatted in the report's units (shared by the page and the PDF).
  */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { Building } from '@shared/building/building-schemas';
-import { heatLoss } from '@shared/building/heat-loss';
+import { effectiveConductanceWPerK, heatLoss } from '@shared/building/heat-loss';
 import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import { designValueName, designValueTag } from '@shared/glossary/glossary';
 import { formatMoneyWhole } from '@shared/money/money';
@@ -13,7 +12,7 @@ import { reportFigureLabels, type ReportFigure, type ReportView } from '@shared/
 import { sweepAnswerSchema, type SweepAnswer, type SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
 import { oddsBasisSentence, plainBandSentence, plainComfortSentence, plainLifetimeSentence } from '@shared/sweep/odds-words';
 import { homeownerSentence, lowestIndoorC, nearestRowIndex, wholeDegrees } from '@shared/sweep/tradeoff-summary';
-import { formatPower, formatQuantity, fromSi, unitLabel } from '@shared/units/units';
+import { formatPower, formatQuantity, fromSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import { SWEEP_VERSION } from '../scenarios/sweep-service';
 
 export interface ReportSource {
@@ -86,7 +85,7 @@ export function buildReportView(src: ReportSource): ReportView {
   const r99 = named('99 %');
   if (b && r99) {
     const h = heatLoss(b, r99.designC, a.designWindMs);
-    const ua = h.conductanceWPerK.total * (1 + h.ductLossFraction);
+    const ua = effectiveConductanceWPerK(h);
     // IP: W/K × (1 Btu/h ÷ 0.29307107 W) ÷ (1.8 °F per K), NIST SP 811 (2008) Appendix B.
     const uaText = system === 'SI' ? `${Math.round(ua)} W` : `${Math.round(ua / 0.29307107 / 1.8)} Btu/h`;
     building =

@@ -17,7 +17,7 @@ import {
   type ReportSend,
   type ReportView,
 } from '@shared/reports/report-schemas';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { Config } from '../../config';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';

@@ -10,14 +10,13 @@ import type {
   TooltipComponentOption,
 } from 'echarts/components';
 import type { ComposeOption } from 'echarts/core';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
 import { designValueName, designValueTag, explain, term, type TermKey } from '@shared/glossary/glossary';
 import type { EnergyPrices } from '@shared/money/energy-prices';
 import { formatMoneyWhole, parseMoney } from '@shared/money/money';
 import type { SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
 import { hoursRange, oneIn, perHour } from '@shared/sweep/odds-words';
 import { chosenRowIndex, defaultRowIndex, lowestIndoorC, nearestRowIndex, tradeoffSentence } from '@shared/sweep/tradeoff-summary';
-import { convertUnits, formatQuantity, unitLabel } from '@shared/units/units';
+import { convertUnits, formatQuantity, unitLabel, type UnitSystem } from '@shared/units/units';
 import { formatPower, groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building/building-units';
 
 export type ChartOption = ComposeOption<

@@ -1,7 +1,7 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { ClimateSite } from '@shared/climate-sites/climate-site-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { settle } from '../../testing/test-sessions';

@@ -17,7 +17,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import {
   CLIMATE_SITE_NAME_MAX,
@@ -26,7 +25,7 @@ import {
   type ClimateSitePatch,
   type SourceKind,
 } from '@shared/climate-sites/climate-site-schemas';
-import { fromSi, toSi } from '@shared/units/units';
+import { fromSi, toSi, type UnitSystem } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { applyApiErrors, fieldError } from '../../core/api-errors';
 import { MONTH_NAMES } from '../climate-format';

@@ -1,5 +1,5 @@
 /** Made-up climate sites, conditions and uploads for the client specs (values in SI). */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { Role } from '@shared/auth/roles';
 import type { DesignConditions } from '@shared/climate/design-conditions-schema';
 import type {

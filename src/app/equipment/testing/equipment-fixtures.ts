@@ -1,5 +1,5 @@
 /** Made-up equipment lists for the client specs (values in SI, prices as decimal text). */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { Role } from '@shared/auth/roles';
 import type { EquipmentList, EquipmentListSummary } from '@shared/equipment/equipment-list-schemas';
 import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
