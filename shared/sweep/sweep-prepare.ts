@@ -13,7 +13,9 @@ import { selectionRuleOf } from './sweep-select';
 import {
   DEFAULT_HEAT_PUMP_SIZING,
   DEFAULT_STUDY_PERIOD_YEARS,
+  NAMED_ROW_LABELS,
   type HeatPumpSizing,
+  type RowKind,
   type SelectionRule,
   type SweepDesignValues,
   type SweepInput,
@@ -24,6 +26,7 @@ import {
 export const GRID_STEP_C = 0.5;
 
 export interface LadderRung {
+  kind: RowKind;
   label: string;
   designC: number;
   isGrid: boolean;
@@ -34,16 +37,17 @@ export const fmtC = (t: number): string => `${Number(t.toFixed(2))} °C`;
 /** The ladder of design temperatures, mildest first (named values, extras, then the 0.5 °C grid). */
 export function designLadder(values: SweepDesignValues, extraDesignC: readonly number[] = []): LadderRung[] {
   const named: LadderRung[] = [
-    { label: '99 %', designC: values.heating.db99, isGrid: false },
-    { label: '99.6 %', designC: values.heating.db99_6, isGrid: false },
+    { kind: 'p99', label: NAMED_ROW_LABELS.p99, designC: values.heating.db99, isGrid: false },
+    { kind: 'p996', label: NAMED_ROW_LABELS.p996, designC: values.heating.db99_6, isGrid: false },
   ];
   const ex = values.extremeMin;
-  if (typeof ex?.mean === 'number') named.push({ label: 'Extreme mean', designC: ex.mean, isGrid: false });
+  if (typeof ex?.mean === 'number') named.push({ kind: 'annualMin', label: NAMED_ROW_LABELS.annualMin, designC: ex.mean, isGrid: false });
   for (const n of ['5', '10', '20', '50'] as const) {
     const v = ex?.returnPeriod?.[n];
-    if (typeof v === 'number') named.push({ label: `${n}-year`, designC: v, isGrid: false });
+    const kind = `rp${n}` as const;
+    if (typeof v === 'number') named.push({ kind, label: NAMED_ROW_LABELS[kind], designC: v, isGrid: false });
   }
-  for (const t of extraDesignC) if (Number.isFinite(t)) named.push({ label: fmtC(t), designC: t, isGrid: false });
+  for (const t of extraDesignC) if (Number.isFinite(t)) named.push({ kind: 'extra', label: fmtC(t), designC: t, isGrid: false });
   const temps = named.map((r) => r.designC);
   const mildest = Math.max(...temps);
   const coldest = Math.min(...temps);
@@ -53,7 +57,7 @@ export function designLadder(values: SweepDesignValues, extraDesignC: readonly n
   if (top - bottom <= 1000) {
     for (let k = top; k >= bottom; k--) {
       const t = k * GRID_STEP_C;
-      if (!temps.includes(t)) grid.push({ label: fmtC(t), designC: t, isGrid: true });
+      if (!temps.includes(t)) grid.push({ kind: 'grid', label: fmtC(t), designC: t, isGrid: true });
     }
   }
   const all = [...named, ...grid];

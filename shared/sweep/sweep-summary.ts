@@ -3,9 +3,7 @@
  * reliability note of each return-period row (docs/methods.md#warnings). Pure: no I/O.
  */
 import type { Common } from './sweep-prepare';
-import type { SweepInput, SweepWarning } from './sweep-types';
-
-const RETURN_PERIOD_LABELS = new Set(['5-year', '10-year', '20-year', '50-year']);
+import { RETURN_PERIOD_KINDS, type RowKind, type SweepInput, type SweepWarning } from './sweep-types';
 
 /** Warnings about the record's length and the option list (docs/methods.md#warnings). */
 export function warningsOf(input: SweepInput, common: Common): SweepWarning[] {
@@ -50,9 +48,10 @@ export function warningsOf(input: SweepInput, common: Common): SweepWarning[] {
   return warnings;
 }
 
-export function reliabilityNoteOf(label: string, years: number | null): string | null {
-  if (years === null || !RETURN_PERIOD_LABELS.has(label)) return null;
-  if (label === '50-year' && years < 20) return `Extrapolated from ${years} years of record (fewer than 20): a rough estimate`;
+/** The note on a return-period row from a short record (docs/methods.md#warnings); null on other rows. */
+export function reliabilityNoteOf(kind: RowKind, years: number | null): string | null {
+  if (years === null || !RETURN_PERIOD_KINDS.has(kind)) return null;
+  if (kind === 'rp50' && years < 20) return `Extrapolated from ${years} years of record (fewer than 20): a rough estimate`;
   if (years < 10) return `From ${years} years of record (fewer than 10): unreliable`;
   return null;
 }

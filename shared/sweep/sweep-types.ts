@@ -76,8 +76,40 @@ export interface SweepInput {
   heatPumpSizing?: HeatPumpSizing;
 }
 
+/**
+ * What a ladder row stands for: the 99 % and 99.6 % heating values, the extreme-annual mean minimum,
+ * the 5-, 10-, 20- and 50-year return-period minima, an extra temperature the user asked for, or a
+ * point of the 0.5 °C grid. Code finds rows by kind; `label` is for display only.
+ */
+export const rowKinds = ['p99', 'p996', 'annualMin', 'rp5', 'rp10', 'rp20', 'rp50', 'extra', 'grid'] as const;
+export type RowKind = (typeof rowKinds)[number];
+/** The kinds of the return-period rows. */
+export const RETURN_PERIOD_KINDS: ReadonlySet<RowKind> = new Set<RowKind>(['rp5', 'rp10', 'rp20', 'rp50']);
+
+/** The display labels of the named design values, by kind (extra and grid rows show their temperature). */
+export const NAMED_ROW_LABELS = {
+  p99: '99 %',
+  p996: '99.6 %',
+  annualMin: 'Extreme mean',
+  rp5: '5-year',
+  rp10: '10-year',
+  rp20: '20-year',
+  rp50: '50-year',
+} as const satisfies Partial<Record<RowKind, string>>;
+
+/**
+ * The kind of a row kept from before rows carried one (stored reports and cached results): its
+ * label among the named ones, else an extra temperature, or a grid point.
+ */
+export function rowKindOfLabel(label: string, isGrid: boolean): RowKind {
+  if (isGrid) return 'grid';
+  for (const [kind, named] of Object.entries(NAMED_ROW_LABELS)) if (named === label) return kind as RowKind;
+  return 'extra';
+}
+
 export interface SweepRow {
-  /** '99 %', '99.6 %', 'Extreme mean', '5-year' … '50-year', or the temperature ('-23.5 °C'). */
+  kind: RowKind;
+  /** '99 %', '99.6 %', 'Extreme mean', '5-year' … '50-year', or the temperature ('-23.5 °C'): display only. */
   label: string;
   designC: number;
   /** D = L(design T, design wind) × (1 + safety), W (docs/methods.md#design-load). */

@@ -35,7 +35,12 @@ export {
   DEFAULT_STUDY_PERIOD_YEARS,
   equipmentFamilies,
   heatPumpSizings,
+  NAMED_ROW_LABELS,
+  RETURN_PERIOD_KINDS,
+  rowKindOfLabel,
+  rowKinds,
   type EquipmentFamily,
+  type RowKind,
   type HeatPumpSizing,
   type SelectionRule,
   type SweepDesignValues,
@@ -81,6 +86,7 @@ function buildRows(
       hours === null ? null : (costsOf(common, option, hourly(option, hours))?.lcc ?? null);
     const chosen = selectOption(input.options, rung.designC, designLoadW, common.rule, common.heatPumpSizing, lcc);
     const row: SweepRow = {
+      kind: rung.kind,
       label: rung.label,
       designC: rung.designC,
       designLoadW,
@@ -105,7 +111,7 @@ function buildRows(
       isGrid: rung.isGrid,
       unavailableReason: null,
       costUnavailableReason: null,
-      reliabilityNote: reliabilityNoteOf(rung.label, years),
+      reliabilityNote: reliabilityNoteOf(rung.kind, years),
     };
     if (chosen === null) {
       row.selectionReason =

@@ -153,13 +153,13 @@ export function nearestRowIndex(rows: readonly Pick<SweepRow, 'designC' | 'isGri
 }
 
 /** The row shown first: the 99.6 % design value, or the first named one. */
-export function defaultRowIndex(rows: readonly Pick<SweepRow, 'label' | 'isGrid'>[]): number {
-  const i = rows.findIndex((r) => r.label === '99.6 %');
+export function defaultRowIndex(rows: readonly Pick<SweepRow, 'kind' | 'isGrid'>[]): number {
+  const i = rows.findIndex((r) => r.kind === 'p996');
   if (i >= 0) return i;
   return Math.max(0, rows.findIndex((r) => !r.isGrid));
 }
 
 /** The chosen row: the one nearest the saved design point, or the default one when none is saved. */
-export function chosenRowIndex(rows: readonly Pick<SweepRow, 'label' | 'isGrid' | 'designC'>[], chosenDesignC: number | null): number {
+export function chosenRowIndex(rows: readonly Pick<SweepRow, 'kind' | 'isGrid' | 'designC'>[], chosenDesignC: number | null): number {
   return chosenDesignC === null ? defaultRowIndex(rows) : nearestRowIndex(rows, chosenDesignC);
 }
