@@ -6,7 +6,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { gzipSync } from 'node:zlib';
-import type { ClimateSite, ClimateUpload, RecentYears } from '../../shared/climate-sites/climate-site-schemas';
+import type { ClimateSite, ClimateUpload, RecentYears } from '../../shared/climate/climate-schemas';
 import { computeDesignConditions } from '../../shared/climate/design-conditions';
 import { DEMO_SITES, generateDemoSeries, seriesToIsdLite } from '../../shared/climate/demo-weather';
 import type { Scenario, SweepAnswer } from '../../shared/scenarios/scenario-schemas';

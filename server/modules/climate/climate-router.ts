@@ -10,7 +10,7 @@ import {
   estimateInputSchema,
   uploadFieldsSchema,
   type ClimateUpload,
-} from '@shared/climate-sites/climate-site-schemas';
+} from '@shared/climate/climate-schemas';
 import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import { csvFields, type CsvMapping } from '@shared/climate/readers/csv-reader';
 import { authorize, orgContext } from '../../http/authorize';

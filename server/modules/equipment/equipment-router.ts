@@ -2,16 +2,7 @@ import { Router } from 'express';
 import type { Knex } from 'knex';
 import { z } from 'zod';
 import { parseEquipmentCsv, toCsv } from '@shared/equipment/equipment-csv';
-import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
-import {
-  energyPricesPutSchema,
-  equipmentCsvPreviewSchema,
-  equipmentListInputSchema,
-  equipmentListPatchSchema,
-  equipmentOptionsPutSchema,
-  type EquipmentList,
-  type EquipmentListSummary,
-} from '@shared/equipment/equipment-list-schemas';
+import { type EquipmentOption, energyPricesPutSchema, equipmentCsvPreviewSchema, equipmentListInputSchema, equipmentListPatchSchema, equipmentOptionsPutSchema, type EquipmentList, type EquipmentListSummary } from '@shared/equipment/equipment-schemas';
 import type { EnergyPrices } from '@shared/money/energy-prices';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError, staleUpdate } from '../../http/http-error';

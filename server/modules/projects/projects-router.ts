@@ -7,8 +7,7 @@ import {
   projectPatchSchema,
   type Project,
 } from '@shared/projects/project-schemas';
-import { projectBuildingPutSchema } from '@shared/building/building-api-schemas';
-import type { Building } from '@shared/building/building-schemas';
+import { projectBuildingPutSchema, type Building } from '@shared/building/building-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError, staleUpdate } from '../../http/http-error';
 import { prepared } from '../../db';

@@ -10,7 +10,7 @@ import type { LineSeriesOption } from 'echarts/charts';
 import type { GridComponentOption, LegendComponentOption, TooltipComponentOption } from 'echarts/components';
 import type { ComposeOption } from 'echarts/core';
 import { NgxEchartsDirective } from 'ngx-echarts';
-import type { ClimateSite, RecentYears } from '@shared/climate-sites/climate-site-schemas';
+import type { ClimateSite, RecentYears } from '@shared/climate/climate-schemas';
 import { formatQuantity, fromSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import { provideCharts } from '../../charts/provide-charts';
 import { apiErrorMessage } from '../../core/api-errors';

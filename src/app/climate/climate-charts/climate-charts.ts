@@ -13,7 +13,7 @@ import type { ComposeOption } from 'echarts/core';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import { map } from 'rxjs';
 import type { DesignConditions } from '@shared/climate/design-conditions-schema';
-import type { ClimateChartData } from '@shared/climate-sites/climate-site-schemas';
+import type { ClimateChartData } from '@shared/climate/climate-schemas';
 import { designValueName } from '@shared/glossary/glossary';
 import { fromSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import { provideCharts } from '../../charts/provide-charts';

@@ -24,7 +24,7 @@ import {
   type ClimateSiteInput,
   type ClimateSitePatch,
   type SourceKind,
-} from '@shared/climate-sites/climate-site-schemas';
+} from '@shared/climate/climate-schemas';
 import { fromSi, toSi, type UnitSystem } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { applyApiErrors, fieldError } from '../../core/api-errors';

@@ -8,7 +8,7 @@ import type {
   ClimateSiteSummary,
   ClimateUpload,
   RecentYears,
-} from '@shared/climate-sites/climate-site-schemas';
+} from '@shared/climate/climate-schemas';
 import { signedInSession } from '../../testing/test-sessions';
 
 export const SITE_ID = '5a1b2c3d-4e5f-4a6b-8c7d-9e0f1a2b3c4d';

@@ -1,7 +1,7 @@
 import { DecimalPipe, PercentPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import type { ClimateUpload } from '@shared/climate-sites/climate-site-schemas';
+import type { ClimateUpload } from '@shared/climate/climate-schemas';
 import { formatQuantity, type UnitSystem } from '@shared/units/units';
 import { SERIES_FIELD_LABELS, hoursPerYear, seriesValueLabel, utcHourLabel, yearsLabel } from '../climate-format';
 

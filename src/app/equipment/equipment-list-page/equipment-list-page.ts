@@ -23,8 +23,7 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import type { UnitSystem } from '@shared/units/units';
-import { EQUIPMENT_OPTIONS_MAX, type EquipmentList } from '@shared/equipment/equipment-list-schemas';
-import { equipmentKinds, type EquipmentKind, type EquipmentOption } from '@shared/equipment/equipment-schemas';
+import { EQUIPMENT_OPTIONS_MAX, type EquipmentList, equipmentKinds, type EquipmentKind, type EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorCode, apiErrorMessage, fieldError, readApiError, saveFailure } from '../../core/api-errors';
 import {
