@@ -58,6 +58,18 @@ export function lifetimeExceedanceProbability(annualProbability: number, years: 
 
 /** The coldest valid hour of every counted year of an indexed record, °C, in year order. */
 export function recordYearlyMinima(index: SweepRecordIndex): number[] {
+  // A kept index (the sweep worker keeps a record's index for its next sweeps) is worked out once.
+  let minima = minimaOf.get(index.hours);
+  if (minima === undefined) {
+    minima = yearlyMinima(index);
+    minimaOf.set(index.hours, minima);
+  }
+  return [...minima];
+}
+
+const minimaOf = new WeakMap<SweepRecordIndex['hours'], readonly number[]>();
+
+function yearlyMinima(index: SweepRecordIndex): number[] {
   const { hours } = index;
   const minima = new Array<number>(hours.years.length).fill(Infinity);
   for (let i = 0; i < hours.n; i++) {

@@ -9,15 +9,19 @@
  *
  * Packed layout (platform byte order, little-endian on every machine the product runs on):
  * a 4-byte length, a JSON header naming each array with its stored type and length, then the
- * arrays, each starting on an 8-byte boundary. Float arrays whose values are exact in a narrower
- * type (whole hours, float32 readings) are stored narrow and widened on reading.
+ * arrays, each starting on an 8-byte boundary. Arrays whose values are exact in a narrower type are
+ * stored narrow and widened on reading: small whole numbers as bytes, whole hours as 32-bit integers,
+ * readings on a 0.1 grid (every record read from text) as 16-bit tenths — exact tenths, or tenths
+ * as float32 holds them (the stored record's precision) — others as float32 where exact. Each bin list's bin-of-hour array is not stored: it is the inverse of `hourIdx` and is
+ * rebuilt in one pass. A smaller index is read from the database faster, which is most of the time
+ * of the first sweep of a stored record.
  */
 import { buildBins, indexSweepRecord, type Bins, type SweepRecordIndex } from './sweep-bins';
 import type { Hours } from './sweep-prepare';
 import type { SweepRecord } from './sweep-types';
 
 /** Changes whenever the packed layout or the meaning of `Hours`/`Bins` changes: a stored index of another format is rebuilt. */
-export const SWEEP_INDEX_FORMAT = 'sweep-index-2';
+export const SWEEP_INDEX_FORMAT = 'sweep-index-3';
 
 /** What a stored index is valid for: its format and the years it covers. */
 export function sweepIndexKey(qualifyingYears: readonly number[]): string {
@@ -31,7 +35,7 @@ export function buildSweepIndex(record: SweepRecord): SweepRecordIndex {
   return index;
 }
 
-type StoredType = 'f64' | 'f32' | 'i32' | 'u8';
+type StoredType = 'f64' | 'f32' | 'i32' | 'u8' | 'd16' | 'e16';
 type Column = Float64Array | Int32Array | Uint8Array;
 
 interface Header {
@@ -41,21 +45,70 @@ interface Header {
   arrays: { name: string; type: StoredType; length: number }[];
 }
 
-const BYTES: Record<StoredType, number> = { f64: 8, f32: 4, i32: 4, u8: 1 };
+const BYTES: Record<StoredType, number> = { f64: 8, f32: 4, i32: 4, u8: 1, d16: 2, e16: 2 };
+/** A missing reading (NaN) among 16-bit tenths. */
+const D16_MISSING = -32768;
 
-function narrowest(a: Column): { type: StoredType; data: Column | Float32Array } {
+type Packed = Column | Float32Array | Int16Array;
+
+function narrowest(a: Column): { type: StoredType; data: Packed } {
   if (a instanceof Uint8Array) return { type: 'u8', data: a };
-  if (a instanceof Int32Array) return { type: 'i32', data: a };
+  let bytes = true;
   let ints = true;
-  let floats = true;
-  for (let i = 0; i < a.length && (ints || floats); i++) {
+  let tenths = true;
+  let tenths32 = true;
+  let floats = !(a instanceof Int32Array);
+  for (let i = 0; i < a.length && (bytes || ints || tenths || tenths32 || floats); i++) {
     const v = a[i] ?? 0;
-    if (ints && !(Number.isInteger(v) && v >= -2_147_483_648 && v <= 2_147_483_647)) ints = false;
-    if (floats && Math.fround(v) !== v && !Number.isNaN(v)) floats = false;
+    if (Number.isNaN(v)) {
+      bytes = false;
+      ints = false;
+      continue;
+    }
+    const isInt = Number.isInteger(v);
+    if (bytes && !(isInt && v >= 0 && v <= 255)) bytes = false;
+    if (ints && !(isInt && v >= -2_147_483_648 && v <= 2_147_483_647)) ints = false;
+    if (tenths || tenths32) {
+      const k = Math.round(v * 10);
+      const inRange = k > D16_MISSING && k <= 32_767;
+      if (tenths && !(inRange && k / 10 === v)) tenths = false;
+      if (tenths32 && !(inRange && Math.fround(k / 10) === v)) tenths32 = false;
+    }
+    if (floats && Math.fround(v) !== v) floats = false;
   }
+  if (bytes) return { type: 'u8', data: Uint8Array.from(a) };
+  if (a instanceof Int32Array) return { type: 'i32', data: a };
   if (ints) return { type: 'i32', data: Int32Array.from(a) };
+  if (tenths || tenths32) {
+    const out = new Int16Array(a.length);
+    for (let i = 0; i < a.length; i++) {
+      const v = a[i] ?? NaN;
+      out[i] = Number.isNaN(v) ? D16_MISSING : Math.round(v * 10);
+    }
+    return { type: tenths ? 'd16' : 'e16', data: out };
+  }
   if (floats) return { type: 'f32', data: Float32Array.from(a) };
   return { type: 'f64', data: a };
+}
+
+/** 16-bit tenths read back as numbers (NaN where missing), rounded to float32 for `e16`. */
+function fromTenths(a: Int16Array, float32: boolean): Float64Array {
+  const out = new Float64Array(a.length);
+  for (let i = 0; i < a.length; i++) {
+    const k = a[i] ?? D16_MISSING;
+    out[i] = k === D16_MISSING ? NaN : float32 ? Math.fround(k / 10) : k / 10;
+  }
+  return out;
+}
+
+/** The bin of every hour, from the hours of every bin. */
+function binOfHourFrom(start: Int32Array, hourIdx: Int32Array, n: number): Int32Array {
+  const binOfHour = new Int32Array(n);
+  for (let r = 0; r + 1 < start.length; r++) {
+    const end = start[r + 1] ?? 0;
+    for (let j = start[r] ?? 0; j < end; j++) binOfHour[hourIdx[j] ?? 0] = r;
+  }
+  return binOfHour;
 }
 
 function binsColumns(prefix: string, b: Bins): [string, Column][] {
@@ -65,7 +118,6 @@ function binsColumns(prefix: string, b: Bins): [string, Column][] {
     [`${prefix}.count`, b.count],
     [`${prefix}.start`, b.start],
     [`${prefix}.hourIdx`, b.hourIdx],
-    [`${prefix}.binOfHour`, b.binOfHour],
   ];
 }
 
@@ -111,7 +163,7 @@ export function unpackSweepIndex(bytes: Uint8Array): SweepRecordIndex {
   const headerLength = new DataView(buf.buffer, buf.byteOffset, 4).getUint32(0, true);
   const header = JSON.parse(new TextDecoder().decode(buf.subarray(4, 4 + headerLength))) as Header;
   if (header.format !== SWEEP_INDEX_FORMAT) throw new Error(`sweep index of format ${header.format}`);
-  const arrays = new Map<string, { type: StoredType; view: Float64Array | Float32Array | Int32Array | Uint8Array }>();
+  const arrays = new Map<string, { type: StoredType; view: Float64Array | Float32Array | Int32Array | Uint8Array | Int16Array }>();
   let at = pad8(4 + headerLength);
   for (const a of header.arrays) {
     const offset = buf.byteOffset + at;
@@ -122,7 +174,9 @@ export function unpackSweepIndex(bytes: Uint8Array): SweepRecordIndex {
           ? new Float32Array(buf.buffer, offset, a.length)
           : a.type === 'i32'
             ? new Int32Array(buf.buffer, offset, a.length)
-            : new Uint8Array(buf.buffer, offset, a.length);
+            : a.type === 'd16' || a.type === 'e16'
+              ? new Int16Array(buf.buffer, offset, a.length)
+              : new Uint8Array(buf.buffer, offset, a.length);
     arrays.set(a.name, { type: a.type, view });
     at = pad8(at + a.length * BYTES[a.type]);
   }
@@ -132,7 +186,9 @@ export function unpackSweepIndex(bytes: Uint8Array): SweepRecordIndex {
     return a.view;
   };
   const f64 = (name: string) => {
+    const a = arrays.get(name);
     const v = get(name);
+    if (v instanceof Int16Array) return fromTenths(v, a?.type === 'e16');
     return v instanceof Float64Array ? v : Float64Array.from(v);
   };
   const i32 = (name: string) => {
@@ -143,10 +199,12 @@ export function unpackSweepIndex(bytes: Uint8Array): SweepRecordIndex {
     const v = get(name);
     return v instanceof Uint8Array ? v : Uint8Array.from(v);
   };
-  const bins = (prefix: string): Bins | null =>
-    arrays.has(`${prefix}.t`)
-      ? { t: f64(`${prefix}.t`), w: f64(`${prefix}.w`), count: f64(`${prefix}.count`), start: i32(`${prefix}.start`), hourIdx: i32(`${prefix}.hourIdx`), binOfHour: i32(`${prefix}.binOfHour`) }
-      : null;
+  const bins = (prefix: string): Bins | null => {
+    if (!arrays.has(`${prefix}.t`)) return null;
+    const start = i32(`${prefix}.start`);
+    const hourIdx = i32(`${prefix}.hourIdx`);
+    return { t: f64(`${prefix}.t`), w: f64(`${prefix}.w`), count: f64(`${prefix}.count`), start, hourIdx, binOfHour: binOfHourFrom(start, hourIdx, header.n) };
+  };
   const hours: Hours = {
     n: header.n,
     hourNumber: f64('hours.hourNumber'),

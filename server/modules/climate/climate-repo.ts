@@ -287,6 +287,30 @@ export async function loadRecord(db: Knex, siteId: string): Promise<HourlySeries
 }
 
 /**
+ * A record's stored sweep index when it is of the given key, read in PostgreSQL's binary format: the
+ * bytes come as they are stored, not as hex text twice their size to be decoded (most of the time of
+ * the first sweep of a record is this read).
+ */
+async function loadSweepIndexBytes(db: Knex, siteId: string, indexKey: string): Promise<Buffer | undefined> {
+  interface PgConnection {
+    query(q: { text: string; values: unknown[]; binary: boolean }): Promise<{ rows: { sweep_index: unknown }[] }>;
+  }
+  const client = db.client as { acquireConnection(): Promise<PgConnection>; releaseConnection(c: PgConnection): Promise<void> };
+  const connection = await client.acquireConnection();
+  try {
+    const { rows } = await connection.query({
+      text: 'SELECT sweep_index FROM climate_records WHERE climate_site_id = $1 AND sweep_index_key = $2 AND sweep_index IS NOT NULL',
+      values: [siteId, indexKey],
+      binary: true,
+    });
+    const bytes = rows[0]?.sweep_index;
+    return Buffer.isBuffer(bytes) ? bytes : undefined;
+  } finally {
+    await client.releaseConnection(connection);
+  }
+}
+
+/**
  * What a sweep needs of a site's record, in one query: the stored sweep index when it was built
  * for `indexKey`, otherwise the record's columns (to index them again).
  */
@@ -295,6 +319,8 @@ export async function loadRecordForSweep(
   siteId: string,
   indexKey: string,
 ): Promise<{ index: Buffer } | { series: HourlySeries } | undefined> {
+  const index = await loadSweepIndexBytes(db, siteId, indexKey);
+  if (index) return { index };
   const fresh = 'sweep_index IS NOT NULL AND sweep_index_key = ?';
   const row = await db('climate_records')
     .where({ climate_site_id: siteId })

@@ -1,6 +1,7 @@
 import { Router, type RequestHandler } from 'express';
 import type { Knex } from 'knex';
 import multer from 'multer';
+import { safeRequestTextSchema } from '@shared/api/safe-text';
 import { z } from 'zod';
 import {
   CLIMATE_UPLOAD_MAX_BYTES,
@@ -170,7 +171,8 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
     upload.array('files', CLIMATE_UPLOAD_MAX_FILES),
     async (req, res) => {
       const { siteId } = siteParam.parse(req.params);
-      const fields = uploadFieldsSchema.parse(req.body ?? {});
+      // Multipart fields arrive after the JSON-body text check ran: they pass the same check here.
+      const fields = uploadFieldsSchema.parse(safeRequestTextSchema.parse(req.body ?? {}));
       let mapping: CsvMapping | undefined;
       if (fields.mapping) {
         let raw: unknown;
@@ -179,6 +181,8 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
         } catch {
           throw new HttpError(400, 'invalid_input', 'The column mapping is not valid JSON', [{ path: 'mapping', message: 'Not valid JSON' }]);
         }
+        // JSON escapes (\u0000, \ud800) reach the text only now: check it again, under the field's name.
+        safeRequestTextSchema.parse({ mapping: raw });
         mapping = mappingSchema.parse(raw);
       }
       const { organizationId, user } = orgContext(req);

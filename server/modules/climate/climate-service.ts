@@ -13,7 +13,7 @@ import { latestYearsSeries, RECENT_WINDOWS } from '@shared/climate/record-window
 import { SHIFT_STRETCH_VERSION, shiftAndStretch } from '@shared/climate/shift-stretch';
 import { coldestHourTrend } from '@shared/climate/trend';
 import type { HourlySeries } from '@shared/climate/hourly-series';
-import { prepareSeries } from '@shared/climate/prepared-series';
+import { prepareSeries, type PreparedSeries } from '@shared/climate/prepared-series';
 import { qualityReportFromPrepared, type QualityReport } from '@shared/climate/quality-report';
 import { buildSweepIndex, packSweepIndex, sweepIndexKey } from '@shared/sweep/sweep-index';
 import { HttpError } from '../../http/http-error';
@@ -23,6 +23,8 @@ import { atStoragePrecision } from './series-codec';
 export interface Analysis {
   result: DesignConditionsResult;
   quality: QualityReport;
+  /** The checked, ordered hours both were worked out from; the sweep index is built from them too. */
+  prepared: PreparedSeries;
 }
 
 /** Checks and computes a record once (ordering, de-duplication and range checks shared by both). */
@@ -31,6 +33,7 @@ export function analyse(series: HourlySeries, elevationM: number | null): Analys
   return {
     result: computeFromPrepared(prepared, { elevationM }),
     quality: qualityReportFromPrepared(prepared),
+    prepared,
   };
 }
 
@@ -68,10 +71,10 @@ export function storedComputation(
 }
 
 /** The sweep index of a record over the given years, packed for storing beside it. */
-export function storedSweepIndex(series: HourlySeries, qualifyingYears: readonly number[]): repo.StoredSweepIndex {
+export function storedSweepIndex(record: HourlySeries | PreparedSeries, qualifyingYears: readonly number[]): repo.StoredSweepIndex {
   return {
     key: sweepIndexKey(qualifyingYears),
-    bytes: packSweepIndex(buildSweepIndex({ series, qualifyingYears })),
+    bytes: packSweepIndex(buildSweepIndex('hour' in record ? { prepared: record, qualifyingYears } : { series: record, qualifyingYears })),
   };
 }
 

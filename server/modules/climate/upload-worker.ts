@@ -58,7 +58,7 @@ export default async function parseUpload(task: UploadParseTask): Promise<Upload
       computed,
       preview: result.ok ? result.conditions : null,
       warnings: [...(result.ok ? [] : [result.error.message]), ...result.warnings.map((w) => w.message)],
-      sweepIndex: computed ? storedSweepIndex(stored, computed.conditions.period.qualifyingYears) : null,
+      sweepIndex: computed ? storedSweepIndex(analysis.prepared, computed.conditions.period.qualifyingYears) : null,
     };
   } catch (err) {
     if (err instanceof HttpError) return { ok: false, status: err.status, code: err.code, message: err.message, details: err.details };

@@ -1,7 +1,8 @@
 /**
  * Worker thread of the sweep pool (piscina): loads a site's record once — its sweep index as stored
  * at upload, in one query — keeps it for the next sweeps of that record, and runs the sweep off the
- * request thread. A warm-up task opens the database connection before the first sweep asks for it.
+ * request thread. A warm-up task opens the database connection before the first sweep asks for it
+ * and runs a few sweeps of an invented record, so that the first real ones find the code compiled.
  */
 import type { Knex } from 'knex';
 import { computeDesignConditions } from '@shared/climate/design-conditions';
@@ -11,6 +12,7 @@ import { sweepWithOdds, type SweepOddsOptions, type SweepWithOdds } from '@share
 import { createDb } from '../../db';
 import { buildSweepIndex, sweepIndexKey, unpackSweepIndex } from '@shared/sweep/sweep-index';
 import { loadRecord, loadRecordForSweep } from '../climate/climate-repo';
+import { warmUpSweeps } from './sweep-warm-up';
 
 export interface SweepTaskRecord {
   siteId: string;
@@ -101,6 +103,7 @@ async function loadIndex(url: string, record: SweepTaskRecord): Promise<LoadedRe
 export default async function runSweepTask(task: SweepTask | WarmUpTask): Promise<SweepTaskResult | null> {
   if ('warmUp' in task) {
     await database(task.databaseUrl).raw('select 1');
+    warmUpSweeps();
     return null;
   }
   const loaded = task.record ? await indexedRecord(task.databaseUrl, task.record) : null;
