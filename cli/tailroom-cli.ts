@@ -300,6 +300,7 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
   const comfort = priceOfComfort(named, periodYearsFor(input, result.studyPeriodYears));
   const rows = named
     .map((r, i) => ({
+      kind: r.kind,
       label: r.label,
       designC: r.designC,
       designLoadW: r.designLoadW,

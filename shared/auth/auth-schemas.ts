@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { roles } from './roles';
+import type { UnitSystem } from '../units/units';
 
 export const PASSWORD_MIN_LENGTH = 12;
 export const PASSWORD_MAX_LENGTH = 256;
@@ -35,9 +36,11 @@ export const linkTokenSchema = z
   .string()
   .regex(/^[A-Za-z0-9_-]{20,128}$/, 'This link is not valid');
 
-export const unitSystems = ['SI', 'IP'] as const;
-export const unitSystemSchema = z.enum(unitSystems);
-export type UnitSystem = z.infer<typeof unitSystemSchema>;
+/**
+ * The user's unit system (`UnitSystem` in shared/units/units.ts). The two names are written out here,
+ * checked against that type, so that the sign-in screens do not load the units table and its mathjs.
+ */
+export const unitSystemSchema = z.enum(['SI', 'IP'] as const satisfies readonly UnitSystem[]);
 
 /** Where to go after signing in or finishing an account: a path of this site only. */
 export const returnUrlSchema = z

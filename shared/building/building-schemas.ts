@@ -5,6 +5,7 @@
  * complete building.
  */
 import { z } from 'zod';
+import { rowVersionSchema } from '../api/safe-text';
 
 /** Defaults for a new building. */
 export const BUILDING_DEFAULTS = {
@@ -225,3 +226,17 @@ export const buildingSchema = z.strictObject({
 export type Building = z.infer<typeof buildingSchema>;
 /** What a form or API sends: fields with defaults may be left out. */
 export type BuildingInput = z.input<typeof buildingSchema>;
+
+/**
+ * GET /api/v1/projects/:projectId/building → { version, building } (building null until saved).
+ * PUT the same shape with the project's `version`: 409 `stale_update` when the project changed since.
+ */
+export const projectBuildingPutSchema = z.strictObject({
+  version: rowVersionSchema('The version of the project being changed is required'),
+  building: buildingSchema,
+});
+export const projectBuildingAnswerSchema = z.object({
+  version: z.int(),
+  building: buildingSchema.nullable(),
+});
+export type ProjectBuildingAnswer = z.infer<typeof projectBuildingAnswerSchema>;

@@ -268,6 +268,14 @@ export function heatLoss(building: Building, outdoorC: number, windMs: number): 
   };
 }
 
+/**
+ * The load conductance of a heat loss including the duct-loss factor, UA·(1 + duct), W/K: the slope
+ * of the load line, so that L = UA_eff·ΔT − G (docs/methods.md#degree-hours).
+ */
+export function effectiveConductanceWPerK(loss: Pick<HeatLoss, 'conductanceWPerK' | 'ductLossFraction'>): number {
+  return loss.conductanceWPerK.total * (1 + loss.ductLossFraction);
+}
+
 // ---------------------------------------------------------------------------------------------
 // Design wind
 

@@ -5,8 +5,7 @@
  * take their words from here, so that one quantity never carries two names for the same reader.
  * See docs/glossary.md for the list as the README shows it.
  */
-import type { UnitSystem } from '../auth/auth-schemas';
-import { formatQuantity } from '../units/units';
+import { formatQuantity, type UnitSystem } from '../units/units';
 
 export type Audience = 'designer' | 'homeowner';
 

@@ -6,7 +6,7 @@
 import { z } from 'zod';
 import { rowVersionSchema } from '../api/safe-text';
 import { energyPricesSchema } from '../money/energy-prices';
-import { DEFAULT_HEAT_PUMP_SIZING, DEFAULT_STUDY_PERIOD_YEARS, equipmentFamilies, heatPumpSizings } from '../sweep/sweep';
+import { DEFAULT_HEAT_PUMP_SIZING, DEFAULT_STUDY_PERIOD_YEARS, equipmentFamilies, heatPumpSizings, rowKindOfLabel, rowKinds } from '../sweep/sweep';
 import { DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_TOLERANCES, MAX_DRAWS } from '../sweep/tolerances';
 
 export const SCENARIO_NAME_MAX = 160;
@@ -191,7 +191,17 @@ export type Scenario = z.infer<typeof scenarioSchema>;
 export const scenarioListSchema = z.array(scenarioSchema);
 
 const nullableNumber = z.number().nullable();
-export const sweepRowSchema = z.object({
+/** A row kept from before rows carried their kind (stored reports, cached results) gets it from its label. */
+function withRowKind(row: unknown): unknown {
+  if (typeof row !== 'object' || row === null || 'kind' in row) return row;
+  const { label, isGrid } = row as { label?: unknown; isGrid?: unknown };
+  return typeof label === 'string' ? { ...row, kind: rowKindOfLabel(label, isGrid === true) } : row;
+}
+
+const sweepRowFieldsSchema = z.object({
+  /** What the row stands for (`RowKind`); find rows by it, never by `label`. */
+  kind: z.enum(rowKinds),
+  /** Display only. */
   label: z.string(),
   designC: z.number(),
   designLoadW: z.number(),
@@ -238,6 +248,7 @@ export const sweepRowSchema = z.object({
   lifeCycleCostP90: z.string().nullable().default(null),
   selectionChangeShare: nullableNumber.default(null),
 });
+export const sweepRowSchema = z.preprocess(withRowKind, sweepRowFieldsSchema);
 export type SweepRowAnswer = z.infer<typeof sweepRowSchema>;
 
 /** One option as the sweep saw it: the id the rows name, and what to show for it. */

@@ -3,9 +3,8 @@
  * designer's on the trade-off screen, the homeowner's in the report (docs/methods.md#odds-of-a-colder-night,
  * #price-of-comfort, #uncertainty-band). Pure; every temperature honours the unit system.
  */
-import type { UnitSystem } from '../auth/auth-schemas';
 import { formatMoney, formatMoneyWhole } from '../money/money';
-import { formatQuantity } from '../units/units';
+import { formatQuantity, type UnitSystem } from '../units/units';
 import { plainOdds, type ExtremeStats } from './odds';
 import { wholeDegrees } from './tradeoff-summary';
 

@@ -16,7 +16,9 @@
  * rebuilt in one pass. A smaller index is read from the database faster, which is most of the time
  * of the first sweep of a stored record.
  */
-import { buildBins, indexSweepRecord, type Bins, type Hours, type SweepRecord, type SweepRecordIndex } from './sweep';
+import { buildBins, indexSweepRecord, type Bins, type SweepRecordIndex } from './sweep-bins';
+import type { Hours } from './sweep-prepare';
+import type { SweepRecord } from './sweep-types';
 
 /** Changes whenever the packed layout or the meaning of `Hours`/`Bins` changes: a stored index of another format is rebuilt. */
 export const SWEEP_INDEX_FORMAT = 'sweep-index-3';

@@ -3,10 +3,9 @@
  * sentence (the trade's terms) for the trade-off screen, and the homeowner's sentence (plain words)
  * for the client report. Pure; money with decimal.js, shown to whole units.
  */
-import type { UnitSystem } from '../auth/auth-schemas';
 import { designValueName } from '../glossary/glossary';
 import { formatMoneyWhole, parseMoney } from '../money/money';
-import { formatPower, formatQuantity, fromSi, unitLabel } from '../units/units';
+import { formatPower, formatQuantity, fromSi, unitLabel, type UnitSystem } from '../units/units';
 import type { SweepRow } from './sweep';
 
 export interface SummaryContext {
@@ -154,13 +153,13 @@ export function nearestRowIndex(rows: readonly Pick<SweepRow, 'designC' | 'isGri
 }
 
 /** The row shown first: the 99.6 % design value, or the first named one. */
-export function defaultRowIndex(rows: readonly Pick<SweepRow, 'label' | 'isGrid'>[]): number {
-  const i = rows.findIndex((r) => r.label === '99.6 %');
+export function defaultRowIndex(rows: readonly Pick<SweepRow, 'kind' | 'isGrid'>[]): number {
+  const i = rows.findIndex((r) => r.kind === 'p996');
   if (i >= 0) return i;
   return Math.max(0, rows.findIndex((r) => !r.isGrid));
 }
 
 /** The chosen row: the one nearest the saved design point, or the default one when none is saved. */
-export function chosenRowIndex(rows: readonly Pick<SweepRow, 'label' | 'isGrid' | 'designC'>[], chosenDesignC: number | null): number {
+export function chosenRowIndex(rows: readonly Pick<SweepRow, 'kind' | 'isGrid' | 'designC'>[], chosenDesignC: number | null): number {
   return chosenDesignC === null ? defaultRowIndex(rows) : nearestRowIndex(rows, chosenDesignC);
 }

@@ -9,10 +9,13 @@
  * (tests/engine/building-quantities.test.ts checks them).
  */
 import { create, unitDependencies, type Unit } from 'mathjs';
-import type { UnitSystem } from '../auth/auth-schemas';
 
 if (!unitDependencies) throw new Error('mathjs unit functions are missing');
 const math = create({ unitDependencies });
+
+/** The user's unit system: SI, or IP (inch-pound). Values are stored in SI either way. */
+export const unitSystems = ['SI', 'IP'] as const;
+export type UnitSystem = (typeof unitSystems)[number];
 
 /** The quantities Tailroom shows, with their SI and IP units (mathjs names) and display labels. */
 export const quantities = {

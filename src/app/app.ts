@@ -9,7 +9,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatToolbarModule } from '@angular/material/toolbar';
 import { Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import { roleLabels, type Role } from '@shared/auth/roles';
 import { AuthStore } from './auth/auth-store';
 import { apiErrorMessage } from './core/api-errors';

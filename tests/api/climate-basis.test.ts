@@ -6,7 +6,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { gzipSync } from 'node:zlib';
-import { climateSiteSchema, climateUploadSchema, recentYearsSchema } from '../../shared/climate-sites/climate-site-schemas';
+import { climateSiteSchema, climateUploadSchema, recentYearsSchema } from '../../shared/climate/climate-schemas';
 import { computeDesignConditions } from '../../shared/climate/design-conditions';
 import { DEMO_SITES, generateDemoSeries, seriesToIsdLite } from '../../shared/climate/demo-weather';
 import { scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';

@@ -12,7 +12,7 @@ import path from 'node:path';
 import { after, describe, it } from 'node:test';
 import { gzipSync } from 'node:zlib';
 import request from 'supertest';
-import { CLIMATE_UPLOAD_MAX_BYTES } from '../../shared/climate-sites/climate-site-schemas';
+import { CLIMATE_UPLOAD_MAX_BYTES } from '../../shared/climate/climate-schemas';
 import { DEMO_SITES, generateDemoSeries, seriesToCsv } from '../../shared/climate/demo-weather';
 import { baseName } from '../../server/modules/climate/uploads-service';
 import { createTestApp, PASSWORD, signUp, useTestApp } from '../support/test-app';

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { Role } from '@shared/auth/roles';
 import { prepared } from '../../db';
 import { HttpError } from '../../http/http-error';

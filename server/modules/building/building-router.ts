@@ -2,7 +2,7 @@
 import { Router } from 'express';
 import type { Knex } from 'knex';
 import { z } from 'zod';
-import { projectBuildingPutSchema } from '@shared/building/building-api-schemas';
+import { projectBuildingPutSchema } from '@shared/building/building-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import * as building from './building-service';
 

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import type { ClimateSite, ClimateSiteSummary, SiteEstimate, SourceKind } from '@shared/climate-sites/climate-site-schemas';
+import type { ClimateSite, ClimateSiteSummary, SiteEstimate, SourceKind } from '@shared/climate/climate-schemas';
 import type { DesignConditions, PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import type { HourlySeries } from '@shared/climate/hourly-series';
 import type { DistributionBin, MonthlyStatistics } from '@shared/climate/quality-report';

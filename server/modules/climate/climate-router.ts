@@ -10,7 +10,7 @@ import {
   climateSitePatchSchema,
   estimateInputSchema,
   uploadFieldsSchema,
-} from '@shared/climate-sites/climate-site-schemas';
+} from '@shared/climate/climate-schemas';
 import { csvFields, type CsvMapping } from '@shared/climate/readers/csv-reader';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';

@@ -6,7 +6,7 @@ import {
   type RecentYears,
   type RecordWindow,
   type SiteEstimate,
-} from '@shared/climate-sites/climate-site-schemas';
+} from '@shared/climate/climate-schemas';
 import { computeDesignConditions, computeFromPrepared, type DesignConditionsResult } from '@shared/climate/design-conditions';
 import { METHOD_VERSION, type DesignConditions } from '@shared/climate/design-conditions-schema';
 import { latestYearsSeries, RECENT_WINDOWS } from '@shared/climate/record-window';

@@ -3,7 +3,7 @@
  * off the request thread — unpacked as a stream, parsed line by line, rounded to the stored
  * precision, analysed, and indexed for the sweep — and hands back only what the upload keeps.
  */
-import type { QualitySummary } from '@shared/climate-sites/climate-site-schemas';
+import type { QualitySummary } from '@shared/climate/climate-schemas';
 import type { DesignConditions } from '@shared/climate/design-conditions-schema';
 import type { WeatherFileFormat } from '@shared/climate/readers';
 import type { CsvMapping } from '@shared/climate/readers/csv-reader';

@@ -3,7 +3,7 @@
  * parked for 24 h, and a confirmation stores it as the site's record in one transaction.
  */
 import type { Knex } from 'knex';
-import { CLIMATE_UPLOAD_MAX_BYTES, type ClimateSite, type ClimateUpload } from '@shared/climate-sites/climate-site-schemas';
+import { CLIMATE_UPLOAD_MAX_BYTES, type ClimateSite, type ClimateUpload } from '@shared/climate/climate-schemas';
 import type { CsvMapping } from '@shared/climate/readers/csv-reader';
 import { HttpError } from '../../http/http-error';
 import * as repo from './climate-repo';

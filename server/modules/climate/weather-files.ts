@@ -1,6 +1,6 @@
 import { StringDecoder } from 'node:string_decoder';
 import { createGunzip } from 'node:zlib';
-import { CLIMATE_UPLOAD_MAX_BYTES } from '@shared/climate-sites/climate-site-schemas';
+import { CLIMATE_UPLOAD_MAX_BYTES } from '@shared/climate/climate-schemas';
 import type { HourlySeries } from '@shared/climate/hourly-series';
 import { createParser, detectFormat, type CsvMapping, type LineParser, type WeatherFileFormat } from '@shared/climate/readers';
 import type { FieldIssue } from '@shared/api/api-error';

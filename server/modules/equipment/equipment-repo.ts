@@ -1,7 +1,7 @@
 /** The tables of equipment lists, their options and the organisation's energy prices, with their row mappers. */
 import type { Knex } from 'knex';
 import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
-import type { EquipmentListSummary } from '@shared/equipment/equipment-list-schemas';
+import type { EquipmentListSummary } from '@shared/equipment/equipment-schemas';
 import type { EnergyPrices } from '@shared/money/energy-prices';
 
 export const TABLES = ['equipment_lists', 'equipment_options', 'energy_prices'] as const;

@@ -8,7 +8,7 @@ import {
   equipmentListInputSchema,
   equipmentListPatchSchema,
   equipmentOptionsPutSchema,
-} from '@shared/equipment/equipment-list-schemas';
+} from '@shared/equipment/equipment-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import * as equipment from './equipment-service';
 

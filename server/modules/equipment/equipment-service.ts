@@ -2,7 +2,7 @@
 import type { Knex } from 'knex';
 import { parseEquipmentCsv } from '@shared/equipment/equipment-csv';
 import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
-import type { EquipmentList, EquipmentListSummary } from '@shared/equipment/equipment-list-schemas';
+import type { EquipmentList, EquipmentListSummary } from '@shared/equipment/equipment-schemas';
 import { energyPricesSchema, type EnergyPrices } from '@shared/money/energy-prices';
 import { HttpError, staleUpdate } from '../../http/http-error';
 import * as repo from './equipment-repo';

@@ -2,18 +2,18 @@
  * What the client sees of a report: plain-words paragraphs and the chosen design points with the
  * figures the designer picked, formatted in the report's units (shared by the page and the PDF).
  */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { Building } from '@shared/building/building-schemas';
-import { heatLoss } from '@shared/building/heat-loss';
+import { effectiveConductanceWPerK, heatLoss } from '@shared/building/heat-loss';
 import { METHOD_VERSION } from '@shared/climate/design-conditions-schema';
 import { designValueName, designValueTag } from '@shared/glossary/glossary';
 import { formatMoneyWhole } from '@shared/money/money';
 import { HOMEOWNER_CAUTIONS, HOMEOWNER_CAUTIONS_TITLE } from '@shared/reports/cautions';
 import { reportFigureLabels, type ReportFigure, type ReportView } from '@shared/reports/report-schemas';
 import { sweepAnswerSchema, type SweepAnswer, type SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
+import type { RowKind } from '@shared/sweep/sweep';
 import { oddsBasisSentence, plainBandSentence, plainComfortSentence, plainLifetimeSentence } from '@shared/sweep/odds-words';
 import { homeownerSentence, lowestIndoorC, nearestRowIndex, wholeDegrees } from '@shared/sweep/tradeoff-summary';
-import { formatPower, formatQuantity, fromSi, unitLabel } from '@shared/units/units';
+import { formatPower, formatQuantity, fromSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import { SWEEP_VERSION } from '../scenarios/sweep-service';
 
 export interface ReportSource {
@@ -77,16 +77,16 @@ export function buildReportView(src: ReportSource): ReportView {
   const temp = (c: number) => formatQuantity('temperature', c, system);
   // Whole degrees for the homeowner's paragraphs.
   const roundTemp = (c: number) => wholeDegrees(c, system);
-  const named = (label: string) => a.rows.find((r) => !r.isGrid && r.label === label);
+  const named = (kind: RowKind) => a.rows.find((r) => r.kind === kind);
   const labelOf = new Map(a.options.map((o) => [o.id, o.label]));
 
   // The building in one paragraph.
   let building = 'The building has not been described.';
   const b = src.project.building;
-  const r99 = named('99 %');
+  const r99 = named('p99');
   if (b && r99) {
     const h = heatLoss(b, r99.designC, a.designWindMs);
-    const ua = h.conductanceWPerK.total * (1 + h.ductLossFraction);
+    const ua = effectiveConductanceWPerK(h);
     // IP: W/K × (1 Btu/h ÷ 0.29307107 W) ÷ (1.8 °F per K), NIST SP 811 (2008) Appendix B.
     const uaText = system === 'SI' ? `${Math.round(ua)} W` : `${Math.round(ua / 0.29307107 / 1.8)} Btu/h`;
     building =
@@ -97,16 +97,16 @@ export function buildReportView(src: ReportSource): ReportView {
 
   // The climate in plain words.
   const climate: string[] = [];
-  const r996 = named('99.6 %');
+  const r996 = named('p996');
   if (r99 && r996) {
     climate.push(
       `At ${a.climateSiteName}, ${designValueName('99 %', 'homeowner')} gets down to about ${roundTemp(r99.designC)}: only about 88 hours of an average year (1 %) are colder than that. ` +
         `On ${designValueName('99.6 %', 'homeowner')} it gets down to about ${roundTemp(r996.designC)}, with about 35 colder hours a year.`,
     );
   }
-  const mean = named('Extreme mean');
+  const mean = named('annualMin');
   if (mean) climate.push(`The average coldest hour of the year is about ${roundTemp(mean.designC)}.`);
-  const r50 = named('50-year');
+  const r50 = named('rp50');
   if (r50) {
     climate.push(`The cold to expect about once in 50 years is near ${roundTemp(r50.designC)}: any one winter has about a 2 % chance of getting that cold.`);
   }

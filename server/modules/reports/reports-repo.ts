@@ -1,6 +1,6 @@
 /** The tables of client reports: `reports`, their share links and their e-mail sends, with their row mappers. */
 import type { Knex } from 'knex';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { ReportFigure, ReportLink, ReportSend } from '@shared/reports/report-schemas';
 
 export const TABLES = ['reports', 'report_links', 'report_sends'] as const;

@@ -7,9 +7,9 @@ import type {
   SignInInput,
   SignUpInput,
   SignUpStarted,
-  UnitSystem,
 } from '@shared/auth/auth-schemas';
 import { can, type Action } from '@shared/auth/roles';
+import type { UnitSystem } from '@shared/units/units';
 
 /** The schemas (and zod with them) load beside the first request, outside the initial bundle. */
 const loadAuthSchemas = () => import('@shared/auth/auth-schemas');

@@ -1,9 +1,8 @@
 import { HttpClient, httpResource } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
-import { projectBuildingAnswerSchema, type ProjectBuildingAnswer } from '@shared/building/building-api-schemas';
-import type { Building } from '@shared/building/building-schemas';
-import { equipmentListSchema } from '@shared/equipment/equipment-list-schemas';
+import { projectBuildingAnswerSchema, type ProjectBuildingAnswer, type Building } from '@shared/building/building-schemas';
+import { equipmentListSchema } from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../auth/auth-store';
 
 /** A project's building, and the equipment list its heat loss is compared with. */

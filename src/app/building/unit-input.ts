@@ -1,6 +1,6 @@
 import { Directive, ElementRef, Renderer2, effect, forwardRef, inject, input } from '@angular/core';
 import { type ControlValueAccessor, NG_VALUE_ACCESSOR } from '@angular/forms';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import { type FieldUnit, displayText, fromDisplay } from './building-units';
 
 /**

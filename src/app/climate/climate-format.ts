@@ -2,9 +2,8 @@
  * Words and numbers for climate sites: year spans, source names, the design-value rows with their
  * plain explanations, and the hours-per-year figures behind the percentages.
  */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
-import type { SourceKind } from '@shared/climate-sites/climate-site-schemas';
-import { formatQuantity, type Quantity } from '@shared/units/units';
+import type { SourceKind } from '@shared/climate/climate-schemas';
+import { formatQuantity, type Quantity, type UnitSystem } from '@shared/units/units';
 
 /** Hours in a 365-day year; the percentages of the design values are shares of these. */
 export const HOURS_PER_YEAR = 8760;

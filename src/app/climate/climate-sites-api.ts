@@ -11,7 +11,7 @@ import {
   type ClimateSitePatch,
   type UploadQueue,
   uploadQueueSchema,
-} from '@shared/climate-sites/climate-site-schemas';
+} from '@shared/climate/climate-schemas';
 import { AuthStore } from '../auth/auth-store';
 
 export type UploadFormat = 'auto' | 'csv' | 'isd-lite';

@@ -6,8 +6,7 @@
  */
 import { signal, type WritableSignal } from '@angular/core';
 import { FormControl, FormGroup } from '@angular/forms';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { fromSi, toSi, unitLabel } from '@shared/units/units';
+import { fromSi, toSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import {
   equipmentOptionSchema,
   type EquipmentKind,

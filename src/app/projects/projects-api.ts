@@ -2,8 +2,8 @@ import { HttpClient, httpResource } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import { z } from 'zod';
-import { climateSiteSummarySchema } from '@shared/climate-sites/climate-site-schemas';
-import { equipmentListSummarySchema } from '@shared/equipment/equipment-list-schemas';
+import { climateSiteSummarySchema } from '@shared/climate/climate-schemas';
+import { equipmentListSummarySchema } from '@shared/equipment/equipment-schemas';
 import {
   projectListSchema,
   projectSchema,

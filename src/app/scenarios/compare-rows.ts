@@ -2,7 +2,7 @@
  * The comparison of scenarios side by side: the design points to line them up at, the table of
  * their figures at that point and each one's difference from a baseline.
  */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import { designValueName, designValueTag, explain, term, type TermKey } from '@shared/glossary/glossary';
 import type { EnergyPrices } from '@shared/money/energy-prices';
 import { formatMoneyWhole, parseMoney } from '@shared/money/money';

@@ -10,7 +10,7 @@ import type {
   TooltipComponentOption,
 } from 'echarts/components';
 import type { ComposeOption } from 'echarts/core';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import { designValueTag, term } from '@shared/glossary/glossary';
 import { formatMoneyWhole } from '@shared/money/money';
 import type { SweepAnswer } from '@shared/scenarios/scenario-schemas';

@@ -50,7 +50,7 @@ describe('trade-off model', () => {
 
   it('opens on the 99.6 % value when there is one, else on the first named one; finds the nearest row to a temperature', () => {
     expect(defaultIndex(answer.rows)).toBe(0); // no 99.6 % row in the fixture: the first named one
-    const with996 = [answer.rows[0]!, { ...answer.rows[2]!, label: '99.6 %' }];
+    const with996 = [answer.rows[0]!, { ...answer.rows[2]!, kind: 'p996' as const, label: '99.6 %' }];
     expect(defaultIndex(with996)).toBe(1);
     expect(nearestIndex(answer.rows, -21)).toBe(1);
     expect(nearestIndex(answer.rows, -40)).toBe(3);

@@ -3,7 +3,7 @@
  * temperatures, the rules, the chosen point's sentence, the load-duration table, the energy prices.
  * Pure functions, tested on their own.
  */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import { designValueTag } from '@shared/glossary/glossary';
 import type { EnergyPrices } from '@shared/money/energy-prices';
 import { formatMoneyWhole, parseMoney } from '@shared/money/money';

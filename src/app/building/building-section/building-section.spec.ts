@@ -2,7 +2,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { Role } from '@shared/auth/roles';
 import type { Building } from '@shared/building/building-schemas';
 import { AuthStore } from '../../auth/auth-store';

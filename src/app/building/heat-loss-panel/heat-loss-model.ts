@@ -3,12 +3,11 @@
  * temperature, the heat loss across outdoor temperatures, and each equipment option's output with
  * its balance point.
  */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { Building } from '@shared/building/building-schemas';
 import { heatLoss, type HeatLoss } from '@shared/building/heat-loss';
 import { balancePoint, capacityAt } from '@shared/equipment/capacity';
 import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
-import { formatQuantity } from '@shared/units/units';
+import { formatQuantity, type UnitSystem } from '@shared/units/units';
 import { COLD, EMBER, EQUIPMENT_COLOURS, INK } from '../../charts/chart-theme';
 import { formatPower } from '../building-units';
 

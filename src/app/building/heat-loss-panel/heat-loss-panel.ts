@@ -11,8 +11,7 @@ import type {
 import type { ComposeOption } from 'echarts/core';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import { map } from 'rxjs';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { formatQuantity, unitLabel as temperatureUnitLabel } from '@shared/units/units';
+import { formatQuantity, unitLabel as temperatureUnitLabel, type UnitSystem } from '@shared/units/units';
 import { provideCharts } from '../../charts/provide-charts';
 import { groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building-units';
 import { CHART_TEXT, COLD, EMBER, INK, SPLIT_LINE, TEXT, WHITE } from '../../charts/chart-theme';

@@ -1,8 +1,7 @@
 /** Made-up buildings, sites and equipment lists for the client specs (values in SI). */
 import type { Building } from '@shared/building/building-schemas';
-import type { ClimateSite } from '@shared/climate-sites/climate-site-schemas';
-import type { EquipmentList } from '@shared/equipment/equipment-list-schemas';
-import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
+import type { ClimateSite } from '@shared/climate/climate-schemas';
+import type { EquipmentList, EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { anHourlySite } from '../../climate/testing/climate-fixtures';
 
 export const LIST_ID = '9c8b7a6f-5e4d-4c3b-8a29-180f0e0d0c0b';

@@ -12,11 +12,10 @@ import type {
 import type { ComposeOption } from 'echarts/core';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import { map } from 'rxjs';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { DesignConditions } from '@shared/climate/design-conditions-schema';
-import type { ClimateChartData } from '@shared/climate-sites/climate-site-schemas';
+import type { ClimateChartData } from '@shared/climate/climate-schemas';
 import { designValueName } from '@shared/glossary/glossary';
-import { fromSi, unitLabel } from '@shared/units/units';
+import { fromSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import { CHART_TEXT, COLD, COLD_TEXT, EMBER, INK, INK_BARS, SLATE, SPLIT_LINE, TEXT } from '../../charts/chart-theme';
 import { provideCharts } from '../../charts/provide-charts';
 import { HOURS_PER_YEAR, MONTH_NAMES, MONTH_SHORT_NAMES, formatNumber } from '../climate-format';

@@ -2,8 +2,7 @@
  * The number fields of the climate-site form: where each sits in the form (the same path as in the
  * API body, so server field errors land on it), its label and the quantity its unit follows.
  */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
-import { unitLabel, type Quantity } from '@shared/units/units';
+import { unitLabel, type Quantity, type UnitSystem } from '@shared/units/units';
 
 export interface NumberField {
   /** Dotted path in the form and in the API body, e.g. `publishedValues.heating.db99_6`. */

@@ -1,8 +1,8 @@
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
-import type { ClimateSite } from '@shared/climate-sites/climate-site-schemas';
+import type { UnitSystem } from '@shared/units/units';
+import type { ClimateSite } from '@shared/climate/climate-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { settle } from '../../testing/test-sessions';
 import { aPublishedSite, sessionWithUnits } from '../testing/climate-fixtures';

@@ -16,7 +16,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import {
   CLIMATE_SITE_NAME_MAX,
@@ -24,8 +23,8 @@ import {
   type ClimateSiteInput,
   type ClimateSitePatch,
   type SourceKind,
-} from '@shared/climate-sites/climate-site-schemas';
-import { fromSi, toSi } from '@shared/units/units';
+} from '@shared/climate/climate-schemas';
+import { fromSi, toSi, type UnitSystem } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { applyApiErrors, fieldError } from '../../core/api-errors';
 import { MONTH_NAMES } from '../climate-format';

@@ -10,7 +10,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSort, MatSortModule } from '@angular/material/sort';
 import { MatTableDataSource, MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
-import type { ClimateSiteSummary } from '@shared/climate-sites/climate-site-schemas';
+import type { ClimateSiteSummary } from '@shared/climate/climate-schemas';
 import { formatQuantity } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { SOURCE_LABELS, yearsLabel } from '../climate-format';

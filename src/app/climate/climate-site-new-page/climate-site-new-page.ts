@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, inject, input } from '@an
 import { MatIconModule } from '@angular/material/icon';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
-import type { ClimateSite, SourceKind } from '@shared/climate-sites/climate-site-schemas';
+import type { ClimateSite, SourceKind } from '@shared/climate/climate-schemas';
 import { ClimateSiteForm } from '../climate-site-form/climate-site-form';
 
 /** `/climate-sites/new?source=published|hourly`: creates a site of either kind. */

@@ -3,8 +3,8 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 import type { Role } from '@shared/auth/roles';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
-import type { ClimateSite } from '@shared/climate-sites/climate-site-schemas';
+import type { UnitSystem } from '@shared/units/units';
+import type { ClimateSite } from '@shared/climate/climate-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { settle } from '../../testing/test-sessions';
 import { SITE_ID, aPublishedSite, anHourlySite, sessionWithUnits, someChartData, someRecentYears } from '../testing/climate-fixtures';

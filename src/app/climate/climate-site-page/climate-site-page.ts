@@ -7,7 +7,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
-import type { ClimateSite } from '@shared/climate-sites/climate-site-schemas';
+import type { ClimateSite } from '@shared/climate/climate-schemas';
 import { formatQuantity } from '@shared/units/units';
 import { firstValueFrom } from 'rxjs';
 import { AuthStore } from '../../auth/auth-store';

@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import { designValueRows, type DesignValueRow, type LooseDesignValues } from '../climate-format';
 
 interface RowGroup {

@@ -1,5 +1,5 @@
 /** Made-up climate sites, conditions and uploads for the client specs (values in SI). */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { Role } from '@shared/auth/roles';
 import type { DesignConditions } from '@shared/climate/design-conditions-schema';
 import type {
@@ -8,7 +8,7 @@ import type {
   ClimateSiteSummary,
   ClimateUpload,
   RecentYears,
-} from '@shared/climate-sites/climate-site-schemas';
+} from '@shared/climate/climate-schemas';
 import { signedInSession } from '../../testing/test-sessions';
 
 export const SITE_ID = '5a1b2c3d-4e5f-4a6b-8c7d-9e0f1a2b3c4d';

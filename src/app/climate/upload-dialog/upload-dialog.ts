@@ -15,7 +15,7 @@ import {
   type ClimateSite,
   type ClimateUpload,
   type UploadQueue,
-} from '@shared/climate-sites/climate-site-schemas';
+} from '@shared/climate/climate-schemas';
 import type { Subscription } from 'rxjs';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';

@@ -1,9 +1,8 @@
 import { DecimalPipe, PercentPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { MatIconModule } from '@angular/material/icon';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
-import type { ClimateUpload } from '@shared/climate-sites/climate-site-schemas';
-import { formatQuantity } from '@shared/units/units';
+import type { ClimateUpload } from '@shared/climate/climate-schemas';
+import { formatQuantity, type UnitSystem } from '@shared/units/units';
 import { SERIES_FIELD_LABELS, hoursPerYear, seriesValueLabel, utcHourLabel, yearsLabel } from '../climate-format';
 
 /** The data-quality report of an upload that is checked but not yet stored. */

@@ -13,7 +13,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
-import type { EnergyPricesAnswer } from '@shared/equipment/equipment-list-schemas';
+import type { EnergyPricesAnswer } from '@shared/equipment/equipment-schemas';
 import type { EnergyPrices, GasPriceUnit } from '@shared/money/energy-prices';
 import { UNIT_PRICE_PATTERN } from '@shared/money/money';
 import { AuthStore } from '../../auth/auth-store';

@@ -3,10 +3,9 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { provideRouter } from '@angular/router';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { Role } from '@shared/auth/roles';
-import type { EquipmentList } from '@shared/equipment/equipment-list-schemas';
-import type { EnergyPricesAnswer } from '@shared/equipment/equipment-list-schemas';
+import type { EquipmentList, EnergyPricesAnswer } from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { settle } from '../../testing/test-sessions';
 import { LIST_ID, aFurnace, aHeatPump, aList, sessionIn } from '../testing/equipment-fixtures';

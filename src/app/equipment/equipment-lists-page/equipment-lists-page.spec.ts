@@ -4,7 +4,7 @@ import { TestBed, type ComponentFixture } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { Router, provideRouter } from '@angular/router';
 import type { Role } from '@shared/auth/roles';
-import type { EnergyPricesAnswer, EquipmentListSummary } from '@shared/equipment/equipment-list-schemas';
+import type { EnergyPricesAnswer, EquipmentListSummary } from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { settle, signedInSession } from '../../testing/test-sessions';
 import { aList, aSummary, listId } from '../testing/equipment-fixtures';

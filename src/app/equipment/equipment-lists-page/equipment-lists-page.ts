@@ -9,7 +9,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
-import { EQUIPMENT_LIST_NAME_MAX, type EquipmentList, type EquipmentListSummary } from '@shared/equipment/equipment-list-schemas';
+import { EQUIPMENT_LIST_NAME_MAX, type EquipmentList, type EquipmentListSummary } from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage } from '../../core/api-errors';
 import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';

@@ -1,8 +1,7 @@
 /** Made-up equipment lists for the client specs (values in SI, prices as decimal text). */
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { Role } from '@shared/auth/roles';
-import type { EquipmentList, EquipmentListSummary } from '@shared/equipment/equipment-list-schemas';
-import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
+import type { EquipmentList, EquipmentListSummary, EquipmentOption } from '@shared/equipment/equipment-schemas';
 import { signedInSession } from '../../testing/test-sessions';
 
 export const LIST_ID = '9c1d2e3f-4a5b-4c6d-8e7f-0a1b2c3d4e00';

@@ -6,7 +6,6 @@ import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/materia
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatRadioModule } from '@angular/material/radio';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
 import {
   REPORT_NOTE_MAX,
   REPORT_PHONE_MAX,
@@ -19,7 +18,7 @@ import {
 } from '@shared/reports/report-schemas';
 import type { SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { designValueName } from '@shared/glossary/glossary';
-import { formatQuantity } from '@shared/units/units';
+import { formatQuantity, type UnitSystem } from '@shared/units/units';
 import { applyApiErrors, fieldError } from '../../core/api-errors';
 import { ReportsApi } from '../reports-api';
 

@@ -5,7 +5,7 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
+import type { UnitSystem } from '@shared/units/units';
 import type { Report } from '@shared/reports/report-schemas';
 import type { SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { ReportComposer, type ReportComposerData } from '../report-composer/report-composer';

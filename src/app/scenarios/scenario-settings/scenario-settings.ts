@@ -22,7 +22,6 @@ import {
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import type { UnitSystem } from '@shared/auth/auth-schemas';
 import type { EnergyPrices, GasPriceUnit } from '@shared/money/energy-prices';
 import {
   EXTRA_DESIGN_TEMPERATURES_MAX,
@@ -30,7 +29,7 @@ import {
   type ScenarioSettings,
 } from '@shared/scenarios/scenario-schemas';
 import { MAX_DRAWS } from '@shared/sweep/tolerances';
-import { fromSi, toSi, unitLabel } from '@shared/units/units';
+import { fromSi, toSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import { applyApiErrors, fieldError } from '../../core/api-errors';
 import { VersionedEdit } from '../../core/versioned-edit';
 import { EquipmentApi } from '../../equipment/equipment-api';

@@ -1,4 +1,5 @@
 import type { Scenario, SweepAnswer, SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
+import { rowKindOfLabel } from '@shared/sweep/sweep';
 import { PROJECT_ID, SITE_ID } from '../../projects/testing/project-fixtures';
 
 export const SCENARIO_A = '5a1f7c3e-0b6d-4c1a-9f2e-3d4c5b6a7a01';
@@ -43,6 +44,7 @@ export function aScenario(fields: Partial<Scenario> = {}): Scenario {
 
 function row(fields: Partial<SweepRowAnswer> & Pick<SweepRowAnswer, 'label' | 'designC'>): SweepRowAnswer {
   return {
+    kind: rowKindOfLabel(fields.label, fields.isGrid ?? false),
     designLoadW: 8000,
     selectedOptionId: '1',
     selectionReason: null,

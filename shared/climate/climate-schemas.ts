@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { designConditionsSchema, publishedDesignValuesSchema } from '../climate/design-conditions-schema';
+import { designConditionsSchema, publishedDesignValuesSchema } from './design-conditions-schema';
 
 export const CLIMATE_SITE_NAME_MAX = 160;
 /** Largest accepted upload, bytes (60 MB). */
