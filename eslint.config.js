@@ -5,7 +5,9 @@ import angular from 'angular-eslint';
 import prettier from 'eslint-config-prettier';
 
 export default defineConfig(
-  { ignores: ['dist/**', 'out-tsc/**', '.angular/**', 'node_modules/**', 'coverage/**', '.data/**', 'test-results/**'] },
+  {
+    ignores: ['dist/**', 'out-tsc/**', '.angular/**', 'node_modules/**', 'coverage/**', '.data/**', 'test-results/**'],
+  },
   {
     files: ['**/*.ts'],
     extends: [...tseslint.configs.strictTypeChecked, ...tseslint.configs.stylisticTypeChecked],
@@ -42,7 +44,14 @@ export default defineConfig(
     rules: {
       '@angular-eslint/component-selector': ['error', { type: 'element', prefix: 'app', style: 'kebab-case' }],
       '@angular-eslint/directive-selector': ['error', { type: 'attribute', prefix: 'app', style: 'camelCase' }],
-      'no-restricted-imports': ['error', { patterns: [{ group: ['**/server/**', 'express', 'knex', 'pg'], message: 'The client cannot import server code.' }] }],
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            { group: ['**/server/**', 'express', 'knex', 'pg'], message: 'The client cannot import server code.' },
+          ],
+        },
+      ],
       // Angular's static validators (Validators.required…) are meant to be passed unbound.
       '@typescript-eslint/unbound-method': 'off',
       // Material's config classes (MatDialogConfig, MatSnackBarConfig) are documented to take object literals.
@@ -56,7 +65,14 @@ export default defineConfig(
     rules: {
       'no-restricted-imports': [
         'error',
-        { patterns: [{ group: ['@angular/*', 'express', 'knex', 'pg', '**/server/**', '**/src/**'], message: 'shared/ stays framework-free.' }] },
+        {
+          patterns: [
+            {
+              group: ['@angular/*', 'express', 'knex', 'pg', '**/server/**', '**/src/**'],
+              message: 'shared/ stays framework-free.',
+            },
+          ],
+        },
       ],
     },
   },
@@ -69,17 +85,29 @@ export default defineConfig(
         'error',
         {
           patterns: [
-            { group: ['knex', 'pg'], allowTypeImports: true, message: 'A router does not query the database: call a service.' },
+            {
+              group: ['knex', 'pg'],
+              allowTypeImports: true,
+              message: 'A router does not query the database: call a service.',
+            },
             { group: ['**/db', '**/db.js'], message: 'A router does not query the database: call a service.' },
-            { group: ['**/*-repo', '**/*-repo.js'], allowTypeImports: true, message: 'A router calls services; only services call repositories.' },
+            {
+              group: ['**/*-repo', '**/*-repo.js'],
+              allowTypeImports: true,
+              message: 'A router calls services; only services call repositories.',
+            },
           ],
         },
       ],
       'no-restricted-syntax': [
         'error',
-        { selector: 'CallExpression[callee.name=/^(db|trx|knex|conn)$/]', message: 'A router does not query the database: call a service.' },
         {
-          selector: 'MemberExpression[object.name=/^(db|trx|knex|conn)$/][property.name=/^(transaction|raw|fn|select|from|insert|update|delete|schema)$/]',
+          selector: 'CallExpression[callee.name=/^(db|trx|knex|conn)$/]',
+          message: 'A router does not query the database: call a service.',
+        },
+        {
+          selector:
+            'MemberExpression[object.name=/^(db|trx|knex|conn)$/][property.name=/^(transaction|raw|fn|select|from|insert|update|delete|schema)$/]',
           message: 'A router does not query the database: call a service.',
         },
       ],

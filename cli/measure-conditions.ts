@@ -2,7 +2,14 @@
  * Measures how long the engine takes for a 30-year hourly record of each demo site
  * (run: node --import tsx cli/measure-conditions.ts [years]). Prints the median of several runs.
  */
-import { computeDesignConditions, computeQualityReport, DEMO_SITES, generateDemoSeries, parseWeatherText, seriesToCsv } from '../shared/climate/index';
+import {
+  computeDesignConditions,
+  computeQualityReport,
+  DEMO_SITES,
+  generateDemoSeries,
+  parseWeatherText,
+  seriesToCsv,
+} from '../shared/climate/index';
 
 const years = Number(process.argv[2] ?? 30);
 const runs = 7;

@@ -94,7 +94,10 @@ function numberFlag(flags: Map<string, string>, name: string): number | undefine
 }
 
 /** Streams a file line by line through the parser for its (given or detected) format. */
-async function parseFile(path: string, format: WeatherFileFormat | undefined): Promise<ParseResult & { format: WeatherFileFormat }> {
+async function parseFile(
+  path: string,
+  format: WeatherFileFormat | undefined,
+): Promise<ParseResult & { format: WeatherFileFormat }> {
   const lines = createInterface({ input: createReadStream(path, { encoding: 'utf8' }), crlfDelay: Infinity });
   let parser: LineParser | undefined;
   let chosen = format;
@@ -118,13 +121,17 @@ async function parseFile(path: string, format: WeatherFileFormat | undefined): P
 }
 
 /** A weather file read, or null after its first problems were printed to stderr. */
-async function readWeather(path: string, format: WeatherFileFormat | undefined): Promise<(ParseResult & { ok: true }) | null> {
+async function readWeather(
+  path: string,
+  format: WeatherFileFormat | undefined,
+): Promise<(ParseResult & { ok: true }) | null> {
   const parsed = await parseFile(path, format);
   if (parsed.ok) return parsed;
   const lines = parsed.problems.map((p) => `  line ${p.line}: ${p.message}`);
   const more = parsed.problemCount - parsed.problems.length;
   process.stderr.write(
-    `${path}: cannot be read as ${parsed.format}:\n${lines.join('\n')}\n` + (more > 0 ? `  … and ${more} more problem(s)\n` : ''),
+    `${path}: cannot be read as ${parsed.format}:\n${lines.join('\n')}\n` +
+      (more > 0 ? `  … and ${more} more problem(s)\n` : ''),
   );
   return null;
 }
@@ -144,7 +151,8 @@ async function adjustCommand(args: readonly string[]): Promise<number> {
   if (positional.length > 0) throw new UsageError(`Unexpected argument ${positional[0] ?? ''}`);
   const weather = flags.get('weather');
   const targetPath = flags.get('target');
-  if (weather === undefined || targetPath === undefined) throw new UsageError('adjust needs --weather <file> and --target <target.json>');
+  if (weather === undefined || targetPath === undefined)
+    throw new UsageError('adjust needs --weather <file> and --target <target.json>');
   existingFile(weather);
   existingFile(targetPath);
   const format = formatFlag(flags);
@@ -169,7 +177,9 @@ async function adjustCommand(args: readonly string[]): Promise<number> {
     return 1;
   }
   process.stdout.write(seriesToCsv(result.series));
-  process.stderr.write(JSON.stringify({ shiftK: result.shiftK, stretch: result.stretch, referenceMeanC: result.referenceMeanC }) + '\n');
+  process.stderr.write(
+    JSON.stringify({ shiftK: result.shiftK, stretch: result.stretch, referenceMeanC: result.referenceMeanC }) + '\n',
+  );
   return 0;
 }
 
@@ -217,7 +227,8 @@ async function conditionsCommand(args: readonly string[]): Promise<number> {
       : designConditionsOfLatestYears(parsed.series, last, { elevationM });
   if (!result.ok) {
     process.stderr.write(`${file}: ${result.error.message}\n`);
-    for (const y of result.years) process.stderr.write(`  ${y.year}: ${(y.completeness * 100).toFixed(1)} % valid hours\n`);
+    for (const y of result.years)
+      process.stderr.write(`  ${y.year}: ${(y.completeness * 100).toFixed(1)} % valid hours\n`);
     return 1;
   }
   for (const w of result.warnings) process.stderr.write(`warning (${w.code}): ${w.message}\n`);
@@ -254,7 +265,8 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
   if (positional.length > 0) throw new UsageError(`Unexpected argument ${positional[0] ?? ''}`);
   const weather = flags.get('weather');
   const scenarioPath = flags.get('scenario');
-  if (weather === undefined || scenarioPath === undefined) throw new UsageError('sweep needs --weather <file> and --scenario <file>');
+  if (weather === undefined || scenarioPath === undefined)
+    throw new UsageError('sweep needs --weather <file> and --scenario <file>');
   for (const f of [weather, scenarioPath]) {
     if (!existsSync(f) || !statSync(f).isFile()) throw new UsageError(`No such file: ${f}`);
   }
@@ -298,47 +310,50 @@ async function sweepCommand(args: readonly string[]): Promise<number> {
   // The price of comfort between neighbouring rows of the ladder printed (the named rows).
   const named = result.rows.filter((r) => !r.isGrid);
   const comfort = priceOfComfort(named, periodYearsFor(input, result.studyPeriodYears));
-  const rows = named
-    .map((r, i) => ({
-      kind: r.kind,
-      label: r.label,
-      designC: r.designC,
-      designLoadW: r.designLoadW,
-      selectedOptionId: r.selectedOptionId,
-      capacityAtDesignW: r.capacityAtDesignW,
-      compressorAtDesignW: r.compressorAtDesignW,
-      installedPrice: r.installedPrice,
-      annualEnergyKWh: r.annualEnergyKWh,
-      annualCost: r.annualCost,
-      runHoursPerYear: r.runHoursPerYear,
-      backupHoursPerYear: r.backupHoursPerYear,
-      backupEnergyKWh: r.backupEnergyKWh,
-      unmetHoursPerYear: r.unmetHoursPerYear,
-      unmetHoursWorstYear: r.unmetHoursWorstYear,
-      unmetDegreeHoursPerYear: r.unmetDegreeHoursPerYear,
-      lowestIndoorC: r.lowestIndoorC,
-      worstDropK: r.worstDropK,
-      worstSagC: r.worstSagC,
-      lifeCycleCost: r.lifeCycleCost,
-      reliabilityNote: r.reliabilityNote,
-      annualExceedanceProbability: r.annualExceedanceProbability,
-      recordExceedanceShare: r.recordExceedanceShare,
-      lifetimeExceedanceProbability: r.lifetimeExceedanceProbability,
-      costPerAvoidedUnmetHour: comfort[i]?.costPerAvoidedUnmetHour ?? null,
-      ...(uncertainty
-        ? {
-            unmetHoursPerYearP10: r.unmetHoursPerYearP10,
-            unmetHoursPerYearP90: r.unmetHoursPerYearP90,
-            lifeCycleCostP10: r.lifeCycleCostP10,
-            lifeCycleCostP90: r.lifeCycleCostP90,
-            selectionChangeShare: r.selectionChangeShare,
-          }
-        : {}),
-    }));
+  const rows = named.map((r, i) => ({
+    kind: r.kind,
+    label: r.label,
+    designC: r.designC,
+    designLoadW: r.designLoadW,
+    selectedOptionId: r.selectedOptionId,
+    capacityAtDesignW: r.capacityAtDesignW,
+    compressorAtDesignW: r.compressorAtDesignW,
+    installedPrice: r.installedPrice,
+    annualEnergyKWh: r.annualEnergyKWh,
+    annualCost: r.annualCost,
+    runHoursPerYear: r.runHoursPerYear,
+    backupHoursPerYear: r.backupHoursPerYear,
+    backupEnergyKWh: r.backupEnergyKWh,
+    unmetHoursPerYear: r.unmetHoursPerYear,
+    unmetHoursWorstYear: r.unmetHoursWorstYear,
+    unmetDegreeHoursPerYear: r.unmetDegreeHoursPerYear,
+    lowestIndoorC: r.lowestIndoorC,
+    worstDropK: r.worstDropK,
+    worstSagC: r.worstSagC,
+    lifeCycleCost: r.lifeCycleCost,
+    reliabilityNote: r.reliabilityNote,
+    annualExceedanceProbability: r.annualExceedanceProbability,
+    recordExceedanceShare: r.recordExceedanceShare,
+    lifetimeExceedanceProbability: r.lifetimeExceedanceProbability,
+    costPerAvoidedUnmetHour: comfort[i]?.costPerAvoidedUnmetHour ?? null,
+    ...(uncertainty
+      ? {
+          unmetHoursPerYearP10: r.unmetHoursPerYearP10,
+          unmetHoursPerYearP90: r.unmetHoursPerYearP90,
+          lifeCycleCostP10: r.lifeCycleCostP10,
+          lifeCycleCostP90: r.lifeCycleCostP90,
+          selectionChangeShare: r.selectionChangeShare,
+        }
+      : {}),
+  }));
   for (const w of result.warnings) process.stderr.write(`warning (${w.code}): ${w.message}\n`);
   const { heatPumpSizing, selectionRule, studyPeriodYears, energyEscalationPctPerYear, warnings } = result;
   process.stdout.write(
-    JSON.stringify({ heatPumpSizing, selectionRule, studyPeriodYears, energyEscalationPctPerYear, warnings, rows }, null, 2) + '\n',
+    JSON.stringify(
+      { heatPumpSizing, selectionRule, studyPeriodYears, energyEscalationPctPerYear, warnings, rows },
+      null,
+      2,
+    ) + '\n',
   );
   return 0;
 }
@@ -351,7 +366,8 @@ function demoCommand(args: readonly string[]): number {
   const site = findDemoSite(siteId);
   if (site === undefined) throw new UsageError(`Unknown demo site ${siteId}`);
   const years = numberFlag(flags, 'years') ?? 10;
-  if (!Number.isInteger(years) || years < 1 || years > 200) throw new UsageError('--years must be a whole number from 1 to 200');
+  if (!Number.isInteger(years) || years < 1 || years > 200)
+    throw new UsageError('--years must be a whole number from 1 to 200');
   const series = generateDemoSeries(site, { years });
   const format = formatFlag(flags) ?? 'csv';
   process.stdout.write(format === 'isd-lite' ? seriesToIsdLite(series) : seriesToCsv(series));

@@ -92,7 +92,9 @@ describe('a heat-pump scenario in a real browser', () => {
     assert.match((await point.locator('[data-figure="backupHours"] dd').innerText()).trim(), /^(about [\d.,]+|none)$/);
     assert.equal(
       (await point.locator('[data-figure="backupEnergy"] dd').innerText()).trim(),
-      Math.round(r99.backupEnergyKWh) === 0 ? 'none' : `about ${Math.round(r99.backupEnergyKWh).toLocaleString('en-US')} kWh`,
+      Math.round(r99.backupEnergyKWh) === 0
+        ? 'none'
+        : `about ${Math.round(r99.backupEnergyKWh).toLocaleString('en-US')} kWh`,
     );
     assert.match((await point.locator('[data-figure="lifeCycleCost"] dd').innerText()).trim(), /over 20 years$/);
     assert.match((await point.locator('[data-figure="lowestIndoor"] dd').innerText()).trim(), /°C$/);

@@ -105,7 +105,9 @@ describe('the odds, the price of comfort and the uncertainty band in a real brow
     const plain = await page.getByTestId('report-odds').allInnerTexts();
     assert.ok(
       plain.some((s) =>
-        /chance of at least one night colder than .* in the next \d+ years, the period over which the costs are compared\./.test(s),
+        /chance of at least one night colder than .* in the next \d+ years, the period over which the costs are compared\./.test(
+          s,
+        ),
       ),
       plain.join(' | '),
     );

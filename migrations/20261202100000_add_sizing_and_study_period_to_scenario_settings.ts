@@ -14,7 +14,9 @@ const SETTINGS_DEFAULTS = {
 };
 
 export async function up(knex: Knex): Promise<void> {
-  await knex.raw('UPDATE scenarios SET settings = ?::jsonb || settings WHERE frozen_at IS NULL', [JSON.stringify(SETTINGS_DEFAULTS)]);
+  await knex.raw('UPDATE scenarios SET settings = ?::jsonb || settings WHERE frozen_at IS NULL', [
+    JSON.stringify(SETTINGS_DEFAULTS),
+  ]);
   await knex.raw(
     `UPDATE projects SET building = building || '{"creditGainsAtDesign": false}'::jsonb
      WHERE building IS NOT NULL AND jsonb_typeof(building) = 'object' AND building->'creditGainsAtDesign' IS NULL`,
@@ -26,5 +28,7 @@ export async function down(knex: Knex): Promise<void> {
     `UPDATE scenarios SET settings = settings - 'heatPumpSizing' - 'studyPeriodYears' - 'energyEscalationPctPerYear' - 'equipmentFamily'
      WHERE frozen_at IS NULL`,
   );
-  await knex.raw(`UPDATE projects SET building = building - 'creditGainsAtDesign' WHERE building IS NOT NULL AND jsonb_typeof(building) = 'object'`);
+  await knex.raw(
+    `UPDATE projects SET building = building - 'creditGainsAtDesign' WHERE building IS NOT NULL AND jsonb_typeof(building) = 'object'`,
+  );
 }

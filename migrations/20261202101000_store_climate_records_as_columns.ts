@@ -93,7 +93,10 @@ export async function up(knex: Knex): Promise<void> {
     const rows = await knex('hourly_observations')
       .where({ climate_site_id: siteId })
       .orderBy('observed_at')
-      .select<ObservationRow[]>(knex.raw('floor(extract(epoch from observed_at) / 3600)::int as hour'), ...VALUE_COLUMNS);
+      .select<ObservationRow[]>(
+        knex.raw('floor(extract(epoch from observed_at) / 3600)::int as hour'),
+        ...VALUE_COLUMNS,
+      );
     await knex('climate_records').insert({ climate_site_id: siteId, ...packRows(rows) });
   }
   await dropObservationsTable(knex);

@@ -88,7 +88,8 @@ export function benchSweep(runs = 7, log: (line: string) => void = console.log):
   // Quarter-degree extras between the grid points until the sweep has at least 60 design temperatures.
   const extraDesignC: number[] = [];
   const top = conditions.conditions.heating.db99;
-  for (let t = Math.floor(top * 2) / 2 - 0.25; designLadder(base.designConditions, extraDesignC).length < 60; t -= 0.5) extraDesignC.push(t);
+  for (let t = Math.floor(top * 2) / 2 - 0.25; designLadder(base.designConditions, extraDesignC).length < 60; t -= 0.5)
+    extraDesignC.push(t);
   const rows = designLadder(base.designConditions, extraDesignC).length;
 
   const t0 = performance.now();
@@ -130,8 +131,12 @@ export function benchSweep(runs = 7, log: (line: string) => void = console.log):
   log(`  indexing the record once (grouping hours by temperature): ${result.indexMs.toFixed(1)} ms`);
   log(`  fast sweep on the indexed record: ${result.fastMs.toFixed(1)} ms`);
   log(`  fast sweep including indexing: ${result.coldFastMs.toFixed(1)} ms`);
-  log(`  naive loop (for every design temperature: choose among the options, then walk every hour): ${result.naiveMs.toFixed(0)} ms`);
-  log(`  naive / fast: ${(result.naiveMs / result.fastMs).toFixed(0)}× (including indexing: ${(result.naiveMs / result.coldFastMs).toFixed(0)}×)`);
+  log(
+    `  naive loop (for every design temperature: choose among the options, then walk every hour): ${result.naiveMs.toFixed(0)} ms`,
+  );
+  log(
+    `  naive / fast: ${(result.naiveMs / result.fastMs).toFixed(0)}× (including indexing: ${(result.naiveMs / result.coldFastMs).toFixed(0)}×)`,
+  );
   return result;
 }
 

@@ -69,7 +69,9 @@ async function benchUploads(databaseUrl: string): Promise<{ csv: number; isdLite
     if (!site) throw new Error('no demo site');
     const series = generateDemoSeries(site, { years: 30 });
     const files = { csv: Buffer.from(seriesToCsv(series)), 'isd-lite': Buffer.from(seriesToIsdLite(series)) } as const;
-    console.log(`\nRecord: ${site.name}, 30 years, ${series.time.length} hourly rows; CSV ${(files.csv.length / 1e6).toFixed(1)} MB, ISD-Lite ${(files['isd-lite'].length / 1e6).toFixed(1)} MB`);
+    console.log(
+      `\nRecord: ${site.name}, 30 years, ${series.time.length} hourly rows; CSV ${(files.csv.length / 1e6).toFixed(1)} MB, ISD-Lite ${(files['isd-lite'].length / 1e6).toFixed(1)} MB`,
+    );
     const totals: Record<string, number> = {};
     const siteIds: string[] = [];
     for (const format of ['csv', 'isd-lite'] as const) {
@@ -79,17 +81,31 @@ async function benchUploads(databaseUrl: string): Promise<{ csv: number; isdLite
       // One run more than counted: the first starts the worker's JIT, as an upload after a while of others would find it.
       for (let run = 0; run <= RUNS; run++) {
         const [row] = await db('climate_sites')
-          .insert({ organization_id: orgId, name: `bench ${format} ${run}`, source_kind: 'hourly', elevation_m: site.elevationM })
+          .insert({
+            organization_id: orgId,
+            name: `bench ${format} ${run}`,
+            source_kind: 'hourly',
+            elevation_m: site.elevationM,
+          })
           .returning<{ id: string }[]>('id');
         const siteId = row?.id ?? '';
         const content = Uint8Array.from(files[format]); // moved to the worker, so a fresh copy each time
         const t0 = performance.now();
-        const parsed = await pool.parse(orgId, { files: [{ name: `bench.${format}`, content }], format: 'auto', elevationM: site.elevationM, fileName: 'bench' });
+        const parsed = await pool.parse(orgId, {
+          files: [{ name: `bench.${format}`, content }],
+          format: 'auto',
+          elevationM: site.elevationM,
+          fileName: 'bench',
+        });
         if (!parsed.ok) throw new Error(parsed.message);
         const t1 = performance.now();
         const source = { fileName: 'bench', rowCount: parsed.rowCount };
-        const stored = decodeSeries(Buffer.from(parsed.series.buffer, parsed.series.byteOffset, parsed.series.byteLength));
-        await db.transaction((trx) => storeRecord(trx, siteId, stored, site.elevationM, source, parsed.computed, parsed.sweepIndex));
+        const stored = decodeSeries(
+          Buffer.from(parsed.series.buffer, parsed.series.byteOffset, parsed.series.byteLength),
+        );
+        await db.transaction((trx) =>
+          storeRecord(trx, siteId, stored, site.elevationM, source, parsed.computed, parsed.sweepIndex),
+        );
         const t2 = performance.now();
         siteIds.push(siteId);
         if (run === 0) continue;
@@ -117,11 +133,19 @@ async function benchPoolSweeps(databaseUrl: string, siteIds: string[]): Promise<
     await pool.ready();
     const rows = await db('design_conditions')
       .whereIn('climate_site_id', siteIds)
-      .select<{ climate_site_id: string; conditions: DesignConditions; computed_at: Date }[]>('climate_site_id', 'conditions', 'computed_at');
+      .select<{ climate_site_id: string; conditions: DesignConditions; computed_at: Date }[]>(
+        'climate_site_id',
+        'conditions',
+        'computed_at',
+      );
     const task = (r: (typeof rows)[number], rate: number): SweepTask => ({
       databaseUrl,
       input: { ...benchScenarioInput(r.conditions), economics: { discountRatePct: rate } },
-      record: { siteId: r.climate_site_id, key: `${r.climate_site_id}@${r.computed_at.toISOString()}`, qualifyingYears: r.conditions.period.qualifyingYears },
+      record: {
+        siteId: r.climate_site_id,
+        key: `${r.climate_site_id}@${r.computed_at.toISOString()}`,
+        qualifyingYears: r.conditions.period.qualifyingYears,
+      },
       odds: { uncertainty: null },
     });
     const cold: number[] = [];
@@ -137,7 +161,9 @@ async function benchPoolSweeps(databaseUrl: string, siteIds: string[]): Promise<
       await pool.run(`warm-${run}`, task(first, 4 + run / 10));
       warm.push(performance.now() - t);
     }
-    console.log(`\nWorker pool, stored 30-year record: first sweep of a record (one query for its stored index + sweep) ${ms(median(cold))} · later sweeps of it ${median(warm).toFixed(1)} ms`);
+    console.log(
+      `\nWorker pool, stored 30-year record: first sweep of a record (one query for its stored index + sweep) ${ms(median(cold))} · later sweeps of it ${median(warm).toFixed(1)} ms`,
+    );
     return { cold: median(cold), warm: median(warm) };
   } finally {
     await pool.close();
@@ -186,7 +212,11 @@ async function benchHealthDuringUpload(databaseUrl: string): Promise<number> {
     const form = new FormData();
     form.append('files', new Blob([new Uint8Array(gz)]), 'big.csv.gz');
     const t0 = performance.now();
-    const up = await fetch(`${server.base}/api/v1/climate-sites/${siteId}/uploads`, { method: 'POST', headers, body: form });
+    const up = await fetch(`${server.base}/api/v1/climate-sites/${siteId}/uploads`, {
+      method: 'POST',
+      headers,
+      body: form,
+    });
     const uploadMs = performance.now() - t0;
     const status = up.status;
     await up.arrayBuffer();
@@ -225,19 +255,45 @@ const README_END = '<!-- bench:end -->';
 
 /** The README's performance table, from the figures. */
 export function readmeTable(f: BenchFigures, date: string): string {
-  const row = (step: string, value: string, target: string, met: boolean) => `| ${step} | ${value} | ${target} | ${met ? 'met' : 'not met'} |`;
+  const row = (step: string, value: string, target: string, met: boolean) =>
+    `| ${step} | ${value} | ${target} | ${met ? 'met' : 'not met'} |`;
   return [
     README_START,
     `Measured ${date} on ${f.cores} cores with a load average of ${f.loadAverage1m.toFixed(2)} (1 min) at the start:`,
     '',
     '| step | median | target | |',
     '|---|---|---|---|',
-    row('first sweep of a stored 30-year record (warm worker, one query for the stored index, sweep)', `${f.coldSweepMs.toFixed(0)} ms`, '≤ 300 ms', f.coldSweepMs <= 300),
+    row(
+      'first sweep of a stored 30-year record (warm worker, one query for the stored index, sweep)',
+      `${f.coldSweepMs.toFixed(0)} ms`,
+      '≤ 300 ms',
+      f.coldSweepMs <= 300,
+    ),
     row('later sweeps of the same record', `${f.warmSweepMs.toFixed(1)} ms`, '≤ 10 ms', f.warmSweepMs <= 10),
-    row('30-year upload, CSV: read + check + store', `${f.uploadCsvMs.toFixed(0)} ms`, '≤ 1,000 ms', f.uploadCsvMs <= 1000),
-    row('30-year upload, ISD-Lite: read + check + store', `${f.uploadIsdLiteMs.toFixed(0)} ms`, '≤ 1,000 ms', f.uploadIsdLiteMs <= 1000),
-    row('`/api/health` p95 while a 50 MB upload is read', `${f.healthP95DuringUploadMs.toFixed(1)} ms`, '≤ 100 ms', f.healthP95DuringUploadMs <= 100),
-    row('sweep, naive loop ÷ fast path', `${f.sweepNaiveMs.toFixed(0)} ms ÷ ${f.sweepFastMs.toFixed(1)} ms = ${(f.sweepNaiveMs / f.sweepFastMs).toFixed(0)}×`, '≥ 100×', f.sweepNaiveMs / f.sweepFastMs >= 100),
+    row(
+      '30-year upload, CSV: read + check + store',
+      `${f.uploadCsvMs.toFixed(0)} ms`,
+      '≤ 1,000 ms',
+      f.uploadCsvMs <= 1000,
+    ),
+    row(
+      '30-year upload, ISD-Lite: read + check + store',
+      `${f.uploadIsdLiteMs.toFixed(0)} ms`,
+      '≤ 1,000 ms',
+      f.uploadIsdLiteMs <= 1000,
+    ),
+    row(
+      '`/api/health` p95 while a 50 MB upload is read',
+      `${f.healthP95DuringUploadMs.toFixed(1)} ms`,
+      '≤ 100 ms',
+      f.healthP95DuringUploadMs <= 100,
+    ),
+    row(
+      'sweep, naive loop ÷ fast path',
+      `${f.sweepNaiveMs.toFixed(0)} ms ÷ ${f.sweepFastMs.toFixed(1)} ms = ${(f.sweepNaiveMs / f.sweepFastMs).toFixed(0)}×`,
+      '≥ 100×',
+      f.sweepNaiveMs / f.sweepFastMs >= 100,
+    ),
     row('indexing a 30-year record (at upload)', `${f.indexMs.toFixed(0)} ms`, '', true),
     row(
       'uncertainty band: 300 Monte Carlo draws over a 30-year record (CPU time beside)',
@@ -245,7 +301,12 @@ export function readmeTable(f: BenchFigures, date: string): string {
       '< 1,000 ms',
       f.uncertaintyBandMs < 1000,
     ),
-    row('initial client bundle, gzip', `${f.initialBundleGzipKB.toFixed(0)} kB`, '< 300 kB', f.initialBundleGzipKB < 300),
+    row(
+      'initial client bundle, gzip',
+      `${f.initialBundleGzipKB.toFixed(0)} kB`,
+      '< 300 kB',
+      f.initialBundleGzipKB < 300,
+    ),
     README_END,
   ].join('\n');
 }
@@ -254,12 +315,21 @@ async function main(): Promise<void> {
   const asJson = process.argv.includes('--json');
   const toReadme = process.argv.includes('--readme');
   const loadAverage1m = loadavg()[0] ?? NaN;
-  console.log(`Machine: ${cpus().length} cores, Node ${process.version}, load average ${loadavg().map((x) => x.toFixed(2)).join(' ')}\n`);
+  console.log(
+    `Machine: ${cpus().length} cores, Node ${process.version}, load average ${loadavg()
+      .map((x) => x.toFixed(2))
+      .join(' ')}\n`,
+  );
   const sweep = benchSweep();
   const band = benchOdds();
   const dir = mkdtempSync(path.join(tmpdir(), 'tailroom-bench-'));
   chmodSync(dir, 0o755);
-  const cluster = new PgCluster(path.join(dir, 'pg'), await freePort(), randomBytes(12).toString('hex'), ensurePostgresInstalled(console.log));
+  const cluster = new PgCluster(
+    path.join(dir, 'pg'),
+    await freePort(),
+    randomBytes(12).toString('hex'),
+    ensurePostgresInstalled(console.log),
+  );
   let figures: BenchFigures;
   try {
     cluster.init({ throwaway: false });
@@ -296,7 +366,12 @@ async function main(): Promise<void> {
     const a = readme.indexOf(README_START);
     const b = readme.indexOf(README_END);
     if (a < 0 || b < a) throw new Error('README.md has no bench table markers');
-    writeFileSync('README.md', readme.slice(0, a) + readmeTable(figures, new Date().toISOString().slice(0, 16).replace('T', ' ') + ' UTC') + readme.slice(b + README_END.length));
+    writeFileSync(
+      'README.md',
+      readme.slice(0, a) +
+        readmeTable(figures, new Date().toISOString().slice(0, 16).replace('T', ' ') + ' UTC') +
+        readme.slice(b + README_END.length),
+    );
     console.log('\nREADME.md performance table rewritten');
   }
   if (asJson) console.log(JSON.stringify(figures));

@@ -11,7 +11,11 @@ import { ensurePostgresInstalled } from './pg-cluster';
 /** pg_dump of a database to a custom-format file. */
 export function backupDatabase(databaseUrl: string, file: string, bin = ensurePostgresInstalled(console.log)): void {
   mkdirSync(path.dirname(path.resolve(file)), { recursive: true });
-  execFileSync(path.join(bin, 'pg_dump'), ['--format=custom', '--no-owner', '--no-privileges', '--file', file, '--dbname', databaseUrl], { stdio: ['ignore', 'inherit', 'inherit'] });
+  execFileSync(
+    path.join(bin, 'pg_dump'),
+    ['--format=custom', '--no-owner', '--no-privileges', '--file', file, '--dbname', databaseUrl],
+    { stdio: ['ignore', 'inherit', 'inherit'] },
+  );
 }
 
 /** pg_restore of a custom-format file over a database: its objects are dropped and recreated from the backup, in one transaction. */
@@ -19,7 +23,17 @@ export function restoreDatabase(databaseUrl: string, file: string, bin = ensureP
   if (!existsSync(file)) throw new Error(`No such backup: ${file}`);
   execFileSync(
     path.join(bin, 'pg_restore'),
-    ['--clean', '--if-exists', '--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error', '--dbname', databaseUrl, file],
+    [
+      '--clean',
+      '--if-exists',
+      '--no-owner',
+      '--no-privileges',
+      '--single-transaction',
+      '--exit-on-error',
+      '--dbname',
+      databaseUrl,
+      file,
+    ],
     { stdio: ['ignore', 'inherit', 'inherit'] },
   );
 }

@@ -39,7 +39,8 @@ function cpuSeconds(which: { pid: number } | { comm: string }): number {
   return total;
 }
 
-const pct = (sorted: number[], p: number) => sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? NaN;
+const pct = (sorted: number[], p: number) =>
+  sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? NaN;
 
 interface Figures {
   requests: number;
@@ -53,10 +54,19 @@ interface Figures {
 /** A few seconds of the same load, not counted: the JIT compiles the hot paths and the pools fill. */
 async function warmUp(opts: { url: string; method: 'GET' | 'POST'; headers: Record<string, string> }): Promise<void> {
   await new Promise<void>((resolve, reject) => {
-    autocannon({ url: opts.url, method: opts.method, headers: opts.headers, connections: CONNECTIONS, duration: WARM_UP_SECONDS }, (err) => {
-      if (err) reject(err instanceof Error ? err : new Error(String(err)));
-      else resolve();
-    });
+    autocannon(
+      {
+        url: opts.url,
+        method: opts.method,
+        headers: opts.headers,
+        connections: CONNECTIONS,
+        duration: WARM_UP_SECONDS,
+      },
+      (err) => {
+        if (err) reject(err instanceof Error ? err : new Error(String(err)));
+        else resolve();
+      },
+    );
   });
 }
 
@@ -68,10 +78,13 @@ async function run(
   const server0 = cpuSeconds({ pid: opts.serverPid });
   const db0 = cpuSeconds({ comm: 'postgres' });
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
-    const instance = autocannon({ url: opts.url, method: opts.method, headers: opts.headers, connections: CONNECTIONS, duration: SECONDS }, (err, res) => {
-      if (err) reject(err instanceof Error ? err : new Error(String(err)));
-      else resolve(res);
-    });
+    const instance = autocannon(
+      { url: opts.url, method: opts.method, headers: opts.headers, connections: CONNECTIONS, duration: SECONDS },
+      (err, res) => {
+        if (err) reject(err instanceof Error ? err : new Error(String(err)));
+        else resolve(res);
+      },
+    );
     instance.on('response', (_client, _status, _bytes, ms) => times.push(ms));
   });
   const serverMs = ((cpuSeconds({ pid: opts.serverPid }) - server0) * 1000) / Math.max(1, result.requests.total);
@@ -95,7 +108,12 @@ async function run(
 async function main(): Promise<void> {
   const dir = mkdtempSync(path.join(tmpdir(), 'tailroom-load-'));
   chmodSync(dir, 0o755);
-  const cluster = new PgCluster(path.join(dir, 'pg'), await freePort(), randomBytes(12).toString('hex'), ensurePostgresInstalled(console.log));
+  const cluster = new PgCluster(
+    path.join(dir, 'pg'),
+    await freePort(),
+    randomBytes(12).toString('hex'),
+    ensurePostgresInstalled(console.log),
+  );
   let stopServer: (() => Promise<void>) | null = null;
   try {
     cluster.init({ throwaway: true });
@@ -108,7 +126,10 @@ async function main(): Promise<void> {
     await seedDemo(db);
     await db.destroy();
     const profileDir = process.env['LOAD_CPU_PROF'];
-    const server = await startServerProcess(cluster.localUrl('load'), profileDir ? ['--cpu-prof', `--cpu-prof-dir=${profileDir}`] : []);
+    const server = await startServerProcess(
+      cluster.localUrl('load'),
+      profileDir ? ['--cpu-prof', `--cpu-prof-dir=${profileDir}`] : [],
+    );
     stopServer = () => server.stop();
     const serverPid = server.pid;
     const base = server.base;
@@ -122,21 +143,36 @@ async function main(): Promise<void> {
     const headers = { cookie, [CSRF_HEADER]: CSRF_HEADER_VALUE, 'content-type': 'application/json' };
     const projects = (await (await fetch(`${base}/api/v1/projects`, { headers })).json()) as { id: string }[];
     const projectId = projects[0]?.id ?? '';
-    const scenarios = (await (await fetch(`${base}/api/v1/projects/${projectId}/scenarios`, { headers })).json()) as { id: string; version: number; settings: Record<string, unknown> }[];
+    const scenarios = (await (await fetch(`${base}/api/v1/projects/${projectId}/scenarios`, { headers })).json()) as {
+      id: string;
+      version: number;
+      settings: Record<string, unknown>;
+    }[];
     const scenario = scenarios[0];
     const other = scenarios[1];
     if (!scenario || !other) throw new Error('demo scenarios missing');
     const sweepUrl = `${base}/api/v1/projects/${projectId}/scenarios/${scenario.id}/sweep`;
     const t0 = performance.now();
     const first = await (await fetch(sweepUrl, { method: 'POST', headers })).text();
-    console.log(`First sweep of the demo scenario (worker start, record load, sweep): ${(performance.now() - t0).toFixed(0)} ms`);
+    console.log(
+      `First sweep of the demo scenario (worker start, record load, sweep): ${(performance.now() - t0).toFixed(0)} ms`,
+    );
     const projectBody = await (await fetch(`${base}/api/v1/projects/${projectId}`, { headers })).text();
-    console.log(`Answer sizes: project ${(projectBody.length / 1024).toFixed(1)} kB, sweep ${(first.length / 1024).toFixed(1)} kB`);
-    console.log(`Machine: ${cpus().length} cores, Node ${process.version}; ${CONNECTIONS} connections, ${SECONDS} s each after ${WARM_UP_SECONDS} s of warm-up\n`);
+    console.log(
+      `Answer sizes: project ${(projectBody.length / 1024).toFixed(1)} kB, sweep ${(first.length / 1024).toFixed(1)} kB`,
+    );
+    console.log(
+      `Machine: ${cpus().length} cores, Node ${process.version}; ${CONNECTIONS} connections, ${SECONDS} s each after ${WARM_UP_SECONDS} s of warm-up\n`,
+    );
     await warmUp({ url: `${base}/api/v1/projects/${projectId}`, method: 'GET', headers });
     await warmUp({ url: sweepUrl, method: 'POST', headers });
 
-    const read = await run('GET a project', { url: `${base}/api/v1/projects/${projectId}`, method: 'GET', headers, serverPid });
+    const read = await run('GET a project', {
+      url: `${base}/api/v1/projects/${projectId}`,
+      method: 'GET',
+      headers,
+      serverPid,
+    });
     const cached = await run('POST a sweep (cached result)', { url: sweepUrl, method: 'POST', headers, serverPid });
 
     // Fresh sweeps in the background: another scenario's discount rate changes before each one, so every run is new.
@@ -147,7 +183,14 @@ async function main(): Promise<void> {
     let version = other.version;
     const freshLoop = async () => {
       for (let rate = 0.01; !stop; rate += 0.01) {
-        const patched = await fetch(otherBase, { method: 'PATCH', headers, body: JSON.stringify({ version, settings: { ...other.settings, discountRatePct: Number((3 + rate).toFixed(2)) } }) });
+        const patched = await fetch(otherBase, {
+          method: 'PATCH',
+          headers,
+          body: JSON.stringify({
+            version,
+            settings: { ...other.settings, discountRatePct: Number((3 + rate).toFixed(2)) },
+          }),
+        });
         if (patched.ok) version = ((await patched.json()) as { version: number }).version;
         const t = performance.now();
         const r = await fetch(`${otherBase}/sweep`, { method: 'POST', headers });
@@ -159,13 +202,22 @@ async function main(): Promise<void> {
       }
     };
     const loop = freshLoop();
-    const during = await run('POST a sweep (cached) while fresh sweeps run', { url: sweepUrl, method: 'POST', headers, serverPid });
+    const during = await run('POST a sweep (cached) while fresh sweeps run', {
+      url: sweepUrl,
+      method: 'POST',
+      headers,
+      serverPid,
+    });
     stop = true;
     await loop;
-    console.log(`\nFresh sweeps completed meanwhile: ${fresh} (mean ${(freshMs / Math.max(1, fresh)).toFixed(0)} ms each, in the worker pool)`);
+    console.log(
+      `\nFresh sweeps completed meanwhile: ${fresh} (mean ${(freshMs / Math.max(1, fresh)).toFixed(0)} ms each, in the worker pool)`,
+    );
     console.log(`Cached-sweep p95 with fresh sweeps running ÷ without: ${(during.p95 / cached.p95).toFixed(2)}×`);
     const ok = read.errors + cached.errors + during.errors === 0 && read.non2xx + cached.non2xx + during.non2xx === 0;
-    console.log(`Targets: zero errors ${ok ? 'met' : 'NOT met'}; p95 of cached reads under 150 ms ${Math.max(read.p95, cached.p95) < 150 ? 'met' : 'NOT met'}; fresh sweeps slow cached reads by at most 2× ${during.p95 / cached.p95 <= 2 ? 'met' : 'NOT met'}`);
+    console.log(
+      `Targets: zero errors ${ok ? 'met' : 'NOT met'}; p95 of cached reads under 150 ms ${Math.max(read.p95, cached.p95) < 150 ? 'met' : 'NOT met'}; fresh sweeps slow cached reads by at most 2× ${during.p95 / cached.p95 <= 2 ? 'met' : 'NOT met'}`,
+    );
   } finally {
     if (stopServer) await stopServer();
     cluster.stop('fast');

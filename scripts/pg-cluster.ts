@@ -89,8 +89,16 @@ export class PgCluster {
     }
     try {
       this.run('initdb', [
-        '-D', this.dataDir, '-U', DB_USER, `--pwfile=${pwfile}`, '-E', 'UTF8', '--locale=C.UTF-8',
-        '--auth-local=scram-sha-256', '--auth-host=scram-sha-256',
+        '-D',
+        this.dataDir,
+        '-U',
+        DB_USER,
+        `--pwfile=${pwfile}`,
+        '-E',
+        'UTF8',
+        '--locale=C.UTF-8',
+        '--auth-local=scram-sha-256',
+        '--auth-host=scram-sha-256',
       ]);
     } finally {
       execFileSync('rm', ['-f', pwfile]);
@@ -102,7 +110,11 @@ export class PgCluster {
     ];
     const conf = path.join(this.dataDir, 'postgresql.conf');
     const append = `\n# Tailroom\n${settings.join('\n')}\n`;
-    if (isRoot) spawnSync('runuser', ['-u', 'postgres', '--', 'sh', '-c', `cat >> '${conf}'`], { input: append, cwd: this.rootDir });
+    if (isRoot)
+      spawnSync('runuser', ['-u', 'postgres', '--', 'sh', '-c', `cat >> '${conf}'`], {
+        input: append,
+        cwd: this.rootDir,
+      });
     else writeFileSync(conf, append, { flag: 'a' });
   }
 
@@ -117,8 +129,16 @@ export class PgCluster {
 
   start(): void {
     this.run('pg_ctl', [
-      '-D', this.dataDir, '-l', path.join(this.rootDir, 'postgres.log'), '-w', '-t', '30',
-      '-o', `-p ${this.port} -c listen_addresses=127.0.0.1`, 'start',
+      '-D',
+      this.dataDir,
+      '-l',
+      path.join(this.rootDir, 'postgres.log'),
+      '-w',
+      '-t',
+      '30',
+      '-o',
+      `-p ${this.port} -c listen_addresses=127.0.0.1`,
+      'start',
     ]);
   }
 

@@ -47,7 +47,10 @@ export async function startServerProcess(databaseUrl: string, nodeArgs: string[]
     PORT: String(port),
     LOG_LEVEL: 'silent',
   };
-  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/main.ts'], { env, stdio: ['ignore', 'inherit', 'inherit'] });
+  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', 'server/main.ts'], {
+    env,
+    stdio: ['ignore', 'inherit', 'inherit'],
+  });
   const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
   const base = `http://127.0.0.1:${port}`;
   await waitForHealth(`${base}/api/health`);

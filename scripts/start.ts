@@ -130,7 +130,11 @@ async function main(): Promise<void> {
     STRIPE_WEBHOOK_SECRET: `whsec_${randomBytes(24).toString('base64url')}`,
     DEV_OUTBOX_TOKEN: randomBytes(24).toString('base64url'),
   };
-  startChild('payment provider (fake)', ['server/fakes/payment-fake-main.ts', String(paymentsPort), `http://127.0.0.1:${port}/api/v1/billing/webhook`], env);
+  startChild(
+    'payment provider (fake)',
+    ['server/fakes/payment-fake-main.ts', String(paymentsPort), `http://127.0.0.1:${port}/api/v1/billing/webhook`],
+    env,
+  );
   startChild('e-mail sink', ['server/fakes/smtp-sink-main.ts', String(smtpPort), String(outboxPort)], env);
   supervised = supervise({
     name: 'server',
@@ -138,7 +142,10 @@ async function main(): Promise<void> {
     standby: true,
     start: (standby) =>
       standby
-        ? spawn(process.execPath, ['--import', 'tsx', 'server/main.ts', '--standby'], { env, stdio: ['inherit', 'inherit', 'inherit', 'ipc'] })
+        ? spawn(process.execPath, ['--import', 'tsx', 'server/main.ts', '--standby'], {
+            env,
+            stdio: ['inherit', 'inherit', 'inherit', 'ipc'],
+          })
         : spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], { env, stdio: 'inherit' }),
     log: (line) => console.error(line),
     onGiveUp: () => shutdown(1),
@@ -159,7 +166,9 @@ async function main(): Promise<void> {
     log(`  Demo sign-in (${DEMO_ORGANIZATION}, invented data):`);
     for (const a of DEMO_ACCOUNTS) log(`    ${a.role.padEnd(8)} ${a.email}`);
     log(`    password  ${DEMO_PASSWORD}`);
-    log(`  Dev outbox (e-mails sent locally; this link holds a token new on every start): ${url}/dev/outbox?token=${env['DEV_OUTBOX_TOKEN'] ?? ''}`);
+    log(
+      `  Dev outbox (e-mails sent locally; this link holds a token new on every start): ${url}/dev/outbox?token=${env['DEV_OUTBOX_TOKEN'] ?? ''}`,
+    );
     log(`  Payments: a local fake of the provider on 127.0.0.1:${paymentsPort}; test card 4242 4242 4242 4242`);
     log('  Press Ctrl-C to stop.');
     log('');

@@ -31,7 +31,8 @@ export interface Supervisor {
   stop(graceMs?: number): Promise<void>;
 }
 
-const isMessage = (m: unknown, type: string) => typeof m === 'object' && m !== null && (m as { type?: unknown }).type === type;
+const isMessage = (m: unknown, type: string) =>
+  typeof m === 'object' && m !== null && (m as { type?: unknown }).type === type;
 
 function stopChild(child: ChildProcess, graceMs: number): Promise<void> {
   if (child.exitCode !== null || child.signalCode !== null) return Promise.resolve();
@@ -61,7 +62,9 @@ export function supervise(options: SupervisorOptions): Supervisor {
     exits.push(now);
     while (exits.length > 0 && (exits[0] ?? now) < now - windowMs) exits.shift();
     if (exits.length <= maxRestarts) return true;
-    log(`» ${options.name} exited ${exits.length} times within ${Math.round(windowMs / 1000)} s; not starting it again`);
+    log(
+      `» ${options.name} exited ${exits.length} times within ${Math.round(windowMs / 1000)} s; not starting it again`,
+    );
     stopped = true;
     if (spare) void stopChild(spare.child, 2000);
     options.onGiveUp?.(code);

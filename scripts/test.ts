@@ -57,7 +57,11 @@ process.on('SIGTERM', () => {
 });
 
 /** Runs a command, echoing its output, and returns the output and the exit code. */
-function run(cmd: string, args: string[], env: NodeJS.ProcessEnv = process.env): Promise<{ code: number; out: string }> {
+function run(
+  cmd: string,
+  args: string[],
+  env: NodeJS.ProcessEnv = process.env,
+): Promise<{ code: number; out: string }> {
   return new Promise((resolve) => {
     const child = spawn(cmd, args, { env, stdio: ['ignore', 'pipe', 'pipe'] });
     children.push(child);
@@ -170,11 +174,20 @@ async function main(): Promise<number> {
   const ng = ['node_modules/@angular/cli/bin/ng.js'];
   await check('typecheck', 'npm', ['run', '--silent', 'typecheck']);
   await check('lint', 'npm', ['run', '--silent', 'lint']);
-  await nodeTests('api and engine', testFiles('tests', '.test.ts'), { ...process.env, DATABASE_URL: cluster.url('tailroom_api') });
+  // Prettier's layout (120 columns) everywhere but prose: a Markdown file is written by people and by
+  // `npm run bench -- --readme` / `npm run glossary:doc`.
+  await check('format', 'npm', ['run', '--silent', 'format:check']);
+  await nodeTests('api and engine', testFiles('tests', '.test.ts'), {
+    ...process.env,
+    DATABASE_URL: cluster.url('tailroom_api'),
+  });
 
   if (wanted('client')) {
     log('\n━━ client (karma)');
-    const { out, code } = await run(process.execPath, [...ng, 'test', '--watch=false'], { ...process.env, CHROME_BIN: '/usr/bin/chromium' });
+    const { out, code } = await run(process.execPath, [...ng, 'test', '--watch=false'], {
+      ...process.env,
+      CHROME_BIN: '/usr/bin/chromium',
+    });
     const total = /TOTAL: (?:(\d+) FAILED, )?(\d+) SUCCESS/.exec(out);
     const executed = [...out.matchAll(/Executed (\d+) of (\d+)(?: \((\d+) FAILED\))?/g)].pop();
     let passed = 0;
@@ -223,4 +236,3 @@ main()
     console.log(`0 passed, 1 failed`);
     process.exit(1);
   });
-

@@ -75,7 +75,8 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
         req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
         res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
       },
-      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
+      customLogLevel: (_req, res, err) =>
+        err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info',
     }),
   );
 
@@ -116,7 +117,11 @@ export function createApp({ config, db, mailer, logger }: AppDeps): App {
   // The provider's webhook reads its raw body (the signature covers the exact bytes): before the JSON parser.
   const billing = billingRouter(db, config);
   app.post('/api/v1/billing/webhook', ...billing.webhook);
-  app.use('/api/v1', refuseDeclaredOversizeJson(JSON_BODY_LIMIT_BYTES), express.json({ limit: JSON_BODY_LIMIT_BYTES, strict: true }));
+  app.use(
+    '/api/v1',
+    refuseDeclaredOversizeJson(JSON_BODY_LIMIT_BYTES),
+    express.json({ limit: JSON_BODY_LIMIT_BYTES, strict: true }),
+  );
   app.use('/api/v1', textSafety);
   app.use('/api', csrfProtection(config));
   const limits = rateLimits(config, db);

@@ -76,7 +76,11 @@ export type Config = Readonly<{
   resetLinkMinutes: number;
   invitationDays: number;
   signUpPerHour: number;
-  limits: { signInFailuresPerAddress: number; reportSendsPerOrganizationPerHour: number; reportSendsPerRecipientPerDay: number };
+  limits: {
+    signInFailuresPerAddress: number;
+    reportSendsPerOrganizationPerHour: number;
+    reportSendsPerRecipientPerDay: number;
+  };
   stripe: { secretKey: string; webhookSecret: string; host?: string; port?: number; protocol?: 'http' | 'https' };
 }>;
 
@@ -119,7 +123,9 @@ export function parseConfig(env: NodeJS.ProcessEnv): Config {
     stripe: {
       secretKey: e.STRIPE_SECRET_KEY ?? FAKE_STRIPE_SECRET_KEY,
       // Tests use the fake's fixed secret; elsewhere an unset one is random, so no forged event verifies.
-      webhookSecret: e.STRIPE_WEBHOOK_SECRET ?? (e.NODE_ENV === 'test' ? FAKE_STRIPE_WEBHOOK_SECRET : `whsec_${randomBytes(24).toString('base64url')}`),
+      webhookSecret:
+        e.STRIPE_WEBHOOK_SECRET ??
+        (e.NODE_ENV === 'test' ? FAKE_STRIPE_WEBHOOK_SECRET : `whsec_${randomBytes(24).toString('base64url')}`),
       host: e.STRIPE_API_HOST,
       port: e.STRIPE_API_PORT,
       protocol: e.STRIPE_API_PROTOCOL,

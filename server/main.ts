@@ -21,7 +21,12 @@ const standby = process.argv.includes('--standby') && typeof process.send === 'f
 let server: ReturnType<typeof listen> | null = standby ? null : listen();
 if (standby) {
   process.on('message', (message: unknown) => {
-    if (server === null && typeof message === 'object' && message !== null && (message as { type?: unknown }).type === 'listen') {
+    if (
+      server === null &&
+      typeof message === 'object' &&
+      message !== null &&
+      (message as { type?: unknown }).type === 'listen'
+    ) {
       server = listen();
       server.once('listening', () => process.send?.({ type: 'listening' }));
     }

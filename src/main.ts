@@ -4,5 +4,4 @@ import { bootstrapApplication } from '@angular/platform-browser';
 import { appConfig } from './app/app.config';
 import { App } from './app/app';
 
-bootstrapApplication(App, appConfig)
-  .catch((err: unknown) => console.error(err));
+bootstrapApplication(App, appConfig).catch((err: unknown) => console.error(err));

@@ -33,7 +33,11 @@ export async function startE2eApp(): Promise<E2eApp> {
   const clientDist = process.env['CLIENT_DIST'];
   if (!databaseUrl || !clientDist) throw new Error('DATABASE_URL and CLIENT_DIST are set by `npm test`');
   const sink = await startSmtpSink();
-  const payments = await startPaymentFake({ secretKey: FAKE_STRIPE_SECRET_KEY, webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET, retryBaseMs: 200 });
+  const payments = await startPaymentFake({
+    secretKey: FAKE_STRIPE_SECRET_KEY,
+    webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET,
+    retryBaseMs: 200,
+  });
   const base = {
     STRIPE_API_HOST: '127.0.0.1',
     STRIPE_API_PORT: String(payments.port),
@@ -150,7 +154,8 @@ export async function pdfPageScreenshots(browser: Browser, pdf: Buffer, name: st
     }
     return doc.numPages;
   })()`);
-  for (let n = 1; n <= pages; n++) await page.locator(`#page-${n}`).screenshot({ path: path.join(SCREENSHOTS, `${name}-${n}.png`) });
+  for (let n = 1; n <= pages; n++)
+    await page.locator(`#page-${n}`).screenshot({ path: path.join(SCREENSHOTS, `${name}-${n}.png`) });
   await context.close();
   return pages;
 }

@@ -84,7 +84,13 @@ export async function startPaymentFake(options: PaymentFakeOptions): Promise<Pay
   app.use(express.urlencoded({ extended: true, limit: '100kb' }));
 
   const apiError = (res: Response, status: number, message: string, code?: string) =>
-    res.status(status).json({ error: { type: status === 401 ? 'authentication_error' : 'invalid_request_error', message, ...(code ? { code } : {}) } });
+    res.status(status).json({
+      error: {
+        type: status === 401 ? 'authentication_error' : 'invalid_request_error',
+        message,
+        ...(code ? { code } : {}),
+      },
+    });
 
   const authed = (req: Request, res: Response): boolean => {
     if (req.headers.authorization !== `Bearer ${options.secretKey}`) {
@@ -100,7 +106,11 @@ export async function startPaymentFake(options: PaymentFakeOptions): Promise<Pay
     const payload = JSON.stringify(event);
     const header = sdk.webhooks.generateTestHeaderString({ payload, secret: options.webhookSecret });
     d.attempts = attempt;
-    void fetch(webhookUrl, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': header }, body: payload })
+    void fetch(webhookUrl, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'stripe-signature': header },
+      body: payload,
+    })
       .then((r) => r.status)
       .catch(() => 0)
       .then((status) => {
@@ -110,10 +120,13 @@ export async function startPaymentFake(options: PaymentFakeOptions): Promise<Pay
         } else if (attempt >= maxAttempts) {
           d.status = 'failed';
         } else {
-          const t = setTimeout(() => {
-            timers.delete(t);
-            deliver(event, attempt + 1);
-          }, retryBase * 2 ** (attempt - 1));
+          const t = setTimeout(
+            () => {
+              timers.delete(t);
+              deliver(event, attempt + 1);
+            },
+            retryBase * 2 ** (attempt - 1),
+          );
           timers.add(t);
         }
       });
@@ -153,7 +166,16 @@ export async function startPaymentFake(options: PaymentFakeOptions): Promise<Pay
       metadata: session['subscription_metadata'] ?? {},
       items: {
         object: 'list',
-        data: [{ id: newId('si'), object: 'subscription_item', price: { id: price, object: 'price', recurring: { interval } }, quantity: 1, current_period_start: now, current_period_end: end }],
+        data: [
+          {
+            id: newId('si'),
+            object: 'subscription_item',
+            price: { id: price, object: 'price', recurring: { interval } },
+            quantity: 1,
+            current_period_start: now,
+            current_period_end: end,
+          },
+        ],
       },
       livemode: false,
     };
@@ -166,7 +188,14 @@ export async function startPaymentFake(options: PaymentFakeOptions): Promise<Pay
   app.post('/v1/customers', (req, res) => {
     if (!authed(req, res)) return;
     const body = req.body as Record<string, unknown>;
-    const c: Obj = { id: newId('cus'), object: 'customer', email: body['email'] ?? null, name: body['name'] ?? null, metadata: body['metadata'] ?? {}, livemode: false };
+    const c: Obj = {
+      id: newId('cus'),
+      object: 'customer',
+      email: body['email'] ?? null,
+      name: body['name'] ?? null,
+      metadata: body['metadata'] ?? {},
+      livemode: false,
+    };
     customers.set(c.id, c);
     res.json(c);
   });
@@ -192,9 +221,15 @@ export async function startPaymentFake(options: PaymentFakeOptions): Promise<Pay
     };
     const price = body.line_items?.[0]?.price;
     if (body.mode !== 'subscription' || !price || !body.success_url || !body.cancel_url) {
-      return void apiError(res, 400, 'mode=subscription, line_items[0][price], success_url and cancel_url are required', 'parameter_missing');
+      return void apiError(
+        res,
+        400,
+        'mode=subscription, line_items[0][price], success_url and cancel_url are required',
+        'parameter_missing',
+      );
     }
-    if (!body.customer || !customers.has(body.customer)) return void apiError(res, 400, `No such customer: '${body.customer ?? ''}'`, 'resource_missing');
+    if (!body.customer || !customers.has(body.customer))
+      return void apiError(res, 400, `No such customer: '${body.customer ?? ''}'`, 'resource_missing');
     const id = newId('cs_test');
     const s: Obj = {
       id,
@@ -254,9 +289,17 @@ export async function startPaymentFake(options: PaymentFakeOptions): Promise<Pay
   app.post('/v1/billing_portal/sessions', (req, res) => {
     if (!authed(req, res)) return;
     const body = req.body as { customer?: string; return_url?: string };
-    if (!body.customer || !customers.has(body.customer)) return void apiError(res, 400, `No such customer: '${body.customer ?? ''}'`, 'resource_missing');
+    if (!body.customer || !customers.has(body.customer))
+      return void apiError(res, 400, `No such customer: '${body.customer ?? ''}'`, 'resource_missing');
     const id = newId('bps');
-    const p: Obj = { id, object: 'billing_portal.session', customer: body.customer, return_url: body.return_url ?? null, url: `${baseUrl}/portal/${id}`, livemode: false };
+    const p: Obj = {
+      id,
+      object: 'billing_portal.session',
+      customer: body.customer,
+      return_url: body.return_url ?? null,
+      url: `${baseUrl}/portal/${id}`,
+      livemode: false,
+    };
     portals.set(id, p);
     res.json(p);
   });
@@ -278,17 +321,22 @@ ${error ? `<p class="error" role="alert">${escapeHtml(error)}</p>` : ''}
 
   app.get('/pay/:id', (req, res) => {
     const s = sessions.get(req.params.id);
-    if (s?.['status'] !== 'open') return void res.status(404).type('html').send(page('Not found', '<h1>This checkout is closed or unknown</h1>'));
+    if (s?.['status'] !== 'open')
+      return void res.status(404).type('html').send(page('Not found', '<h1>This checkout is closed or unknown</h1>'));
     res.type('html').send(checkoutPage(s));
   });
 
   app.post('/pay/:id', (req, res) => {
     const s = sessions.get(req.params.id);
-    if (s?.['status'] !== 'open') return void res.status(404).type('html').send(page('Not found', '<h1>This checkout is closed or unknown</h1>'));
+    if (s?.['status'] !== 'open')
+      return void res.status(404).type('html').send(page('Not found', '<h1>This checkout is closed or unknown</h1>'));
     const card = ((req.body as { card?: string }).card ?? '').replace(/\D/g, '');
-    if (card === TEST_CARDS.declined) return void res.status(402).type('html').send(checkoutPage(s, 'Your card was declined.'));
-    if (card === TEST_CARDS.insufficientFunds) return void res.status(402).type('html').send(checkoutPage(s, 'Your card has insufficient funds.'));
-    if (card !== TEST_CARDS.success) return void res.status(400).type('html').send(checkoutPage(s, 'Your card number is incorrect.'));
+    if (card === TEST_CARDS.declined)
+      return void res.status(402).type('html').send(checkoutPage(s, 'Your card was declined.'));
+    if (card === TEST_CARDS.insufficientFunds)
+      return void res.status(402).type('html').send(checkoutPage(s, 'Your card has insufficient funds.'));
+    if (card !== TEST_CARDS.success)
+      return void res.status(400).type('html').send(checkoutPage(s, 'Your card number is incorrect.'));
     const interval = /_(month|year)$/.exec(String(s['line_items_price']))?.[1] ?? 'month';
     const sub = newSubscription(s, interval);
     s['status'] = 'complete';
@@ -302,7 +350,9 @@ ${error ? `<p class="error" role="alert">${escapeHtml(error)}</p>` : ''}
   app.get('/portal/:id', (req, res) => {
     const p = portals.get(req.params.id);
     if (!p) return void res.status(404).type('html').send(page('Not found', '<h1>Unknown portal session</h1>'));
-    const subs = [...subscriptions.values()].filter((x) => x['customer'] === p['customer'] && x['status'] !== 'canceled');
+    const subs = [...subscriptions.values()].filter(
+      (x) => x['customer'] === p['customer'] && x['status'] !== 'canceled',
+    );
     const rows = subs
       .map((x) => {
         const item = (x['items'] as { data: { price: { id: string }; current_period_end: number }[] }).data[0];
@@ -311,13 +361,21 @@ ${error ? `<p class="error" role="alert">${escapeHtml(error)}</p>` : ''}
 ${x['cancel_at_period_end'] ? '' : `<form method="post" action="/portal/${p.id}/cancel/${x.id}"><button type="submit">Cancel at the end of the period</button></form>`}`;
       })
       .join('');
-    res.type('html').send(page('Billing portal', `<h1>Your subscription</h1>${rows || '<p>No active subscription.</p>'}<p><a href="${escapeHtml(typeof p['return_url'] === 'string' ? p['return_url'] : '/')}">Return</a></p>`));
+    res
+      .type('html')
+      .send(
+        page(
+          'Billing portal',
+          `<h1>Your subscription</h1>${rows || '<p>No active subscription.</p>'}<p><a href="${escapeHtml(typeof p['return_url'] === 'string' ? p['return_url'] : '/')}">Return</a></p>`,
+        ),
+      );
   });
 
   app.post('/portal/:id/cancel/:sub', (req, res) => {
     const p = portals.get(req.params.id);
     const sub = subscriptions.get(req.params.sub);
-    if (!p || !sub || sub['customer'] !== p['customer']) return void res.status(404).type('html').send(page('Not found', '<h1>Unknown subscription</h1>'));
+    if (!p || !sub || sub['customer'] !== p['customer'])
+      return void res.status(404).type('html').send(page('Not found', '<h1>Unknown subscription</h1>'));
     sub['cancel_at_period_end'] = true;
     emit('customer.subscription.updated', sub);
     res.redirect(303, `/portal/${p.id}`);

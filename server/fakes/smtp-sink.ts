@@ -22,7 +22,9 @@ export interface SmtpSink {
 
 const LINK = /https?:\/\/[^\s<>"')]+/g;
 
-export async function startSmtpSink(options: { host?: string; smtpPort?: number; httpPort?: number } = {}): Promise<SmtpSink> {
+export async function startSmtpSink(
+  options: { host?: string; smtpPort?: number; httpPort?: number } = {},
+): Promise<SmtpSink> {
   const host = options.host ?? '127.0.0.1';
   const kept: OutboxMessage[] = [];
   const waiters = new Set<(m: OutboxMessage) => void>();

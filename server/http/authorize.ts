@@ -59,7 +59,11 @@ export function authorize(db: Knex, action: Action): RequestHandler {
       role =
         known?.organizationId === organizationId
           ? known.role
-          : ((await db('memberships').where({ organization_id: organizationId, user_id: user.id }).first<{ role: Role } | undefined>('role'))?.role ?? null);
+          : ((
+              await db('memberships')
+                .where({ organization_id: organizationId, user_id: user.id })
+                .first<{ role: Role } | undefined>('role')
+            )?.role ?? null);
     }
     if (!organizationId || !role) {
       throw new HttpError(403, 'no_organization', 'Choose an organisation first');

@@ -11,7 +11,7 @@ export function zodDetails(err: ZodError): FieldIssue[] {
   for (const issue of err.issues) {
     const base = issue.path.map(String).join('.');
     if (issue.code === 'unrecognized_keys') {
-      for (const key of (issue).keys) {
+      for (const key of issue.keys) {
         out.push({ path: base ? `${base}.${key}` : key, message: 'Unknown field' });
       }
     } else {
@@ -27,7 +27,18 @@ interface BodyParserError {
   expose?: boolean;
 }
 
-const DATABASE_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'EPIPE', '57P01', '57P02', '57P03', '08000', '08001', '08003', '08006']);
+const DATABASE_DOWN_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'EPIPE',
+  '57P01',
+  '57P02',
+  '57P03',
+  '08000',
+  '08001',
+  '08003',
+  '08006',
+]);
 
 /** Whether an error means PostgreSQL cannot be reached (stopped, restarting, connections cut or exhausted). */
 export function isDatabaseUnavailable(err: unknown): boolean {
@@ -35,7 +46,9 @@ export function isDatabaseUnavailable(err: unknown): boolean {
   const code = (err as { code?: unknown }).code;
   if (typeof code === 'string' && DATABASE_DOWN_CODES.has(code)) return true;
   if (err.name === 'KnexTimeoutError') return true;
-  return /Connection terminated|connect ECONNREFUSED|the database system is (starting up|shutting down)|terminating connection due to administrator command|timeout exceeded when trying to connect/i.test(err.message);
+  return /Connection terminated|connect ECONNREFUSED|the database system is (starting up|shutting down)|terminating connection due to administrator command|timeout exceeded when trying to connect/i.test(
+    err.message,
+  );
 }
 
 /**
@@ -70,7 +83,9 @@ export function errorHandler(): ErrorRequestHandler {
     }
     if (err instanceof MulterError) {
       if (err.code === 'LIMIT_FILE_SIZE') {
-        res.status(413).json({ error: { code: 'file_too_large', message: 'The file is larger than the upload limit' } });
+        res
+          .status(413)
+          .json({ error: { code: 'file_too_large', message: 'The file is larger than the upload limit' } });
       } else {
         res.status(400).json({
           error: {
@@ -86,7 +101,8 @@ export function errorHandler(): ErrorRequestHandler {
       res.status(400).json({
         error: {
           code: 'invalid_upload',
-          message: 'The upload could not be read; a file name or part header holds characters an upload cannot carry. Rename the file and try again.',
+          message:
+            'The upload could not be read; a file name or part header holds characters an upload cannot carry. Rename the file and try again.',
           details: [{ path: '', message: err.message }],
         },
       });
@@ -110,7 +126,12 @@ export function errorHandler(): ErrorRequestHandler {
       res
         .status(503)
         .set('Retry-After', '5')
-        .json({ error: { code: 'database_unavailable', message: 'The database is not reachable at the moment; nothing was changed. Try again in a few seconds.' } });
+        .json({
+          error: {
+            code: 'database_unavailable',
+            message: 'The database is not reachable at the moment; nothing was changed. Try again in a few seconds.',
+          },
+        });
       return;
     }
     req.log.error({ err, path: req.path }, 'unhandled error');

@@ -53,7 +53,8 @@ export class PgRateLimitStore implements Store {
       [this.prefix + key, this.windowMs],
     );
     const row = result.rows[0];
-    if (Math.random() * PRUNE_EVERY < 1) await this.db('rate_limit_hits').where('reset_at', '<', this.db.fn.now()).delete();
+    if (Math.random() * PRUNE_EVERY < 1)
+      await this.db('rate_limit_hits').where('reset_at', '<', this.db.fn.now()).delete();
     return { totalHits: row?.hits ?? 1, resetTime: row?.reset_at ?? new Date(Date.now() + this.windowMs) };
   }
 
@@ -65,7 +66,9 @@ export class PgRateLimitStore implements Store {
   }
 
   async resetKey(key: string): Promise<void> {
-    await this.db('rate_limit_hits').where({ key: this.prefix + key }).delete();
+    await this.db('rate_limit_hits')
+      .where({ key: this.prefix + key })
+      .delete();
   }
 }
 

@@ -44,11 +44,22 @@ export function securityHeaders(config: Config): RequestHandler {
  * Any port: `ng serve`'s proxy passes its own (localhost:4200).
  */
 export function ownHostOnly(config: Config): RequestHandler {
-  const own = new Set(['localhost', '127.0.0.1', '[::1]', hostName(config.host), new URL(config.publicUrl).hostname.toLowerCase()]);
+  const own = new Set([
+    'localhost',
+    '127.0.0.1',
+    '[::1]',
+    hostName(config.host),
+    new URL(config.publicUrl).hostname.toLowerCase(),
+  ]);
   return (req, res, next) => {
     const host = req.headers.host ?? '';
     if (own.has(hostName(host))) return next();
-    res.status(421).json({ error: { code: 'unknown_host', message: 'This development server answers only to its own address (127.0.0.1 or localhost)' } });
+    res.status(421).json({
+      error: {
+        code: 'unknown_host',
+        message: 'This development server answers only to its own address (127.0.0.1 or localhost)',
+      },
+    });
   };
 }
 
@@ -78,7 +89,13 @@ export function csrfProtection(config: Config): RequestHandler {
     }
     const hasSession = (req.headers.cookie ?? '').split(/;\s*/).some((c) => c.startsWith(`${SESSION_COOKIE}=`));
     if (hasSession && req.headers[header] !== CSRF_HEADER_VALUE) {
-      return next(new HttpError(403, 'csrf', 'This request lacks the header Tailroom’s pages send; reload the page and try again'));
+      return next(
+        new HttpError(
+          403,
+          'csrf',
+          'This request lacks the header Tailroom’s pages send; reload the page and try again',
+        ),
+      );
     }
     next();
   };
@@ -94,7 +111,13 @@ export function refuseDeclaredOversizeJson(limitBytes: number): RequestHandler {
     const declared = Number(req.headers['content-length'] ?? 0);
     if (!(declared > limitBytes) || !req.is('json')) return next();
     res.set('Connection', 'close');
-    next(new HttpError(413, 'payload_too_large', `The request body is too large (at most ${Math.floor(limitBytes / 1024)} kB)`));
+    next(
+      new HttpError(
+        413,
+        'payload_too_large',
+        `The request body is too large (at most ${Math.floor(limitBytes / 1024)} kB)`,
+      ),
+    );
   };
 }
 
@@ -152,11 +175,26 @@ export function rateLimits(config: Config, db: Knex) {
     }),
     /** Sign-ups (each sends an e-mail): SIGN_UP_PER_HOUR (20) per hour per network address, and 5 per hour to one e-mail address from anywhere. */
     signUp: [
-      limiter(db, 'sign-up', { what: 'sign-up requests', windowMs: 60 * 60_000, limit: config.signUpPerHour, keyGenerator: (req) => ipKeyGenerator(req.ip ?? '') }),
-      limiter(db, 'sign-up-email', { what: 'sign-up requests for this e-mail address', windowMs: 60 * 60_000, limit: 5, keyGenerator: (req) => `email|${emailKey(req.body)}` }),
+      limiter(db, 'sign-up', {
+        what: 'sign-up requests',
+        windowMs: 60 * 60_000,
+        limit: config.signUpPerHour,
+        keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
+      }),
+      limiter(db, 'sign-up-email', {
+        what: 'sign-up requests for this e-mail address',
+        windowMs: 60 * 60_000,
+        limit: 5,
+        keyGenerator: (req) => `email|${emailKey(req.body)}`,
+      }),
     ],
     /** Invitations: 30 per hour per address. */
-    invitations: limiter(db, 'invitations', { what: 'invitations', windowMs: 60 * 60_000, limit: 30, keyGenerator: (req) => ipKeyGenerator(req.ip ?? '') }),
+    invitations: limiter(db, 'invitations', {
+      what: 'invitations',
+      windowMs: 60 * 60_000,
+      limit: 30,
+      keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
+    }),
     /** Report e-mails (checked in the route, once the organisation is known): per organisation per hour, per recipient per day. */
     reportSends: reportSendLimits(config, db),
   };

@@ -12,5 +12,10 @@ export function headerText(text: string, max = 100): string {
     .replace(/\s+/g, ' ')
     .trim();
   const chars = Array.from(cleaned);
-  return chars.length > max ? `${chars.slice(0, max - 1).join('').trimEnd()}…` : cleaned;
+  return chars.length > max
+    ? `${chars
+        .slice(0, max - 1)
+        .join('')
+        .trimEnd()}…`
+    : cleaned;
 }

@@ -6,7 +6,10 @@ import type { OutgoingMail } from './mailer';
 const escapeHtml = (s: string) =>
   s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] ?? c);
 
-interface MailLink { href: string; label: string }
+interface MailLink {
+  href: string;
+  label: string;
+}
 
 function layout(paragraphs: string[], link: MailLink | MailLink[]): string {
   const body = paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join('\n');
@@ -83,11 +86,24 @@ export function invitationMail(
 export function reportMail(
   to: string,
   link: string,
-  details: { organizationName: string; senderName: string; senderEmail: string; phone: string; title: string; message: string; expiresAt: Date },
+  details: {
+    organizationName: string;
+    senderName: string;
+    senderEmail: string;
+    phone: string;
+    title: string;
+    message: string;
+    expiresAt: Date;
+  },
 ): OutgoingMail {
   // Names and title are the sender's own words: one clean line each (they reach the subject header).
   const organizationName = headerText(details.organizationName);
-  details = { ...details, organizationName, senderName: headerText(details.senderName), title: headerText(details.title, 150) };
+  details = {
+    ...details,
+    organizationName,
+    senderName: headerText(details.senderName),
+    title: headerText(details.title, 150),
+  };
   const contact = [details.senderEmail, details.phone].filter((x) => x).join(' or ');
   const lines = [
     `${details.senderName} of ${details.organizationName} sent you a report on heating options for your home: “${details.title}”.`,

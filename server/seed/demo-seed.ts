@@ -23,27 +23,103 @@ const DEMO_PROJECTS = ['Demo: Fernbrook Lane bungalow (invented)', 'Demo: Old Mi
 
 /** Invented catalogue entries and prices, for the demo only (not any manufacturer's data). */
 const DEMO_EQUIPMENT: EquipmentOptionInput[] = [
-  { kind: 'furnace', label: 'Demo gas furnace 30k (invented)', fuel: 'gas', efficiency: 0.96, outputW: 8_800, installedPrice: '4290.00', lifeYears: 20 },
-  { kind: 'furnace', label: 'Demo gas furnace 40k (invented)', fuel: 'gas', efficiency: 0.96, outputW: 11_700, installedPrice: '4650.00', lifeYears: 20 },
-  { kind: 'furnace', label: 'Demo gas furnace 60k (invented)', fuel: 'gas', efficiency: 0.96, outputW: 17_600, installedPrice: '5180.00', lifeYears: 20 },
-  { kind: 'furnace', label: 'Demo gas furnace 80k (invented)', fuel: 'gas', efficiency: 0.95, outputW: 23_400, installedPrice: '5720.00', lifeYears: 20 },
   {
-    kind: 'heat-pump', label: 'Demo cold-climate heat pump 2 t (invented)', capacity8_3W: 7_300, cop8_3: 3.9, capacityM8_3W: 5_600,
-    copM8_3: 2.5, capacityM15W: 4_700, copM15: 2.0, backupW: 5_000, installedPrice: '11200.00', lifeYears: 15,
+    kind: 'furnace',
+    label: 'Demo gas furnace 30k (invented)',
+    fuel: 'gas',
+    efficiency: 0.96,
+    outputW: 8_800,
+    installedPrice: '4290.00',
+    lifeYears: 20,
   },
   {
-    kind: 'heat-pump', label: 'Demo cold-climate heat pump 3 t (invented)', capacity8_3W: 10_500, cop8_3: 3.7, capacityM8_3W: 8_200,
-    copM8_3: 2.4, capacityM15W: 6_900, copM15: 1.9, backupW: 10_000, installedPrice: '13900.00', lifeYears: 15,
+    kind: 'furnace',
+    label: 'Demo gas furnace 40k (invented)',
+    fuel: 'gas',
+    efficiency: 0.96,
+    outputW: 11_700,
+    installedPrice: '4650.00',
+    lifeYears: 20,
   },
   {
-    kind: 'heat-pump', label: 'Demo cold-climate heat pump 4 t (invented)', capacity8_3W: 14_000, cop8_3: 3.6, capacityM8_3W: 11_600,
-    copM8_3: 2.4, capacityM15W: 10_200, copM15: 1.9, backupW: 10_000, installedPrice: '16400.00', lifeYears: 15,
+    kind: 'furnace',
+    label: 'Demo gas furnace 60k (invented)',
+    fuel: 'gas',
+    efficiency: 0.96,
+    outputW: 17_600,
+    installedPrice: '5180.00',
+    lifeYears: 20,
   },
   {
-    kind: 'heat-pump', label: 'Demo cold-climate heat pump 5 t (invented)', capacity8_3W: 17_500, cop8_3: 3.5, capacityM8_3W: 14_600,
-    copM8_3: 2.3, capacityM15W: 12_900, copM15: 1.8, backupW: 15_000, installedPrice: '19100.00', lifeYears: 15,
+    kind: 'furnace',
+    label: 'Demo gas furnace 80k (invented)',
+    fuel: 'gas',
+    efficiency: 0.95,
+    outputW: 23_400,
+    installedPrice: '5720.00',
+    lifeYears: 20,
   },
-  { kind: 'boiler', label: 'Demo oil boiler 90k (invented)', fuel: 'oil', efficiency: 0.86, outputW: 26_400, installedPrice: '9300.00', lifeYears: 25 },
+  {
+    kind: 'heat-pump',
+    label: 'Demo cold-climate heat pump 2 t (invented)',
+    capacity8_3W: 7_300,
+    cop8_3: 3.9,
+    capacityM8_3W: 5_600,
+    copM8_3: 2.5,
+    capacityM15W: 4_700,
+    copM15: 2.0,
+    backupW: 5_000,
+    installedPrice: '11200.00',
+    lifeYears: 15,
+  },
+  {
+    kind: 'heat-pump',
+    label: 'Demo cold-climate heat pump 3 t (invented)',
+    capacity8_3W: 10_500,
+    cop8_3: 3.7,
+    capacityM8_3W: 8_200,
+    copM8_3: 2.4,
+    capacityM15W: 6_900,
+    copM15: 1.9,
+    backupW: 10_000,
+    installedPrice: '13900.00',
+    lifeYears: 15,
+  },
+  {
+    kind: 'heat-pump',
+    label: 'Demo cold-climate heat pump 4 t (invented)',
+    capacity8_3W: 14_000,
+    cop8_3: 3.6,
+    capacityM8_3W: 11_600,
+    copM8_3: 2.4,
+    capacityM15W: 10_200,
+    copM15: 1.9,
+    backupW: 10_000,
+    installedPrice: '16400.00',
+    lifeYears: 15,
+  },
+  {
+    kind: 'heat-pump',
+    label: 'Demo cold-climate heat pump 5 t (invented)',
+    capacity8_3W: 17_500,
+    cop8_3: 3.5,
+    capacityM8_3W: 14_600,
+    copM8_3: 2.3,
+    capacityM15W: 12_900,
+    copM15: 1.8,
+    backupW: 15_000,
+    installedPrice: '19100.00',
+    lifeYears: 15,
+  },
+  {
+    kind: 'boiler',
+    label: 'Demo oil boiler 90k (invented)',
+    fuel: 'oil',
+    efficiency: 0.86,
+    outputW: 26_400,
+    installedPrice: '9300.00',
+    lifeYears: 25,
+  },
 ];
 
 /** Creates the demo organisation once; a second run changes nothing, so data made since is kept. */
@@ -70,12 +146,24 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
     await trx('equipment_options').insert(
       DEMO_EQUIPMENT.map((input, position) => {
         const option = equipmentOptionSchema.parse(input);
-        return { equipment_list_id: list.id, position, kind: option.kind, label: option.label, installed_price: option.installedPrice, option: JSON.stringify(option) };
+        return {
+          equipment_list_id: list.id,
+          position,
+          kind: option.kind,
+          label: option.label,
+          installed_price: option.installedPrice,
+          option: JSON.stringify(option),
+        };
       }),
     );
     await trx('energy_prices').insert({
       organization_id: org.id,
-      prices: JSON.stringify({ currency: 'USD', electricityPerKwh: '0.1600', gas: { unit: 'therm', price: '1.2500' }, oilPerLitre: '1.0500' }),
+      prices: JSON.stringify({
+        currency: 'USD',
+        electricityPerKwh: '0.1600',
+        gas: { unit: 'therm', price: '1.2500' },
+        oilPerLitre: '1.0500',
+      }),
       updated_by: ownerId,
     });
     const building = buildingSchema.parse({
@@ -111,7 +199,10 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
         isDemo: true,
       });
       const series = atStoragePrecision(generateDemoSeries(site, { years: 30 }));
-      await storeRecord(trx, siteId, series, site.elevationM, { fileName: `${site.id} (generated)`, rowCount: series.time.length });
+      await storeRecord(trx, siteId, series, site.elevationM, {
+        fileName: `${site.id} (generated)`,
+        rowCount: series.time.length,
+      });
       if (site.id === 'tallowmere-vale' || projectSiteId === undefined) projectSiteId = siteId;
     }
     await trx('projects').where({ organization_id: org.id }).update({ climate_site_id: projectSiteId });
@@ -157,7 +248,14 @@ export async function seedDemo(db: Knex): Promise<{ created: boolean }> {
         heating: { db99_6: -19.4, db99: -16.2 },
         cooling: { db0_4: 31.6, db1: 30.1, db2: 28.7 },
         extremeMin: { mean: -23.8, sd: 3.4, returnPeriod: { '5': -26.2, '10': -28.2, '20': -30.1, '50': -32.6 } },
-        wind: { coldestMonth: 1, coldestMonth1: 10.8, coincident99_6: 3.9, annual1: 10.2, annual2_5: 9.1, annual5: 8.2 },
+        wind: {
+          coldestMonth: 1,
+          coldestMonth1: 10.8,
+          coincident99_6: 3.9,
+          annual1: 10.2,
+          annual2_5: 9.1,
+          annual5: 8.2,
+        },
         hdd18: 3890,
       },
     });

@@ -12,7 +12,8 @@ export const LONE_SURROGATE = /[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\u
 /** Why `text` cannot be kept, or null when it can. */
 export function unsafeTextReason(text: string): string | null {
   if (text.includes('\u0000')) return 'Contains a NUL character (U+0000); remove it';
-  if (LONE_SURROGATE.test(text)) return 'Contains a broken character (half of a surrogate pair); retype or paste it again';
+  if (LONE_SURROGATE.test(text))
+    return 'Contains a broken character (half of a surrogate pair); retype or paste it again';
   return null;
 }
 

@@ -32,9 +32,7 @@ export const organizationNameSchema = z
   .max(ORGANIZATION_NAME_MAX_LENGTH, `Use at most ${ORGANIZATION_NAME_MAX_LENGTH} characters`);
 
 /** Opaque link token (base64url of 32 random bytes). */
-export const linkTokenSchema = z
-  .string()
-  .regex(/^[A-Za-z0-9_-]{20,128}$/, 'This link is not valid');
+export const linkTokenSchema = z.string().regex(/^[A-Za-z0-9_-]{20,128}$/, 'This link is not valid');
 
 /**
  * The user's unit system (`UnitSystem` in shared/units/units.ts). The two names are written out here,

@@ -27,7 +27,8 @@ export const PLANS: Readonly<Record<PlanId, Plan>> = {
 };
 
 /** The provider's price id of a paid plan and interval (the same ids are configured in the provider). */
-export const priceId = (plan: Exclude<PlanId, 'starter'>, interval: BillingInterval): string => `price_tailroom_${plan}_${interval}`;
+export const priceId = (plan: Exclude<PlanId, 'starter'>, interval: BillingInterval): string =>
+  `price_tailroom_${plan}_${interval}`;
 
 /** The plan and interval of a provider price id, or null. */
 export function planOfPrice(id: string): { plan: Exclude<PlanId, 'starter'>; interval: BillingInterval } | null {

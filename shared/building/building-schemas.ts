@@ -37,9 +37,7 @@ const positive = (label: string, unit: string, max: number) =>
     .max(max, `The ${label} must be at most ${max} ${unit}`);
 
 const nonNegative = (label: string, unit: string, max: number) =>
-  num(label, unit)
-    .min(0, `The ${label} cannot be negative`)
-    .max(max, `The ${label} must be at most ${max} ${unit}`);
+  num(label, unit).min(0, `The ${label} cannot be negative`).max(max, `The ${label} must be at most ${max} ${unit}`);
 
 // ---------------------------------------------------------------------------------------------
 // Conduction
@@ -166,7 +164,10 @@ export const ventilationSchema = z.strictObject({
   /** Sensible heat-recovery effectiveness, 0 (none) to 0.95. */
   heatRecoveryEffectiveness: num('heat-recovery effectiveness', '0 to 0.95')
     .min(0, 'The heat-recovery effectiveness cannot be negative')
-    .max(MAX_HEAT_RECOVERY_EFFECTIVENESS, `The heat-recovery effectiveness must be at most ${MAX_HEAT_RECOVERY_EFFECTIVENESS}`),
+    .max(
+      MAX_HEAT_RECOVERY_EFFECTIVENESS,
+      `The heat-recovery effectiveness must be at most ${MAX_HEAT_RECOVERY_EFFECTIVENESS}`,
+    ),
 });
 export type Ventilation = z.infer<typeof ventilationSchema>;
 

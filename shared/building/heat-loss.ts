@@ -94,7 +94,9 @@ export type NFactorShielding = (typeof nFactorShieldings)[number];
  * factor 1.2/1.0/0.9, rounded to 0.1 — verify against the publication before relying on them].
  * Keyed by zone, then shielding; each row lists 1 / 1.5 / 2 / 3 storeys.
  */
-export const N_FACTOR_TABLE: Readonly<Record<NFactorZone, Readonly<Record<NFactorShielding, readonly [number, number, number, number]>>>> = {
+export const N_FACTOR_TABLE: Readonly<
+  Record<NFactorZone, Readonly<Record<NFactorShielding, readonly [number, number, number, number]>>>
+> = {
   1: { 'well-shielded': [18.6, 16.7, 14.9, 13.0], normal: [15.5, 14.0, 12.4, 10.9], exposed: [14.0, 12.6, 11.2, 9.8] },
   2: { 'well-shielded': [22.2, 20.0, 17.8, 15.5], normal: [18.5, 16.7, 14.8, 13.0], exposed: [16.7, 15.0, 13.3, 11.7] },
   3: { 'well-shielded': [25.8, 23.2, 20.6, 18.1], normal: [21.5, 19.4, 17.2, 15.1], exposed: [19.4, 17.4, 15.5, 13.5] },

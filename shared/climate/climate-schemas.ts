@@ -242,7 +242,10 @@ export const climateUploadSchema = z.object({
   /** Plain messages for what the engine warned about. */
   warnings: z.array(z.string()),
   /** Yearly ISD-Lite files of one station: the station and years read from the file names, and the years with no file. */
-  station: z.object({ id: z.string(), years: z.array(z.int()), missingYears: z.array(z.int()) }).nullable().optional(),
+  station: z
+    .object({ id: z.string(), years: z.array(z.int()), missingYears: z.array(z.int()) })
+    .nullable()
+    .optional(),
   expiresAt: z.string(),
 });
 export type ClimateUpload = z.infer<typeof climateUploadSchema>;

@@ -182,7 +182,8 @@ const round1 = (v: number): number => {
 export function generateDemoSeries(site: DemoSite, options: DemoSeriesOptions = {}): HourlySeries {
   const years = options.years ?? 10;
   const endYear = options.endYear ?? 2024;
-  if (!Number.isInteger(years) || years < 1 || years > 200) throw new RangeError('years must be a whole number from 1 to 200');
+  if (!Number.isInteger(years) || years < 1 || years > 200)
+    throw new RangeError('years must be a whole number from 1 to 200');
   const startYear = endYear - years + 1;
   let hours = 0;
   for (let y = startYear; y <= endYear; y++) hours += daysInYear(y) * 24;
@@ -236,9 +237,21 @@ export function generateDemoSeries(site: DemoSite, options: DemoSeriesOptions = 
 
     const dailyAmplitude = c.dailyAmplitudeK * (1 - 0.3 * winterness);
     const dryBulb =
-      c.annualMeanC - c.seasonalAmplitudeK * Math.cos(seasonPhase) + dailyAmplitude * daily + anomaly * c.anomalySdK * (1 + 0.3 * winterness) - snap;
-    const depression = Math.max(0.3, c.dewDepressionK * (0.7 + 0.6 * (1 - winterness)) + 0.5 * dailyAmplitude * (daily + 1) + c.dewDepressionSdK * depressionNoise);
-    const wind = Math.max(0, c.windMeanMs * (0.85 + 0.3 * winterness) + c.windSdMs * windNoise + 0.3 * c.windSdMs * normal());
+      c.annualMeanC -
+      c.seasonalAmplitudeK * Math.cos(seasonPhase) +
+      dailyAmplitude * daily +
+      anomaly * c.anomalySdK * (1 + 0.3 * winterness) -
+      snap;
+    const depression = Math.max(
+      0.3,
+      c.dewDepressionK * (0.7 + 0.6 * (1 - winterness)) +
+        0.5 * dailyAmplitude * (daily + 1) +
+        c.dewDepressionSdK * depressionNoise,
+    );
+    const wind = Math.max(
+      0,
+      c.windMeanMs * (0.85 + 0.3 * winterness) + c.windSdMs * windNoise + 0.3 * c.windSdMs * normal(),
+    );
 
     if (gapLeft === 0 && uniform() < gapProbability) gapLeft = 1 + Math.floor(uniform() * 10);
     series.time[i] = time;

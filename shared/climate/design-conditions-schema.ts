@@ -175,7 +175,10 @@ export const publishedDesignValuesSchema = z
       })
       .optional(),
     humidification: z
-      .strictObject({ dp99_6: publishedHumidificationSchema.optional(), dp99: publishedHumidificationSchema.optional() })
+      .strictObject({
+        dp99_6: publishedHumidificationSchema.optional(),
+        dp99: publishedHumidificationSchema.optional(),
+      })
       .optional(),
     wind: z
       .strictObject({
@@ -201,8 +204,12 @@ export const publishedDesignValuesSchema = z
     path: ['heating', 'db99_6'],
     error: 'The 99.6 % heating dry-bulb cannot be warmer than the 99 % value',
   })
-  .refine((v) => v.period?.firstYear === undefined || v.period.lastYear === undefined || v.period.firstYear <= v.period.lastYear, {
-    path: ['period', 'lastYear'],
-    error: 'The last year cannot be before the first year',
-  });
+  .refine(
+    (v) =>
+      v.period?.firstYear === undefined || v.period.lastYear === undefined || v.period.firstYear <= v.period.lastYear,
+    {
+      path: ['period', 'lastYear'],
+      error: 'The last year cannot be before the first year',
+    },
+  );
 export type PublishedDesignValues = z.infer<typeof publishedDesignValuesSchema>;

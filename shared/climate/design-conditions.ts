@@ -97,7 +97,10 @@ export function computeDesignConditions(
 }
 
 /** As `computeDesignConditions`, for a series already passed through `prepareSeries`. */
-export function computeFromPrepared(prepared: PreparedSeries, options: DesignConditionsOptions = {}): DesignConditionsResult {
+export function computeFromPrepared(
+  prepared: PreparedSeries,
+  options: DesignConditionsOptions = {},
+): DesignConditionsResult {
   const warnings: DesignWarning[] = [];
   const warn = (code: DesignWarningCode, message: string): void => {
     warnings.push({ code, message });

@@ -8,7 +8,14 @@ export * from './percentile';
 export * from './prepared-series';
 export * from './psychrometrics';
 export * from './quality-report';
-export { celsiusToFahrenheit, fahrenheitToCelsius, knotsToMs, METRES_PER_SECOND_PER_KNOT, METRES_PER_SECOND_PER_MPH, mphToMs } from '../units/units';
+export {
+  celsiusToFahrenheit,
+  fahrenheitToCelsius,
+  knotsToMs,
+  METRES_PER_SECOND_PER_KNOT,
+  METRES_PER_SECOND_PER_MPH,
+  mphToMs,
+} from '../units/units';
 export * from './readers/index';
 export * from './record-window';
 export * from './shift-stretch';

@@ -3,7 +3,14 @@
  * repeated hour, flags values outside physical ranges and tallies completeness per calendar year.
  * Used by the design-condition and data-quality calculations; pure and allocation-light.
  */
-import { civilFromDays, formatUtcHour, HOURS_PER_DAY, hoursInYear, MS_PER_HOUR, type HourlySeries } from './hourly-series';
+import {
+  civilFromDays,
+  formatUtcHour,
+  HOURS_PER_DAY,
+  hoursInYear,
+  MS_PER_HOUR,
+  type HourlySeries,
+} from './hourly-series';
 
 /** Physical ranges outside which a value is treated as missing and reported as out of range. */
 export const VALID_RANGES = {

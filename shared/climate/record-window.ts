@@ -4,7 +4,12 @@
  *
  * Pure: no I/O, no clock, no randomness.
  */
-import { computeDesignConditions, MIN_RECORD_YEARS, type DesignConditionsOptions, type DesignConditionsResult } from './design-conditions';
+import {
+  computeDesignConditions,
+  MIN_RECORD_YEARS,
+  type DesignConditionsOptions,
+  type DesignConditionsResult,
+} from './design-conditions';
 import { civilFromDays, HOURS_PER_DAY, MS_PER_HOUR, type HourlySeries } from './hourly-series';
 import { prepareSeries, type PreparedSeries } from './prepared-series';
 
@@ -48,7 +53,11 @@ export function seriesFromYear(series: HourlySeries, fromYear: number): HourlySe
  * The series cut to its latest `n` qualifying years: the rows from the first of those years on
  * (a year in between that does not qualify stays out of the computations, as in the whole record).
  */
-export function latestYearsSeries(series: HourlySeries, n: number, prepared: PreparedSeries = prepareSeries(series)): HourlySeries {
+export function latestYearsSeries(
+  series: HourlySeries,
+  n: number,
+  prepared: PreparedSeries = prepareSeries(series),
+): HourlySeries {
   const years = latestQualifyingYears(prepared, n);
   const from = years[0];
   return from === undefined ? series : seriesFromYear(series, from);

@@ -23,10 +23,7 @@ export interface ShiftStretchTarget {
 }
 
 export type ShiftStretchRefusal =
-  | 'no-qualifying-years'
-  | 'short-reference'
-  | 'stretch-too-large'
-  | 'degree-days-unreachable';
+  'no-qualifying-years' | 'short-reference' | 'stretch-too-large' | 'degree-days-unreachable';
 
 export type ShiftStretchResult =
   | {
@@ -169,7 +166,11 @@ export function shiftAndStretch(reference: HourlySeries, target: ShiftStretchTar
   const prepared = prepareSeries(reference);
   const qualifying = prepared.years.filter((y) => y.qualifies).map((y) => y.year);
   if (qualifying.length === 0) {
-    return { ok: false, code: 'no-qualifying-years', message: 'The reference record has no year with enough valid hours (85 %).' };
+    return {
+      ok: false,
+      code: 'no-qualifying-years',
+      message: 'The reference record has no year with enough valid hours (85 %).',
+    };
   }
   if (qualifying.length < MIN_RECORD_YEARS) {
     return {

@@ -94,7 +94,12 @@ export function erfc(x: number): number {
           (1.00002368 +
             t *
               (0.37409196 +
-                t * (0.09678418 + t * (-0.18628806 + t * (0.27886807 + t * (-1.13520398 + t * (1.48851587 + t * (-0.82215223 + t * 0.17087277)))))))),
+                t *
+                  (0.09678418 +
+                    t *
+                      (-0.18628806 +
+                        t *
+                          (0.27886807 + t * (-1.13520398 + t * (1.48851587 + t * (-0.82215223 + t * 0.17087277)))))))),
     );
   return x >= 0 ? r : 2 - r;
 }
@@ -121,7 +126,8 @@ export function chanceInWords(p: number): string {
   if (p < 0.001) return 'less than 1 time in 1000';
   if (p >= 0.5) return `about ${Math.round(p * 10)} times in 10`;
   const oneIn = 1 / p;
-  const rounded = oneIn < 10 ? Math.round(oneIn) : oneIn < 100 ? Math.round(oneIn / 5) * 5 : Math.round(oneIn / 50) * 50;
+  const rounded =
+    oneIn < 10 ? Math.round(oneIn) : oneIn < 100 ? Math.round(oneIn / 5) * 5 : Math.round(oneIn / 50) * 50;
   return `about 1 time in ${rounded}`;
 }
 
@@ -142,7 +148,10 @@ export function coldestHourTrend(source: HourlySeries | PreparedSeries): Coldest
     sentence = `Only ${annual.length} qualifying year(s): at least ${MIN_TREND_YEARS} are needed to say whether the coldest hour of the year has moved.`;
   } else {
     const size = Math.abs(senSlopeKPerDecade);
-    const amount = size < 0.05 ? 'hardly changed' : `${senSlopeKPerDecade > 0 ? 'warmed' : 'cooled'} by about ${size.toFixed(1)} K per decade`;
+    const amount =
+      size < 0.05
+        ? 'hardly changed'
+        : `${senSlopeKPerDecade > 0 ? 'warmed' : 'cooled'} by about ${size.toFixed(1)} K per decade`;
     sentence =
       `Over ${String(first)}–${String(last)} the coldest hour of the year has ${amount}; ` +
       `a trend this strong would arise by chance ${chanceInWords(mk.p)}.`;

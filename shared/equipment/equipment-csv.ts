@@ -144,7 +144,11 @@ export function parseEquipmentCsv(text: string): EquipmentCsvResult {
   }
   // Spreadsheets often export empty rows as a line of commas: skip them like blank lines.
   const [header, ...rows] = records.filter((r) => r.fields.some((f) => f.trim() !== ''));
-  if (!header) return { ok: false, problems: [{ line: 1, message: 'The file is empty: it needs a header row and one row per option' }] };
+  if (!header)
+    return {
+      ok: false,
+      problems: [{ line: 1, message: 'The file is empty: it needs a header row and one row per option' }],
+    };
 
   const columns = header.fields.map((f) => f.trim().toLowerCase());
   const headerProblems: string[] = [];
@@ -166,7 +170,8 @@ export function parseEquipmentCsv(text: string): EquipmentCsvResult {
       ],
     };
   }
-  if (rows.length === 0) return { ok: false, problems: [{ line: header.line, message: 'The file has a header but no equipment rows' }] };
+  if (rows.length === 0)
+    return { ok: false, problems: [{ line: header.line, message: 'The file has a header but no equipment rows' }] };
 
   const problems: CsvProblem[] = [];
   const options: EquipmentOption[] = [];
@@ -259,11 +264,13 @@ function buildOption(cells: ReadonlyMap<string, string>): { value: Record<string
     put('extrapolate', boolean('extrapolate'));
     put('defrostBand', boolean('defrost_band'));
     // The efficiency column describes combustion or resistance heat; a heat pump's backup is COP 1.
-    if (efficiency !== undefined && efficiency !== 1) problems.push('efficiency: leave it blank for a heat pump (its COPs are in the cop_ columns)');
+    if (efficiency !== undefined && efficiency !== 1)
+      problems.push('efficiency: leave it blank for a heat pump (its COPs are in the cop_ columns)');
   } else {
     put('efficiency', efficiency);
     const stray = [...heatPumpColumns.map(([, c]) => c), 'extrapolate', 'defrost_band'].filter((c) => cells.has(c));
-    if (stray.length > 0) problems.push(`${stray.join(', ')}: only for heat pumps; leave blank for a ${kind ?? 'non-heat-pump'}`);
+    if (stray.length > 0)
+      problems.push(`${stray.join(', ')}: only for heat pumps; leave blank for a ${kind ?? 'non-heat-pump'}`);
   }
   return { value, problems };
 }

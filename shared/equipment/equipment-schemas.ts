@@ -186,12 +186,17 @@ export const equipmentListPatchSchema = z.strictObject({ version, name: listName
  */
 export const equipmentOptionsPutSchema = z.strictObject({
   version,
-  options: z.array(equipmentOptionSchema).max(EQUIPMENT_OPTIONS_MAX, `A list holds at most ${EQUIPMENT_OPTIONS_MAX} options`),
+  options: z
+    .array(equipmentOptionSchema)
+    .max(EQUIPMENT_OPTIONS_MAX, `A list holds at most ${EQUIPMENT_OPTIONS_MAX} options`),
 });
 
 /** POST /api/v1/equipment-lists/:listId/csv-preview: parse a CSV without storing anything. */
 export const equipmentCsvPreviewSchema = z.strictObject({
-  csv: z.string({ error: 'Paste or choose a CSV file' }).min(1, 'The file is empty').max(EQUIPMENT_CSV_MAX_CHARS, 'The file is too large'),
+  csv: z
+    .string({ error: 'Paste or choose a CSV file' })
+    .min(1, 'The file is empty')
+    .max(EQUIPMENT_CSV_MAX_CHARS, 'The file is too large'),
 });
 
 /** One row of GET /api/v1/equipment-lists */
@@ -214,6 +219,9 @@ export type EquipmentList = z.infer<typeof equipmentListSchema>;
 export const equipmentCsvPreviewResultSchema = z.object({ options: z.array(equipmentOptionSchema) });
 
 /** GET / PUT /api/v1/energy-prices (PUT body: { version, prices }; version 0 when none saved yet) */
-export const energyPricesPutSchema = z.strictObject({ version: rowVersionSchema('The version of the prices being changed is required', 0), prices: energyPricesSchema });
+export const energyPricesPutSchema = z.strictObject({
+  version: rowVersionSchema('The version of the prices being changed is required', 0),
+  prices: energyPricesSchema,
+});
 export const energyPricesAnswerSchema = z.object({ version: z.int(), prices: energyPricesSchema.nullable() });
 export type EnergyPricesAnswer = z.infer<typeof energyPricesAnswerSchema>;

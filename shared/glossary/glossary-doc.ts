@@ -18,9 +18,17 @@ export function glossaryMarkdown(): string {
   for (const t of Object.values(glossary) as Term[]) {
     lines.push(`| ${cell(t.designer)} | ${cell(t.homeowner)} | ${cell(t.explain)} | ${t.csv ? `\`${t.csv}\`` : ''} |`);
   }
-  lines.push('', '## The named design values', '', '| Designer’s term | Homeowner’s words | What it means |', '|---|---|---|');
+  lines.push(
+    '',
+    '## The named design values',
+    '',
+    '| Designer’s term | Homeowner’s words | What it means |',
+    '|---|---|---|',
+  );
   for (const label of ['99 %', '99.6 %', 'Extreme mean', '5-year', '10-year', '20-year', '50-year']) {
-    lines.push(`| ${cell(designValueName(label))} | ${cell(designValueName(label, 'homeowner'))} | ${cell(designValueExplain(label))} |`);
+    lines.push(
+      `| ${cell(designValueName(label))} | ${cell(designValueName(label, 'homeowner'))} | ${cell(designValueExplain(label))} |`,
+    );
   }
   return lines.join('\n') + '\n';
 }

@@ -24,7 +24,8 @@ export const glossary = {
   designTemperatures: {
     designer: 'Design temperatures',
     homeowner: 'Outdoor temperatures the heating could be sized for',
-    explain: 'The candidate outdoor design temperatures, from the 99 % value down to the coldest return-period value, with a step between them.',
+    explain:
+      'The candidate outdoor design temperatures, from the 99 % value down to the coldest return-period value, with a step between them.',
   },
   designTemperature: {
     designer: 'Design temperature',
@@ -41,13 +42,15 @@ export const glossary = {
   designLoad: {
     designer: 'Design load',
     homeowner: 'Heat the house needs on that day',
-    explain: 'Heat loss of the building at the design temperature (conduction, air leakage, ventilation, ducts) with the sizing margin added.',
+    explain:
+      'Heat loss of the building at the design temperature (conduction, air leakage, ventilation, ducts) with the sizing margin added.',
     csv: 'design_load_w',
   },
   unit: {
     designer: 'Unit selected',
     homeowner: 'Heating unit',
-    explain: 'The smallest option on the list whose capacity at the design temperature covers the design load with the sizing margin.',
+    explain:
+      'The smallest option on the list whose capacity at the design temperature covers the design load with the sizing margin.',
     csv: 'unit',
   },
   capacityAtDesign: {
@@ -77,7 +80,8 @@ export const glossary = {
   backupHeat: {
     designer: 'Backup heat',
     homeowner: 'Electric backup heat',
-    explain: 'Electric resistance heat that a heat pump adds when its compressor alone cannot keep up; it sets the electrical service needed.',
+    explain:
+      'Electric resistance heat that a heat pump adds when its compressor alone cannot keep up; it sets the electrical service needed.',
   },
   installedPrice: {
     designer: 'Installed price',
@@ -100,13 +104,15 @@ export const glossary = {
   lifeCycleCost: {
     designer: 'Life-cycle cost',
     homeowner: 'Total cost over the years compared',
-    explain: 'Installed price plus the present value of the running costs over the study period, at the real discount rate.',
+    explain:
+      'Installed price plus the present value of the running costs over the study period, at the real discount rate.',
     csv: 'life_cycle_cost',
   },
   runHours: {
     designer: 'Equivalent full-load hours per year',
     homeowner: 'Full-output hours per year',
-    explain: 'Heat delivered in an average year divided by the unit’s capacity: the hours it would run if it only ran flat out.',
+    explain:
+      'Heat delivered in an average year divided by the unit’s capacity: the hours it would run if it only ran flat out.',
     csv: 'equivalent_full_load_hours_per_year',
   },
   unmetHours: {
@@ -124,13 +130,15 @@ export const glossary = {
   unmetDegreeHours: {
     designer: 'Unmet degree-hours per year',
     homeowner: 'How far and how long it falls short',
-    explain: 'The shortfall summed over the unmet hours, as degrees of outdoor temperature times hours; it weighs a deep shortfall more than a shallow one.',
+    explain:
+      'The shortfall summed over the unmet hours, as degrees of outdoor temperature times hours; it weighs a deep shortfall more than a shallow one.',
     csv: 'unmet_degree_hours_per_year',
   },
   lowestIndoor: {
     designer: 'Lowest indoor temperature',
     homeowner: 'Lowest the house would get',
-    explain: 'The lowest indoor temperature in the worst spell of the record, from the building’s thermal time constant (the house cools slowly).',
+    explain:
+      'The lowest indoor temperature in the worst spell of the record, from the building’s thermal time constant (the house cools slowly).',
     csv: 'lowest_indoor_c',
   },
   indoorDrop: {
@@ -162,7 +170,8 @@ export const glossary = {
   balancePoint: {
     designer: 'Balance point',
     homeowner: 'Outdoor temperature where it just keeps up',
-    explain: 'The outdoor temperature at which the unit’s output equals the heat loss; colder than that, it falls behind.',
+    explain:
+      'The outdoor temperature at which the unit’s output equals the heat loss; colder than that, it falls behind.',
   },
   designWind: {
     designer: 'Design wind',
@@ -222,7 +231,8 @@ export function designValueName(label: string, audience: Audience = 'designer'):
   const known = namedValues[label];
   if (known) return known[audience];
   const years = returnPeriodYears(label);
-  if (years !== null) return audience === 'designer' ? `${years}-year return period` : `the cold to expect once in ${years} years`;
+  if (years !== null)
+    return audience === 'designer' ? `${years}-year return period` : `the cold to expect once in ${years} years`;
   return label;
 }
 
@@ -239,7 +249,8 @@ export function designValueExplain(label: string): string {
   const known = namedValues[label];
   if (known) return known.explain;
   const years = returnPeriodYears(label);
-  if (years !== null) return `The coldest hour expected on average once in ${years} years (a ${Math.round(100 / years)} % chance in any one winter).`;
+  if (years !== null)
+    return `The coldest hour expected on average once in ${years} years (a ${Math.round(100 / years)} % chance in any one winter).`;
   return 'A design temperature added to this scenario.';
 }
 

@@ -105,7 +105,11 @@ export function pricePerKwhOfFuel(fuel: EquipmentOption['fuel'], prices: EnergyP
  * the efficiency (furnace, boiler; 1 for electric resistance) or, for a heat pump, by its COP at
  * `outdoorC` (the backup's COP 1 when the compressor is off). Null when the fuel has no price.
  */
-export function energyCostPerKwhDelivered(option: EquipmentOption, prices: EnergyPrices, outdoorC?: number): Decimal | null {
+export function energyCostPerKwhDelivered(
+  option: EquipmentOption,
+  prices: EnergyPrices,
+  outdoorC?: number,
+): Decimal | null {
   const perKwh = pricePerKwhOfFuel(option.fuel, prices);
   if (perKwh === null) return null;
   if (option.kind !== 'heat-pump') return divideMoney(perKwh, option.efficiency);

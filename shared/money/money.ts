@@ -54,7 +54,8 @@ export function subtractMoney(a: MoneyValue, b: MoneyValue): Decimal {
  * prints for it, and the product is computed in decimal.
  */
 export function multiplyMoney(amount: MoneyValue, units: number | Decimal | string): Decimal {
-  if (typeof units === 'number' && !Number.isFinite(units)) throw new RangeError('The quantity must be a finite number');
+  if (typeof units === 'number' && !Number.isFinite(units))
+    throw new RangeError('The quantity must be a finite number');
   return toDecimal(amount).times(new MoneyDecimal(units));
 }
 
@@ -103,7 +104,12 @@ export function formatMoney(amount: MoneyValue, currency: string, locale = 'en-U
  */
 export function formatMoneyWhole(amount: MoneyValue, currency: string, locale = 'en-US'): string {
   const text = toDecimal(amount).toFixed(0, Decimal.ROUND_HALF_EVEN) as `${number}`;
-  return new Intl.NumberFormat(locale, { style: 'currency', currency, minimumFractionDigits: 0, maximumFractionDigits: 0 }).format(text);
+  return new Intl.NumberFormat(locale, {
+    style: 'currency',
+    currency,
+    minimumFractionDigits: 0,
+    maximumFractionDigits: 0,
+  }).format(text);
 }
 
 // ---------------------------------------------------------------------------------------------

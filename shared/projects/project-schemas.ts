@@ -4,7 +4,10 @@ import { rowVersionSchema } from '../api/safe-text';
 export const PROJECT_NAME_MAX_LENGTH = 160;
 
 const text = (label: string, max: number) =>
-  z.string({ error: `Enter the ${label} as text` }).trim().max(max, `Use at most ${max} characters for the ${label}`);
+  z
+    .string({ error: `Enter the ${label} as text` })
+    .trim()
+    .max(max, `Use at most ${max} characters for the ${label}`);
 
 const projectFields = {
   name: z

@@ -23,7 +23,10 @@ const PRINT_FONT = 'SourceSans';
 /** The shaded band's legend entry. */
 const BAND_NAME = 'Likely range of those hours';
 
-const group = (v: number) => Math.round(v).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+const group = (v: number) =>
+  Math.round(v)
+    .toString()
+    .replace(/\B(?=(\d{3})+(?!\d))/g, ',');
 
 /** "The options above are marked A and B." (the chart marks the presented options with letters). */
 export function optionMarks(count: number): string {
@@ -33,7 +36,10 @@ export function optionMarks(count: number): string {
   return `The options above are marked ${letters.slice(0, -1).join(', ')} and ${letters.at(-1) ?? ''}.`;
 }
 
-export function reportChartOption(view: ReportView, options: { compact: boolean; forPrint?: boolean }): Record<string, unknown> {
+export function reportChartOption(
+  view: ReportView,
+  options: { compact: boolean; forPrint?: boolean },
+): Record<string, unknown> {
   const { chart } = view;
   const ts = chart.rows.map((r) => r.t);
   const hasHours = chart.rows.some((r) => r.unmetHours !== null);
@@ -42,7 +48,12 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
   return {
     animation: false,
     textStyle: { fontFamily: options.forPrint ? PRINT_FONT : FONT, color: TEXT, fontSize: small ? 10 : 12 },
-    grid: { left: small ? 52 : 72, right: hasHours ? (small ? 36 : 56) : 16, top: options.compact ? 64 : small ? 48 : 56, bottom: small ? 40 : 48 },
+    grid: {
+      left: small ? 52 : 72,
+      right: hasHours ? (small ? 36 : 56) : 16,
+      top: options.compact ? 64 : small ? 48 : 56,
+      bottom: small ? 40 : 48,
+    },
     legend: {
       // The band's invisible lower edge stays out of the legend.
       data: [
@@ -52,7 +63,9 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
       ],
       top: 0,
       left: 'center',
-      itemGap: options.compact ? 8 : 16, textStyle: { fontSize: small ? 10 : 12, fontFamily: options.forPrint ? PRINT_FONT : FONT } },
+      itemGap: options.compact ? 8 : 16,
+      textStyle: { fontSize: small ? 10 : 12, fontFamily: options.forPrint ? PRINT_FONT : FONT },
+    },
     tooltip: options.forPrint ? undefined : { trigger: 'axis' },
     xAxis: {
       type: 'value',
@@ -63,7 +76,11 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
       nameLocation: 'middle',
       nameGap: small ? 24 : 30,
       splitNumber: options.compact ? 4 : 6,
-      axisLabel: { hideOverlap: true, fontSize: small ? 10 : 12, formatter: (v: number) => String(v).replace('-', '−') },
+      axisLabel: {
+        hideOverlap: true,
+        fontSize: small ? 10 : 12,
+        formatter: (v: number) => String(v).replace('-', '−'),
+      },
       splitLine: { lineStyle: { color: SPLIT } },
     },
     yAxis: [
@@ -73,7 +90,10 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
         min: 0,
         splitNumber: options.compact ? 3 : 5,
         nameTextStyle: { align: 'left' },
-        axisLabel: { fontSize: small ? 10 : 12, formatter: (v: number) => (options.compact && v >= 1000 ? `${group(v / 1000)}k` : group(v)) },
+        axisLabel: {
+          fontSize: small ? 10 : 12,
+          formatter: (v: number) => (options.compact && v >= 1000 ? `${group(v / 1000)}k` : group(v)),
+        },
         splitLine: { lineStyle: { color: SPLIT } },
       },
       {
@@ -103,7 +123,13 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
           data: chart.points.map((p) => ({
             xAxis: p.t,
             lineStyle: { color: EMBER, width: 2, type: 'solid' },
-            label: { formatter: p.label, color: EMBER_TEXT, fontSize: small ? 11 : 13, fontWeight: 'bold', position: 'end' },
+            label: {
+              formatter: p.label,
+              color: EMBER_TEXT,
+              fontSize: small ? 11 : 13,
+              fontWeight: 'bold',
+              position: 'end',
+            },
           })),
         },
       },
@@ -143,7 +169,10 @@ export function reportChartOption(view: ReportView, options: { compact: boolean;
               stack: 'band',
               showSymbol: false,
               silent: true,
-              data: chart.rows.map((r) => [r.t, r.unmetLow === null || r.unmetHigh === null ? null : r.unmetHigh - r.unmetLow]),
+              data: chart.rows.map((r) => [
+                r.t,
+                r.unmetLow === null || r.unmetHigh === null ? null : r.unmetHigh - r.unmetLow,
+              ]),
               lineStyle: { opacity: 0 },
               areaStyle: { color: BAND_FILL },
               itemStyle: { color: BAND_EDGE },

@@ -62,7 +62,11 @@ export const reportInputSchema = z.strictObject({
     .trim()
     .min(1, 'Enter a title')
     .max(REPORT_TITLE_MAX, `Use at most ${REPORT_TITLE_MAX} characters`),
-  note: z.string({ error: 'Enter the note as text' }).trim().max(REPORT_NOTE_MAX, `Use at most ${REPORT_NOTE_MAX} characters`).default(''),
+  note: z
+    .string({ error: 'Enter the note as text' })
+    .trim()
+    .max(REPORT_NOTE_MAX, `Use at most ${REPORT_NOTE_MAX} characters`)
+    .default(''),
   /** The phone number the homeowner can call, shown with the designer's name and e-mail. */
   contactPhone: z
     .string({ error: 'Enter the phone number as text' })
@@ -72,7 +76,9 @@ export const reportInputSchema = z.strictObject({
     .default(''),
   /** Design temperatures of the sweep rows to present, °C. */
   points: z
-    .array(z.number({ error: 'A design point is a temperature (°C)' }).min(-70).max(20), { error: 'Choose the design points to present' })
+    .array(z.number({ error: 'A design point is a temperature (°C)' }).min(-70).max(20), {
+      error: 'Choose the design points to present',
+    })
     .min(1, 'Choose at least one design point')
     .max(REPORT_POINTS_MAX, `Choose at most ${REPORT_POINTS_MAX} design points`),
   figures: z

@@ -6,7 +6,14 @@
 import { z } from 'zod';
 import { rowVersionSchema } from '../api/safe-text';
 import { energyPricesSchema } from '../money/energy-prices';
-import { DEFAULT_HEAT_PUMP_SIZING, DEFAULT_STUDY_PERIOD_YEARS, equipmentFamilies, heatPumpSizings, rowKindOfLabel, rowKinds } from '../sweep/sweep';
+import {
+  DEFAULT_HEAT_PUMP_SIZING,
+  DEFAULT_STUDY_PERIOD_YEARS,
+  equipmentFamilies,
+  heatPumpSizings,
+  rowKindOfLabel,
+  rowKinds,
+} from '../sweep/sweep';
 import { DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_TOLERANCES, MAX_DRAWS } from '../sweep/tolerances';
 
 export const SCENARIO_NAME_MAX = 160;
@@ -180,7 +187,14 @@ export const scenarioSchema = z.object({
   chosenDesignC: z.number().nullable(),
   /** What the chosen point installs, when its sweep is at hand (the project's scenario list shows it). */
   chosenPoint: z
-    .object({ designC: z.number(), label: z.string(), isGrid: z.boolean(), unit: z.string().nullable(), installedPrice: z.string().nullable(), currency: z.string() })
+    .object({
+      designC: z.number(),
+      label: z.string(),
+      isGrid: z.boolean(),
+      unit: z.string().nullable(),
+      installedPrice: z.string().nullable(),
+      currency: z.string(),
+    })
     .nullable(),
   version: z.int(),
   updatedByName: z.string(),
@@ -295,7 +309,9 @@ export const sweepAnswerSchema = z.object({
   energyEscalationPctPerYear: z.number().default(0),
   /** Results frozen before the setting existed counted heat pumps with their backup. */
   heatPumpSizing: z.enum(heatPumpSizings).default('with-backup'),
-  selectionRule: z.enum(['smallest-capacity', 'lowest-life-cycle-cost', 'lowest-installed-price']).default('smallest-capacity'),
+  selectionRule: z
+    .enum(['smallest-capacity', 'lowest-life-cycle-cost', 'lowest-installed-price'])
+    .default('smallest-capacity'),
   /** About the record's length and the option list: {code, message}. */
   warnings: z.array(z.object({ code: z.string(), message: z.string() })).default([]),
   options: z.array(sweepOptionSchema),
@@ -325,10 +341,7 @@ export const sweepAnswerSchema = z.object({
     .nullable()
     .default(null),
   /** The Monte Carlo behind the band (null: no record, or no draws). */
-  uncertainty: z
-    .object({ draws: z.int(), seed: z.int(), tolerances: tolerancesSchema })
-    .nullable()
-    .default(null),
+  uncertainty: z.object({ draws: z.int(), seed: z.int(), tolerances: tolerancesSchema }).nullable().default(null),
 });
 export type SweepAnswer = z.infer<typeof sweepAnswerSchema>;
 
@@ -336,7 +349,14 @@ export type SweepAnswer = z.infer<typeof sweepAnswerSchema>;
 export const compareQuerySchema = z.strictObject({
   ids: z
     .string({ error: `Choose ${COMPARE_MIN} to ${COMPARE_MAX} scenarios to compare` })
-    .transform((s) => [...new Set(s.split(',').map((x) => x.trim()).filter((x) => x.length > 0))])
+    .transform((s) => [
+      ...new Set(
+        s
+          .split(',')
+          .map((x) => x.trim())
+          .filter((x) => x.length > 0),
+      ),
+    ])
     .pipe(
       z
         .array(z.uuid('Unknown scenario'))

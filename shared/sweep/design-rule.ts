@@ -33,11 +33,15 @@ export interface RulePick {
 export function describeRule(rule: DesignRule): string {
   const limits: string[] = [];
   if (rule.maxUnmetHoursWorstYear !== null) {
-    limits.push(`at most ${rule.maxUnmetHoursWorstYear} unmet ${rule.maxUnmetHoursWorstYear === 1 ? 'hour' : 'hours'} in the worst year of record`);
+    limits.push(
+      `at most ${rule.maxUnmetHoursWorstYear} unmet ${rule.maxUnmetHoursWorstYear === 1 ? 'hour' : 'hours'} in the worst year of record`,
+    );
   }
   if (rule.maxLifetimeOddsPct !== null) {
     const oneIn = rule.maxLifetimeOddsPct > 0 ? Math.round(100 / rule.maxLifetimeOddsPct) : null;
-    limits.push(`at most ${rule.maxLifetimeOddsPct} % odds of a colder night over the study period${oneIn !== null && oneIn > 1 ? ` (about 1-in-${oneIn})` : ''}`);
+    limits.push(
+      `at most ${rule.maxLifetimeOddsPct} % odds of a colder night over the study period${oneIn !== null && oneIn > 1 ? ` (about 1-in-${oneIn})` : ''}`,
+    );
   }
   return `the lowest life-cycle cost${limits.length > 0 ? ' with ' + limits.join(' and ') : ''}`;
 }
@@ -52,13 +56,18 @@ export function applyDesignRule(rows: readonly RuleRow[], rule: DesignRule): Rul
   let failedOdds = 0;
   for (const [i, row] of rows.entries()) {
     if (row.selectedOptionId === null || row.lifeCycleCost === null) continue;
-    if (rule.maxUnmetHoursWorstYear !== null && !(row.unmetHoursWorstYear !== null && row.unmetHoursWorstYear <= rule.maxUnmetHoursWorstYear)) {
+    if (
+      rule.maxUnmetHoursWorstYear !== null &&
+      !(row.unmetHoursWorstYear !== null && row.unmetHoursWorstYear <= rule.maxUnmetHoursWorstYear)
+    ) {
       failedUnmet++;
       continue;
     }
     if (
       rule.maxLifetimeOddsPct !== null &&
-      !(row.lifetimeExceedanceProbability !== null && row.lifetimeExceedanceProbability * 100 <= rule.maxLifetimeOddsPct)
+      !(
+        row.lifetimeExceedanceProbability !== null && row.lifetimeExceedanceProbability * 100 <= rule.maxLifetimeOddsPct
+      )
     ) {
       failedOdds++;
       continue;

@@ -34,7 +34,9 @@ export function scaleBuilding(building: Building, uaFactor: number, leakageFacto
         : {
             ...c,
             components: c.components.map((e) =>
-              e.uValue !== undefined ? { ...e, uValue: e.uValue * uaFactor } : { ...e, rValue: (e.rValue ?? 1) / uaFactor },
+              e.uValue !== undefined
+                ? { ...e, uValue: e.uValue * uaFactor }
+                : { ...e, rValue: (e.rValue ?? 1) / uaFactor },
             ),
           };
   const l = building.airLeakage;
@@ -114,7 +116,11 @@ export function monteCarloSweep(
     const ua = factor(tolerances.uaPct);
     const leak = factor(tolerances.airLeakagePct);
     const price = factor(tolerances.pricesPct);
-    const result = sweep({ ...base, building: scaleBuilding(input.building, ua, leak), prices: scalePrices(input.prices, price) });
+    const result = sweep({
+      ...base,
+      building: scaleBuilding(input.building, ua, leak),
+      prices: scalePrices(input.prices, price),
+    });
     result.rows.forEach((row, i) => {
       if (row.selectedOptionId !== (nominal.rows[i]?.selectedOptionId ?? null)) changed[i] = (changed[i] ?? 0) + 1;
       if (row.unmetHoursPerYear !== null) unmet[i]?.push(row.unmetHoursPerYear);

@@ -75,7 +75,9 @@ export function oddsBasisSentence(odds: ExtremeStats | null): string | null {
   }
   const years = odds.years ?? 0;
   const basis = `The odds come from an extreme-value fit of the coldest hour of each of the record’s ${years} years.`;
-  return odds.shortRecord ? `${basis} With fewer than 10 years on record these odds mean little: treat them as a rough guide.` : basis;
+  return odds.shortRecord
+    ? `${basis} With fewer than 10 years on record these odds mean little: treat them as a rough guide.`
+    : basis;
 }
 
 /** The designer's sentence on the odds of a night colder than the design temperature. */
@@ -93,7 +95,9 @@ export function oddsSentence(index: number, ctx: OddsContext): string {
   }
   if (row.lifetimeExceedanceProbability !== null && row.lifetimeYears !== null) {
     // L is the study period of the life-cycle cost (docs/methods.md#odds-of-a-colder-night).
-    parts.push(`, and ${plainOdds(row.lifetimeExceedanceProbability)} over the ${Math.round(row.lifetimeYears)}-year study period`);
+    parts.push(
+      `, and ${plainOdds(row.lifetimeExceedanceProbability)} over the ${Math.round(row.lifetimeYears)}-year study period`,
+    );
   }
   return `${parts.join('')}.`;
 }
@@ -109,7 +113,10 @@ export function plainLifetimeSentence(row: OddsRow, system: UnitSystem): string 
 }
 
 /** The step into the chosen row's unit (the first row with it) and the step out of it (the next unit colder). */
-function stepsAround(index: number, rows: readonly OddsRow[]): { into: OddsRow | undefined; next: OddsRow | undefined } {
+function stepsAround(
+  index: number,
+  rows: readonly OddsRow[],
+): { into: OddsRow | undefined; next: OddsRow | undefined } {
   const row = rows[index];
   if (!row?.selectedOptionId) return { into: undefined, next: undefined };
   let first = index;
@@ -161,7 +168,10 @@ function dependsOn(tol: OddsContext['uncertainty']): string {
     [t.airLeakagePct, 'how leaky the house turns out to be'],
     [t.uaPct, 'how well it is insulated'],
   ];
-  const named = causes.filter(([pct]) => pct > 0).sort((a, b) => b[0] - a[0]).map(([, words]) => words);
+  const named = causes
+    .filter(([pct]) => pct > 0)
+    .sort((a, b) => b[0] - a[0])
+    .map(([, words]) => words);
   return named.length === 0 ? '' : `, depending on ${named.join(' and ')}`;
 }
 
@@ -176,14 +186,22 @@ export function bandSentence(index: number, ctx: OddsContext): string {
       `the unmet hours per average year range from ${shortHours(row.unmetHoursPerYearP10)} to ${shortHours(row.unmetHoursPerYearP90)} (10th to 90th percentile)`,
   ];
   if (row.unmetHoursWorstYearP10 !== null && row.unmetHoursWorstYearP90 !== null) {
-    parts.push(`, in the worst year from ${shortHours(row.unmetHoursWorstYearP10)} to ${shortHours(row.unmetHoursWorstYearP90)}`);
+    parts.push(
+      `, in the worst year from ${shortHours(row.unmetHoursWorstYearP10)} to ${shortHours(row.unmetHoursWorstYearP90)}`,
+    );
   }
   if (row.lifeCycleCostP10 !== null && row.lifeCycleCostP90 !== null) {
     // Whole units, as every other life-cycle cost on the screens.
-    parts.push(`; the life-cycle cost from ${formatMoneyWhole(row.lifeCycleCostP10, ctx.currency)} to ${formatMoneyWhole(row.lifeCycleCostP90, ctx.currency)}`);
+    parts.push(
+      `; the life-cycle cost from ${formatMoneyWhole(row.lifeCycleCostP10, ctx.currency)} to ${formatMoneyWhole(row.lifeCycleCostP90, ctx.currency)}`,
+    );
   }
   const share = row.selectionChangeShare ?? 0;
-  parts.push(share > 0 ? `. A different unit would be selected in ${Math.round(share * 100)} % of the draws.` : '. The selected unit is the same in every draw.');
+  parts.push(
+    share > 0
+      ? `. A different unit would be selected in ${Math.round(share * 100)} % of the draws.`
+      : '. The selected unit is the same in every draw.',
+  );
   return parts.join('');
 }
 
@@ -192,7 +210,8 @@ export function plainBandSentence(row: OddsRow, ctx: Pick<OddsContext, 'uncertai
   if (row.unmetHoursPerYearP10 === null || row.unmetHoursPerYearP90 === null) return null;
   const a = row.unmetHoursPerYearP10;
   const b = row.unmetHoursPerYearP90;
-  if (b === 0) return 'Even if the house turns out leakier or less well insulated than measured, this unit should keep up in a typical year.';
+  if (b === 0)
+    return 'Even if the house turns out leakier or less well insulated than measured, this unit should keep up in a typical year.';
   const hrs = (h: number) => (h === 0 ? 'none' : `about ${shortHours(h)}`);
   return `How often it falls behind: between ${hrs(a)} and ${hrs(b)} hours a year${dependsOn(ctx.uncertainty)}.`;
 }

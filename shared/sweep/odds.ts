@@ -85,11 +85,20 @@ export function statsFromMinima(minimaC: readonly number[]): ExtremeStats | null
   if (minimaC.length < 2) return null;
   const { mean, sd } = meanAndSampleSd(minimaC);
   if (!Number.isFinite(mean) || !Number.isFinite(sd)) return null;
-  return { meanC: mean, sdK: sd, source: 'record', years: minimaC.length, shortRecord: minimaC.length < SHORT_RECORD_YEARS };
+  return {
+    meanC: mean,
+    sdK: sd,
+    source: 'record',
+    years: minimaC.length,
+    shortRecord: minimaC.length < SHORT_RECORD_YEARS,
+  };
 }
 
 /** The fit's inputs from a site's published extreme mean and SD (null when either is missing). */
-export function statsFromPublished(meanC: number | null | undefined, sdK: number | null | undefined): ExtremeStats | null {
+export function statsFromPublished(
+  meanC: number | null | undefined,
+  sdK: number | null | undefined,
+): ExtremeStats | null {
   if (typeof meanC !== 'number' || typeof sdK !== 'number' || !(sdK > 0)) return null;
   return { meanC, sdK, source: 'published', years: null, shortRecord: false };
 }

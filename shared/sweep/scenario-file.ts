@@ -15,9 +15,13 @@ export const MIN_DESIGN_C = -60;
 
 const num = (label: string, unit: string) => z.number({ error: `Enter ${label} as a number (${unit})` });
 const range = (label: string, unit: string, min: number, max: number) =>
-  num(label, unit).min(min, `${cap(label)} must be at least ${min} ${unit}`).max(max, `${cap(label)} must be at most ${max} ${unit}`);
+  num(label, unit)
+    .min(min, `${cap(label)} must be at least ${min} ${unit}`)
+    .max(max, `${cap(label)} must be at most ${max} ${unit}`);
 const above0 = (label: string, unit: string, max: number) =>
-  num(label, unit).positive(`${cap(label)} must be greater than 0 ${unit}`).max(max, `${cap(label)} must be at most ${max} ${unit}`);
+  num(label, unit)
+    .positive(`${cap(label)} must be greater than 0 ${unit}`)
+    .max(max, `${cap(label)} must be at most ${max} ${unit}`);
 const cap = (s: string): string => s.charAt(0).toUpperCase() + s.slice(1);
 
 const MAX_W = 10_000_000;
@@ -35,7 +39,9 @@ const cycling = {
 const ratingSchema = z.strictObject({
   outdoorC: num('the rating temperature', '°C'),
   capacityW: above0('the capacity', 'W', MAX_W),
-  cop: num('the COP', '').min(1, 'The COP must be at least 1 (below 1 a heat pump would give less heat than resistance heat)').max(10, 'The COP must be at most 10'),
+  cop: num('the COP', '')
+    .min(1, 'The COP must be at least 1 (below 1 a heat pump would give less heat than resistance heat)')
+    .max(10, 'The COP must be at most 10'),
 });
 
 const equipmentSchema = z.discriminatedUnion(
@@ -46,7 +52,9 @@ const equipmentSchema = z.discriminatedUnion(
       label: z.string().optional(),
       kind: z.enum(['furnace', 'boiler']),
       outputW: above0('the output', 'W', MAX_W),
-      efficiency: num('the efficiency', 'a fraction such as 0.95').positive('The efficiency must be greater than 0').max(1, 'The efficiency must be at most 1 (enter 95 % as 0.95)'),
+      efficiency: num('the efficiency', 'a fraction such as 0.95')
+        .positive('The efficiency must be greater than 0')
+        .max(1, 'The efficiency must be at most 1 (enter 95 % as 0.95)'),
       installedPrice: price('the installed price'),
       lifeYears: life,
       energy: z.enum(['gas', 'oil', 'propane'], { error: 'A furnace or boiler burns gas, oil or propane' }),
@@ -68,10 +76,13 @@ const equipmentSchema = z.discriminatedUnion(
       kind: z.literal('heat-pump'),
       /** Ratings at 8.3 °C and −8.3 °C, optionally −15 °C (the rating points the engine uses). */
       ratings: z
-        .array(ratingSchema, { error: 'List the heat pump\'s ratings' })
+        .array(ratingSchema, { error: "List the heat pump's ratings" })
         .min(2, 'A heat pump needs ratings at 8.3 °C and −8.3 °C')
         .max(3, 'Give at most three ratings: 8.3 °C, −8.3 °C and −15 °C'),
-      backupW: num('the backup heat', 'W').min(0, 'The backup heat cannot be negative').max(MAX_W, `The backup heat must be at most ${MAX_W} W`).optional(),
+      backupW: num('the backup heat', 'W')
+        .min(0, 'The backup heat cannot be negative')
+        .max(MAX_W, `The backup heat must be at most ${MAX_W} W`)
+        .optional(),
       extrapolate: z.boolean({ error: 'Extrapolate is true or false' }).optional(),
       installedPrice: price('the installed price'),
       lifeYears: life,
@@ -83,7 +94,12 @@ const equipmentSchema = z.discriminatedUnion(
 );
 
 /** The price key each energy needs in `prices`. */
-const PRICE_KEY = { gas: 'gasPerKWh', oil: 'oilPerLitre', propane: 'propanePerLitre', electricity: 'electricityPerKWh' } as const;
+const PRICE_KEY = {
+  gas: 'gasPerKWh',
+  oil: 'oilPerLitre',
+  propane: 'propanePerLitre',
+  electricity: 'electricityPerKWh',
+} as const;
 
 export const scenarioFileSchema = z
   .strictObject({
@@ -93,7 +109,11 @@ export const scenarioFileSchema = z
       infiltration: z.discriminatedUnion(
         'method',
         [
-          z.strictObject({ method: z.literal('ach'), ach: range('the air change rate', 'ACH', 0, 50), volumeM3: above0('the volume', 'm³', 10_000_000) }),
+          z.strictObject({
+            method: z.literal('ach'),
+            ach: range('the air change rate', 'ACH', 0, 50),
+            volumeM3: above0('the volume', 'm³', 10_000_000),
+          }),
           z.strictObject({
             method: z.literal('ach50'),
             ach50: range('the ACH50', 'ACH', 0, 100),
@@ -103,7 +123,9 @@ export const scenarioFileSchema = z
           z.strictObject({
             method: z.literal('ela'),
             elaCm2: range('the effective leakage area', 'cm²', 0, 1_000_000),
-            storeys: z.union([z.literal(1), z.literal(2), z.literal(3)], { error: 'The number of storeys must be 1, 2 or 3' }),
+            storeys: z.union([z.literal(1), z.literal(2), z.literal(3)], {
+              error: 'The number of storeys must be 1, 2 or 3',
+            }),
             shieldingClass: z.union([z.literal(1), z.literal(2), z.literal(3), z.literal(4), z.literal(5)], {
               error: 'The shielding class must be 1, 2, 3, 4 or 5',
             }),
@@ -112,7 +134,10 @@ export const scenarioFileSchema = z
         { error: 'The infiltration method must be ach, ach50 or ela' },
       ),
       ventilation: z
-        .strictObject({ flowLs: range('the ventilation flow', 'L/s', 0, 100_000), recoveryEffectiveness: range('the heat-recovery effectiveness', '', 0, 0.95) })
+        .strictObject({
+          flowLs: range('the ventilation flow', 'L/s', 0, 100_000),
+          recoveryEffectiveness: range('the heat-recovery effectiveness', '', 0, 0.95),
+        })
         .optional(),
       ductLossPct: range('the duct loss', '%', 0, 100).optional(),
       safetyFactorPct: range('the safety factor', '%', 0, 100).optional(),
@@ -121,7 +146,9 @@ export const scenarioFileSchema = z
       creditGainsAtDesign: z.boolean({ error: 'creditGainsAtDesign is true or false' }).optional(),
       timeConstantH: above0('the time constant', 'h', 2000),
     }),
-    equipment: z.array(equipmentSchema, { error: 'List the equipment options' }).min(1, 'List at least one equipment option'),
+    equipment: z
+      .array(equipmentSchema, { error: 'List the equipment options' })
+      .min(1, 'List at least one equipment option'),
     prices: z.strictObject({
       currency: z.string().length(3, 'The currency is a three-letter code such as USD').optional(),
       electricityPerKWh: price('the electricity price'),
@@ -142,7 +169,10 @@ export const scenarioFileSchema = z
     heatPumpSizing: z.enum(heatPumpSizings, { error: 'heatPumpSizing is "compressor" or "with-backup"' }).optional(),
     designWindMs: range('the design wind speed', 'm/s', 0, 75).optional(),
     elevationM: range('the elevation', 'm', -500, 9000).optional(),
-    extraDesignTemperaturesC: z.array(num('a design temperature', '°C'), { error: 'List extra design temperatures as numbers (°C)' }).max(10, 'Give at most 10 extra design temperatures').optional(),
+    extraDesignTemperaturesC: z
+      .array(num('a design temperature', '°C'), { error: 'List extra design temperatures as numbers (°C)' })
+      .max(10, 'Give at most 10 extra design temperatures')
+      .optional(),
     /** Tolerances of the estimates for `--uncertainty`, ± % (defaults: UA 10, air leakage 25, prices 15). */
     tolerances: tolerancesSchema.partial().optional(),
   })
@@ -150,16 +180,39 @@ export const scenarioFileSchema = z
     const s = ctx.value;
     const seen = new Set<string>();
     s.equipment.forEach((e, i) => {
-      if (seen.has(e.id)) ctx.issues.push({ code: 'custom', input: e.id, path: ['equipment', i, 'id'], message: `Another option already has the id "${e.id}"` });
+      if (seen.has(e.id))
+        ctx.issues.push({
+          code: 'custom',
+          input: e.id,
+          path: ['equipment', i, 'id'],
+          message: `Another option already has the id "${e.id}"`,
+        });
       seen.add(e.id);
       const energy = e.kind === 'furnace' || e.kind === 'boiler' ? e.energy : 'electricity';
       if (s.prices[PRICE_KEY[energy]] === undefined) {
-        ctx.issues.push({ code: 'custom', input: e, path: ['equipment', i, 'energy'], message: `"${e.id}" uses ${energy}, but prices has no ${PRICE_KEY[energy]}` });
+        ctx.issues.push({
+          code: 'custom',
+          input: e,
+          path: ['equipment', i, 'energy'],
+          message: `"${e.id}" uses ${energy}, but prices has no ${PRICE_KEY[energy]}`,
+        });
       }
       if (e.kind === 'heat-pump') {
         const at = (c: number) => e.ratings.some((r) => Math.abs(r.outdoorC - c) < 0.05);
-        if (!at(8.3) || !at(-8.3)) ctx.issues.push({ code: 'custom', input: e.ratings, path: ['equipment', i, 'ratings'], message: `"${e.id}" needs ratings at 8.3 °C and −8.3 °C (−15 °C is optional)` });
-        else if (e.ratings.length === 3 && !at(-15)) ctx.issues.push({ code: 'custom', input: e.ratings, path: ['equipment', i, 'ratings'], message: `"${e.id}": the third rating must be at −15 °C` });
+        if (!at(8.3) || !at(-8.3))
+          ctx.issues.push({
+            code: 'custom',
+            input: e.ratings,
+            path: ['equipment', i, 'ratings'],
+            message: `"${e.id}" needs ratings at 8.3 °C and −8.3 °C (−15 °C is optional)`,
+          });
+        else if (e.ratings.length === 3 && !at(-15))
+          ctx.issues.push({
+            code: 'custom',
+            input: e.ratings,
+            path: ['equipment', i, 'ratings'],
+            message: `"${e.id}": the third rating must be at −15 °C`,
+          });
       }
     });
     const warmest = s.building.indoorC - 1;
@@ -187,7 +240,11 @@ const RATING_POINTS = [
 ] as const;
 
 /** The scenario's building, options and prices in the engine's own (validated) shapes. */
-export function scenarioToEngine(s: ScenarioFile): { building: Building; options: SweepOption[]; prices: EnergyPrices } {
+export function scenarioToEngine(s: ScenarioFile): {
+  building: Building;
+  options: SweepOption[];
+  prices: EnergyPrices;
+} {
   const b = s.building;
   const inf = b.infiltration;
   const building = buildingSchema.parse({
@@ -199,7 +256,9 @@ export function scenarioToEngine(s: ScenarioFile): { building: Building; options
         : inf.method === 'ach50'
           ? { mode: 'ach50', ach50: inf.ach50, volumeM3: inf.volumeM3, nFactor: inf.nFactor }
           : { mode: 'ela', elaCm2: inf.elaCm2, storeys: inf.storeys, shieldingClass: inf.shieldingClass },
-    ventilation: b.ventilation ? { flowLps: b.ventilation.flowLs, heatRecoveryEffectiveness: b.ventilation.recoveryEffectiveness } : undefined,
+    ventilation: b.ventilation
+      ? { flowLps: b.ventilation.flowLs, heatRecoveryEffectiveness: b.ventilation.recoveryEffectiveness }
+      : undefined,
     ductLossPct: b.ductLossPct,
     safetyFactorPct: b.safetyFactorPct,
     internalGainsW: b.internalGainsW,
@@ -229,13 +288,26 @@ export function scenarioToEngine(s: ScenarioFile): { building: Building; options
       }
       return {
         id: e.id,
-        ...equipmentOptionSchema.parse({ kind: 'heat-pump', ...common, ...fields, backupW: e.backupW ?? 0, extrapolate: e.extrapolate ?? false }),
+        ...equipmentOptionSchema.parse({
+          kind: 'heat-pump',
+          ...common,
+          ...fields,
+          backupW: e.backupW ?? 0,
+          extrapolate: e.extrapolate ?? false,
+        }),
       };
     }
-    if (e.kind === 'electric') return { id: e.id, ...equipmentOptionSchema.parse({ kind: 'electric', ...common, outputW: e.outputW }) };
+    if (e.kind === 'electric')
+      return { id: e.id, ...equipmentOptionSchema.parse({ kind: 'electric', ...common, outputW: e.outputW }) };
     return {
       id: e.id,
-      ...equipmentOptionSchema.parse({ kind: e.kind, ...common, fuel: e.energy, efficiency: e.efficiency, outputW: e.outputW }),
+      ...equipmentOptionSchema.parse({
+        kind: e.kind,
+        ...common,
+        fuel: e.energy,
+        efficiency: e.efficiency,
+        outputW: e.outputW,
+      }),
     };
   });
   const p = s.prices;
@@ -258,9 +330,13 @@ export function scenarioFieldName(scenario: unknown, path: readonly PropertyKey[
   const parts: string[] = [];
   let node: unknown = scenario;
   path.forEach((key, i) => {
-    const child: unknown = node !== null && typeof node === 'object' ? (node as Record<PropertyKey, unknown>)[key] : undefined;
+    const child: unknown =
+      node !== null && typeof node === 'object' ? (node as Record<PropertyKey, unknown>)[key] : undefined;
     if (typeof key === 'number') {
-      const itemId: unknown = path[i - 1] === 'equipment' && child !== null && typeof child === 'object' ? (child as Record<string, unknown>)['id'] : undefined;
+      const itemId: unknown =
+        path[i - 1] === 'equipment' && child !== null && typeof child === 'object'
+          ? (child as Record<string, unknown>)['id']
+          : undefined;
       const suffix = typeof itemId === 'string' && itemId !== '' ? ` "${itemId}"` : `[${key}]`;
       parts.push(`${parts.pop() ?? ''}${suffix}`);
     } else {
@@ -279,7 +355,9 @@ export interface ScenarioProblem {
 /** The scenario file checked: its engine input, or every problem named by field. */
 export function readScenarioFile(
   raw: unknown,
-): { ok: true; scenario: ScenarioFile; engine: ReturnType<typeof scenarioToEngine> } | { ok: false; problems: ScenarioProblem[] } {
+):
+  | { ok: true; scenario: ScenarioFile; engine: ReturnType<typeof scenarioToEngine> }
+  | { ok: false; problems: ScenarioProblem[] } {
   const checked = scenarioFileSchema.safeParse(raw);
   if (!checked.success) {
     return {
@@ -290,7 +368,10 @@ export function readScenarioFile(
   try {
     return { ok: true, scenario: checked.data, engine: scenarioToEngine(checked.data) };
   } catch (error) {
-    const issues = error instanceof z.ZodError ? error.issues.map((i) => i.message) : [error instanceof Error ? error.message : String(error)];
+    const issues =
+      error instanceof z.ZodError
+        ? error.issues.map((i) => i.message)
+        : [error instanceof Error ? error.message : String(error)];
     return { ok: false, problems: issues.map((message) => ({ field: '(the scenario)', message })) };
   }
 }

@@ -117,11 +117,13 @@ export function buildBins(hours: Hours, withWind: boolean): Bins {
   const { n } = hours;
   const { binOfHour, keys } = binKeys(hours, withWind);
   // Bins in ascending temperature (then wind) so that consecutive bins share a capacity evaluation.
-  const order = keys.map((_, b) => b).sort((a, b) => {
-    const ka = keys[a] ?? { t: 0, w: 0 };
-    const kb = keys[b] ?? { t: 0, w: 0 };
-    return ka.t - kb.t || (ka.w || 0) - (kb.w || 0);
-  });
+  const order = keys
+    .map((_, b) => b)
+    .sort((a, b) => {
+      const ka = keys[a] ?? { t: 0, w: 0 };
+      const kb = keys[b] ?? { t: 0, w: 0 };
+      return ka.t - kb.t || (ka.w || 0) - (kb.w || 0);
+    });
   const rank = new Int32Array(keys.length);
   order.forEach((b, r) => (rank[b] = r));
   const nBins = keys.length;

@@ -39,7 +39,11 @@ export function modifiedUniformPresentValue(d: number, e: number, n: number): nu
  * same real price at every multiple of the life inside the period, less the straight-line residual
  * value of the unit in service at the end (docs/methods.md#life-cycle-cost).
  */
-export function ownershipFactor(d: number, lifeYears: number, studyPeriodYears: number): {
+export function ownershipFactor(
+  d: number,
+  lifeYears: number,
+  studyPeriodYears: number,
+): {
   replacements: number;
   residual: number;
   total: number;

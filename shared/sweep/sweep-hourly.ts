@@ -136,7 +136,15 @@ export interface IndoorState {
 }
 
 /** One hour of the single-capacitance model at full output; back at the set-point it stays there. */
-export function stepIndoor(s: IndoorState, set: number, outdoorC: number, capacityW: number, gainsW: number, ua: number, decay: number): void {
+export function stepIndoor(
+  s: IndoorState,
+  set: number,
+  outdoorC: number,
+  capacityW: number,
+  gainsW: number,
+  ua: number,
+  decay: number,
+): void {
   const steady = outdoorC + (capacityW + gainsW) / ua;
   const next = steady + (s.c - steady) * decay;
   if (next < s.lowest) s.lowest = next;
@@ -165,7 +173,15 @@ export function bridgeGap(
   }
   for (let k = 1; k <= missing && s.c < set; k++) {
     const t = fromC + ((toC - fromC) * k) / (missing + 1);
-    stepIndoor(s, set, t, capacityAt(option, t).totalW, building.internalGainsW, effectiveConductanceWPerK(heatLoss(building, t, designWindMs)), decay);
+    stepIndoor(
+      s,
+      set,
+      t,
+      capacityAt(option, t).totalW,
+      building.internalGainsW,
+      effectiveConductanceWPerK(heatLoss(building, t, designWindMs)),
+      decay,
+    );
   }
 }
 
@@ -192,7 +208,8 @@ export function simulateNaive(
     const w = Number.isNaN(recorded) ? designWindMs : recorded;
     if (i > 0 && indoor.c < set) {
       const missing = (hours.hourNumber[i] ?? 0) - (hours.hourNumber[i - 1] ?? 0) - 1;
-      if (missing !== 0) bridgeGap(indoor, set, missing, hours.outdoorC[i - 1] ?? 0, t, building, option, designWindMs, decay);
+      if (missing !== 0)
+        bridgeGap(indoor, set, missing, hours.outdoorC[i - 1] ?? 0, t, building, option, designWindMs, decay);
     }
     const h = heatLoss(building, t, w);
     const ua = effectiveConductanceWPerK(h);
@@ -270,7 +287,17 @@ export function simulateBinned(
       if (indoor.c >= set || j + 1 >= hours.n) break;
       const missing = (hours.hourNumber[j + 1] ?? 0) - (hours.hourNumber[j] ?? 0) - 1;
       if (missing !== 0) {
-        bridgeGap(indoor, set, missing, hours.outdoorC[j] ?? 0, hours.outdoorC[j + 1] ?? 0, building, option, designWindMs, decay);
+        bridgeGap(
+          indoor,
+          set,
+          missing,
+          hours.outdoorC[j] ?? 0,
+          hours.outdoorC[j + 1] ?? 0,
+          building,
+          option,
+          designWindMs,
+          decay,
+        );
         if (indoor.c >= set) break;
       }
       j++;

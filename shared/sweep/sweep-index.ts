@@ -163,7 +163,10 @@ export function unpackSweepIndex(bytes: Uint8Array): SweepRecordIndex {
   const headerLength = new DataView(buf.buffer, buf.byteOffset, 4).getUint32(0, true);
   const header = JSON.parse(new TextDecoder().decode(buf.subarray(4, 4 + headerLength))) as Header;
   if (header.format !== SWEEP_INDEX_FORMAT) throw new Error(`sweep index of format ${header.format}`);
-  const arrays = new Map<string, { type: StoredType; view: Float64Array | Float32Array | Int32Array | Uint8Array | Int16Array }>();
+  const arrays = new Map<
+    string,
+    { type: StoredType; view: Float64Array | Float32Array | Int32Array | Uint8Array | Int16Array }
+  >();
   let at = pad8(4 + headerLength);
   for (const a of header.arrays) {
     const offset = buf.byteOffset + at;
@@ -203,7 +206,14 @@ export function unpackSweepIndex(bytes: Uint8Array): SweepRecordIndex {
     if (!arrays.has(`${prefix}.t`)) return null;
     const start = i32(`${prefix}.start`);
     const hourIdx = i32(`${prefix}.hourIdx`);
-    return { t: f64(`${prefix}.t`), w: f64(`${prefix}.w`), count: f64(`${prefix}.count`), start, hourIdx, binOfHour: binOfHourFrom(start, hourIdx, header.n) };
+    return {
+      t: f64(`${prefix}.t`),
+      w: f64(`${prefix}.w`),
+      count: f64(`${prefix}.count`),
+      start,
+      hourIdx,
+      binOfHour: binOfHourFrom(start, hourIdx, header.n),
+    };
   };
   const hours: Hours = {
     n: header.n,

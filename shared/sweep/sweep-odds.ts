@@ -4,7 +4,14 @@
  * #price-of-comfort, #uncertainty-band). Used by the sweep worker and the command line.
  */
 import { monteCarloSweep, type RowBand } from './monte-carlo';
-import { oddsOfRows, recordYearlyMinima, statsFromMinima, statsFromPublished, type ExtremeStats, type RowOdds } from './odds';
+import {
+  oddsOfRows,
+  recordYearlyMinima,
+  statsFromMinima,
+  statsFromPublished,
+  type ExtremeStats,
+  type RowOdds,
+} from './odds';
 import { priceOfComfort, type RowComfortPrice } from './price-of-comfort';
 import { indexSweepRecord, sweep, type SweepInput, type SweepResult, type SweepRow } from './sweep';
 import type { Tolerances } from './tolerances';
@@ -70,7 +77,12 @@ export function sweepWithOdds(input: SweepInput, options: SweepOddsOptions): Swe
     ...nominal,
     rows: nominal.rows.map((row, i) => ({
       ...row,
-      ...(odds[i] ?? { annualExceedanceProbability: null, recordExceedanceShare: null, lifetimeExceedanceProbability: null, lifetimeYears: null }),
+      ...(odds[i] ?? {
+        annualExceedanceProbability: null,
+        recordExceedanceShare: null,
+        lifetimeExceedanceProbability: null,
+        lifetimeYears: null,
+      }),
       ...(comfort[i] ?? { costPerAvoidedUnmetHour: null, costPerAvoidedWorstYearHour: null }),
       ...(mc?.rows[i] ?? NO_BAND),
     })),

@@ -41,13 +41,15 @@ export function designLadder(values: SweepDesignValues, extraDesignC: readonly n
     { kind: 'p996', label: NAMED_ROW_LABELS.p996, designC: values.heating.db99_6, isGrid: false },
   ];
   const ex = values.extremeMin;
-  if (typeof ex?.mean === 'number') named.push({ kind: 'annualMin', label: NAMED_ROW_LABELS.annualMin, designC: ex.mean, isGrid: false });
+  if (typeof ex?.mean === 'number')
+    named.push({ kind: 'annualMin', label: NAMED_ROW_LABELS.annualMin, designC: ex.mean, isGrid: false });
   for (const n of ['5', '10', '20', '50'] as const) {
     const v = ex?.returnPeriod?.[n];
     const kind = `rp${n}` as const;
     if (typeof v === 'number') named.push({ kind, label: NAMED_ROW_LABELS[kind], designC: v, isGrid: false });
   }
-  for (const t of extraDesignC) if (Number.isFinite(t)) named.push({ kind: 'extra', label: fmtC(t), designC: t, isGrid: false });
+  for (const t of extraDesignC)
+    if (Number.isFinite(t)) named.push({ kind: 'extra', label: fmtC(t), designC: t, isGrid: false });
   const temps = named.map((r) => r.designC);
   const mildest = Math.max(...temps);
   const coldest = Math.min(...temps);

@@ -8,7 +8,13 @@ import type { Decimal } from 'decimal.js';
 import { capacityAt } from '../equipment/capacity';
 import type { EquipmentOption } from '../equipment/equipment-schemas';
 import { parseMoney } from '../money/money';
-import { DEFAULT_HEAT_PUMP_SIZING, type EquipmentFamily, type HeatPumpSizing, type SelectionRule, type SweepOption } from './sweep-types';
+import {
+  DEFAULT_HEAT_PUMP_SIZING,
+  type EquipmentFamily,
+  type HeatPumpSizing,
+  type SelectionRule,
+  type SweepOption,
+} from './sweep-types';
 
 export function familyOf(option: Pick<EquipmentOption, 'kind'>): EquipmentFamily {
   if (option.kind === 'heat-pump') return 'heat-pump';
@@ -17,7 +23,11 @@ export function familyOf(option: Pick<EquipmentOption, 'kind'>): EquipmentFamily
 }
 
 /** The capacity counted against the design load: a heat pump's compressor alone under the `compressor` rule. */
-export function sizingCapacityW(option: EquipmentOption, designC: number, rule: HeatPumpSizing = DEFAULT_HEAT_PUMP_SIZING): number {
+export function sizingCapacityW(
+  option: EquipmentOption,
+  designC: number,
+  rule: HeatPumpSizing = DEFAULT_HEAT_PUMP_SIZING,
+): number {
   const c = capacityAt(option, designC);
   return option.kind === 'heat-pump' && rule === 'compressor' ? c.compressorW : c.totalW;
 }
@@ -49,11 +59,14 @@ export function selectOption(
     const capacityW = sizingCapacityW(option, designC, heatPumpSizing);
     if (!(capacityW >= designLoadW)) continue;
     const price = parseMoney(option.installedPrice);
-    const cost = rule === 'lowest-life-cycle-cost' ? lifeCycleCostOf(option) : rule === 'lowest-installed-price' ? price : null;
+    const cost =
+      rule === 'lowest-life-cycle-cost' ? lifeCycleCostOf(option) : rule === 'lowest-installed-price' ? price : null;
     let better: boolean;
     if (best === null) better = true;
     else if (rule === 'smallest-capacity') {
-      better = capacityW < best.capacityW || (capacityW === best.capacityW && price.lt(parseMoney(best.option.installedPrice)));
+      better =
+        capacityW < best.capacityW ||
+        (capacityW === best.capacityW && price.lt(parseMoney(best.option.installedPrice)));
     } else if (cost === null || best.cost === null) {
       better = best.cost === null && (cost !== null || capacityW < best.capacityW);
     } else {

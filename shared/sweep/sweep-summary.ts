@@ -21,7 +21,8 @@ export function warningsOf(input: SweepInput, common: Common): SweepWarning[] {
     if (!hasReturnPeriods) {
       warnings.push({
         code: 'no-return-periods',
-        message: 'The record is too short for return-period temperatures (5- to 50-year); the design temperatures stop at the coldest value it has.',
+        message:
+          'The record is too short for return-period temperatures (5- to 50-year); the design temperatures stop at the coldest value it has.',
       });
     } else if (years < 10) {
       warnings.push({
@@ -51,7 +52,8 @@ export function warningsOf(input: SweepInput, common: Common): SweepWarning[] {
 /** The note on a return-period row from a short record (docs/methods.md#warnings); null on other rows. */
 export function reliabilityNoteOf(kind: RowKind, years: number | null): string | null {
   if (years === null || !RETURN_PERIOD_KINDS.has(kind)) return null;
-  if (kind === 'rp50' && years < 20) return `Extrapolated from ${years} years of record (fewer than 20): a rough estimate`;
+  if (kind === 'rp50' && years < 20)
+    return `Extrapolated from ${years} years of record (fewer than 20): a rough estimate`;
   if (years < 10) return `From ${years} years of record (fewer than 10): unreliable`;
   return null;
 }

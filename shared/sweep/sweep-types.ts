@@ -164,7 +164,8 @@ export interface SweepRow {
 
 /** Something the user should know about a sweep's figures. */
 export interface SweepWarning {
-  code: 'short-record' | 'return-periods-unreliable' | 'fifty-year-short-record' | 'no-return-periods' | 'mixed-families';
+  code:
+    'short-record' | 'return-periods-unreliable' | 'fifty-year-short-record' | 'no-return-periods' | 'mixed-families';
   message: string;
 }
 

@@ -71,7 +71,12 @@ export {
   partLoadFactor,
   steadyIndoorC,
 } from './sweep-hourly';
-export { modifiedUniformPresentValue, ownershipFactor, singlePresentValue, uniformPresentValue } from './sweep-economics';
+export {
+  modifiedUniformPresentValue,
+  ownershipFactor,
+  singlePresentValue,
+  uniformPresentValue,
+} from './sweep-economics';
 
 function buildRows(
   input: SweepInput,
@@ -173,7 +178,9 @@ function resultOf(input: SweepInput, common: Common, rows: SweepRow[]): SweepRes
 /** Reference sweep: for every ladder row, selection over the options and a full pass over the hours of each option it weighs. */
 export function sweepNaive(input: SweepInput): SweepResult {
   const common = commonOf(input);
-  const rows = buildRows(input, common, (option, h) => simulateNaive(input.building, option, h, common.tauH, input.designWindMs));
+  const rows = buildRows(input, common, (option, h) =>
+    simulateNaive(input.building, option, h, common.tauH, input.designWindMs),
+  );
   return resultOf(input, common, rows);
 }
 

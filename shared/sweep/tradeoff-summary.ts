@@ -102,11 +102,19 @@ export function tradeoffSentence(chosen: Row, ctx: SummaryContext): string {
     cost = `Sizing for ${point(chosen)} installs the same unit as sizing for ${point(coldest)} (${unit}), so the colder design costs nothing more.`;
   } else {
     const d = parseMoney(coldest.installedPrice ?? '0').minus(parseMoney(chosen.installedPrice ?? '0'));
-    const priceText = d.isZero() ? 'for the same installed price' : d.gt(0) ? `for ${money(d.toString())} less installed` : `for ${money(d.abs().toString())} more installed`;
+    const priceText = d.isZero()
+      ? 'for the same installed price'
+      : d.gt(0)
+        ? `for ${money(d.toString())} less installed`
+        : `for ${money(d.abs().toString())} more installed`;
     let lcc = '';
     if (chosen.lifeCycleCost !== null && coldest.lifeCycleCost !== null) {
       const l = parseMoney(coldest.lifeCycleCost).minus(parseMoney(chosen.lifeCycleCost));
-      lcc = l.isZero() ? ', the same life-cycle cost over the study period' : l.gt(0) ? ` (${money(l.toString())} less life-cycle cost over the study period)` : ` (${money(l.abs().toString())} more life-cycle cost over the study period)`;
+      lcc = l.isZero()
+        ? ', the same life-cycle cost over the study period'
+        : l.gt(0)
+          ? ` (${money(l.toString())} less life-cycle cost over the study period)`
+          : ` (${money(l.abs().toString())} more life-cycle cost over the study period)`;
     }
     cost = `Sizing for ${point(chosen)} instead of ${point(coldest)} installs ${unit} instead of ${coldUnit}, ${priceText}${lcc}.`;
   }
@@ -120,7 +128,8 @@ export function tradeoffSentence(chosen: Row, ctx: SummaryContext): string {
  */
 export function homeownerSentence(r: Row, ctx: SummaryContext): string {
   const system = ctx.unitSystem;
-  if (r.selectedOptionId === null) return 'No unit on the list is big enough for this choice, so it is shown for comparison only.';
+  if (r.selectedOptionId === null)
+    return 'No unit on the list is big enough for this choice, so it is shown for comparison only.';
   if (!ctx.hasRecord || r.unmetHoursPerYear === null || r.unmetHoursWorstYear === null) {
     return 'This place has no hour-by-hour weather record in the report, so how often this unit could fall short is not known.';
   }
@@ -156,10 +165,16 @@ export function nearestRowIndex(rows: readonly Pick<SweepRow, 'designC' | 'isGri
 export function defaultRowIndex(rows: readonly Pick<SweepRow, 'kind' | 'isGrid'>[]): number {
   const i = rows.findIndex((r) => r.kind === 'p996');
   if (i >= 0) return i;
-  return Math.max(0, rows.findIndex((r) => !r.isGrid));
+  return Math.max(
+    0,
+    rows.findIndex((r) => !r.isGrid),
+  );
 }
 
 /** The chosen row: the one nearest the saved design point, or the default one when none is saved. */
-export function chosenRowIndex(rows: readonly Pick<SweepRow, 'kind' | 'isGrid' | 'designC'>[], chosenDesignC: number | null): number {
+export function chosenRowIndex(
+  rows: readonly Pick<SweepRow, 'kind' | 'isGrid' | 'designC'>[],
+  chosenDesignC: number | null,
+): number {
   return chosenDesignC === null ? defaultRowIndex(rows) : nearestRowIndex(rows, chosenDesignC);
 }

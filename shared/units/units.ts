@@ -47,7 +47,14 @@ export const quantities = {
     decimalsIp: 3,
   },
   /** Thermal resistance: m²·K/W ↔ h·ft²·°F/Btu. */
-  rValue: { si: 'm^2 K/W', ip: 'h ft^2 degR/BTU', labelSi: 'm²·K/W', labelIp: 'h·ft²·°F/Btu', decimalsSi: 2, decimalsIp: 1 },
+  rValue: {
+    si: 'm^2 K/W',
+    ip: 'h ft^2 degR/BTU',
+    labelSi: 'm²·K/W',
+    labelIp: 'h·ft²·°F/Btu',
+    decimalsSi: 2,
+    decimalsIp: 1,
+  },
   /** Conductance (UA): W/K ↔ Btu/(h·°F). */
   conductance: { si: 'W/K', ip: 'BTU/(h degR)', labelSi: 'W/K', labelIp: 'Btu/(h·°F)', decimalsSi: 1, decimalsIp: 1 },
   /** Effective leakage area: cm² ↔ in². */
@@ -56,7 +63,10 @@ export const quantities = {
 export type Quantity = keyof typeof quantities;
 
 /** The building and equipment quantities (the building form and the equipment list convert these). */
-export type BuildingQuantity = Exclude<Quantity, 'temperature' | 'temperatureDifference' | 'speed' | 'length' | 'humidityRatio' | 'degreeDays' | 'degreeHours'>;
+export type BuildingQuantity = Exclude<
+  Quantity,
+  'temperature' | 'temperatureDifference' | 'speed' | 'length' | 'humidityRatio' | 'degreeDays' | 'degreeHours'
+>;
 
 /** 1 g/kg = 7 gr/lb (7000 grains per pound; 1 g/kg = 0.001 lb/lb). */
 const GRAINS_PER_LB_PER_G_PER_KG = 7;

@@ -108,8 +108,7 @@ export const routes: Routes = [
     path: 'equipment-lists/:id',
     title: 'Equipment list · Tailroom',
     canActivate: [authGuard],
-    loadComponent: () =>
-      import('./equipment/equipment-list-page/equipment-list-page').then((m) => m.EquipmentListPage),
+    loadComponent: () => import('./equipment/equipment-list-page/equipment-list-page').then((m) => m.EquipmentListPage),
   },
   {
     path: 'billing',

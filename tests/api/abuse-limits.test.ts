@@ -15,14 +15,38 @@ import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
 import { FAKE_STRIPE_WEBHOOK_SECRET, parseConfig } from '../../server/config';
 import { headerText } from '../../server/mail/header-text';
 import { fixture, type Fixture } from '../support/scenario-fixture';
-import { createTestApp, inviteMember, newAgent, PASSWORD, signUp, uniqueEmail, useTestApp, type TestApp } from '../support/test-app';
+import {
+  createTestApp,
+  inviteMember,
+  newAgent,
+  PASSWORD,
+  signUp,
+  uniqueEmail,
+  useTestApp,
+  type TestApp,
+} from '../support/test-app';
 
 const t = useTestApp();
 
 async function reportOf(f: Fixture): Promise<string> {
-  const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Gas bid', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } }).expect(201)).body);
-  const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200)).body as { rows: { designC: number }[] };
-  const report = reportSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'Your heating options', points: [sweep.rows[0]?.designC ?? -10] }).expect(201)).body);
+  const scenario = scenarioSchema.parse(
+    (
+      await f.agent
+        .post(`/api/v1/projects/${f.projectId}/scenarios`)
+        .send({ name: 'Gas bid', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } })
+        .expect(201)
+    ).body,
+  );
+  const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200))
+    .body as { rows: { designC: number }[] };
+  const report = reportSchema.parse(
+    (
+      await f.agent
+        .post(`/api/v1/projects/${f.projectId}/reports`)
+        .send({ scenarioId: scenario.id, title: 'Your heating options', points: [sweep.rows[0]?.designC ?? -10] })
+        .expect(201)
+    ).body,
+  );
   return `/api/v1/projects/${f.projectId}/reports/${report.id}`;
 }
 
@@ -47,12 +71,18 @@ describe('report e-mails', () => {
       assert.equal(body.error.code, 'rate_limited');
       assert.match(body.error.message, /Too many report e-mails to this address today; try again in \d+ hours/);
       const retryAfter = Number(perRecipient.headers['retry-after']);
-      assert.ok(retryAfter > 23 * 3600 && retryAfter <= 24 * 3600, `Retry-After ${String(perRecipient.headers['retry-after'])}`);
+      assert.ok(
+        retryAfter > 23 * 3600 && retryAfter <= 24 * 3600,
+        `Retry-After ${String(perRecipient.headers['retry-after'])}`,
+      );
 
       // The organisation's hourly limit (4): the refused send above counted, so one more goes out.
       await owner.post(`${base}/send`).send({ to: 'other@example.test' }).expect(201);
       const perOrg = await owner.post(`${base}/send`).send({ to: 'third@example.test' }).expect(429);
-      assert.match((perOrg.body as { error: { message: string } }).error.message, /from this organisation this hour; try again in \d+ minutes/);
+      assert.match(
+        (perOrg.body as { error: { message: string } }).error.message,
+        /from this organisation this hour; try again in \d+ minutes/,
+      );
       assert.ok(Number(perOrg.headers['retry-after']) <= 3600);
 
       // Nothing was sent past a limit; every send that went out is in the audit log.
@@ -102,10 +132,19 @@ describe('sign-in from one network address', () => {
     const own = await createTestApp({ SIGN_IN_FAILURES_PER_ADDRESS: '5' });
     try {
       for (let i = 0; i < 5; i++) {
-        await request(own.app).post('/api/v1/auth/sign-in').send({ email: uniqueEmail('spray'), password: 'Winter2026!' }).expect(401);
+        await request(own.app)
+          .post('/api/v1/auth/sign-in')
+          .send({ email: uniqueEmail('spray'), password: 'Winter2026!' })
+          .expect(401);
       }
-      const limited = await request(own.app).post('/api/v1/auth/sign-in').send({ email: uniqueEmail('spray'), password: 'Winter2026!' }).expect(429);
-      assert.match((limited.body as { error: { message: string } }).error.message, /failed sign-ins from this network address/);
+      const limited = await request(own.app)
+        .post('/api/v1/auth/sign-in')
+        .send({ email: uniqueEmail('spray'), password: 'Winter2026!' })
+        .expect(429);
+      assert.match(
+        (limited.body as { error: { message: string } }).error.message,
+        /failed sign-ins from this network address/,
+      );
       assert.ok(Number(limited.headers['retry-after']) > 0);
     } finally {
       await own.close();
@@ -121,10 +160,19 @@ describe('request edges', () => {
       const { port } = server.address() as AddressInfo;
       const t0 = performance.now();
       const status = await new Promise<number>((resolve, reject) => {
-        const req = httpRequest({ host: '127.0.0.1', port, method: 'POST', path: '/api/v1/auth/sign-in', headers: { 'content-type': 'application/json', 'content-length': String(2 * 1024 ** 3) } }, (res) => {
-          res.resume();
-          resolve(res.statusCode ?? 0);
-        });
+        const req = httpRequest(
+          {
+            host: '127.0.0.1',
+            port,
+            method: 'POST',
+            path: '/api/v1/auth/sign-in',
+            headers: { 'content-type': 'application/json', 'content-length': String(2 * 1024 ** 3) },
+          },
+          (res) => {
+            res.resume();
+            resolve(res.statusCode ?? 0);
+          },
+        );
         req.on('error', reject);
         req.write('{"email":"');
       });
@@ -138,7 +186,9 @@ describe('request edges', () => {
 
   it('keeps a UTF-8 upload file name as sent (café stays café)', async () => {
     const owner = await signUp(t);
-    const res = await owner.agent.put('/api/v1/organization/logo').attach('logo', Buffer.from('not an image at all'), 'café.txt');
+    const res = await owner.agent
+      .put('/api/v1/organization/logo')
+      .attach('logo', Buffer.from('not an image at all'), 'café.txt');
     assert.ok(res.status >= 400 && res.status < 500, String(res.status));
     assert.match(JSON.stringify(res.body), /café\.txt/);
     assert.doesNotMatch(JSON.stringify(res.body), /cafÃ©/);
@@ -183,11 +233,20 @@ describe('development surfaces', () => {
 
     const anonymous = await request(t.app).get('/api/v1/dev/outbox').expect(401);
     assert.equal((anonymous.body as { error: { code: string } }).error.code, 'unauthenticated');
-    await request(t.app).get('/api/v1/dev/outbox').set('X-Dev-Outbox-Token', 'a-wrong-token-of-some-length').expect(401);
+    await request(t.app)
+      .get('/api/v1/dev/outbox')
+      .set('X-Dev-Outbox-Token', 'a-wrong-token-of-some-length')
+      .expect(401);
 
-    const all = (await request(t.app).get('/api/v1/dev/outbox').set('X-Dev-Outbox-Token', t.config.devOutboxToken).expect(200)).body as { to: string[] }[];
+    const all = (
+      await request(t.app).get('/api/v1/dev/outbox').set('X-Dev-Outbox-Token', t.config.devOutboxToken).expect(200)
+    ).body as { to: string[] }[];
     assert.ok(all.some((m) => m.to.includes(invitee)));
-    const viaQuery = (await request(t.app).get(`/api/v1/dev/outbox?token=${encodeURIComponent(t.config.devOutboxToken)}`).expect(200)).body as unknown[];
+    const viaQuery = (
+      await request(t.app)
+        .get(`/api/v1/dev/outbox?token=${encodeURIComponent(t.config.devOutboxToken)}`)
+        .expect(200)
+    ).body as unknown[];
     assert.equal(viaQuery.length, all.length);
 
     const own = (await owner.agent.get('/api/v1/dev/outbox').expect(200)).body as { to: string[] }[];
@@ -205,6 +264,9 @@ describe('development surfaces', () => {
     assert.notEqual(a.stripe.webhookSecret, b.stripe.webhookSecret);
     assert.notEqual(a.devOutboxToken, b.devOutboxToken);
     assert.ok(a.devOutboxToken.length >= 32);
-    assert.equal(parseConfig({ ...base, NODE_ENV: 'development', STRIPE_WEBHOOK_SECRET: 'whsec_given' }).stripe.webhookSecret, 'whsec_given');
+    assert.equal(
+      parseConfig({ ...base, NODE_ENV: 'development', STRIPE_WEBHOOK_SECRET: 'whsec_given' }).stripe.webhookSecret,
+      'whsec_given',
+    );
   });
 });

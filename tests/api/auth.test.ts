@@ -1,7 +1,16 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
-import { inviteMember, linkPath, linkToken, PASSWORD, signUp, uniqueEmail, useTestApp, newAgent } from '../support/test-app';
+import {
+  inviteMember,
+  linkPath,
+  linkToken,
+  PASSWORD,
+  signUp,
+  uniqueEmail,
+  useTestApp,
+  newAgent,
+} from '../support/test-app';
 
 const t = useTestApp();
 
@@ -18,7 +27,11 @@ async function startSignUp(body: Record<string, unknown>) {
   const mail = t.sink.waitFor((m) => m.to.includes(email));
   const res = await newAgent(t.app).post('/api/v1/auth/sign-up').send(body).expect(202);
   const sent = await mail;
-  return { res, mail: sent, token: sent.text.includes('/finish-sign-up/') ? linkToken(sent.text, '/finish-sign-up/') : null };
+  return {
+    res,
+    mail: sent,
+    token: sent.text.includes('/finish-sign-up/') ? linkToken(sent.text, '/finish-sign-up/') : null,
+  };
 }
 
 describe('create account', () => {
@@ -32,7 +45,10 @@ describe('create account', () => {
 
     const agent = newAgent(t.app);
     const pending = await agent.get(`/api/v1/auth/sign-ups/${token}`).expect(200);
-    assert.deepEqual({ ...pending.body, expiresAt: undefined }, { email: 'ada@example.test', name: 'Ada Byrne', organizationName: null, expiresAt: undefined });
+    assert.deepEqual(
+      { ...pending.body, expiresAt: undefined },
+      { email: 'ada@example.test', name: 'Ada Byrne', organizationName: null, expiresAt: undefined },
+    );
     const hours = (Date.parse(pending.body.expiresAt) - Date.now()) / 3_600_000;
     assert.ok(hours > 23.9 && hours <= 24, `the link works for 24 hours (${hours.toFixed(2)})`);
 
@@ -44,7 +60,10 @@ describe('create account', () => {
     assert.equal(done.body.currentOrganizationId, done.body.organizations[0].id);
     const session = await agent.get('/api/v1/session').expect(200);
     assert.equal(session.body.user.name, 'Ada Byrne');
-    const events = await t.db('audit_events').where({ type: 'account_created' }).select('organization_id', 'actor_email');
+    const events = await t
+      .db('audit_events')
+      .where({ type: 'account_created' })
+      .select('organization_id', 'actor_email');
     assert.deepEqual(events, [{ organization_id: done.body.currentOrganizationId, actor_email: 'ada@example.test' }]);
 
     // The link works once.
@@ -69,13 +88,25 @@ describe('create account', () => {
   });
 
   it('uses the organisation name given, and carries a return path of this site in the link', async () => {
-    const { token, mail } = await startSignUp({ email: uniqueEmail(), name: 'Bo', organizationName: 'Bo Heating', returnUrl: '/invitations/abc?x=1' });
+    const { token, mail } = await startSignUp({
+      email: uniqueEmail(),
+      name: 'Bo',
+      organizationName: 'Bo Heating',
+      returnUrl: '/invitations/abc?x=1',
+    });
     assert.match(mail.text, /\/finish-sign-up\/[A-Za-z0-9_-]+\?returnUrl=%2Finvitations%2Fabc%3Fx%3D1/);
     const done = await newAgent(t.app).post(`/api/v1/auth/sign-ups/${token}`).send({ password: PASSWORD }).expect(201);
     assert.equal(done.body.organizations[0].name, 'Bo Heating');
     for (const returnUrl of ['//elsewhere.example/x', 'https://elsewhere.example/', '/\\elsewhere', 'relative']) {
-      const res = await newAgent(t.app).post('/api/v1/auth/sign-up').send({ email: uniqueEmail(), name: 'X', returnUrl }).expect(400);
-      assert.deepEqual(res.body.error.details.map((d: { path: string }) => d.path), ['returnUrl'], returnUrl);
+      const res = await newAgent(t.app)
+        .post('/api/v1/auth/sign-up')
+        .send({ email: uniqueEmail(), name: 'X', returnUrl })
+        .expect(400);
+      assert.deepEqual(
+        res.body.error.details.map((d: { path: string }) => d.path),
+        ['returnUrl'],
+        returnUrl,
+      );
     }
   });
 
@@ -90,7 +121,10 @@ describe('create account', () => {
   it('refuses a password shorter than 12 characters with a field-level message, keeping the link usable', async () => {
     const email = uniqueEmail();
     const { token } = await startSignUp({ email, name: 'Short' });
-    const res = await newAgent(t.app).post(`/api/v1/auth/sign-ups/${token}`).send({ password: 'elevenchars' }).expect(400);
+    const res = await newAgent(t.app)
+      .post(`/api/v1/auth/sign-ups/${token}`)
+      .send({ password: 'elevenchars' })
+      .expect(400);
     assert.equal(res.body.error.code, 'invalid_input');
     assert.deepEqual(
       res.body.error.details.map((d: { path: string }) => d.path),
@@ -106,7 +140,10 @@ describe('create account', () => {
     const second = await startSignUp({ email, name: 'Two' });
     await newAgent(t.app).post(`/api/v1/auth/sign-ups/${second.token}`).send({ password: PASSWORD }).expect(201);
     // Finishing ends every open request for the address.
-    const late = await newAgent(t.app).post(`/api/v1/auth/sign-ups/${first.token}`).send({ password: PASSWORD }).expect(400);
+    const late = await newAgent(t.app)
+      .post(`/api/v1/auth/sign-ups/${first.token}`)
+      .send({ password: PASSWORD })
+      .expect(400);
     assert.equal(late.body.error.code, 'invalid_sign_up_link');
     const count = await t.db('users').where({ email }).count<{ count: number }[]>('* as count');
     assert.equal(count[0]?.count, 1);
@@ -139,22 +176,23 @@ describe('bad input gets a clear 4xx and stores nothing', () => {
   const cases: [string, () => request.Test, number, string][] = [
     [
       'malformed JSON',
-      () => request(t.app).post('/api/v1/auth/sign-up').set('content-type', 'application/json').send('{"email": "a@b.c",'),
+      () =>
+        request(t.app).post('/api/v1/auth/sign-up').set('content-type', 'application/json').send('{"email": "a@b.c",'),
       400,
       'malformed_json',
     ],
     [
       'wrong types',
-      () => request(t.app).post('/api/v1/auth/sign-up').send({ email: 42, name: ['x'], password: true }),
+      () =>
+        request(t.app)
+          .post('/api/v1/auth/sign-up')
+          .send({ email: 42, name: ['x'], password: true }),
       400,
       'invalid_input',
     ],
     [
       'unknown fields',
-      () =>
-        request(t.app)
-          .post('/api/v1/auth/sign-up')
-          .send({ email: 'x@example.test', name: 'X', isAdmin: true }),
+      () => request(t.app).post('/api/v1/auth/sign-up').send({ email: 'x@example.test', name: 'X', isAdmin: true }),
       400,
       'invalid_input',
     ],
@@ -167,12 +205,7 @@ describe('bad input gets a clear 4xx and stores nothing', () => {
       413,
       'payload_too_large',
     ],
-    [
-      'no body at all',
-      () => request(t.app).post('/api/v1/auth/sign-up'),
-      400,
-      'invalid_input',
-    ],
+    ['no body at all', () => request(t.app).post('/api/v1/auth/sign-up'), 400, 'invalid_input'],
   ];
   for (const [label, send, status, code] of cases) {
     it(`answers ${status} ${code} to ${label}`, async () => {
@@ -210,13 +243,22 @@ describe('sign in and sign out', () => {
     assert.notEqual(id(first), id(second), 'a new session id at each sign-in');
     assert.equal(second.body.user.email, email);
     // The session id held before signing in no longer works (session fixation).
-    await request(t.app).get('/api/v1/members').set('cookie', id(first) ?? '').expect(401);
-    await request(t.app).get('/api/v1/members').set('cookie', id(second) ?? '').expect(200);
+    await request(t.app)
+      .get('/api/v1/members')
+      .set('cookie', id(first) ?? '')
+      .expect(401);
+    await request(t.app)
+      .get('/api/v1/members')
+      .set('cookie', id(second) ?? '')
+      .expect(200);
   });
 
   it('answers a wrong password and an unknown e-mail alike', async () => {
     const { email } = await signUp(t);
-    const wrong = await request(t.app).post('/api/v1/auth/sign-in').send({ email, password: 'not the password' }).expect(401);
+    const wrong = await request(t.app)
+      .post('/api/v1/auth/sign-in')
+      .send({ email, password: 'not the password' })
+      .expect(401);
     const unknown = await request(t.app)
       .post('/api/v1/auth/sign-in')
       .send({ email: 'nobody@example.test', password: 'not the password' })
@@ -236,7 +278,9 @@ describe('sign in and sign out', () => {
 
   it('keeps sessions in PostgreSQL', async () => {
     const { userId } = await signUp(t);
-    const rows = await t.db.raw(`SELECT count(*)::int AS n FROM "session" WHERE (sess -> 'passport' ->> 'user') = ?`, [userId]);
+    const rows = await t.db.raw(`SELECT count(*)::int AS n FROM "session" WHERE (sess -> 'passport' ->> 'user') = ?`, [
+      userId,
+    ]);
     assert.equal(rows.rows[0].n, 1);
   });
 });
@@ -274,16 +318,24 @@ describe('password reset by e-mail', () => {
     const { email } = await signUp(t);
     const mail = t.sink.waitFor((m) => m.to.includes(email));
     await request(t.app).post('/api/v1/auth/password-resets').send({ email }).expect(202);
-    const token = linkPath((await mail).text, '/reset-password/').split('/').pop();
+    const token = linkPath((await mail).text, '/reset-password/')
+      .split('/')
+      .pop();
     await t.db('password_resets').update({ expires_at: new Date(Date.now() - 1000) });
-    await request(t.app).post(`/api/v1/auth/password-resets/${token}`).send({ password: 'a brand new passphrase' }).expect(400);
+    await request(t.app)
+      .post(`/api/v1/auth/password-resets/${token}`)
+      .send({ password: 'a brand new passphrase' })
+      .expect(400);
     await request(t.app).post('/api/v1/auth/sign-in').send({ email, password: PASSWORD }).expect(200);
   });
 
   it('answers an unknown address exactly as a known one, and sends nothing', async () => {
     const { email } = await signUp(t);
     const known = await request(t.app).post('/api/v1/auth/password-resets').send({ email }).expect(202);
-    const unknown = await request(t.app).post('/api/v1/auth/password-resets').send({ email: 'ghost@example.test' }).expect(202);
+    const unknown = await request(t.app)
+      .post('/api/v1/auth/password-resets')
+      .send({ email: 'ghost@example.test' })
+      .expect(202);
     assert.deepEqual(known.body, unknown.body);
     await new Promise((r) => setTimeout(r, 300));
     assert.equal(t.sink.messages().filter((m) => m.to.includes('ghost@example.test')).length, 0);

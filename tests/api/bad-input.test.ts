@@ -5,7 +5,17 @@ import { signUp, useTestApp } from '../support/test-app';
 const t = useTestApp();
 
 /** Bodies a careless or hostile client might send; none may cause a 500. */
-const BODIES: unknown[] = [[], 'text', 42, null, {}, { version: 'one' }, { name: { $ne: 1 } }, { options: 'all' }, { csv: 7 }];
+const BODIES: unknown[] = [
+  [],
+  'text',
+  42,
+  null,
+  {},
+  { version: 'one' },
+  { name: { $ne: 1 } },
+  { options: 'all' },
+  { csv: 7 },
+];
 
 describe('malformed input on every write route', () => {
   it('answers 4xx in the error shape, never 500, and stores nothing', async () => {
@@ -13,7 +23,15 @@ describe('malformed input on every write route', () => {
     const site = await agent.post('/api/v1/climate-sites').send({ name: 'S', sourceKind: 'hourly' }).expect(201);
     const project = await agent.post('/api/v1/projects').send({ name: 'P' }).expect(201);
     const list = await agent.post('/api/v1/equipment-lists').send({ name: 'L' }).expect(201);
-    const before = await Promise.all(['projects', 'climate_sites', 'equipment_lists', 'equipment_options', 'energy_prices', 'invitations'].map((table) => t.db(table).count<{ n: number }[]>('* as n').then((r) => r[0]?.n)));
+    const before = await Promise.all(
+      ['projects', 'climate_sites', 'equipment_lists', 'equipment_options', 'energy_prices', 'invitations'].map(
+        (table) =>
+          t
+            .db(table)
+            .count<{ n: number }[]>('* as n')
+            .then((r) => r[0]?.n),
+      ),
+    );
     const routes: [string, string][] = [
       ['post', '/api/v1/projects'],
       ['patch', `/api/v1/projects/${project.body.id}`],
@@ -39,13 +57,28 @@ describe('malformed input on every write route', () => {
         const res = await req.set('content-type', 'application/json').send(JSON.stringify(body));
         const label = `${method.toUpperCase()} ${url} ${JSON.stringify(body)} → ${res.status}`;
         // An empty object is a valid "change nothing" for the two PATCH routes without a version.
-        const emptyPatch = body !== null && typeof body === 'object' && !Array.isArray(body) && Object.keys(body).length === 0 && method === 'patch' && !url.includes('/projects/') && !url.includes('/equipment-lists/');
+        const emptyPatch =
+          body !== null &&
+          typeof body === 'object' &&
+          !Array.isArray(body) &&
+          Object.keys(body).length === 0 &&
+          method === 'patch' &&
+          !url.includes('/projects/') &&
+          !url.includes('/equipment-lists/');
         if (emptyPatch && res.status === 200) continue;
         assert.ok(res.status >= 400 && res.status < 500, label);
         assert.equal(typeof res.body.error?.message, 'string', `${label}: error shape`);
       }
     }
-    const after = await Promise.all(['projects', 'climate_sites', 'equipment_lists', 'equipment_options', 'energy_prices', 'invitations'].map((table) => t.db(table).count<{ n: number }[]>('* as n').then((r) => r[0]?.n)));
+    const after = await Promise.all(
+      ['projects', 'climate_sites', 'equipment_lists', 'equipment_options', 'energy_prices', 'invitations'].map(
+        (table) =>
+          t
+            .db(table)
+            .count<{ n: number }[]>('* as n')
+            .then((r) => r[0]?.n),
+      ),
+    );
     assert.deepEqual(after, before);
   });
 });

@@ -22,8 +22,17 @@ let webhookUrl = '';
 const sdk = new Stripe(FAKE_STRIPE_SECRET_KEY);
 
 before(async () => {
-  fake = await startPaymentFake({ secretKey: FAKE_STRIPE_SECRET_KEY, webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET, retryBaseMs: 40, maxAttempts: 10 });
-  t = await createTestApp({ STRIPE_API_HOST: '127.0.0.1', STRIPE_API_PORT: String(fake.port), STRIPE_API_PROTOCOL: 'http' });
+  fake = await startPaymentFake({
+    secretKey: FAKE_STRIPE_SECRET_KEY,
+    webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET,
+    retryBaseMs: 40,
+    maxAttempts: 10,
+  });
+  t = await createTestApp({
+    STRIPE_API_HOST: '127.0.0.1',
+    STRIPE_API_PORT: String(fake.port),
+    STRIPE_API_PROTOCOL: 'http',
+  });
   server = createServer(t.app);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   webhookUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/v1/billing/webhook`;
@@ -40,7 +49,10 @@ beforeEach(async () => {
 });
 
 /** Pays on the fake's hosted checkout page as a browser would (form post). */
-async function pay(checkoutUrl: string, card: string): Promise<{ status: number; location: string | null; text: string }> {
+async function pay(
+  checkoutUrl: string,
+  card: string,
+): Promise<{ status: number; location: string | null; text: string }> {
   const res = await fetch(checkoutUrl, {
     method: 'POST',
     headers: { 'content-type': 'application/x-www-form-urlencoded' },
@@ -61,7 +73,8 @@ async function upgrade(owner: Awaited<ReturnType<typeof signUp>>, card: string =
   return paid;
 }
 
-const billingOf = async (owner: Awaited<ReturnType<typeof signUp>>) => billingSchema.parse((await owner.agent.get('/api/v1/billing').expect(200)).body);
+const billingOf = async (owner: Awaited<ReturnType<typeof signUp>>) =>
+  billingSchema.parse((await owner.agent.get('/api/v1/billing').expect(200)).body);
 
 function signed(event: object): { body: string; header: string } {
   const body = JSON.stringify(event);
@@ -75,7 +88,10 @@ describe('billing', () => {
     for (const name of ['One', 'Two', 'Three']) await owner.agent.post('/api/v1/projects').send({ name }).expect(201);
     const refused = await owner.agent.post('/api/v1/projects').send({ name: 'Four' }).expect(402);
     assert.equal((refused.body as { error: { code: string } }).error.code, 'plan_limit');
-    assert.match((refused.body as { error: { message: string } }).error.message, /Starter plan holds 3 active projects/);
+    assert.match(
+      (refused.body as { error: { message: string } }).error.message,
+      /Starter plan holds 3 active projects/,
+    );
     assert.equal((await t.db('projects').count<{ n: number }[]>('id as n'))[0]?.n, 3);
     const usage = (await owner.agent.get('/api/v1/billing/usage').expect(200)).body as Billing['usage'];
     assert.deepEqual(usage.projects, { used: 3, limit: 3 });
@@ -111,10 +127,21 @@ describe('billing', () => {
   });
 
   it('refuses a webhook with a bad signature and changes nothing', async () => {
-    const event = { id: 'evt_forged', object: 'event', type: 'customer.subscription.updated', created: 1, data: { object: {} } };
+    const event = {
+      id: 'evt_forged',
+      object: 'event',
+      type: 'customer.subscription.updated',
+      created: 1,
+      data: { object: {} },
+    };
     const body = JSON.stringify(event);
     const header = sdk.webhooks.generateTestHeaderString({ payload: body, secret: 'whsec_not_the_right_one' });
-    const res = await request(t.app).post('/api/v1/billing/webhook').set('content-type', 'application/json').set('stripe-signature', header).send(body).expect(400);
+    const res = await request(t.app)
+      .post('/api/v1/billing/webhook')
+      .set('content-type', 'application/json')
+      .set('stripe-signature', header)
+      .send(body)
+      .expect(400);
     assert.equal((res.body as { error: { code: string } }).error.code, 'bad_signature');
     await request(t.app).post('/api/v1/billing/webhook').set('content-type', 'application/json').send(body).expect(400);
     assert.equal((await t.db('billing_events').count<{ n: number }[]>('id as n'))[0]?.n, 0);
@@ -123,7 +150,10 @@ describe('billing', () => {
   it('records a replayed event once, and ends in the provider’s state when events arrive out of order', async () => {
     const owner = await signUp(t);
     await upgrade(owner);
-    const account = await t.db('billing_accounts').where({ organization_id: owner.organizationId }).first<{ subscription_id: string }>('subscription_id');
+    const account = await t
+      .db('billing_accounts')
+      .where({ organization_id: owner.organizationId })
+      .first<{ subscription_id: string }>('subscription_id');
     // The provider cancels the subscription; its own event is delivered and applied.
     await fetch(`${fake.url}/_fake/subscriptions/${account.subscription_id}/status`, {
       method: 'POST',
@@ -143,14 +173,37 @@ describe('billing', () => {
       livemode: false,
       pending_webhooks: 1,
       request: { id: null },
-      data: { object: { id: account.subscription_id, object: 'subscription', status: 'active', customer: 'cus_x', metadata: {}, cancel_at_period_end: false, items: { data: [] } } },
+      data: {
+        object: {
+          id: account.subscription_id,
+          object: 'subscription',
+          status: 'active',
+          customer: 'cus_x',
+          metadata: {},
+          cancel_at_period_end: false,
+          items: { data: [] },
+        },
+      },
     };
     const { body, header } = signed(late);
-    const first = await request(t.app).post('/api/v1/billing/webhook').set('content-type', 'application/json').set('stripe-signature', header).send(body).expect(200);
-    const again = await request(t.app).post('/api/v1/billing/webhook').set('content-type', 'application/json').set('stripe-signature', header).send(body).expect(200);
+    const first = await request(t.app)
+      .post('/api/v1/billing/webhook')
+      .set('content-type', 'application/json')
+      .set('stripe-signature', header)
+      .send(body)
+      .expect(200);
+    const again = await request(t.app)
+      .post('/api/v1/billing/webhook')
+      .set('content-type', 'application/json')
+      .set('stripe-signature', header)
+      .send(body)
+      .expect(200);
     assert.match((first.body as { outcome: string }).outcome, /^applied: crew canceled/);
     assert.match((again.body as { outcome: string }).outcome, /^duplicate/);
-    assert.equal((await t.db('billing_events').where({ id: 'evt_late_active' }).count<{ n: number }[]>('id as n'))[0]?.n, 1);
+    assert.equal(
+      (await t.db('billing_events').where({ id: 'evt_late_active' }).count<{ n: number }[]>('id as n'))[0]?.n,
+      1,
+    );
     const b = await billingOf(owner);
     assert.equal(b.status, 'canceled');
     assert.equal(b.usage.plan, 'starter');
@@ -165,7 +218,10 @@ describe('billing', () => {
     await new Promise((r) => setTimeout(r, 200));
     const waiting = fake.deliveries().slice(from);
     assert.equal(waiting.length, 2);
-    assert.ok(waiting.every((d) => d.status === 'pending' && d.attempts >= 2), JSON.stringify(waiting));
+    assert.ok(
+      waiting.every((d) => d.status === 'pending' && d.attempts >= 2),
+      JSON.stringify(waiting),
+    );
     assert.equal((await billingOf(owner)).usage.plan, 'starter');
     fake.setWebhookUrl(webhookUrl);
     await fake.idle();
@@ -190,9 +246,18 @@ describe('billing', () => {
 
   it('holds three members on the free plan, counting open invitations', async () => {
     const owner = await signUp(t);
-    await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('first'), role: 'designer' }).expect(201);
-    await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('second'), role: 'viewer' }).expect(201);
-    const refused = await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('third'), role: 'viewer' }).expect(402);
+    await owner.agent
+      .post('/api/v1/invitations')
+      .send({ email: uniqueEmail('first'), role: 'designer' })
+      .expect(201);
+    await owner.agent
+      .post('/api/v1/invitations')
+      .send({ email: uniqueEmail('second'), role: 'viewer' })
+      .expect(201);
+    const refused = await owner.agent
+      .post('/api/v1/invitations')
+      .send({ email: uniqueEmail('third'), role: 'viewer' })
+      .expect(402);
     assert.match((refused.body as { error: { message: string } }).error.message, /Starter plan holds 3 members/);
   });
 

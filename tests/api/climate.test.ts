@@ -20,13 +20,17 @@ const published = {
 };
 
 async function hourlySite(agent: request.Agent, elevationM: number | null = site.elevationM) {
-  const res = await agent.post('/api/v1/climate-sites').send({ name: 'Upload test', sourceKind: 'hourly', elevationM }).expect(201);
+  const res = await agent
+    .post('/api/v1/climate-sites')
+    .send({ name: 'Upload test', sourceKind: 'hourly', elevationM })
+    .expect(201);
   return res.body.id as string;
 }
 
 const count = async (table: string) => (await t.db(table).count<{ n: number }[]>('* as n'))[0]?.n;
 /** Hours of every stored hourly record. */
-const storedHours = async () => Number((await t.db('climate_records').sum<{ n: string | null }[]>('hour_count as n'))[0]?.n ?? 0);
+const storedHours = async () =>
+  Number((await t.db('climate_records').sum<{ n: string | null }[]>('hour_count as n'))[0]?.n ?? 0);
 
 describe('climate sites with published values', () => {
   it('stores typed-in values with their source, and lists them', async () => {
@@ -39,17 +43,27 @@ describe('climate sites with published values', () => {
     assert.equal(res.body.heatingDb99_6, -28.4);
     assert.equal(res.body.computed, null);
     const list = await agent.get('/api/v1/climate-sites').expect(200);
-    assert.deepEqual(list.body.map((s: { name: string }) => s.name), ['Published site']);
+    assert.deepEqual(
+      list.body.map((s: { name: string }) => s.name),
+      ['Published site'],
+    );
   });
 
   it('refuses inconsistent values with a field-level message and stores nothing', async () => {
     const { agent } = await signUp(t);
     const res = await agent
       .post('/api/v1/climate-sites')
-      .send({ name: 'Bad', sourceKind: 'published', publishedValues: { ...published, heating: { db99_6: -10, db99: -20 } } })
+      .send({
+        name: 'Bad',
+        sourceKind: 'published',
+        publishedValues: { ...published, heating: { db99_6: -10, db99: -20 } },
+      })
       .expect(400);
     assert.ok(res.body.error.details.some((d: { path: string }) => d.path === 'publishedValues.heating.db99_6'));
-    const missing = await agent.post('/api/v1/climate-sites').send({ name: 'No values', sourceKind: 'published' }).expect(400);
+    const missing = await agent
+      .post('/api/v1/climate-sites')
+      .send({ name: 'No values', sourceKind: 'published' })
+      .expect(400);
     assert.equal(missing.body.error.details[0].path, 'publishedValues');
     assert.equal(await count('climate_sites'), 0);
   });
@@ -62,7 +76,10 @@ describe('climate sites with published values', () => {
       .expect(201);
     const viewer = (await inviteMember(t, owner, 'viewer')).agent;
     await viewer.get(`/api/v1/climate-sites/${created.body.id}`).expect(200);
-    await viewer.post('/api/v1/climate-sites').send({ name: 'No', sourceKind: 'published', publishedValues: published }).expect(403);
+    await viewer
+      .post('/api/v1/climate-sites')
+      .send({ name: 'No', sourceKind: 'published', publishedValues: published })
+      .expect(403);
     await viewer.delete(`/api/v1/climate-sites/${created.body.id}`).expect(403);
 
     const outsider = await signUp(t);
@@ -85,14 +102,21 @@ describe('hourly records: upload, check, confirm', () => {
     assert.equal(up.body.rowCount, threeYears.time.length);
     assert.deepEqual(up.body.quality.yearsFound, [2021, 2022, 2023]);
     assert.ok(up.body.preview.heating.db99_6 <= up.body.preview.heating.db99);
-    assert.ok(up.body.warnings.some((w: string) => w.includes('8')), 'a short record is pointed out');
+    assert.ok(
+      up.body.warnings.some((w: string) => w.includes('8')),
+      'a short record is pointed out',
+    );
     assert.equal(await storedHours(), 0, 'nothing stored before confirmation');
     await agent.get(`/api/v1/climate-sites/${siteId}/chart-data`).expect(404);
 
     const confirmed = await agent.post(`/api/v1/climate-uploads/${up.body.id}/confirm`).expect(200);
     assert.equal(await storedHours(), up.body.quality.distinctHours);
     assert.equal(await count('climate_uploads'), 0);
-    assert.deepEqual(confirmed.body.computed.conditions, up.body.preview, 'the stored record gives what the preview showed');
+    assert.deepEqual(
+      confirmed.body.computed.conditions,
+      up.body.preview,
+      'the stored record gives what the preview showed',
+    );
     assert.equal(confirmed.body.computed.fileName, 'demo.csv');
 
     // The same conventions applied to the file directly (values kept to the stored 32-bit precision).
@@ -100,12 +124,20 @@ describe('hourly records: upload, check, confirm', () => {
     assert.ok(parsed.ok);
     const f32 = (c: Float64Array) => Float64Array.from(Float32Array.from(c));
     const direct = computeDesignConditions(
-      { ...parsed.series, dryBulbC: f32(parsed.series.dryBulbC), dewPointC: f32(parsed.series.dewPointC), windSpeedMs: f32(parsed.series.windSpeedMs) },
+      {
+        ...parsed.series,
+        dryBulbC: f32(parsed.series.dryBulbC),
+        dewPointC: f32(parsed.series.dewPointC),
+        windSpeedMs: f32(parsed.series.windSpeedMs),
+      },
       { elevationM: site.elevationM },
     );
     assert.ok(direct.ok);
     assert.equal(confirmed.body.computed.conditions.heating.db99_6, direct.conditions.heating.db99_6);
-    assert.equal(confirmed.body.computed.conditions.extremeMin.returnPeriod['50'], direct.conditions.extremeMin.returnPeriod['50']);
+    assert.equal(
+      confirmed.body.computed.conditions.extremeMin.returnPeriod['50'],
+      direct.conditions.extremeMin.returnPeriod['50'],
+    );
 
     const chart = await agent.get(`/api/v1/climate-sites/${siteId}/chart-data`).expect(200);
     assert.equal(chart.body.monthly.length, 12);
@@ -138,7 +170,10 @@ describe('hourly records: upload, check, confirm', () => {
   it('refuses a bad file whole, naming its lines, and changes nothing', async () => {
     const { agent } = await signUp(t);
     const siteId = await hourlySite(agent);
-    const good = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', Buffer.from(csv), 'demo.csv').expect(201);
+    const good = await agent
+      .post(`/api/v1/climate-sites/${siteId}/uploads`)
+      .attach('files', Buffer.from(csv), 'demo.csv')
+      .expect(201);
     await agent.post(`/api/v1/climate-uploads/${good.body.id}/confirm`).expect(200);
     const before = await storedHours();
     const conditionsBefore = await t.db('design_conditions').first('conditions');
@@ -160,10 +195,16 @@ describe('hourly records: upload, check, confirm', () => {
     const { agent } = await signUp(t);
     const siteId = await hourlySite(agent);
     const png = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0x0d]);
-    const notText = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', png, 'weather.csv').expect(415);
+    const notText = await agent
+      .post(`/api/v1/climate-sites/${siteId}/uploads`)
+      .attach('files', png, 'weather.csv')
+      .expect(415);
     assert.equal(notText.body.error.code, 'unsupported_file');
     const huge = Buffer.alloc(60 * 1024 * 1024 + 1, 0x41);
-    const tooBig = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', huge, 'huge.csv').expect(413);
+    const tooBig = await agent
+      .post(`/api/v1/climate-sites/${siteId}/uploads`)
+      .attach('files', huge, 'huge.csv')
+      .expect(413);
     assert.equal(tooBig.body.error.code, 'file_too_large');
     const none = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).field('format', 'csv').expect(400);
     assert.equal(none.body.error.details[0].path, 'files');
@@ -174,10 +215,16 @@ describe('hourly records: upload, check, confirm', () => {
     const { agent } = await signUp(t);
     const siteId = await hourlySite(agent);
     const renamed = csv.replace('time,dry_bulb_c,dew_point_c,wind_speed_ms', 'Date/Time,Temp,Dew,Wind');
-    await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', Buffer.from(renamed), 'x.csv').expect(400);
+    await agent
+      .post(`/api/v1/climate-sites/${siteId}/uploads`)
+      .attach('files', Buffer.from(renamed), 'x.csv')
+      .expect(400);
     const mapped = await agent
       .post(`/api/v1/climate-sites/${siteId}/uploads`)
-      .field('mapping', JSON.stringify({ time: 'Date/Time', dry_bulb_c: 'Temp', dew_point_c: 'Dew', wind_speed_ms: 'Wind' }))
+      .field(
+        'mapping',
+        JSON.stringify({ time: 'Date/Time', dry_bulb_c: 'Temp', dew_point_c: 'Dew', wind_speed_ms: 'Wind' }),
+      )
       .attach('files', Buffer.from(renamed), 'x.csv')
       .expect(201);
     assert.equal(mapped.body.rowCount, threeYears.time.length);
@@ -192,7 +239,10 @@ describe('hourly records: upload, check, confirm', () => {
   it('recomputes the humidity ratio when the elevation changes', async () => {
     const { agent } = await signUp(t);
     const siteId = await hourlySite(agent, 0);
-    const up = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', Buffer.from(csv), 'demo.csv').expect(201);
+    const up = await agent
+      .post(`/api/v1/climate-sites/${siteId}/uploads`)
+      .attach('files', Buffer.from(csv), 'demo.csv')
+      .expect(201);
     const atSea = await agent.post(`/api/v1/climate-uploads/${up.body.id}/confirm`).expect(200);
     const high = await agent.patch(`/api/v1/climate-sites/${siteId}`).send({ elevationM: 1500 }).expect(200);
     const w0 = atSea.body.computed.conditions.humidification.dp99_6.humidityRatio;

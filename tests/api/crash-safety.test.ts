@@ -36,32 +36,72 @@ async function pdfText(buffer: Buffer): Promise<string> {
 }
 
 /** A scenario, a report on it and a public link to it. */
-async function sharedReport(f: Fixture, fields: { scenarioName?: string; optionLabels?: string[]; title?: string; note?: string } = {}) {
-  const scenario = scenarioSchema.parse((
+async function sharedReport(
+  f: Fixture,
+  fields: { scenarioName?: string; optionLabels?: string[]; title?: string; note?: string } = {},
+) {
+  const scenario = scenarioSchema.parse(
+    (
+      await f.agent
+        .post(`/api/v1/projects/${f.projectId}/scenarios`)
+        .send({
+          name: fields.scenarioName ?? 'Gas bid',
+          settings: { optionLabels: fields.optionLabels ?? ['F 6 kW', 'F 9 kW', 'F 14 kW'] },
+        })
+        .expect(201)
+    ).body,
+  );
+  const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200))
+    .body as { rows: { designC: number }[] };
+  const report = reportSchema.parse(
+    (
+      await f.agent
+        .post(`/api/v1/projects/${f.projectId}/reports`)
+        .send({
+          scenarioId: scenario.id,
+          title: fields.title ?? 'Your heating options',
+          note: fields.note ?? '',
+          points: [sweep.rows[0]?.designC],
+        })
+        .expect(201)
+    ).body,
+  );
+  const { url } = (
     await f.agent
-      .post(`/api/v1/projects/${f.projectId}/scenarios`)
-      .send({ name: fields.scenarioName ?? 'Gas bid', settings: { optionLabels: fields.optionLabels ?? ['F 6 kW', 'F 9 kW', 'F 14 kW'] } })
+      .post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`)
+      .send({ expiresInDays: 10 })
       .expect(201)
-  ).body);
-  const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200)).body as { rows: { designC: number }[] };
-  const report = reportSchema.parse((
-    await f.agent
-      .post(`/api/v1/projects/${f.projectId}/reports`)
-      .send({ scenarioId: scenario.id, title: fields.title ?? 'Your heating options', note: fields.note ?? '', points: [sweep.rows[0]?.designC] })
-      .expect(201)
-  ).body);
-  const { url } = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({ expiresInDays: 10 }).expect(201)).body as { url: string };
+  ).body as { url: string };
   return { scenario, report, token: url.split('/r/')[1] ?? '' };
 }
 
 const storedLogo = (organizationId: string, contentType: string, content: Buffer) =>
-  t.db('organization_logos').insert({ organization_id: organizationId, content_type: contentType, content }).onConflict('organization_id').merge();
+  t
+    .db('organization_logos')
+    .insert({ organization_id: organizationId, content_type: contentType, content })
+    .onConflict('organization_id')
+    .merge();
 
 describe('logos that only look like images', () => {
   const hostile = [
-    { name: 'a PNG with a corrupt zlib stream', file: 'logo.png', content: corruptPng(), reason: /PNG could not be decoded/ },
-    { name: 'a PNG that declares 100 000 pixels a side', file: 'logo.png', content: hugePng(), reason: /at most 4000 a side/ },
-    { name: 'a JPEG header followed by HTML', file: 'logo.jpg', content: junkJpeg(), reason: /JPEG could not be decoded/ },
+    {
+      name: 'a PNG with a corrupt zlib stream',
+      file: 'logo.png',
+      content: corruptPng(),
+      reason: /PNG could not be decoded/,
+    },
+    {
+      name: 'a PNG that declares 100 000 pixels a side',
+      file: 'logo.png',
+      content: hugePng(),
+      reason: /at most 4000 a side/,
+    },
+    {
+      name: 'a JPEG header followed by HTML',
+      file: 'logo.jpg',
+      content: junkJpeg(),
+      reason: /JPEG could not be decoded/,
+    },
     { name: 'an SVG sized 1e308', file: 'logo.svg', content: hugeSvg(), reason: /out of range/ },
   ];
 
@@ -92,7 +132,9 @@ describe('logos that only look like images', () => {
     assert.deepEqual([...decoded.data.subarray(4, 8)], [7, 80, 95, 255], 'the second pixel survives re-encoding');
     const jpg = realJpeg();
     await f.agent.put('/api/v1/organization/logo').attach('logo', jpg, 'firm.jpg').expect(200);
-    const storedJpeg = await t.db('organization_logos').first<{ content: Buffer; content_type: string }>('content', 'content_type');
+    const storedJpeg = await t
+      .db('organization_logos')
+      .first<{ content: Buffer; content_type: string }>('content', 'content_type');
     assert.equal(storedJpeg.content_type, 'image/jpeg');
     assert.ok(storedJpeg.content.equals(jpg));
   });
@@ -126,14 +168,20 @@ describe('the PDF pool', () => {
   const logo = { contentType: 'image/png', content: Buffer.from('any') };
 
   it('answers a worker that throws from a callback with a clear 500, and the next render gets a new worker', async () => {
-    const pool = createPdfPool({ filename: new URL('../support/faulty-pdf-worker.ts', import.meta.url).href, maxThreads: 1 });
+    const pool = createPdfPool({
+      filename: new URL('../support/faulty-pdf-worker.ts', import.meta.url).href,
+      maxThreads: 1,
+    });
     try {
-      await assert.rejects(pool.render(view('throw from a callback'), null), (err: { status: number; code: string; message: string }) => {
-        assert.equal(err.status, 500);
-        assert.equal(err.code, 'pdf_failed');
-        assert.match(err.message, /PDF could not be made \(the PDF writer failed\)/);
-        return true;
-      });
+      await assert.rejects(
+        pool.render(view('throw from a callback'), null),
+        (err: { status: number; code: string; message: string }) => {
+          assert.equal(err.status, 500);
+          assert.equal(err.code, 'pdf_failed');
+          assert.match(err.message, /PDF could not be made \(the PDF writer failed\)/);
+          return true;
+        },
+      );
       const next = await pool.render(view('plain'), null);
       assert.match(next.toString('latin1'), /^%PDF-1\.7 plain/);
     } finally {
@@ -142,14 +190,20 @@ describe('the PDF pool', () => {
   });
 
   it('tells a logo the PDF writer cannot print (422) from other failures', async () => {
-    const pool = createPdfPool({ filename: new URL('../support/faulty-pdf-worker.ts', import.meta.url).href, maxThreads: 1 });
+    const pool = createPdfPool({
+      filename: new URL('../support/faulty-pdf-worker.ts', import.meta.url).href,
+      maxThreads: 1,
+    });
     try {
-      await assert.rejects(pool.render(view('fail on the logo'), logo), (err: { status: number; code: string; details: { path: string }[] }) => {
-        assert.equal(err.status, 422);
-        assert.equal(err.code, 'logo_unreadable');
-        assert.equal(err.details[0]?.path, 'logo');
-        return true;
-      });
+      await assert.rejects(
+        pool.render(view('fail on the logo'), logo),
+        (err: { status: number; code: string; details: { path: string }[] }) => {
+          assert.equal(err.status, 422);
+          assert.equal(err.code, 'logo_unreadable');
+          assert.equal(err.details[0]?.path, 'logo');
+          return true;
+        },
+      );
       await assert.rejects(pool.render(view('throw from a callback'), logo), { status: 500, code: 'pdf_failed' });
     } finally {
       await pool.close();
@@ -157,7 +211,11 @@ describe('the PDF pool', () => {
   });
 
   it('stops a render that takes too long, and goes on', async () => {
-    const pool = createPdfPool({ filename: new URL('../support/faulty-pdf-worker.ts', import.meta.url).href, maxThreads: 1, timeoutMs: 8000 });
+    const pool = createPdfPool({
+      filename: new URL('../support/faulty-pdf-worker.ts', import.meta.url).href,
+      maxThreads: 1,
+      timeoutMs: 8000,
+    });
     try {
       await assert.rejects(pool.render(view('take forever'), null), (err: { status: number; message: string }) => {
         assert.equal(err.status, 500);
@@ -183,13 +241,21 @@ describe('characters a font has no glyph for', () => {
   });
 
   it('prints, exports and e-mails U+200B and U+FEFF in every text field that reaches them', async () => {
-    const owner = await signUp(t, { name: `Pat${ZW}ri${BOM}ce Installer`, organizationName: `North${ZW}wind${BOM} Heating (invented)` });
+    const owner = await signUp(t, {
+      name: `Pat${ZW}ri${BOM}ce Installer`,
+      organizationName: `North${ZW}wind${BOM} Heating (invented)`,
+    });
     const f = await fixture(t);
     // The fixture's own organisation is used for the scenario; rename the project and its fields there.
     const project = (await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(200)).body as { version: number };
     await f.agent
       .patch(`/api/v1/projects/${f.projectId}`)
-      .send({ version: project.version, name: `Lake${ZW}side${BOM} house`, clientName: `Ro${ZW}bin${BOM} Client`, siteAddress: `12 Ex${ZW}ample${BOM} Lane` })
+      .send({
+        version: project.version,
+        name: `Lake${ZW}side${BOM} house`,
+        clientName: `Ro${ZW}bin${BOM} Client`,
+        siteAddress: `12 Ex${ZW}ample${BOM} Lane`,
+      })
       .expect(200);
     const { scenario, report, token } = await sharedReport(f, {
       scenarioName: `Gas${ZW}bid${BOM}`,
@@ -215,7 +281,10 @@ describe('characters a font has no glyph for', () => {
     assert.ok((await mail).text.includes(`Here${ZW} it is`));
 
     // An organisation and a person named with them print too.
-    await owner.agent.post('/api/v1/projects').send({ name: `Second${ZW} house` }).expect(201);
+    await owner.agent
+      .post('/api/v1/projects')
+      .send({ name: `Second${ZW} house` })
+      .expect(201);
     await request(t.app).get('/api/health').expect(200);
   });
 });
@@ -231,37 +300,121 @@ describe('NUL and lone surrogates', () => {
     const f = await fixture(t);
     const { scenario, report } = await sharedReport(f);
     const project = (await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(200)).body as { version: number };
-    const fresh = scenarioSchema.parse((await f.agent.get(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}`).expect(200)).body);
-    const cases: { method: 'post' | 'patch' | 'put'; url: string; body: (s: string) => Record<string, unknown>; path: string; agent?: request.Agent }[] = [
-      { method: 'post', url: '/api/v1/auth/sign-up', body: (s) => ({ email: 'someone@example.test', name: 'A person', organizationName: s }), path: 'organizationName', agent: newAgent(t.app) },
-      { method: 'post', url: '/api/v1/auth/sign-up', body: (s) => ({ email: 'someone@example.test', name: s }), path: 'name', agent: newAgent(t.app) },
+    const fresh = scenarioSchema.parse(
+      (await f.agent.get(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}`).expect(200)).body,
+    );
+    const cases: {
+      method: 'post' | 'patch' | 'put';
+      url: string;
+      body: (s: string) => Record<string, unknown>;
+      path: string;
+      agent?: request.Agent;
+    }[] = [
+      {
+        method: 'post',
+        url: '/api/v1/auth/sign-up',
+        body: (s) => ({ email: 'someone@example.test', name: 'A person', organizationName: s }),
+        path: 'organizationName',
+        agent: newAgent(t.app),
+      },
+      {
+        method: 'post',
+        url: '/api/v1/auth/sign-up',
+        body: (s) => ({ email: 'someone@example.test', name: s }),
+        path: 'name',
+        agent: newAgent(t.app),
+      },
       { method: 'patch', url: '/api/v1/me', body: (s) => ({ name: s }), path: 'name' },
       { method: 'post', url: '/api/v1/organizations', body: (s) => ({ name: s }), path: 'name' },
       { method: 'post', url: '/api/v1/projects', body: (s) => ({ name: s }), path: 'name' },
-      { method: 'patch', url: `/api/v1/projects/${f.projectId}`, body: (s) => ({ version: project.version, clientName: s }), path: 'clientName' },
-      { method: 'patch', url: `/api/v1/projects/${f.projectId}`, body: (s) => ({ version: project.version, siteAddress: s }), path: 'siteAddress' },
-      { method: 'patch', url: `/api/v1/projects/${f.projectId}`, body: (s) => ({ version: project.version, notes: s }), path: 'notes' },
-      { method: 'patch', url: `/api/v1/projects/${f.projectId}/scenarios/${scenario.id}`, body: (s) => ({ version: fresh.version, name: s }), path: 'name' },
+      {
+        method: 'patch',
+        url: `/api/v1/projects/${f.projectId}`,
+        body: (s) => ({ version: project.version, clientName: s }),
+        path: 'clientName',
+      },
+      {
+        method: 'patch',
+        url: `/api/v1/projects/${f.projectId}`,
+        body: (s) => ({ version: project.version, siteAddress: s }),
+        path: 'siteAddress',
+      },
+      {
+        method: 'patch',
+        url: `/api/v1/projects/${f.projectId}`,
+        body: (s) => ({ version: project.version, notes: s }),
+        path: 'notes',
+      },
+      {
+        method: 'patch',
+        url: `/api/v1/projects/${f.projectId}/scenarios/${scenario.id}`,
+        body: (s) => ({ version: fresh.version, name: s }),
+        path: 'name',
+      },
       {
         method: 'patch',
         url: `/api/v1/projects/${f.projectId}/scenarios/${scenario.id}`,
         body: (s) => ({ version: fresh.version, settings: { optionLabels: ['F 6 kW', s] } }),
         path: 'settings.optionLabels.1',
       },
-      { method: 'patch', url: `/api/v1/equipment-lists/${f.listId}`, body: (s) => ({ version: 2, name: s }), path: 'name' },
+      {
+        method: 'patch',
+        url: `/api/v1/equipment-lists/${f.listId}`,
+        body: (s) => ({ version: 2, name: s }),
+        path: 'name',
+      },
       {
         method: 'put',
         url: `/api/v1/equipment-lists/${f.listId}/options`,
-        body: (s) => ({ version: 2, options: [{ kind: 'furnace', label: s, fuel: 'gas', efficiency: 0.95, outputW: 6000, installedPrice: '3000.00', lifeYears: 20 }] }),
+        body: (s) => ({
+          version: 2,
+          options: [
+            {
+              kind: 'furnace',
+              label: s,
+              fuel: 'gas',
+              efficiency: 0.95,
+              outputW: 6000,
+              installedPrice: '3000.00',
+              lifeYears: 20,
+            },
+          ],
+        }),
         path: 'options.0.label',
       },
-      { method: 'post', url: `/api/v1/projects/${f.projectId}/reports`, body: (s) => ({ scenarioId: scenario.id, title: s, points: report.points }), path: 'title' },
-      { method: 'post', url: `/api/v1/projects/${f.projectId}/reports`, body: (s) => ({ scenarioId: scenario.id, title: 'T', note: s, points: report.points }), path: 'note' },
-      { method: 'post', url: `/api/v1/projects/${f.projectId}/reports/${report.id}/send`, body: (s) => ({ to: 'client@example.test', message: s }), path: 'message' },
+      {
+        method: 'post',
+        url: `/api/v1/projects/${f.projectId}/reports`,
+        body: (s) => ({ scenarioId: scenario.id, title: s, points: report.points }),
+        path: 'title',
+      },
+      {
+        method: 'post',
+        url: `/api/v1/projects/${f.projectId}/reports`,
+        body: (s) => ({ scenarioId: scenario.id, title: 'T', note: s, points: report.points }),
+        path: 'note',
+      },
+      {
+        method: 'post',
+        url: `/api/v1/projects/${f.projectId}/reports/${report.id}/send`,
+        body: (s) => ({ to: 'client@example.test', message: s }),
+        path: 'message',
+      },
       { method: 'post', url: '/api/v1/climate-sites', body: (s) => ({ name: s, sourceKind: 'hourly' }), path: 'name' },
     ];
     const counts = async () =>
-      Promise.all(['projects', 'scenarios', 'reports', 'report_links', 'report_sends', 'organizations', 'climate_sites', 'sign_up_requests'].map(async (table) => (await t.db(table).count<{ n: string }[]>('* as n'))[0]?.n));
+      Promise.all(
+        [
+          'projects',
+          'scenarios',
+          'reports',
+          'report_links',
+          'report_sends',
+          'organizations',
+          'climate_sites',
+          'sign_up_requests',
+        ].map(async (table) => (await t.db(table).count<{ n: string }[]>('* as n'))[0]?.n),
+      );
     const before = await counts();
     t.sink.clear();
     for (const c of cases) {
@@ -270,7 +423,11 @@ describe('NUL and lone surrogates', () => {
         const label = `${c.method.toUpperCase()} ${c.url} ${c.path} with ${bad.name}`;
         assert.equal(res.status, 400, label);
         assert.equal(errorOf(res).code, 'invalid_input', label);
-        assert.deepEqual(errorOf(res).details?.map((d) => d.path), [c.path], label);
+        assert.deepEqual(
+          errorOf(res).details?.map((d) => d.path),
+          [c.path],
+          label,
+        );
       }
     }
     // A query string is checked the same way.
@@ -293,7 +450,11 @@ describe('numbers, headers and file names', () => {
       { method: 'patch', url: `/api/v1/projects/${f.projectId}/scenarios/${scenario.id}`, body: { name: 'Renamed' } },
       { method: 'patch', url: `/api/v1/equipment-lists/${f.listId}`, body: { name: 'Renamed' } },
       { method: 'put', url: `/api/v1/equipment-lists/${f.listId}/options`, body: { options: [] } },
-      { method: 'put', url: '/api/v1/energy-prices', body: { prices: { currency: 'USD', electricityPerKwh: '0.1600' } } },
+      {
+        method: 'put',
+        url: '/api/v1/energy-prices',
+        body: { prices: { currency: 'USD', electricityPerKwh: '0.1600' } },
+      },
     ];
     for (const c of changes) {
       for (const version of [2 ** 31, 2 ** 53 + 10]) {
@@ -310,7 +471,10 @@ describe('numbers, headers and file names', () => {
 
   it('refuses a malformed Origin with 403', async () => {
     for (const origin of ['http://[bad', '::::', 'http://exa mple.test', '\u00ff\u00fe']) {
-      const res = await request(t.app).post('/api/v1/auth/sign-in').set('Origin', origin).send({ email: 'a@example.test', password: 'whatever it is' });
+      const res = await request(t.app)
+        .post('/api/v1/auth/sign-in')
+        .set('Origin', origin)
+        .send({ email: 'a@example.test', password: 'whatever it is' });
       assert.equal(res.status, 403, origin);
       assert.equal(errorOf(res).code, 'csrf');
     }
@@ -324,10 +488,18 @@ describe('numbers, headers and file names', () => {
       assert.equal(res.status, 400, JSON.stringify(name));
       assert.equal(errorOf(res).code, 'invalid_upload');
     }
-    const site = await f.agent.post('/api/v1/climate-sites').send({ name: 'Control characters', sourceKind: 'hourly' }).expect(201);
-    const upload = await f.agent.post(`/api/v1/climate-sites/${(site.body as { id: string }).id}/uploads`).attach('files', Buffer.from('time,temp\n'), 'we\u0002ather.csv');
+    const site = await f.agent
+      .post('/api/v1/climate-sites')
+      .send({ name: 'Control characters', sourceKind: 'hourly' })
+      .expect(201);
+    const upload = await f.agent
+      .post(`/api/v1/climate-sites/${(site.body as { id: string }).id}/uploads`)
+      .attach('files', Buffer.from('time,temp\n'), 'we\u0002ather.csv');
     assert.equal(upload.status, 400);
-    assert.equal((await t.db('organization_logos').first<{ content_type: string }>('content_type')).content_type, 'image/png');
+    assert.equal(
+      (await t.db('organization_logos').first<{ content_type: string }>('content_type')).content_type,
+      'image/png',
+    );
     await request(t.app).get('/api/health').expect(200);
   });
 });
@@ -340,10 +512,16 @@ describe('report sends', () => {
     const linksBefore = await count('report_links');
     t.sink.clear();
     // The database refuses the send's record, as it would when a constraint or the disk fails.
-    await t.db.raw(`CREATE FUNCTION refuse_report_send() RETURNS trigger AS $$ BEGIN RAISE EXCEPTION 'no space left'; END $$ LANGUAGE plpgsql`);
-    await t.db.raw('CREATE TRIGGER refuse_report_send BEFORE INSERT ON report_sends FOR EACH ROW EXECUTE FUNCTION refuse_report_send()');
+    await t.db.raw(
+      `CREATE FUNCTION refuse_report_send() RETURNS trigger AS $$ BEGIN RAISE EXCEPTION 'no space left'; END $$ LANGUAGE plpgsql`,
+    );
+    await t.db.raw(
+      'CREATE TRIGGER refuse_report_send BEFORE INSERT ON report_sends FOR EACH ROW EXECUTE FUNCTION refuse_report_send()',
+    );
     try {
-      const res = await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/send`).send({ to: 'client@example.test', message: 'Hello' });
+      const res = await f.agent
+        .post(`/api/v1/projects/${f.projectId}/reports/${report.id}/send`)
+        .send({ to: 'client@example.test', message: 'Hello' });
       assert.equal(res.status, 500);
     } finally {
       await t.db.raw('DROP TRIGGER refuse_report_send ON report_sends');
@@ -355,7 +533,10 @@ describe('report sends', () => {
     assert.equal(t.sink.messages().length, 0, 'nothing was e-mailed');
 
     const mail = t.sink.waitFor((m) => m.to.includes('client@example.test'));
-    await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/send`).send({ to: 'client@example.test', message: 'Hello' }).expect(201);
+    await f.agent
+      .post(`/api/v1/projects/${f.projectId}/reports/${report.id}/send`)
+      .send({ to: 'client@example.test', message: 'Hello' })
+      .expect(201);
     await mail;
     assert.equal(t.sink.messages().length, 1, 'one e-mail');
     assert.deepEqual(await t.db('report_sends').select('status', 'error'), [{ status: 'sent', error: null }]);

@@ -23,14 +23,20 @@ describe('demo data', () => {
     assert.match(keep.body.organizations[0].name, /\(demo\)/);
     assert.deepEqual(await seedDemo(t.db), { created: false });
     for (const account of DEMO_ACCOUNTS) {
-      const res = await request(t.app).post('/api/v1/auth/sign-in').send({ email: account.email, password: DEMO_PASSWORD }).expect(200);
+      const res = await request(t.app)
+        .post('/api/v1/auth/sign-in')
+        .send({ email: account.email, password: DEMO_PASSWORD })
+        .expect(200);
       assert.equal(res.body.organizations[0].role, account.role);
     }
   });
 
   it('fits its plan: the Team and billing pages read within the limits', async () => {
     const agent = newAgent(t.app);
-    await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[0].email, password: DEMO_PASSWORD }).expect(200);
+    await agent
+      .post('/api/v1/auth/sign-in')
+      .send({ email: DEMO_ACCOUNTS[0].email, password: DEMO_PASSWORD })
+      .expect(200);
     const usage = (await agent.get('/api/v1/billing/usage').expect(200)).body as {
       members: { used: number; limit: number };
       projects: { used: number; limit: number | null };
@@ -42,7 +48,10 @@ describe('demo data', () => {
 
   it('labels its climate sites as invented and gives each hourly one 30 qualifying years', async () => {
     const agent = newAgent(t.app);
-    await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD }).expect(200);
+    await agent
+      .post('/api/v1/auth/sign-in')
+      .send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD })
+      .expect(200);
     const sites = await agent.get('/api/v1/climate-sites').expect(200);
     assert.equal(sites.body.length, 4);
     for (const s of sites.body) {
@@ -55,25 +64,40 @@ describe('demo data', () => {
 
   it('gives each demo project two bid scenarios whose sweeps show a trade-off across the design temperatures', async () => {
     const agent = newAgent(t.app);
-    await agent.post('/api/v1/auth/sign-in').send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD }).expect(200);
+    await agent
+      .post('/api/v1/auth/sign-in')
+      .send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD })
+      .expect(200);
     const projects = (await agent.get('/api/v1/projects').expect(200)).body as { id: string }[];
     assert.equal(projects.length, 2);
     const project = projects[0];
     assert.ok(project);
-    const scenarios = (await agent.get(`/api/v1/projects/${project.id}/scenarios`).expect(200)).body as { id: string; name: string }[];
+    const scenarios = (await agent.get(`/api/v1/projects/${project.id}/scenarios`).expect(200)).body as {
+      id: string;
+      name: string;
+    }[];
     assert.deepEqual(scenarios.map((x) => x.name).sort(), ['Gas furnace bid (demo)', 'Heat pump bid (demo)']);
     for (const sc of scenarios) {
       const sweep = (await agent.post(`/api/v1/projects/${project.id}/scenarios/${sc.id}/sweep`).expect(200)).body as {
-        rows: { isGrid: boolean; selectedOptionId: string | null; unmetHoursPerYear: number | null; backupHoursPerYear: number | null }[];
+        rows: {
+          isGrid: boolean;
+          selectedOptionId: string | null;
+          unmetHoursPerYear: number | null;
+          backupHoursPerYear: number | null;
+        }[];
         years: number[];
       };
       assert.equal(sweep.years.length, 30);
       const named = sweep.rows.filter((r) => !r.isGrid);
-      assert.ok(named.every((r) => r.selectedOptionId !== null), `${sc.name}: a unit at every named design temperature`);
+      assert.ok(
+        named.every((r) => r.selectedOptionId !== null),
+        `${sc.name}: a unit at every named design temperature`,
+      );
       // The mildest design temperature installs a smaller unit than the coldest, and falls short more often.
       assert.notEqual(named[0]?.selectedOptionId, named.at(-1)?.selectedOptionId, `${sc.name}: one unit everywhere`);
       // A heat pump sized on its compressor falls short onto its backup heat: there the trade-off is in backup hours.
-      const shortfall = (r: (typeof named)[number] | undefined) => (r?.unmetHoursPerYear ?? 0) + (r?.backupHoursPerYear ?? 0);
+      const shortfall = (r: (typeof named)[number] | undefined) =>
+        (r?.unmetHoursPerYear ?? 0) + (r?.backupHoursPerYear ?? 0);
       assert.ok(shortfall(named[0]) > shortfall(named.at(-1)), sc.name);
     }
   });

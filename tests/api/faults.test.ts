@@ -56,8 +56,18 @@ before(async () => {
   const db = createDb(databaseUrl);
   await migrateLatest(db);
   await db.destroy();
-  fake = await startPaymentFake({ secretKey: FAKE_STRIPE_SECRET_KEY, webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET, retryBaseMs: 250, maxAttempts: 12 });
-  t = await createTestApp({ DATABASE_URL: databaseUrl, STRIPE_API_HOST: '127.0.0.1', STRIPE_API_PORT: String(fake.port), STRIPE_API_PROTOCOL: 'http' });
+  fake = await startPaymentFake({
+    secretKey: FAKE_STRIPE_SECRET_KEY,
+    webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET,
+    retryBaseMs: 250,
+    maxAttempts: 12,
+  });
+  t = await createTestApp({
+    DATABASE_URL: databaseUrl,
+    STRIPE_API_HOST: '127.0.0.1',
+    STRIPE_API_PORT: String(fake.port),
+    STRIPE_API_PROTOCOL: 'http',
+  });
   server = createServer(t.app);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   webhookUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}/api/v1/billing/webhook`;
@@ -77,7 +87,10 @@ describe('faults', () => {
   it('answers 503 fast while the database is down, recovers without a restart, and applies a retried webhook once', async () => {
     const owner = await signUp(t);
     await owner.agent.post('/api/v1/projects').send({ name: 'Before the outage' }).expect(201);
-    const checkout = await owner.agent.post('/api/v1/billing/checkout').send({ plan: 'crew', interval: 'month' }).expect(201);
+    const checkout = await owner.agent
+      .post('/api/v1/billing/checkout')
+      .send({ plan: 'crew', interval: 'month' })
+      .expect(201);
 
     cluster.stop('fast');
     const t0 = performance.now();
@@ -98,12 +111,18 @@ describe('faults', () => {
     });
     assert.equal(paid.status, 303);
     await new Promise((r) => setTimeout(r, 600));
-    assert.ok(fake.deliveries().every((d) => d.status === 'pending' && d.lastStatusCode === 503), JSON.stringify(fake.deliveries()));
+    assert.ok(
+      fake.deliveries().every((d) => d.status === 'pending' && d.lastStatusCode === 503),
+      JSON.stringify(fake.deliveries()),
+    );
 
     cluster.start();
     await fake.idle();
     const back = await owner.agent.get('/api/v1/projects').expect(200);
-    assert.deepEqual((back.body as { name: string }[]).map((p) => p.name), ['Before the outage']);
+    assert.deepEqual(
+      (back.body as { name: string }[]).map((p) => p.name),
+      ['Before the outage'],
+    );
     const billing = billingSchema.parse((await owner.agent.get('/api/v1/billing').expect(200)).body);
     assert.equal(billing.usage.plan, 'crew');
     assert.equal(billing.events.length, 2);
@@ -112,7 +131,10 @@ describe('faults', () => {
 
   it('stores nothing of an upload cut off half-way', async () => {
     const owner = await signUp(t);
-    const site = await owner.agent.post('/api/v1/climate-sites').send({ name: 'Cut-off test (invented)', sourceKind: 'hourly' }).expect(201);
+    const site = await owner.agent
+      .post('/api/v1/climate-sites')
+      .send({ name: 'Cut-off test (invented)', sourceKind: 'hourly' })
+      .expect(201);
     const { port } = server.address() as AddressInfo;
     const signIn = await fetch(`http://127.0.0.1:${port}/api/v1/auth/sign-in`, {
       method: 'POST',
@@ -127,11 +149,18 @@ describe('faults', () => {
         port,
         method: 'POST',
         path: `/api/v1/climate-sites/${(site.body as { id: string }).id}/uploads`,
-        headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'content-length': '1000000', cookie, 'X-Requested-With': 'tailroom' },
+        headers: {
+          'content-type': `multipart/form-data; boundary=${boundary}`,
+          'content-length': '1000000',
+          cookie,
+          'X-Requested-With': 'tailroom',
+        },
       });
       req.on('error', () => resolve());
       req.on('close', () => resolve());
-      req.write(`--${boundary}\r\nContent-Disposition: form-data; name="files"; filename="part.csv"\r\nContent-Type: text/csv\r\n\r\ntime,dry_bulb_c\r\n2001-01-01T00:00Z,-5\r\n`);
+      req.write(
+        `--${boundary}\r\nContent-Disposition: form-data; name="files"; filename="part.csv"\r\nContent-Type: text/csv\r\n\r\ntime,dry_bulb_c\r\n2001-01-01T00:00Z,-5\r\n`,
+      );
       setTimeout(() => req.destroy(), 200);
     });
     await new Promise((r) => setTimeout(r, 300));
@@ -142,7 +171,15 @@ describe('faults', () => {
   it('finishes a request in flight when told to stop (SIGTERM), then exits cleanly', async () => {
     const port = await freePort();
     const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
-      env: { ...process.env, NODE_ENV: 'test', DATABASE_URL: databaseUrl, SESSION_SECRET: 'x'.repeat(40), PORT: String(port), LOG_LEVEL: 'silent', CLIENT_DIST: '' },
+      env: {
+        ...process.env,
+        NODE_ENV: 'test',
+        DATABASE_URL: databaseUrl,
+        SESSION_SECRET: 'x'.repeat(40),
+        PORT: String(port),
+        LOG_LEVEL: 'silent',
+        CLIENT_DIST: '',
+      },
       stdio: 'ignore',
     });
     const exited = new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
@@ -157,10 +194,19 @@ describe('faults', () => {
     // A request whose body is still arriving when the signal comes.
     const body = JSON.stringify({ email: `late.${Date.now()}@example.test`, name: 'Late' });
     const answer = new Promise<number>((resolve, reject) => {
-      const req = httpRequest({ host: '127.0.0.1', port, method: 'POST', path: '/api/v1/auth/sign-up', headers: { 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) } }, (res) => {
-        res.resume();
-        res.on('end', () => resolve(res.statusCode ?? 0));
-      });
+      const req = httpRequest(
+        {
+          host: '127.0.0.1',
+          port,
+          method: 'POST',
+          path: '/api/v1/auth/sign-up',
+          headers: { 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) },
+        },
+        (res) => {
+          res.resume();
+          res.on('end', () => resolve(res.statusCode ?? 0));
+        },
+      );
       req.on('error', reject);
       req.write(body.slice(0, 10));
       setTimeout(() => {
@@ -175,11 +221,24 @@ describe('faults', () => {
   it('restores every project, scenario, report link and hourly record from a backup', async () => {
     const f = await fixture(t);
     const record = await loadRecord(t.db, f.siteId);
-    const storedRow = () => t.db('climate_records').where({ climate_site_id: f.siteId }).first('hour_count', 'sweep_index_key');
-    const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Backed up' }).expect(201)).body);
-    const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200)).body as { rows: { designC: number }[] };
-    const report = reportSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'Backed-up report', points: [sweep.rows[0]?.designC ?? -10] }).expect(201)).body);
-    const { url } = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)).body as { url: string };
+    const storedRow = () =>
+      t.db('climate_records').where({ climate_site_id: f.siteId }).first('hour_count', 'sweep_index_key');
+    const scenario = scenarioSchema.parse(
+      (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Backed up' }).expect(201)).body,
+    );
+    const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200))
+      .body as { rows: { designC: number }[] };
+    const report = reportSchema.parse(
+      (
+        await f.agent
+          .post(`/api/v1/projects/${f.projectId}/reports`)
+          .send({ scenarioId: scenario.id, title: 'Backed-up report', points: [sweep.rows[0]?.designC ?? -10] })
+          .expect(201)
+      ).body,
+    );
+    const { url } = (
+      await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)
+    ).body as { url: string };
     const token = url.split('/r/')[1] ?? '';
     const file = path.join(dir, 'backup.dump');
     const rowBefore: unknown = await storedRow();
@@ -193,8 +252,13 @@ describe('faults', () => {
 
     restoreDatabase(databaseUrl, file, bin);
     await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(200);
-    const scenarios = scenarioListSchema.parse((await f.agent.get(`/api/v1/projects/${f.projectId}/scenarios`).expect(200)).body);
-    assert.deepEqual(scenarios.map((s) => s.name), ['Backed up']);
+    const scenarios = scenarioListSchema.parse(
+      (await f.agent.get(`/api/v1/projects/${f.projectId}/scenarios`).expect(200)).body,
+    );
+    assert.deepEqual(
+      scenarios.map((s) => s.name),
+      ['Backed up'],
+    );
     const view = (await f.agent.get(`/api/v1/public/reports/${token}`).expect(200)).body as { title: string };
     assert.equal(view.title, 'Backed-up report');
     // The record comes back as it was stored: every hour and value, and its sweep index.

@@ -46,19 +46,43 @@ describe('hostile JSON bodies', () => {
   it('never get a 500 from any write route, and a refused one stores nothing', async () => {
     const f = await fixture(t);
     await setPlan(t.db, f.organizationId);
-    const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Fuzz' }).expect(201)).body);
+    const scenario = scenarioSchema.parse(
+      (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Fuzz' }).expect(201)).body,
+    );
     const ids: Record<string, string> = {
       projectId: f.projectId,
       scenarioId: scenario.id,
       listId: f.listId,
       siteId: f.siteId,
     };
-    const routes = t.routes().filter((r) => ['POST', 'PUT', 'PATCH'].includes(r.method) && r.guard !== null && !SKIP.test(r.path));
+    const routes = t
+      .routes()
+      .filter((r) => ['POST', 'PUT', 'PATCH'].includes(r.method) && r.guard !== null && !SKIP.test(r.path));
     assert.ok(routes.length > 20, `${routes.length} routes`);
     const body = fc.oneof(
       fc.anything({ maxDepth: 3 }),
-      fc.dictionary(fc.constantFrom('name', 'version', 'settings', 'building', 'options', 'prices', 'email', 'role', 'points', 'title', 'plan', 'csv', 'scenarioId'), fc.anything({ maxDepth: 2 })),
-      fc.record({ version: fc.oneof(fc.integer(), fc.string()), name: fc.string({ maxLength: 300 }) }, { requiredKeys: [] }),
+      fc.dictionary(
+        fc.constantFrom(
+          'name',
+          'version',
+          'settings',
+          'building',
+          'options',
+          'prices',
+          'email',
+          'role',
+          'points',
+          'title',
+          'plan',
+          'csv',
+          'scenarioId',
+        ),
+        fc.anything({ maxDepth: 2 }),
+      ),
+      fc.record(
+        { version: fc.oneof(fc.integer(), fc.string()), name: fc.string({ maxLength: 300 }) },
+        { requiredKeys: [] },
+      ),
     );
     const failures: string[] = [];
     for (const r of routes) {
@@ -67,9 +91,13 @@ describe('hostile JSON bodies', () => {
         fc.asyncProperty(body, async (payload) => {
           const before = await rowCounts();
           const m = r.method.toLowerCase() as 'post' | 'put' | 'patch';
-          const res = await f.agent[m](url).set('content-type', 'application/json').send(JSON.stringify(payload) ?? 'null');
-          if (res.status >= 500) failures.push(`${r.method} ${r.path} → ${res.status} for ${JSON.stringify(payload).slice(0, 200)}`);
-          if (res.status >= 400 && (await rowCounts()) !== before) failures.push(`${r.method} ${r.path} refused (${res.status}) but stored rows`);
+          const res = await f.agent[m](url)
+            .set('content-type', 'application/json')
+            .send(JSON.stringify(payload) ?? 'null');
+          if (res.status >= 500)
+            failures.push(`${r.method} ${r.path} → ${res.status} for ${JSON.stringify(payload).slice(0, 200)}`);
+          if (res.status >= 400 && (await rowCounts()) !== before)
+            failures.push(`${r.method} ${r.path} refused (${res.status}) but stored rows`);
           return true;
         }),
         { numRuns: 12 },
@@ -84,17 +112,32 @@ describe('hostile JSON bodies', () => {
     const inviteMail = t.sink.waitFor((m) => m.to.includes(invitee));
     await owner.agent.post('/api/v1/invitations').send({ email: invitee, role: 'viewer' }).expect(201);
     const signUpMail = t.sink.waitFor((m) => m.text.includes('/finish-sign-up/'));
-    await newAgent(t.app).post('/api/v1/auth/sign-up').send({ email: uniqueEmail('fuzz.new'), name: 'Fuzz' }).expect(202);
+    await newAgent(t.app)
+      .post('/api/v1/auth/sign-up')
+      .send({ email: uniqueEmail('fuzz.new'), name: 'Fuzz' })
+      .expect(202);
     const tokens: Record<string, string> = {
       '/api/v1/auth/sign-ups/:token': linkToken((await signUpMail).text, '/finish-sign-up/'),
       '/api/v1/invitation-links/:token/account': linkToken((await inviteMail).text, '/invitations/'),
     };
-    const routes = t.routes().filter((r) => ['POST', 'PUT', 'PATCH'].includes(r.method) && r.guard === null && !SKIP.test(r.path));
+    const routes = t
+      .routes()
+      .filter((r) => ['POST', 'PUT', 'PATCH'].includes(r.method) && r.guard === null && !SKIP.test(r.path));
     assert.ok(routes.length >= 6, `${routes.length} routes`);
     const body = fc.oneof(
       fc.anything({ maxDepth: 3 }),
-      fc.dictionary(fc.constantFrom('email', 'name', 'password', 'organizationName', 'returnUrl', 'invitationToken'), fc.anything({ maxDepth: 2 })),
-      fc.record({ email: fc.oneof(fc.emailAddress(), fc.string()), name: fc.string({ maxLength: 200 }), password: fc.string({ maxLength: 20 }) }, { requiredKeys: [] }),
+      fc.dictionary(
+        fc.constantFrom('email', 'name', 'password', 'organizationName', 'returnUrl', 'invitationToken'),
+        fc.anything({ maxDepth: 2 }),
+      ),
+      fc.record(
+        {
+          email: fc.oneof(fc.emailAddress(), fc.string()),
+          name: fc.string({ maxLength: 200 }),
+          password: fc.string({ maxLength: 20 }),
+        },
+        { requiredKeys: [] },
+      ),
     );
     const failures: string[] = [];
     for (const r of routes) {
@@ -103,9 +146,14 @@ describe('hostile JSON bodies', () => {
         fc.asyncProperty(body, async (payload) => {
           const before = await rowCounts();
           const m = r.method.toLowerCase() as 'post' | 'put' | 'patch';
-          const res = await newAgent(t.app)[m](url).set('content-type', 'application/json').send(JSON.stringify(payload) ?? 'null');
-          if (res.status >= 500) failures.push(`${r.method} ${r.path} → ${res.status} for ${JSON.stringify(payload).slice(0, 200)}`);
-          if (res.status >= 400 && (await rowCounts()) !== before) failures.push(`${r.method} ${r.path} refused (${res.status}) but stored rows`);
+          const res = await newAgent(t.app)
+            [m](url)
+            .set('content-type', 'application/json')
+            .send(JSON.stringify(payload) ?? 'null');
+          if (res.status >= 500)
+            failures.push(`${r.method} ${r.path} → ${res.status} for ${JSON.stringify(payload).slice(0, 200)}`);
+          if (res.status >= 400 && (await rowCounts()) !== before)
+            failures.push(`${r.method} ${r.path} refused (${res.status}) but stored rows`);
           return true;
         }),
         { numRuns: 15 },

@@ -22,7 +22,10 @@ const csv = seriesToCsv(generateDemoSeries(DEMO_SITES[0]!, { years: 2, endYear: 
 const count = async (table: string) => (await t.db(table).count<{ n: number }[]>('* as n'))[0]?.n;
 
 async function hourlySite(agent: request.Agent): Promise<string> {
-  const res = await agent.post('/api/v1/climate-sites').send({ name: 'Hostile files', sourceKind: 'hourly' }).expect(201);
+  const res = await agent
+    .post('/api/v1/climate-sites')
+    .send({ name: 'Hostile files', sourceKind: 'hourly' })
+    .expect(201);
   return res.body.id as string;
 }
 
@@ -33,7 +36,10 @@ describe('hostile uploads', () => {
     // One byte over the limit once unpacked; about 60 kB packed.
     const bomb = gzipSync(Buffer.alloc(CLIMATE_UPLOAD_MAX_BYTES + 1, 0x41), { level: 9 });
     assert.ok(bomb.length < 200_000, `${bomb.length} bytes packed`);
-    const res = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', bomb, 'weather.csv.gz').expect(413);
+    const res = await agent
+      .post(`/api/v1/climate-sites/${siteId}/uploads`)
+      .attach('files', bomb, 'weather.csv.gz')
+      .expect(413);
     assert.equal(res.body.error.code, 'file_too_large');
     assert.match(res.body.error.message, /unpacks to more than 60 MB/);
     assert.equal(await count('climate_uploads'), 0);
@@ -56,7 +62,9 @@ describe('hostile uploads', () => {
     const { agent, email } = await signUp(t);
     const siteId = await hourlySite(agent);
     const signIn = await request(t.app).post('/api/v1/auth/sign-in').send({ email, password: PASSWORD }).expect(200);
-    const cookie = ((signIn.headers['set-cookie'] as unknown as string[] | undefined) ?? []).map((c) => c.split(';')[0]).join('; ');
+    const cookie = ((signIn.headers['set-cookie'] as unknown as string[] | undefined) ?? [])
+      .map((c) => c.split(';')[0])
+      .join('; ');
     const server = t.app.listen(0, '127.0.0.1');
     try {
       await new Promise<void>((resolve) => server.once('listening', () => resolve()));
@@ -106,7 +114,9 @@ describe('hostile uploads', () => {
       ['line\r\nbreak.csv', 'linebreak.csv'],
     ];
     for (const [claimed, shown] of cases) {
-      const res = await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', Buffer.from(csv), claimed);
+      const res = await agent
+        .post(`/api/v1/climate-sites/${siteId}/uploads`)
+        .attach('files', Buffer.from(csv), claimed);
       assert.equal(res.status, 201, `${claimed}: ${JSON.stringify(res.body)}`);
       assert.equal(res.body.fileName, shown, claimed);
     }
@@ -115,7 +125,10 @@ describe('hostile uploads', () => {
     assert.equal(baseName('a/b/.'), 'upload');
     assert.equal(baseName('x'.repeat(500)).length, 200);
     const stored = await t.db('climate_uploads').pluck('file_name');
-    assert.ok(stored.every((n: string) => !n.includes('/') && !n.includes('\\')), stored.join(' | '));
+    assert.ok(
+      stored.every((n: string) => !n.includes('/') && !n.includes('\\')),
+      stored.join(' | '),
+    );
   });
 });
 
@@ -130,11 +143,24 @@ describe('paths outside the served client', () => {
     try {
       await request(served.app).get('/main.js').expect(200, 'console.log("client")');
       const secret = 'SESSION_SECRET';
-      for (const p of ['/../package.json', '/%2e%2e/%2e%2e/package.json', '/..%2f..%2fpackage.json', '/%2e%2e%5c%2e%2e%5cpackage.json', '/main.js/../../package.json', '/....//....//etc/passwd']) {
+      for (const p of [
+        '/../package.json',
+        '/%2e%2e/%2e%2e/package.json',
+        '/..%2f..%2fpackage.json',
+        '/%2e%2e%5c%2e%2e%5cpackage.json',
+        '/main.js/../../package.json',
+        '/....//....//etc/passwd',
+      ]) {
         const res = await request(served.app).get(p);
         const body = res.text ?? '';
-        assert.ok(!body.includes('"dependencies"') && !body.includes('root:') && !body.includes(secret), `${p} → ${res.status}`);
-        assert.ok(res.status === 200 ? body.includes('<title>Tailroom</title>') : res.status >= 400 && res.status < 500, `${p} → ${res.status}`);
+        assert.ok(
+          !body.includes('"dependencies"') && !body.includes('root:') && !body.includes(secret),
+          `${p} → ${res.status}`,
+        );
+        assert.ok(
+          res.status === 200 ? body.includes('<title>Tailroom</title>') : res.status >= 400 && res.status < 500,
+          `${p} → ${res.status}`,
+        );
       }
       // Ids in API paths are checked as ids: a path-like id is a 4xx, not a file.
       const { agent } = await signUp(served);
@@ -152,7 +178,14 @@ describe('paths outside the served client', () => {
 function bigRefusedUpload(): Buffer {
   const row = '2021-01-01T00:00Z,-5.0\n';
   const rows = Math.ceil((50 * 1024 * 1024) / row.length);
-  return gzipSync(Buffer.concat([Buffer.from('time,dry_bulb_c\n'), Buffer.alloc(rows * row.length, row), Buffer.from('2021-01-01T01:00Z,warm\n')]), { level: 9 });
+  return gzipSync(
+    Buffer.concat([
+      Buffer.from('time,dry_bulb_c\n'),
+      Buffer.alloc(rows * row.length, row),
+      Buffer.from('2021-01-01T01:00Z,warm\n'),
+    ]),
+    { level: 9 },
+  );
 }
 
 describe('a large upload being read', () => {
@@ -183,7 +216,10 @@ describe('a large upload being read', () => {
       if (pending.running > 0 && answered < 2) healthDuringParse++;
       if (pending.waiting > 0) sawWaiting = true;
     }
-    assert.ok(healthDuringParse > 0, `the server answered ${healthAnswers} health checks, none while a file was being read`);
+    assert.ok(
+      healthDuringParse > 0,
+      `the server answered ${healthAnswers} health checks, none while a file was being read`,
+    );
     assert.ok(sawWaiting, 'the second upload of the organisation waited for the first');
 
     for (const res of [await first, await second]) {
@@ -194,6 +230,9 @@ describe('a large upload being read', () => {
     assert.deepEqual(t.uploadsPending(), { running: 0, waiting: 0 });
     assert.equal(await count('climate_uploads'), 0);
     // The pool is whole afterwards: a good file is read as before.
-    await agent.post(`/api/v1/climate-sites/${siteId}/uploads`).attach('files', Buffer.from(csv), 'good.csv').expect(201);
+    await agent
+      .post(`/api/v1/climate-sites/${siteId}/uploads`)
+      .attach('files', Buffer.from(csv), 'good.csv')
+      .expect(201);
   });
 });

@@ -25,17 +25,45 @@ const ALLOWED: readonly { file: string; table: string; reason: string }[] = [
   // Display names of people and references, read with the row in one (prepared) query.
   { file: 'projects/projects-repo.ts', table: 'users', reason: 'names of who created and last changed a project' },
   { file: 'projects/projects-repo.ts', table: 'climate_sites', reason: 'the climate site name shown with a project' },
-  { file: 'projects/projects-repo.ts', table: 'equipment_lists', reason: 'the equipment list name shown with a project' },
+  {
+    file: 'projects/projects-repo.ts',
+    table: 'equipment_lists',
+    reason: 'the equipment list name shown with a project',
+  },
   { file: 'scenarios/scenarios-repo.ts', table: 'users', reason: 'the name of who last changed a scenario' },
-  { file: 'scenarios/scenarios-repo.ts', table: 'climate_sites', reason: 'site name and last update, part of the sweep inputs key' },
-  { file: 'scenarios/scenarios-repo.ts', table: 'equipment_lists', reason: 'list name and version, part of the sweep inputs key' },
-  { file: 'scenarios/scenarios-repo.ts', table: 'projects', reason: 'the project version, part of the sweep inputs key' },
-  { file: 'scenarios/scenarios-repo.ts', table: 'energy_prices', reason: 'the prices version, part of the sweep inputs key' },
-  { file: 'scenarios/scenarios-repo.ts', table: 'design_conditions', reason: 'the computation time, part of the sweep inputs key' },
+  {
+    file: 'scenarios/scenarios-repo.ts',
+    table: 'climate_sites',
+    reason: 'site name and last update, part of the sweep inputs key',
+  },
+  {
+    file: 'scenarios/scenarios-repo.ts',
+    table: 'equipment_lists',
+    reason: 'list name and version, part of the sweep inputs key',
+  },
+  {
+    file: 'scenarios/scenarios-repo.ts',
+    table: 'projects',
+    reason: 'the project version, part of the sweep inputs key',
+  },
+  {
+    file: 'scenarios/scenarios-repo.ts',
+    table: 'energy_prices',
+    reason: 'the prices version, part of the sweep inputs key',
+  },
+  {
+    file: 'scenarios/scenarios-repo.ts',
+    table: 'design_conditions',
+    reason: 'the computation time, part of the sweep inputs key',
+  },
   { file: 'equipment/equipment-repo.ts', table: 'users', reason: 'the name of who last changed a list or the prices' },
   { file: 'orgs/orgs-repo.ts', table: 'users', reason: 'members are listed with their names and addresses' },
   { file: 'orgs/invitations-repo.ts', table: 'users', reason: 'the name of who sent an invitation' },
-  { file: 'auth/users-repo.ts', table: 'memberships', reason: 'the user and the role in the session’s organisation, in one query per request' },
+  {
+    file: 'auth/users-repo.ts',
+    table: 'memberships',
+    reason: 'the user and the role in the session’s organisation, in one query per request',
+  },
 ];
 
 function filesOf(dir: string): string[] {
@@ -67,7 +95,8 @@ async function ownership(): Promise<Map<string, string>> {
 /** The string literals of a TypeScript source (quoted and template), comments and field paths of error details left out. */
 export function stringLiterals(source: string): string[] {
   const out: string[] = [];
-  const re = /\/\/[^\n]*|\/\*[\s\S]*?\*\/|\bpath:\s*'[^'\n]*'|'((?:[^'\\\n]|\\.)*)'|"((?:[^"\\\n]|\\.)*)"|`((?:[^`\\]|\\.)*)`/g;
+  const re =
+    /\/\/[^\n]*|\/\*[\s\S]*?\*\/|\bpath:\s*'[^'\n]*'|'((?:[^'\\\n]|\\.)*)'|"((?:[^"\\\n]|\\.)*)"|`((?:[^`\\]|\\.)*)`/g;
   for (const m of source.matchAll(re)) {
     const text = m[1] ?? m[2] ?? m[3];
     if (text !== undefined) out.push(text);
@@ -109,16 +138,17 @@ describe('tables and the areas that own them', () => {
       '// a comment about scenarios and reports',
       "throw new HttpError(404, 'not_found', 'That project was not found; the projects page lists them', [{ path: 'projects', message: '' }]);",
     ].join('\n');
-    assert.deepEqual([...tablesNamed(source, ['projects', 'users', 'equipment_options', 'scenarios', 'reports'])].sort(), [
-      'equipment_options',
-      'projects',
-      'users',
-    ]);
+    assert.deepEqual(
+      [...tablesNamed(source, ['projects', 'users', 'equipment_options', 'scenarios', 'reports'])].sort(),
+      ['equipment_options', 'projects', 'users'],
+    );
   });
 
   it('gives every table of the schema exactly one owning area', async () => {
     const owners = await ownership();
-    const migrations = readdirSync(path.join(ROOT, 'migrations')).map((f) => readFileSync(path.join(ROOT, 'migrations', f), 'utf8'));
+    const migrations = readdirSync(path.join(ROOT, 'migrations')).map((f) =>
+      readFileSync(path.join(ROOT, 'migrations', f), 'utf8'),
+    );
     const created = new Set(migrations.flatMap((m) => [...m.matchAll(/createTable\('(\w+)'/g)].map((x) => x[1] ?? '')));
     // Tables a later migration drops for good (their records moved elsewhere).
     created.delete('hourly_observations');
@@ -132,9 +162,20 @@ describe('tables and the areas that own them', () => {
     const found = crossings(owners);
     const key = (c: { file: string; table: string }) => `${c.file} → ${c.table}`;
     const allowed = new Set(ALLOWED.map(key));
-    assert.deepEqual(found.map(key).filter((k) => !allowed.has(k)).sort(), [], 'queries of another area’s tables');
+    assert.deepEqual(
+      found
+        .map(key)
+        .filter((k) => !allowed.has(k))
+        .sort(),
+      [],
+      'queries of another area’s tables',
+    );
     const used = new Set(found.map(key));
-    assert.deepEqual([...allowed].filter((k) => !used.has(k)).sort(), [], 'listed joins that are no longer there (remove them)');
+    assert.deepEqual(
+      [...allowed].filter((k) => !used.has(k)).sort(),
+      [],
+      'listed joins that are no longer there (remove them)',
+    );
     for (const a of ALLOWED) assert.ok(owners.has(a.table), `${a.table} is a known table`);
   });
 });

@@ -13,15 +13,27 @@ import { useTestApp } from '../support/test-app';
 
 const t = useTestApp();
 const base = (f: Fixture) => `/api/v1/projects/${f.projectId}/scenarios`;
-const sweepOf = async (f: Fixture, id: string) => sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${id}/sweep`).expect(200)).body);
+const sweepOf = async (f: Fixture, id: string) =>
+  sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${id}/sweep`).expect(200)).body);
 
 describe('odds and uncertainty through the API', () => {
   it('sweeps with the odds and the band, reproducibly, and with zero tolerances the band is the nominal sweep', async () => {
     const f = await fixture(t);
-    const s = scenarioSchema.parse((await f.agent.post(base(f)).send({ name: 'Odds', settings: { uncertainty: { draws: 40, seed: 5 } } }).expect(201)).body);
+    const s = scenarioSchema.parse(
+      (
+        await f.agent
+          .post(base(f))
+          .send({ name: 'Odds', settings: { uncertainty: { draws: 40, seed: 5 } } })
+          .expect(201)
+      ).body,
+    );
     assert.deepEqual(s.settings.tolerances, { uaPct: 10, airLeakagePct: 25, pricesPct: 15 });
     const a = await sweepOf(f, s.id);
-    assert.deepEqual(a.uncertainty, { draws: 40, seed: 5, tolerances: { uaPct: 10, airLeakagePct: 25, pricesPct: 15 } });
+    assert.deepEqual(a.uncertainty, {
+      draws: 40,
+      seed: 5,
+      tolerances: { uaPct: 10, airLeakagePct: 25, pricesPct: 15 },
+    });
     assert.equal(a.odds?.source, 'record');
     assert.equal(a.odds.years, a.years.length);
     assert.equal(a.odds.shortRecord, true, 'a 4-year record is short');
@@ -32,8 +44,13 @@ describe('odds and uncertainty through the API', () => {
     assert.ok(a.rows.some((r) => r.unmetHoursPerYearP10 !== null && r.lifeCycleCostP10 !== null));
 
     const patch = (settings: Scenario['settings'], version: number) =>
-      f.agent.patch(`${base(f)}/${s.id}`).send({ version, settings }).expect(200);
-    const zero = scenarioSchema.parse((await patch({ ...s.settings, tolerances: { uaPct: 0, airLeakagePct: 0, pricesPct: 0 } }, s.version)).body);
+      f.agent
+        .patch(`${base(f)}/${s.id}`)
+        .send({ version, settings })
+        .expect(200);
+    const zero = scenarioSchema.parse(
+      (await patch({ ...s.settings, tolerances: { uaPct: 0, airLeakagePct: 0, pricesPct: 0 } }, s.version)).body,
+    );
     const z = await sweepOf(f, s.id);
     assert.equal(z.cached, false);
     for (const r of z.rows) {
@@ -45,7 +62,10 @@ describe('odds and uncertainty through the API', () => {
     // Back to the first settings: the same seed gives the same band (answered from the cache or not).
     await patch(s.settings, zero.version);
     const again = await sweepOf(f, s.id);
-    assert.deepEqual(again.rows.map((r) => [r.unmetHoursPerYearP10, r.unmetHoursPerYearP90, r.lifeCycleCostP10, r.lifeCycleCostP90]), a.rows.map((r) => [r.unmetHoursPerYearP10, r.unmetHoursPerYearP90, r.lifeCycleCostP10, r.lifeCycleCostP90]));
+    assert.deepEqual(
+      again.rows.map((r) => [r.unmetHoursPerYearP10, r.unmetHoursPerYearP90, r.lifeCycleCostP10, r.lifeCycleCostP90]),
+      a.rows.map((r) => [r.unmetHoursPerYearP10, r.unmetHoursPerYearP90, r.lifeCycleCostP10, r.lifeCycleCostP90]),
+    );
   });
 
   it('refuses bad tolerances, draws and rules with field paths, and keeps the stored settings', async () => {
@@ -79,7 +99,8 @@ describe('odds and uncertainty through the API', () => {
 
   it('gives a published-values site its odds from the typed-in mean and SD, without a band', async () => {
     const f = await fixture(t);
-    await t.db('climate_sites')
+    await t
+      .db('climate_sites')
       .where({ id: f.publishedSiteId })
       .update({
         published_values: JSON.stringify({
@@ -88,7 +109,9 @@ describe('odds and uncertainty through the API', () => {
           extremeMin: { mean: -22, sd: 3, returnPeriod: { '50': returnPeriodMinimum(-22, 3, 50) } },
         }),
       });
-    const s = scenarioSchema.parse((await f.agent.post(base(f)).send({ name: 'Published', climateSiteId: f.publishedSiteId }).expect(201)).body);
+    const s = scenarioSchema.parse(
+      (await f.agent.post(base(f)).send({ name: 'Published', climateSiteId: f.publishedSiteId }).expect(201)).body,
+    );
     const a = await sweepOf(f, s.id);
     assert.deepEqual(a.odds, { meanC: -22, sdK: 3, source: 'published', years: null, shortRecord: false });
     assert.equal(a.uncertainty, null);

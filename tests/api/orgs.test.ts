@@ -2,7 +2,18 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
-import { createTestApp, linkPath, linkToken, PASSWORD, signUp, uniqueEmail, useTestApp, inviteMember, setPlan, newAgent } from '../support/test-app';
+import {
+  createTestApp,
+  linkPath,
+  linkToken,
+  PASSWORD,
+  signUp,
+  uniqueEmail,
+  useTestApp,
+  inviteMember,
+  setPlan,
+  newAgent,
+} from '../support/test-app';
 
 const t = useTestApp();
 
@@ -28,7 +39,13 @@ describe('the role × action matrix', () => {
     designer: Outcome;
     viewer: Outcome;
   }[] = [
-    { action: 'list projects', send: (a) => a.get('/api/v1/projects'), owner: 'allowed', designer: 'allowed', viewer: 'allowed' },
+    {
+      action: 'list projects',
+      send: (a) => a.get('/api/v1/projects'),
+      owner: 'allowed',
+      designer: 'allowed',
+      viewer: 'allowed',
+    },
     {
       action: 'create a project',
       send: (a) => a.post('/api/v1/projects').send({ name: 'Matrix house' }),
@@ -36,7 +53,13 @@ describe('the role × action matrix', () => {
       designer: 'allowed',
       viewer: 'forbidden',
     },
-    { action: 'list members', send: (a) => a.get('/api/v1/members'), owner: 'allowed', designer: 'allowed', viewer: 'allowed' },
+    {
+      action: 'list members',
+      send: (a) => a.get('/api/v1/members'),
+      owner: 'allowed',
+      designer: 'allowed',
+      viewer: 'allowed',
+    },
     {
       action: 'change a role',
       send: (a, c) => a.patch(`/api/v1/members/${c.ownerId}`).send({ role: 'owner' }),
@@ -51,7 +74,13 @@ describe('the role × action matrix', () => {
       designer: 'forbidden',
       viewer: 'forbidden',
     },
-    { action: 'list invitations', send: (a) => a.get('/api/v1/invitations'), owner: 'allowed', designer: 'forbidden', viewer: 'forbidden' },
+    {
+      action: 'list invitations',
+      send: (a) => a.get('/api/v1/invitations'),
+      owner: 'allowed',
+      designer: 'forbidden',
+      viewer: 'forbidden',
+    },
     {
       action: 'invite',
       send: (a) => a.post('/api/v1/invitations').send({ email: uniqueEmail('matrix'), role: 'viewer' }),
@@ -71,7 +100,10 @@ describe('the role × action matrix', () => {
   for (const role of ['owner', 'designer', 'viewer'] as const) {
     it(`enforces what a ${role} may do`, async () => {
       const { owner, member } = await orgWithMember(role);
-      const pending = await owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail('pending'), role: 'viewer' }).expect(201);
+      const pending = await owner.agent
+        .post('/api/v1/invitations')
+        .send({ email: uniqueEmail('pending'), role: 'viewer' })
+        .expect(201);
       const ctx = { ownerId: owner.userId, invitationId: pending.body.id as string };
       for (const row of matrix) {
         const res = await row.send(member.agent, ctx);
@@ -118,7 +150,10 @@ describe('invitations', () => {
     assert.equal(accepted.body.currentOrganizationId, owner.organizationId);
     await other.agent.post('/api/v1/projects').send({ name: 'Made as designer' }).expect(201);
 
-    const switched = await other.agent.put('/api/v1/session/organization').send({ organizationId: other.organizationId }).expect(200);
+    const switched = await other.agent
+      .put('/api/v1/session/organization')
+      .send({ organizationId: other.organizationId })
+      .expect(200);
     assert.equal(switched.body.currentOrganizationId, other.organizationId);
     const own = await other.agent.get('/api/v1/projects').expect(200);
     assert.equal(own.body.length, 0, 'projects are scoped to the current organisation');
@@ -132,19 +167,34 @@ describe('invitations', () => {
     const email = uniqueEmail('invitee');
     const joined = await inviteMember(t, owner, 'designer', email);
     const members = await owner.agent.get('/api/v1/members').expect(200);
-    assert.deepEqual(members.body.map((m: { email: string; role: string }) => [m.email, m.role]).sort(), [[email, 'designer'], [owner.email, 'owner']].sort());
+    assert.deepEqual(
+      members.body.map((m: { email: string; role: string }) => [m.email, m.role]).sort(),
+      [
+        [email, 'designer'],
+        [owner.email, 'owner'],
+      ].sort(),
+    );
     const events = await t.db('audit_events').where({ type: 'member_joined' }).select('organization_id', 'actor_email');
     assert.deepEqual(events, [{ organization_id: owner.organizationId, actor_email: email }]);
-    await newAgent(t.app).post(`/api/v1/invitation-links/${joined.token}/account`).send({ name: 'Again', password: PASSWORD }).expect(410);
+    await newAgent(t.app)
+      .post(`/api/v1/invitation-links/${joined.token}/account`)
+      .send({ name: 'Again', password: PASSWORD })
+      .expect(410);
 
     // Someone with an account is invited: the link asks them to sign in rather than making a second account.
     const other = await signUp(t);
     const mail = t.sink.waitFor((m) => m.to.includes(other.email));
     await owner.agent.post('/api/v1/invitations').send({ email: other.email, role: 'viewer' }).expect(201);
     const token = linkToken((await mail).text, '/invitations/');
-    const taken = await newAgent(t.app).post(`/api/v1/invitation-links/${token}/account`).send({ name: 'Twin', password: PASSWORD }).expect(409);
+    const taken = await newAgent(t.app)
+      .post(`/api/v1/invitation-links/${token}/account`)
+      .send({ name: 'Twin', password: PASSWORD })
+      .expect(409);
     assert.equal(taken.body.error.code, 'email_taken');
-    const bad = await newAgent(t.app).post(`/api/v1/invitation-links/${token}/account`).send({ name: '', password: 'short' }).expect(400);
+    const bad = await newAgent(t.app)
+      .post(`/api/v1/invitation-links/${token}/account`)
+      .send({ name: '', password: 'short' })
+      .expect(400);
     assert.deepEqual(bad.body.error.details.map((d: { path: string }) => d.path).sort(), ['name', 'password']);
   });
 
@@ -154,7 +204,9 @@ describe('invitations', () => {
     const email = uniqueEmail('invitee');
     const mail = t.sink.waitFor((m) => m.to.includes(email));
     await owner.agent.post('/api/v1/invitations').send({ email, role: 'viewer' }).expect(201);
-    const token = linkPath((await mail).text, '/invitations/').split('/').pop();
+    const token = linkPath((await mail).text, '/invitations/')
+      .split('/')
+      .pop();
     const res = await stranger.agent.post(`/api/v1/invitation-links/${token}/accept`).expect(403);
     assert.equal(res.body.error.code, 'wrong_account');
     const members = await owner.agent.get('/api/v1/members').expect(200);
@@ -168,8 +220,13 @@ describe('invitations', () => {
     const email = uniqueEmail('late');
     const mail = t.sink.waitFor((m) => m.to.includes(email));
     const created = await owner.agent.post('/api/v1/invitations').send({ email, role: 'viewer' }).expect(201);
-    const late = linkPath((await mail).text, '/invitations/').split('/').pop();
-    await t.db('invitations').where({ id: created.body.id }).update({ expires_at: new Date(Date.now() - 1000) });
+    const late = linkPath((await mail).text, '/invitations/')
+      .split('/')
+      .pop();
+    await t
+      .db('invitations')
+      .where({ id: created.body.id })
+      .update({ expires_at: new Date(Date.now() - 1000) });
     const expired = await request(t.app).get(`/api/v1/invitation-links/${late}`).expect(410);
     assert.equal(expired.body.error.code, 'invitation_expired');
     const refused = await newAgent(t.app)
@@ -245,10 +302,16 @@ describe("another organisation's data answers 404", () => {
     // The outsider owns their own organisation; A's member and invitation are not in it.
     await outsider.agent.patch(`/api/v1/members/${a.member.userId}`).send({ role: 'viewer' }).expect(404);
     await outsider.agent.delete(`/api/v1/members/${a.member.userId}`).expect(404);
-    const pending = await a.owner.agent.post('/api/v1/invitations').send({ email: uniqueEmail(), role: 'viewer' }).expect(201);
+    const pending = await a.owner.agent
+      .post('/api/v1/invitations')
+      .send({ email: uniqueEmail(), role: 'viewer' })
+      .expect(201);
     await outsider.agent.delete(`/api/v1/invitations/${pending.body.id}`).expect(404);
     const mine = await outsider.agent.get('/api/v1/members').expect(200);
-    assert.deepEqual(mine.body.map((m: { userId: string }) => m.userId), [outsider.userId]);
+    assert.deepEqual(
+      mine.body.map((m: { userId: string }) => m.userId),
+      [outsider.userId],
+    );
     const theirs = await a.owner.agent.get('/api/v1/members').expect(200);
     assert.equal(theirs.body.length, 2, 'nothing changed in the other organisation');
   });
@@ -256,7 +319,10 @@ describe("another organisation's data answers 404", () => {
   it('creates a further organisation and switches to it', async () => {
     const { agent } = await signUp(t, { organizationName: 'First' });
     const res = await agent.post('/api/v1/organizations').send({ name: 'Second' }).expect(201);
-    assert.deepEqual(res.body.organizations.map((o: { name: string }) => o.name), ['First', 'Second']);
+    assert.deepEqual(
+      res.body.organizations.map((o: { name: string }) => o.name),
+      ['First', 'Second'],
+    );
     const second = res.body.organizations.find((o: { name: string }) => o.name === 'Second');
     assert.equal(res.body.currentOrganizationId, second.id);
   });
@@ -269,7 +335,10 @@ describe('dev outbox', () => {
     const mail = t.sink.waitFor((m) => m.to.includes(email));
     await owner.agent.post('/api/v1/invitations').send({ email, role: 'viewer' }).expect(201);
     await mail;
-    const res = await request(t.app).get('/api/v1/dev/outbox').set('X-Dev-Outbox-Token', t.config.devOutboxToken).expect(200);
+    const res = await request(t.app)
+      .get('/api/v1/dev/outbox')
+      .set('X-Dev-Outbox-Token', t.config.devOutboxToken)
+      .expect(200);
     const message = res.body.find((m: { to: string[] }) => m.to.includes(email));
     assert.ok(message);
     assert.equal(message.links.length, 1);

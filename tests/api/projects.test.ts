@@ -13,17 +13,30 @@ describe('projects', () => {
     const { agent } = await signUp(t, { name: 'Pat Owner' });
     const site = await agent
       .post('/api/v1/climate-sites')
-      .send({ name: 'Site', sourceKind: 'published', publishedValues: { source: 'test', heating: { db99_6: -20, db99: -17 } } })
+      .send({
+        name: 'Site',
+        sourceKind: 'published',
+        publishedValues: { source: 'test', heating: { db99_6: -20, db99: -17 } },
+      })
       .expect(201);
     const created = await agent
       .post('/api/v1/projects')
-      .send({ name: 'Hollow Lane house', clientName: 'R. Client', siteAddress: '4 Hollow Lane', climateSiteId: site.body.id, notes: 'n' })
+      .send({
+        name: 'Hollow Lane house',
+        clientName: 'R. Client',
+        siteAddress: '4 Hollow Lane',
+        climateSiteId: site.body.id,
+        notes: 'n',
+      })
       .expect(201);
     assert.equal(created.body.climateSiteName, 'Site');
     assert.equal(created.body.version, 1);
     assert.equal(created.body.createdByName, 'Pat Owner');
 
-    const renamed = await agent.patch(`/api/v1/projects/${created.body.id}`).send({ version: 1, name: 'Hollow Lane cottage' }).expect(200);
+    const renamed = await agent
+      .patch(`/api/v1/projects/${created.body.id}`)
+      .send({ version: 1, name: 'Hollow Lane cottage' })
+      .expect(200);
     assert.equal(renamed.body.name, 'Hollow Lane cottage');
     assert.equal(renamed.body.version, 2);
     assert.equal(renamed.body.clientName, 'R. Client', 'fields not sent stay as they were');
@@ -35,9 +48,15 @@ describe('projects', () => {
 
     await agent.patch(`/api/v1/projects/${copy.body.id}`).send({ version: 1, archived: true }).expect(200);
     const active = await agent.get('/api/v1/projects').expect(200);
-    assert.deepEqual(active.body.map((p: { name: string }) => p.name), ['Hollow Lane cottage']);
+    assert.deepEqual(
+      active.body.map((p: { name: string }) => p.name),
+      ['Hollow Lane cottage'],
+    );
     const archived = await agent.get('/api/v1/projects?archived=true').expect(200);
-    assert.deepEqual(archived.body.map((p: { id: string }) => p.id), [copy.body.id]);
+    assert.deepEqual(
+      archived.body.map((p: { id: string }) => p.id),
+      [copy.body.id],
+    );
     await agent.get('/api/v1/projects?archived=maybe').expect(400);
 
     await agent.delete(`/api/v1/projects/${copy.body.id}`).expect(204);
@@ -48,7 +67,10 @@ describe('projects', () => {
     const { agent } = await signUp(t);
     const p = await agent.post('/api/v1/projects').send({ name: 'Shared' }).expect(201);
     await agent.patch(`/api/v1/projects/${p.body.id}`).send({ version: 1, notes: 'first change' }).expect(200);
-    const stale = await agent.patch(`/api/v1/projects/${p.body.id}`).send({ version: 1, notes: 'second change' }).expect(409);
+    const stale = await agent
+      .patch(`/api/v1/projects/${p.body.id}`)
+      .send({ version: 1, notes: 'second change' })
+      .expect(409);
     assert.equal(stale.body.error.code, 'stale_update');
     const now = await agent.get(`/api/v1/projects/${p.body.id}`).expect(200);
     assert.equal(now.body.notes, 'first change');
@@ -62,9 +84,16 @@ describe('projects', () => {
     const b = await signUp(t);
     const theirs = await b.agent
       .post('/api/v1/climate-sites')
-      .send({ name: 'Theirs', sourceKind: 'published', publishedValues: { source: 'x', heating: { db99_6: -5, db99: -3 } } })
+      .send({
+        name: 'Theirs',
+        sourceKind: 'published',
+        publishedValues: { source: 'x', heating: { db99_6: -5, db99: -3 } },
+      })
       .expect(201);
-    const res = await a.agent.post('/api/v1/projects').send({ name: 'Mine', climateSiteId: theirs.body.id }).expect(404);
+    const res = await a.agent
+      .post('/api/v1/projects')
+      .send({ name: 'Mine', climateSiteId: theirs.body.id })
+      .expect(404);
     assert.equal(res.body.error.details[0].path, 'climateSiteId');
     assert.equal((await a.agent.get('/api/v1/projects').expect(200)).body.length, 0);
     const mine = await a.agent.post('/api/v1/projects').send({ name: 'Mine' }).expect(201);

@@ -65,7 +65,9 @@ interface Row {
 describe('moving hourly records into columns', () => {
   it('moves a stored record into one row and back again, every value unchanged', async () => {
     await migrateUpTo(db, COLUMNS_MIGRATION);
-    const [org] = await db('organizations').insert({ name: 'Migration test (invented)' }).returning<{ id: string }[]>('id');
+    const [org] = await db('organizations')
+      .insert({ name: 'Migration test (invented)' })
+      .returning<{ id: string }[]>('id');
     const [site] = await db('climate_sites')
       .insert({ organization_id: org?.id, name: 'Migrated site (invented)', source_kind: 'hourly' })
       .returning<{ id: string }[]>('id');
@@ -104,7 +106,13 @@ describe('moving hourly records into columns', () => {
       db('hourly_observations')
         .where({ climate_site_id: siteId })
         .orderBy('observed_at')
-        .select<Row[]>(db.raw('(extract(epoch from observed_at) / 3600)::float8 as hour'), 'dry_bulb_c', 'dew_point_c', 'wind_speed_ms', 'station_pressure_kpa');
+        .select<Row[]>(
+          db.raw('(extract(epoch from observed_at) / 3600)::float8 as hour'),
+          'dry_bulb_c',
+          'dew_point_c',
+          'wind_speed_ms',
+          'station_pressure_kpa',
+        );
     const before = await readRows();
     assert.equal(before.length, series.time.length - 30);
 
@@ -125,7 +133,10 @@ describe('moving hourly records into columns', () => {
     });
 
     await db.migrate.down(migrationConfig);
-    assert.equal((await db.raw<{ rows: unknown[] }>(`SELECT 1 FROM pg_tables WHERE tablename = 'climate_records'`)).rows.length, 0);
+    assert.equal(
+      (await db.raw<{ rows: unknown[] }>(`SELECT 1 FROM pg_tables WHERE tablename = 'climate_records'`)).rows.length,
+      0,
+    );
     const back = await readRows();
     assert.deepEqual(back, before, 'rolling back gives the same rows');
 
@@ -144,9 +155,14 @@ describe('moving hourly records into columns', () => {
     const demo = DEMO_SITES[0];
     if (!demo) throw new Error('no demo site');
     const series = atStoragePrecision(generateDemoSeries(demo, { years: 3 }));
-    await db.transaction((trx) => storeRecord(trx, siteId, series, 300, { fileName: 'gen', rowCount: series.time.length }));
-    const years = (await db('design_conditions').where({ climate_site_id: siteId }).first<{ conditions: { period: { qualifyingYears: number[] } } }>('conditions'))
-      .conditions.period.qualifyingYears;
+    await db.transaction((trx) =>
+      storeRecord(trx, siteId, series, 300, { fileName: 'gen', rowCount: series.time.length }),
+    );
+    const years = (
+      await db('design_conditions')
+        .where({ climate_site_id: siteId })
+        .first<{ conditions: { period: { qualifyingYears: number[] } } }>('conditions')
+    ).conditions.period.qualifyingYears;
     const stored = await loadRecordForSweep(db, siteId, sweepIndexKey(years));
     assert.ok(stored && 'index' in stored, 'the index built at upload is read back');
     const other = await loadRecordForSweep(db, siteId, sweepIndexKey([1901]));
@@ -154,11 +170,17 @@ describe('moving hourly records into columns', () => {
     assert.deepEqual(other.series, await loadRecord(db, siteId));
 
     // The stored index sweeps to exactly the figures of the record it was built from.
-    const input = benchScenarioInput({ heating: { db99_6: -20, db99: -17 }, extremeMin: { mean: -27, returnPeriod: { '50': -34 } } });
+    const input = benchScenarioInput({
+      heating: { db99_6: -20, db99: -17 },
+      extremeMin: { mean: -27, returnPeriod: { '50': -34 } },
+    });
     const fromSeries = sweep({ ...input, record: { series, qualifyingYears: years } });
     const fromStored = sweep({ ...input, record: unpackSweepIndex(stored.index) });
     assert.deepEqual(fromStored, fromSeries);
-    assert.ok(fromSeries.rows.some((r) => r.unmetHoursPerYear !== null && r.unmetHoursPerYear > 0), 'the check covers unmet hours');
+    assert.ok(
+      fromSeries.rows.some((r) => r.unmetHoursPerYear !== null && r.unmetHoursPerYear > 0),
+      'the check covers unmet hours',
+    );
   });
 });
 

@@ -27,13 +27,30 @@ async function pdfText(buffer: Buffer): Promise<string> {
   return text;
 }
 
-async function reportOf(f: Fixture, body: Record<string, unknown> = {}): Promise<{ scenario: Scenario; report: Report }> {
-  const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Gas bid', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } }).expect(201)).body);
-  const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200)).body as { rows: { label: string; designC: number }[] };
+async function reportOf(
+  f: Fixture,
+  body: Record<string, unknown> = {},
+): Promise<{ scenario: Scenario; report: Report }> {
+  const scenario = scenarioSchema.parse(
+    (
+      await f.agent
+        .post(`/api/v1/projects/${f.projectId}/scenarios`)
+        .send({ name: 'Gas bid', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } })
+        .expect(201)
+    ).body,
+  );
+  const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200))
+    .body as { rows: { label: string; designC: number }[] };
   const at = (label: string) => sweep.rows.find((r) => r.label === label)?.designC ?? 0;
   const res = await f.agent
     .post(`/api/v1/projects/${f.projectId}/reports`)
-    .send({ scenarioId: scenario.id, title: 'Your heating options', note: 'Call me with questions.', points: [at('99 %'), at('50-year')], ...body })
+    .send({
+      scenarioId: scenario.id,
+      title: 'Your heating options',
+      note: 'Call me with questions.',
+      points: [at('99 %'), at('50-year')],
+      ...body,
+    })
     .expect(201);
   return { scenario, report: reportSchema.parse(res.body) };
 }
@@ -61,28 +78,75 @@ describe('reports API', () => {
     const { report } = await reportOf(f);
     assert.equal(report.points.length, 2);
     assert.equal(report.links.length, 0);
-    const made = await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({ expiresInDays: 10 }).expect(201);
+    const made = await f.agent
+      .post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`)
+      .send({ expiresInDays: 10 })
+      .expect(201);
     const { url } = made.body as { url: string };
     assert.match(url, /^http:\/\/tailroom\.test\/r\/[\w-]{43}\.[\w-]{22}$/);
     const stored = await t.db('report_links').select('token_hash');
-    assert.deepEqual(stored.map((r: { token_hash: string }) => r.token_hash), [hashReportToken(tokenOf(url))]);
+    assert.deepEqual(
+      stored.map((r: { token_hash: string }) => r.token_hash),
+      [hashReportToken(tokenOf(url))],
+    );
 
-    const view = reportViewSchema.parse((await request(t.app).get(`/api/v1/public/reports/${tokenOf(url)}`).expect(200)).body);
+    const view = reportViewSchema.parse(
+      (
+        await request(t.app)
+          .get(`/api/v1/public/reports/${tokenOf(url)}`)
+          .expect(200)
+      ).body,
+    );
     assert.equal(view.title, 'Your heating options');
     assert.equal(view.note, 'Call me with questions.');
-    assert.deepEqual(view.options.map((o) => o.tag), ['99 %', '50-yr']);
+    assert.deepEqual(
+      view.options.map((o) => o.tag),
+      ['99 %', '50-yr'],
+    );
     assert.ok(view.options.every((o) => o.figures.length === 7));
     assert.match(view.options[0]?.heading ?? '', /^Option A: sized for a typical cold winter night \(−?\d+ °C\)$/);
     assert.match(view.options[0]?.sentence ?? '', /typical winter|keeps the house at the temperature you set/);
     assert.ok(view.climate.some((c) => c.includes('about 88 hours')));
     // Each option's odds in one paragraph led by its letter, in whole degrees, over the years the costs are compared.
-    assert.deepEqual(view.options.map((o) => o.odds.length), [1, 1]);
-    assert.match(view.options[0]?.odds[0] ?? '', /^Option A: There is .+ of at least one night colder than −?\d+ °C in the next \d+ years, the period over which the costs are compared\./);
+    assert.deepEqual(
+      view.options.map((o) => o.odds.length),
+      [1, 1],
+    );
+    assert.match(
+      view.options[0]?.odds[0] ?? '',
+      /^Option A: There is .+ of at least one night colder than −?\d+ °C in the next \d+ years, the period over which the costs are compared\./,
+    );
     assert.match(view.options[1]?.odds[0] ?? '', /^Option B: /);
     assert.equal(view.cautions.length, 4);
     // Written for a homeowner: none of the designer's terms or the internal scenario name in what the homeowner reads.
-    const homeownerText = JSON.stringify([view.title, view.status, view.building, view.climate, view.cautionsTitle, view.cautions, view.provenance, view.options.map((o) => [o.heading, o.unit, o.capacity, o.sentence, o.figures.map((x) => [x.label, x.text]), o.odds])]);
-    for (const jargon of [/unmet/i, /design (temperature|load|point)/i, /set-point/i, /\bsag\b/i, /ladder/i, /\brung/i, /life-cycle/i, /Gas bid/, /fall(s)? behind the load/i]) {
+    const homeownerText = JSON.stringify([
+      view.title,
+      view.status,
+      view.building,
+      view.climate,
+      view.cautionsTitle,
+      view.cautions,
+      view.provenance,
+      view.options.map((o) => [
+        o.heading,
+        o.unit,
+        o.capacity,
+        o.sentence,
+        o.figures.map((x) => [x.label, x.text]),
+        o.odds,
+      ]),
+    ]);
+    for (const jargon of [
+      /unmet/i,
+      /design (temperature|load|point)/i,
+      /set-point/i,
+      /\bsag\b/i,
+      /ladder/i,
+      /\brung/i,
+      /life-cycle/i,
+      /Gas bid/,
+      /fall(s)? behind the load/i,
+    ]) {
       assert.doesNotMatch(homeownerText, jargon);
     }
     // The designer who prepared it is the contact.
@@ -90,7 +154,9 @@ describe('reports API', () => {
     assert.ok(view.expiresAt);
 
     // The same figures as the signed-in preview.
-    const preview = reportViewSchema.parse((await f.agent.get(`/api/v1/projects/${f.projectId}/reports/${report.id}/view`).expect(200)).body);
+    const preview = reportViewSchema.parse(
+      (await f.agent.get(`/api/v1/projects/${f.projectId}/reports/${report.id}/view`).expect(200)).body,
+    );
     assert.deepEqual(preview.options, view.options);
   });
 
@@ -102,13 +168,22 @@ describe('reports API', () => {
     const b = (await f.agent.post(`${base}/links`).send({}).expect(201)).body as { url: string; link: { id: string } };
     const revoked = reportSchema.parse((await f.agent.delete(`${base}/links/${a.link.id}`).expect(200)).body);
     assert.equal(revoked.links.find((l) => l.id === a.link.id)?.status, 'revoked');
-    const gone = await request(t.app).get(`/api/v1/public/reports/${tokenOf(a.url)}`).expect(410);
+    const gone = await request(t.app)
+      .get(`/api/v1/public/reports/${tokenOf(a.url)}`)
+      .expect(410);
     assert.equal((gone.body as { error: { code: string } }).error.code, 'link_revoked');
     assert.doesNotMatch(JSON.stringify(gone.body), /heating options|F 9 kW/);
-    await request(t.app).get(`/api/v1/public/reports/${tokenOf(a.url)}/pdf`).expect(410);
+    await request(t.app)
+      .get(`/api/v1/public/reports/${tokenOf(a.url)}/pdf`)
+      .expect(410);
 
-    await t.db('report_links').where({ id: b.link.id }).update({ expires_at: new Date(Date.now() - 1000) });
-    const expired = await request(t.app).get(`/api/v1/public/reports/${tokenOf(b.url)}`).expect(410);
+    await t
+      .db('report_links')
+      .where({ id: b.link.id })
+      .update({ expires_at: new Date(Date.now() - 1000) });
+    const expired = await request(t.app)
+      .get(`/api/v1/public/reports/${tokenOf(b.url)}`)
+      .expect(410);
     assert.equal((expired.body as { error: { code: string } }).error.code, 'link_expired');
 
     const forged = newReportToken('not-the-server-secret-but-long-enough').token;
@@ -119,8 +194,16 @@ describe('reports API', () => {
   it('produces a PDF whose text holds the report’s key figures', async () => {
     const f = await fixture(t);
     const { report } = await reportOf(f, { unitSystem: 'IP' });
-    const { url } = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)).body as { url: string };
-    const view = reportViewSchema.parse((await request(t.app).get(`/api/v1/public/reports/${tokenOf(url)}`).expect(200)).body);
+    const { url } = (
+      await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)
+    ).body as { url: string };
+    const view = reportViewSchema.parse(
+      (
+        await request(t.app)
+          .get(`/api/v1/public/reports/${tokenOf(url)}`)
+          .expect(200)
+      ).body,
+    );
     const res = await request(t.app)
       .get(`/api/v1/public/reports/${tokenOf(url)}/pdf`)
       .buffer(true)
@@ -149,7 +232,10 @@ describe('reports API', () => {
     const { report } = await reportOf(f);
     const base = `/api/v1/projects/${f.projectId}/reports/${report.id}`;
     const mail = t.sink.waitFor((m) => m.to.includes('client@example.test'));
-    const sent = reportSchema.parse((await f.agent.post(`${base}/send`).send({ to: 'client@example.test', message: 'As discussed.' }).expect(201)).body);
+    const sent = reportSchema.parse(
+      (await f.agent.post(`${base}/send`).send({ to: 'client@example.test', message: 'As discussed.' }).expect(201))
+        .body,
+    );
     assert.equal(sent.sends[0]?.status, 'sent');
     assert.equal(sent.links.length, 1);
     const m = await mail;
@@ -169,7 +255,10 @@ describe('reports API', () => {
       const { report: r2 } = await reportOf(g);
       const owner = newAgent(broken.app);
       await owner.post('/api/v1/auth/sign-in').send({ email: g.email, password: PASSWORD }).expect(200);
-      const res = await owner.post(`/api/v1/projects/${g.projectId}/reports/${r2.id}/send`).send({ to: 'client@example.test' }).expect(502);
+      const res = await owner
+        .post(`/api/v1/projects/${g.projectId}/reports/${r2.id}/send`)
+        .send({ to: 'client@example.test' })
+        .expect(502);
       const body = res.body as { error: { code: string }; report: Report };
       assert.equal(body.error.code, 'send_failed');
       assert.equal(body.report.sends[0]?.status, 'failed');
@@ -178,7 +267,12 @@ describe('reports API', () => {
       await broken.close();
     }
     // A retry (here, where the sink works) sends again with a new link.
-    const failedId = (await t.db('report_sends').insert({ report_id: report.id, recipient: 'late@example.test', status: 'failed', error: 'timeout' }).returning<{ id: string }[]>('id'))[0]?.id;
+    const failedId = (
+      await t
+        .db('report_sends')
+        .insert({ report_id: report.id, recipient: 'late@example.test', status: 'failed', error: 'timeout' })
+        .returning<{ id: string }[]>('id')
+    )[0]?.id;
     const again = t.sink.waitFor((x) => x.to.includes('late@example.test'));
     await f.agent.post(`${base}/sends/${failedId}/retry`).send({}).expect(201);
     await again;
@@ -190,25 +284,38 @@ describe('reports API', () => {
     const viewer = await inviteMember(t, { agent: f.agent }, 'viewer');
     await viewer.agent.get(`/api/v1/projects/${f.projectId}/reports`).expect(200);
     await viewer.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(403);
-    await viewer.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/send`).send({ to: 'x@example.test' }).expect(403);
+    await viewer.agent
+      .post(`/api/v1/projects/${f.projectId}/reports/${report.id}/send`)
+      .send({ to: 'x@example.test' })
+      .expect(403);
     const other = await signUp(t);
     await other.agent.get(`/api/v1/projects/${f.projectId}/reports/${report.id}`).expect(404);
     await other.agent.get(`/api/v1/projects/${f.projectId}/reports/${report.id}/view`).expect(404);
     await other.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(404);
-    const bad = await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: report.scenarioId, title: '', points: [], figures: ['nope'] }).expect(400);
+    const bad = await f.agent
+      .post(`/api/v1/projects/${f.projectId}/reports`)
+      .send({ scenarioId: report.scenarioId, title: '', points: [], figures: ['nope'] })
+      .expect(400);
     const paths = (bad.body as { error: { details: { path: string }[] } }).error.details.map((d) => d.path).sort();
     assert.deepEqual(paths, ['figures.0', 'points', 'title']);
   });
 
   it('takes a PNG or a cleaned SVG as the logo, judged by content, and refuses anything else', async () => {
     const f = await fixture(t);
-    const png = Buffer.from('89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478016390f58bff0f00032001cac83ac1f10000000049454e44ae426082', 'hex');
+    const png = Buffer.from(
+      '89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478016390f58bff0f00032001cac83ac1f10000000049454e44ae426082',
+      'hex',
+    );
     await f.agent.put('/api/v1/organization/logo').attach('logo', png, 'firm.png').expect(200);
     const got = await f.agent.get('/api/v1/organization/logo').expect(200);
     assert.equal(got.headers['content-type'], 'image/png');
-    const fake = await f.agent.put('/api/v1/organization/logo').attach('logo', Buffer.from('MZ not an image'), 'logo.png').expect(400);
+    const fake = await f.agent
+      .put('/api/v1/organization/logo')
+      .attach('logo', Buffer.from('MZ not an image'), 'logo.png')
+      .expect(400);
     assert.equal((fake.body as { error: { code: string } }).error.code, 'invalid_file');
-    const svg = '<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10" onload="alert(1)"><script>alert(2)</script><rect width="10" height="10" fill="#1D4E5F"/><a href="javascript:alert(3)"><circle r="2"/></a></svg>';
+    const svg =
+      '<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10" onload="alert(1)"><script>alert(2)</script><rect width="10" height="10" fill="#1D4E5F"/><a href="javascript:alert(3)"><circle r="2"/></a></svg>';
     await f.agent.put('/api/v1/organization/logo').attach('logo', Buffer.from(svg), 'firm.svg').expect(200);
     const served = await f.agent.get('/api/v1/organization/logo').expect(200);
     assert.equal(served.headers['content-type'], 'image/svg+xml');
@@ -217,7 +324,10 @@ describe('reports API', () => {
     const stored = row.content.toString('utf8');
     assert.doesNotMatch(stored, /script|onload|javascript/i);
     assert.match(stored, /<rect/);
-    await f.agent.put('/api/v1/organization/logo').attach('logo', Buffer.alloc(1024 * 1024 + 1, 0x89), 'big.png').expect(413);
+    await f.agent
+      .put('/api/v1/organization/logo')
+      .attach('logo', Buffer.alloc(1024 * 1024 + 1, 0x89), 'big.png')
+      .expect(413);
     const viewer = await inviteMember(t, { agent: f.agent }, 'designer');
     await viewer.agent.put('/api/v1/organization/logo').attach('logo', png, 'firm.png').expect(403);
   });

@@ -48,12 +48,29 @@ describe('the route table', () => {
     // Organisation A with real objects of every kind, and a member of each role.
     const f = await fixture(t);
     await setPlan(t.db, f.organizationId);
-    const scenario = scenarioSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'S' }).expect(201)).body);
+    const scenario = scenarioSchema.parse(
+      (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'S' }).expect(201)).body,
+    );
     await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200);
-    const rung = (await t.db('sweep_results').first<{ result: { rows: { designC: number }[] } }>('result')).result.rows[0]?.designC ?? -10;
-    const report = reportSchema.parse((await f.agent.post(`/api/v1/projects/${f.projectId}/reports`).send({ scenarioId: scenario.id, title: 'R', points: [rung] }).expect(201)).body);
-    const link = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)).body as { link: { id: string } };
-    const invitation = (await f.agent.post('/api/v1/invitations').send({ email: uniqueEmail('pending'), role: 'viewer' }).expect(201)).body as { id: string };
+    const rung =
+      (await t.db('sweep_results').first<{ result: { rows: { designC: number }[] } }>('result')).result.rows[0]
+        ?.designC ?? -10;
+    const report = reportSchema.parse(
+      (
+        await f.agent
+          .post(`/api/v1/projects/${f.projectId}/reports`)
+          .send({ scenarioId: scenario.id, title: 'R', points: [rung] })
+          .expect(201)
+      ).body,
+    );
+    const link = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201))
+      .body as { link: { id: string } };
+    const invitation = (
+      await f.agent
+        .post('/api/v1/invitations')
+        .send({ email: uniqueEmail('pending'), role: 'viewer' })
+        .expect(201)
+    ).body as { id: string };
     const members: Record<Role, { agent: request.Agent; userId: string }> = {
       owner: { agent: f.agent, userId: '' },
       designer: await inviteMember(t, { agent: f.agent }, 'designer'),
@@ -73,19 +90,34 @@ describe('the route table', () => {
       id: randomUUID(),
       token: 'not-a-token',
     };
-    const fill = (path: string, values: Record<string, string>) => path.replace(/:(\w+)/g, (_m, name: string) => values[name] ?? randomUUID());
+    const fill = (path: string, values: Record<string, string>) =>
+      path.replace(/:(\w+)/g, (_m, name: string) => values[name] ?? randomUUID());
     const outsider = await signUp(t);
     const guarded = t.routes().filter((r) => r.guard !== null);
     const call = (agent: request.Agent | ReturnType<typeof request>, method: string, url: string) => {
       const m = method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete';
-      const req = (agent)[m](url);
+      const req = agent[m](url);
       return method === 'GET' || method === 'DELETE' ? req : req.send({});
     };
     const problems: string[] = [];
     for (const r of guarded) {
       // Deleting or revoking A's real objects would change what later rows see: those get fresh ids.
-      const values = r.method === 'DELETE' ? { ...ids, projectId: f.projectId, scenarioId: randomUUID(), reportId: randomUUID(), linkId: randomUUID(), listId: randomUUID(), siteId: randomUUID(), userId: randomUUID(), invitationId: randomUUID() } : ids;
-      if (r.path.endsWith('/sign-out-everywhere') || r.path.endsWith('/billing/cancel') || r.path.endsWith('/freeze')) continue;
+      const values =
+        r.method === 'DELETE'
+          ? {
+              ...ids,
+              projectId: f.projectId,
+              scenarioId: randomUUID(),
+              reportId: randomUUID(),
+              linkId: randomUUID(),
+              listId: randomUUID(),
+              siteId: randomUUID(),
+              userId: randomUUID(),
+              invitationId: randomUUID(),
+            }
+          : ids;
+      if (r.path.endsWith('/sign-out-everywhere') || r.path.endsWith('/billing/cancel') || r.path.endsWith('/freeze'))
+        continue;
       const url = fill(r.path, values);
       const anon = await call(request(t.app), r.method, url);
       if (anon.status !== 401) problems.push(`${key(r)} without a session: ${anon.status}`);
@@ -94,7 +126,8 @@ describe('the route table', () => {
         const allowed = r.guard?.kind === 'user' || (r.guard?.kind === 'action' && can(role, r.guard.action));
         if (res.status >= 500) problems.push(`${key(r)} as ${role}: ${res.status}`);
         if (!allowed && res.status !== 403) problems.push(`${key(r)} as ${role}: ${res.status}, expected 403`);
-        if (allowed && res.status === 403 && (res.body as { error?: { code?: string } }).error?.code === 'forbidden') problems.push(`${key(r)} as ${role}: forbidden`);
+        if (allowed && res.status === 403 && (res.body as { error?: { code?: string } }).error?.code === 'forbidden')
+          problems.push(`${key(r)} as ${role}: forbidden`);
       }
       // Another organisation's owner, with A's ids: never A's data.
       if (/:(projectId|scenarioId|reportId|listId|siteId|userId|invitationId|linkId)/.test(r.path)) {

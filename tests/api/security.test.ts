@@ -29,7 +29,11 @@ describe('security', () => {
     assert.ok(cookie);
     const bare = await owner.agent.post('/api/v1/projects').unset(CSRF_HEADER).send({ name: 'No header' }).expect(403);
     assert.equal((bare.body as { error: { code: string } }).error.code, 'csrf');
-    await owner.agent.post('/api/v1/projects').set('Origin', 'https://evil.example').send({ name: 'Cross-site' }).expect(403);
+    await owner.agent
+      .post('/api/v1/projects')
+      .set('Origin', 'https://evil.example')
+      .send({ name: 'Cross-site' })
+      .expect(403);
     assert.equal((await t.db('projects').count<{ n: number }[]>('id as n'))[0]?.n, 0);
     await owner.agent.post('/api/v1/projects').send({ name: 'Fine' }).expect(201);
     await owner.agent.get('/api/v1/projects').unset(CSRF_HEADER).expect(200);
@@ -57,13 +61,22 @@ describe('security', () => {
       for (let i = 0; i < 5; i++) {
         await request(own.app).post('/api/v1/auth/sign-up').send({ email: target, name: 'Again' }).expect(202);
       }
-      const sameAddress = await request(own.app).post('/api/v1/auth/sign-up').send({ email: target, name: 'Again' }).expect(429);
-      assert.match((sameAddress.body as { error: { message: string } }).error.message, /Too many sign-up requests for this e-mail address/);
+      const sameAddress = await request(own.app)
+        .post('/api/v1/auth/sign-up')
+        .send({ email: target, name: 'Again' })
+        .expect(429);
+      assert.match(
+        (sameAddress.body as { error: { message: string } }).error.message,
+        /Too many sign-up requests for this e-mail address/,
+      );
       // Refused requests count too: 6 so far from this network address; two more, then the limit.
       for (let i = 0; i < 2; i++) {
         await request(own.app).post('/api/v1/auth/sign-up').send({ email: uniqueEmail(), name: 'Other' }).expect(202);
       }
-      const tooMany = await request(own.app).post('/api/v1/auth/sign-up').send({ email: uniqueEmail(), name: 'Other' }).expect(429);
+      const tooMany = await request(own.app)
+        .post('/api/v1/auth/sign-up')
+        .send({ email: uniqueEmail(), name: 'Other' })
+        .expect(429);
       assert.equal((tooMany.body as { error: { code: string } }).error.code, 'rate_limited');
       assert.match((tooMany.body as { error: { message: string } }).error.message, /Too many sign-up requests;/);
       const stored = await own.db('sign_up_requests').count<{ count: number }[]>('* as count');
@@ -86,13 +99,24 @@ describe('security', () => {
 
   it('keeps an audit log of security events that owners can read', async () => {
     const owner = await signUp(t);
-    await request(t.app).post('/api/v1/auth/sign-in').send({ email: owner.email, password: 'wrong password here' }).expect(401);
+    await request(t.app)
+      .post('/api/v1/auth/sign-in')
+      .send({ email: owner.email, password: 'wrong password here' })
+      .expect(401);
     await newAgent(t.app).post('/api/v1/auth/sign-in').send({ email: owner.email, password: PASSWORD }).expect(200);
     const designer = await inviteMember(t, owner, 'designer');
     await owner.agent.patch(`/api/v1/members/${designer.userId}`).send({ role: 'viewer' }).expect(200);
     const log = (await owner.agent.get('/api/v1/audit').expect(200)).body as { type: string; who: string }[];
     const types = log.map((e) => e.type);
-    for (const ty of ['account_created', 'sign_in_failed', 'sign_in', 'invitation_created', 'member_joined', 'role_changed']) assert.ok(types.includes(ty), `${ty} in ${types.join(', ')}`);
+    for (const ty of [
+      'account_created',
+      'sign_in_failed',
+      'sign_in',
+      'invitation_created',
+      'member_joined',
+      'role_changed',
+    ])
+      assert.ok(types.includes(ty), `${ty} in ${types.join(', ')}`);
     await designer.agent.get('/api/v1/audit').expect(403);
   });
 });

@@ -78,8 +78,13 @@ describe('the supervisor', () => {
       const email = uniqueEmail('supervised');
       const mail = sink.waitFor((m) => m.to.includes(email));
       await agent.post('/api/v1/auth/sign-up').send({ email, name: 'Supervised Person' }).expect(202);
-      const signedIn = await agent.post(`/api/v1/auth/sign-ups/${linkToken((await mail).text, '/finish-sign-up/')}`).send({ password: PASSWORD }).expect(201);
-      const cookie = ((signedIn.headers['set-cookie'] as unknown as string[] | undefined) ?? []).map((c) => c.split(';')[0]).join('; ');
+      const signedIn = await agent
+        .post(`/api/v1/auth/sign-ups/${linkToken((await mail).text, '/finish-sign-up/')}`)
+        .send({ password: PASSWORD })
+        .expect(201);
+      const cookie = ((signedIn.headers['set-cookie'] as unknown as string[] | undefined) ?? [])
+        .map((c) => c.split(';')[0])
+        .join('; ');
       await agent.post('/api/v1/projects').send({ name: 'Kept house' }).expect(201);
 
       // A request whose body is still arriving when the process is killed.
@@ -87,7 +92,18 @@ describe('the supervisor', () => {
       const body = JSON.stringify({ name: 'Half-sent house' });
       const cut = new Promise<string>((resolve) => {
         const req = httpRequest(
-          { host: '127.0.0.1', port, method: 'POST', path: '/api/v1/projects', headers: { cookie, [CSRF_HEADER]: CSRF_HEADER_VALUE, 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) } },
+          {
+            host: '127.0.0.1',
+            port,
+            method: 'POST',
+            path: '/api/v1/projects',
+            headers: {
+              cookie,
+              [CSRF_HEADER]: CSRF_HEADER_VALUE,
+              'content-type': 'application/json',
+              'content-length': Buffer.byteLength(body),
+            },
+          },
           (res) => resolve(`answered ${res.statusCode}`),
         );
         req.on('error', (err) => resolve(`cut: ${err.message}`));
@@ -109,11 +125,17 @@ describe('the supervisor', () => {
       context.diagnostic(`serving again ${backAfterMs} ms after the kill`);
       assert.ok(backAfterMs < 5000, `back after ${backAfterMs} ms`);
       assert.equal(supervisor.restarts, 1);
-      assert.ok(lines.some((l) => l.includes('server exited (SIGKILL); the standby takes over')), lines.join('\n'));
+      assert.ok(
+        lines.some((l) => l.includes('server exited (SIGKILL); the standby takes over')),
+        lines.join('\n'),
+      );
 
       // The same session, the committed project, and nothing of the cut-off one.
       const projects = (await agent.get('/api/v1/projects').expect(200)).body as { name: string }[];
-      assert.deepEqual(projects.map((p) => p.name), ['Kept house']);
+      assert.deepEqual(
+        projects.map((p) => p.name),
+        ['Kept house'],
+      );
     } finally {
       await supervisor.stop();
     }

@@ -20,7 +20,8 @@ async function createScenario(f: Fixture, settings: Record<string, unknown> = {}
   return scenarioSchema.parse((await f.agent.post(base(f)).send({ name: 'Bid', settings }).expect(201)).body);
 }
 
-const sweepRows = async (): Promise<number> => Number((await t.db('sweep_results').count<{ count: string }[]>('* as count'))[0]?.count ?? 0);
+const sweepRows = async (): Promise<number> =>
+  Number((await t.db('sweep_results').count<{ count: string }[]>('* as count'))[0]?.count ?? 0);
 
 describe('bad scenarios through the API', () => {
   it('refuses new settings out of range with field details, and creates nothing', async () => {
@@ -50,31 +51,59 @@ describe('bad scenarios through the API', () => {
       .put(`/api/v1/equipment-lists/${f.listId}/options`)
       .send({ version: 2, options: [...OPTIONS.slice(0, 3), { ...hp, copM8_3: 0.8 }] })
       .expect(400);
-    assert.ok(details(bad.body).some((d) => d.path === 'options.3.copM8_3' && d.message.includes('at least 1')), JSON.stringify(details(bad.body)));
-    const list = (await f.agent.get(`/api/v1/equipment-lists/${f.listId}`).expect(200)).body as { options: { copM8_3?: number }[] };
+    assert.ok(
+      details(bad.body).some((d) => d.path === 'options.3.copM8_3' && d.message.includes('at least 1')),
+      JSON.stringify(details(bad.body)),
+    );
+    const list = (await f.agent.get(`/api/v1/equipment-lists/${f.listId}`).expect(200)).body as {
+      options: { copM8_3?: number }[];
+    };
     assert.equal(list.options[3]?.copM8_3, 2.5);
 
     const ua = await f.agent
       .put(`/api/v1/projects/${f.projectId}/building`)
       .send({ version: 2, building: { ...BUILDING, conduction: { mode: 'ua', uaWPerK: 0 } } })
       .expect(400);
-    assert.ok(details(ua.body).some((d) => d.path === 'building.conduction.uaWPerK' && d.message.includes('greater than 0 W/K')), JSON.stringify(details(ua.body)));
-    const stored = (await f.agent.get(`/api/v1/projects/${f.projectId}/building`).expect(200)).body as { building: { conduction: { uaWPerK: number } } };
+    assert.ok(
+      details(ua.body).some(
+        (d) => d.path === 'building.conduction.uaWPerK' && d.message.includes('greater than 0 W/K'),
+      ),
+      JSON.stringify(details(ua.body)),
+    );
+    const stored = (await f.agent.get(`/api/v1/projects/${f.projectId}/building`).expect(200)).body as {
+      building: { conduction: { uaWPerK: number } };
+    };
     assert.equal(stored.building.conduction.uaWPerK, 150);
   });
 
   it('a fuel without a price and an extra design temperature above the indoor one answer 422 and store no sweep', async () => {
     const f = await fixture(t);
     const before = await sweepRows();
-    await f.agent.put('/api/v1/energy-prices').send({ version: 1, prices: { currency: 'USD', electricityPerKwh: '0.1600' } }).expect(200);
+    await f.agent
+      .put('/api/v1/energy-prices')
+      .send({ version: 1, prices: { currency: 'USD', electricityPerKwh: '0.1600' } })
+      .expect(200);
     // Indoor 18 °C: an extra design temperature of 17.5 °C is less than 1 K below it.
-    await f.agent.put(`/api/v1/projects/${f.projectId}/building`).send({ version: 2, building: { ...BUILDING, indoorDesignC: 18 } }).expect(200);
+    await f.agent
+      .put(`/api/v1/projects/${f.projectId}/building`)
+      .send({ version: 2, building: { ...BUILDING, indoorDesignC: 18 } })
+      .expect(200);
     const s = await createScenario(f, { extraDesignC: [17.5] });
     const res = await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(422);
     assert.equal((res.body as ErrorBody).error.code, 'scenario_incomplete');
     const d = details(res.body);
-    assert.ok(d.some((x) => x.path === 'settings.prices' && x.message.includes('Enter a gas price: "F 6 kW", "F 9 kW", "F 14 kW" use gas')), JSON.stringify(d));
-    assert.ok(d.some((x) => x.path === 'settings.extraDesignC.0' && x.message.includes('at most 17 °C')), JSON.stringify(d));
+    assert.ok(
+      d.some(
+        (x) =>
+          x.path === 'settings.prices' &&
+          x.message.includes('Enter a gas price: "F 6 kW", "F 9 kW", "F 14 kW" use gas'),
+      ),
+      JSON.stringify(d),
+    );
+    assert.ok(
+      d.some((x) => x.path === 'settings.extraDesignC.0' && x.message.includes('at most 17 °C')),
+      JSON.stringify(d),
+    );
     assert.equal(await sweepRows(), before);
   });
 
@@ -82,7 +111,10 @@ describe('bad scenarios through the API', () => {
     const f = await fixture(t);
     const s = await createScenario(f, { equipmentFamily: 'heat-pump', studyPeriodYears: 25 });
     const answer = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(200)).body);
-    assert.deepEqual(answer.options.map((o) => o.kind), ['heat-pump']);
+    assert.deepEqual(
+      answer.options.map((o) => o.kind),
+      ['heat-pump'],
+    );
     assert.equal(answer.heatPumpSizing, 'compressor');
     assert.equal(answer.selectionRule, 'smallest-capacity');
     assert.equal(answer.studyPeriodYears, 25);
@@ -93,7 +125,9 @@ describe('bad scenarios through the API', () => {
       assert.ok(r.backupHoursPerYear !== null && r.backupEnergyKWh !== null && r.lowestIndoorC !== null);
       assert.equal(r.worstSagC, r.worstDropK);
     }
-    const mixed = sweepAnswerSchema.parse((await f.agent.post(`${base(f)}/${(await createScenario(f)).id}/sweep`).expect(200)).body);
+    const mixed = sweepAnswerSchema.parse(
+      (await f.agent.post(`${base(f)}/${(await createScenario(f)).id}/sweep`).expect(200)).body,
+    );
     assert.equal(mixed.selectionRule, 'lowest-life-cycle-cost');
     assert.ok(mixed.warnings.some((w) => w.code === 'mixed-families'));
   });

@@ -68,7 +68,11 @@ async function startServer(): Promise<{ port: number; child: ChildProcess }> {
 }
 
 async function startAll(): Promise<void> {
-  fake = await startPaymentFake({ secretKey: FAKE_STRIPE_SECRET_KEY, webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET, retryBaseMs: 200 });
+  fake = await startPaymentFake({
+    secretKey: FAKE_STRIPE_SECRET_KEY,
+    webhookSecret: FAKE_STRIPE_WEBHOOK_SECRET,
+    retryBaseMs: 200,
+  });
   servers.push(await startServer(), await startServer());
   // The provider's webhook goes to both servers at once, with the same signed body.
   relay = createServer((req, res) => {
@@ -76,8 +80,15 @@ async function startAll(): Promise<void> {
     req.on('data', (c: Buffer) => chunks.push(c));
     req.on('end', () => {
       const body = Buffer.concat(chunks);
-      const headers = { 'content-type': 'application/json', 'stripe-signature': String(req.headers['stripe-signature'] ?? '') };
-      void Promise.all(servers.map((s) => fetch(`http://127.0.0.1:${s.port}/api/v1/billing/webhook`, { method: 'POST', headers, body }))).then((answers) => {
+      const headers = {
+        'content-type': 'application/json',
+        'stripe-signature': String(req.headers['stripe-signature'] ?? ''),
+      };
+      void Promise.all(
+        servers.map((s) =>
+          fetch(`http://127.0.0.1:${s.port}/api/v1/billing/webhook`, { method: 'POST', headers, body }),
+        ),
+      ).then((answers) => {
         res.statusCode = answers.every((a) => a.ok) ? 200 : 500;
         res.end(answers.map((a) => a.status).join(','));
       });
@@ -107,7 +118,11 @@ function client(cookie: string) {
   return async (port: number, method: string, path: string, body?: unknown) => {
     const res = await fetch(`http://127.0.0.1:${port}${path}`, {
       method,
-      headers: { cookie, 'x-requested-with': 'tailroom', ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+      headers: {
+        cookie,
+        'x-requested-with': 'tailroom',
+        ...(body === undefined ? {} : { 'content-type': 'application/json' }),
+      },
       body: body === undefined ? undefined : JSON.stringify(body),
     });
     const text = await res.text();
@@ -142,7 +157,10 @@ describe('two server processes on one database', () => {
     const session = await call(portB(), 'GET', '/api/v1/session');
     assert.equal((session.body as { user: { email: string } | null }).user?.email, owner.email);
     const list = await call(portB(), 'GET', '/api/v1/projects');
-    assert.deepEqual((list.body as { name: string }[]).map((p) => p.name), ['Made on A']);
+    assert.deepEqual(
+      (list.body as { name: string }[]).map((p) => p.name),
+      ['Made on A'],
+    );
     // Signing out on B ends the session on A too.
     assert.equal((await call(portB(), 'POST', '/api/v1/auth/sign-out', {})).status, 204);
     assert.equal((await call(portA(), 'GET', '/api/v1/projects')).status, 401);
@@ -173,14 +191,25 @@ describe('two server processes on one database', () => {
     });
     assert.equal(paid.status, 303);
     await fake.idle();
-    assert.ok(fake.deliveries().every((d) => d.status === 'delivered'), JSON.stringify(fake.deliveries()));
+    assert.ok(
+      fake.deliveries().every((d) => d.status === 'delivered'),
+      JSON.stringify(fake.deliveries()),
+    );
     const billing = billingSchema.parse((await call(portB(), 'GET', '/api/v1/billing')).body);
     assert.equal(billing.usage.plan, 'crew');
     const ids = billing.events.map((e) => e.id);
     assert.equal(new Set(ids).size, ids.length, 'each event recorded once');
-    const rows = await t.db('billing_events').where({ organization_id: owner.organizationId }).count<{ n: string }[]>('id as n');
+    const rows = await t
+      .db('billing_events')
+      .where({ organization_id: owner.organizationId })
+      .count<{ n: string }[]>('id as n');
     assert.equal(Number(rows[0]?.n), fake.deliveries().length);
-    const planChanges = (await t.db('audit_events').where({ organization_id: owner.organizationId, type: 'plan_changed' }).count<{ n: string }[]>('id as n'))[0]?.n;
+    const planChanges = (
+      await t
+        .db('audit_events')
+        .where({ organization_id: owner.organizationId, type: 'plan_changed' })
+        .count<{ n: string }[]>('id as n')
+    )[0]?.n;
     assert.equal(Number(planChanges), 1, 'the plan changed once');
   });
 
@@ -189,7 +218,14 @@ describe('two server processes on one database', () => {
     const { cookie } = await signInOn(portA(), f.email);
     const call = client(cookie);
     const base = `/api/v1/projects/${f.projectId}/scenarios`;
-    const scenario = scenarioSchema.parse((await call(portA(), 'POST', base, { name: 'Shared', settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] } })).body);
+    const scenario = scenarioSchema.parse(
+      (
+        await call(portA(), 'POST', base, {
+          name: 'Shared',
+          settings: { optionLabels: ['F 6 kW', 'F 9 kW', 'F 14 kW'] },
+        })
+      ).body,
+    );
     const first = await call(portA(), 'POST', `${base}/${scenario.id}/sweep`);
     assert.equal(first.status, 200);
     assert.equal((first.body as { cached: boolean }).cached, false);
@@ -199,7 +235,10 @@ describe('two server processes on one database', () => {
     assert.equal(Number((await t.db('sweep_results').count<{ n: string }[]>('input_hash as n'))[0]?.n), 1);
 
     // A change made through B: A must not answer from what it remembers.
-    const patched = await call(portB(), 'PATCH', `${base}/${scenario.id}`, { version: scenario.version, settings: { ...scenario.settings, optionLabels: ['F 6 kW', 'F 9 kW'] } });
+    const patched = await call(portB(), 'PATCH', `${base}/${scenario.id}`, {
+      version: scenario.version,
+      settings: { ...scenario.settings, optionLabels: ['F 6 kW', 'F 9 kW'] },
+    });
     assert.equal(patched.status, 200, JSON.stringify(patched.body));
     const afterChange = await call(portA(), 'GET', `${base}/${scenario.id}/sweep`);
     assert.equal(afterChange.status, 404, 'the changed scenario has no cached sweep yet');

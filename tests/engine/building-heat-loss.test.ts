@@ -62,14 +62,23 @@ describe('conduction (docs/methods.md#conduction, ASHRAE Handbook—Fundamentals
 
   it('sums A·U over elements given by U or by R', () => {
     // [C] 20 × 0.25 + 10 × 1/0.5 = 5 + 20 = 25 W/K.
-    assert.equal(envelopeUa([{ areaM2: 20, uValue: 0.25 }, { areaM2: 10, rValue: 0.5 }]), 25);
+    assert.equal(
+      envelopeUa([
+        { areaM2: 20, uValue: 0.25 },
+        { areaM2: 10, rValue: 0.5 },
+      ]),
+      25,
+    );
   });
 });
 
 describe('air changes and sensible heat (docs/methods.md#air-heat, #air-changes)', () => {
   it('#10: 0.5 ACH in 400 m³ is 55.556 L/s; × 36 K × 1.23 → 2460.0 W', () => {
     assertClose(achToLps(0.5, 400), 55.556, 1e-3, 'L/s'); // [C] docs/methods.md#air-changes
-    const b = building({ conduction: { mode: 'ua', uaWPerK: 1 }, airLeakage: { mode: 'ach', ach: 0.5, volumeM3: 400 } });
+    const b = building({
+      conduction: { mode: 'ua', uaWPerK: 1 },
+      airLeakage: { mode: 'ach', ach: 0.5, volumeM3: 400 },
+    });
     const r = heatLoss(b, -15, 3);
     assertClose(r.infiltrationLps, 55.556, 1e-3, 'infiltration L/s');
     assertClose(r.infiltrationW, 2460.0, 0.1, 'infiltration W'); // [C] docs/methods.md#check-values
@@ -224,7 +233,12 @@ describe('heat loss: ventilation, duct loss, gains and safety factor', () => {
     assertClose(r.loadW, total - 500, 1e-9, 'L');
     // Gains are not credited at design by default (docs/methods.md#design-load): D = total × 1.1.
     assertClose(r.designLoadW, total * 1.1, 1e-9, 'D');
-    assertClose(heatLoss({ ...b, creditGainsAtDesign: true }, -15, 6.7).designLoadW, (total - 500) * 1.1, 1e-9, 'D with gains credited');
+    assertClose(
+      heatLoss({ ...b, creditGainsAtDesign: true }, -15, 6.7).designLoadW,
+      (total - 500) * 1.1,
+      1e-9,
+      'D with gains credited',
+    );
     assertClose(total, 5263.98, 0.01, 'total W, by hand'); // 127.14937 W/K × 36 K × 1.15
   });
 
@@ -261,7 +275,12 @@ describe('thermal time constant (docs/methods.md#indoor-temperature)', () => {
     // [C] docs/methods.md#indoor-temperature: 150 m² medium → 24.75 MJ/K; τ = 24.75e6 / 250 / 3600 = 27.5 h.
     assertClose(timeConstantHours({ mode: 'class', class: 'medium', floorAreaM2: 150 }, 250), 27.5, 1e-9, 'τ');
     // [C] docs/methods.md#indoor-temperature / #18: C = 30 MJ/K, UA = 250 W/K → τ = 33.333 h (heavy: 30e6/260 000 m²).
-    assertClose(timeConstantHours({ mode: 'class', class: 'heavy', floorAreaM2: 30e6 / 260_000 }, 250), 33.333, 1e-3, 'τ');
+    assertClose(
+      timeConstantHours({ mode: 'class', class: 'heavy', floorAreaM2: 30e6 / 260_000 }, 250),
+      33.333,
+      1e-3,
+      'τ',
+    );
     assert.throws(() => timeConstantHours({ mode: 'class', class: 'light', floorAreaM2: 100 }, 0), RangeError);
   });
 });
@@ -272,10 +291,26 @@ describe('design wind choice', () => {
   it('takes the chosen climate value, the 6.7 m/s default, or a custom speed', () => {
     // 6.7 m/s (15 mph) is a common trade default, no source (docs/methods.md#trade-facts).
     assert.equal(DEFAULT_DESIGN_WIND_MS, 6.7);
-    assert.deepEqual(resolveDesignWind({ source: 'coincident99_6' }, wind), { windMs: 2.2, source: 'coincident99_6', fellBack: false });
-    assert.deepEqual(resolveDesignWind({ source: 'coldestMonth1' }, wind), { windMs: 11.6, source: 'coldestMonth1', fellBack: false });
-    assert.deepEqual(resolveDesignWind({ source: 'default' }, wind), { windMs: 6.7, source: 'default', fellBack: false });
-    assert.deepEqual(resolveDesignWind({ source: 'custom', customMs: 4 }, null), { windMs: 4, source: 'custom', fellBack: false });
+    assert.deepEqual(resolveDesignWind({ source: 'coincident99_6' }, wind), {
+      windMs: 2.2,
+      source: 'coincident99_6',
+      fellBack: false,
+    });
+    assert.deepEqual(resolveDesignWind({ source: 'coldestMonth1' }, wind), {
+      windMs: 11.6,
+      source: 'coldestMonth1',
+      fellBack: false,
+    });
+    assert.deepEqual(resolveDesignWind({ source: 'default' }, wind), {
+      windMs: 6.7,
+      source: 'default',
+      fellBack: false,
+    });
+    assert.deepEqual(resolveDesignWind({ source: 'custom', customMs: 4 }, null), {
+      windMs: 4,
+      source: 'custom',
+      fellBack: false,
+    });
   });
 
   it('falls back to the default, and says so, when the site lacks the value', () => {
@@ -318,7 +353,10 @@ describe('building schema', () => {
     });
     assert.deepEqual(both[0]?.path, ['conduction', 'components', 0, 'rValue']);
     assert.match(both[0]?.message ?? '', /not both/);
-    const neither = firstIssue({ ...minimal, conduction: { mode: 'envelope', components: [{ label: 'Roof', areaM2: 80 }] } });
+    const neither = firstIssue({
+      ...minimal,
+      conduction: { mode: 'envelope', components: [{ label: 'Roof', areaM2: 80 }] },
+    });
     assert.match(neither[0]?.message ?? '', /U-value or an R-value/);
     const empty = firstIssue({ ...minimal, conduction: { mode: 'envelope', components: [] } });
     assert.match(empty[0]?.message ?? '', /at least one envelope element/);
@@ -328,7 +366,10 @@ describe('building schema', () => {
     const storeys = firstIssue({ ...minimal, airLeakage: { mode: 'ela', elaCm2: 400, storeys: 4, shieldingClass: 3 } });
     assert.deepEqual(storeys[0]?.path, ['airLeakage', 'storeys']);
     assert.match(storeys[0]?.message ?? '', /1, 2 or 3/);
-    const shielding = firstIssue({ ...minimal, airLeakage: { mode: 'ela', elaCm2: 400, storeys: 2, shieldingClass: 6 } });
+    const shielding = firstIssue({
+      ...minimal,
+      airLeakage: { mode: 'ela', elaCm2: 400, storeys: 2, shieldingClass: 6 },
+    });
     assert.match(shielding[0]?.message ?? '', /shielding class/);
     const mode = firstIssue({ ...minimal, airLeakage: { mode: 'cfm50' } });
     assert.match(mode[0]?.message ?? '', /ACH50/);
@@ -398,10 +439,17 @@ describe('properties (fast-check)', () => {
 
   it('every term is non-negative at any outdoor temperature and wind', () => {
     fc.assert(
-      fc.property(anyBuilding, fc.double({ min: -60, max: 45, noNaN: true }), fc.double({ min: 0, max: 30, noNaN: true }), (b, t, w) => {
-        const r = heatLoss(b, t, w);
-        return [r.conductionW, r.infiltrationW, r.ventilationW, r.ductW, r.totalW, r.loadW, r.designLoadW].every((x) => x >= 0);
-      }),
+      fc.property(
+        anyBuilding,
+        fc.double({ min: -60, max: 45, noNaN: true }),
+        fc.double({ min: 0, max: 30, noNaN: true }),
+        (b, t, w) => {
+          const r = heatLoss(b, t, w);
+          return [r.conductionW, r.infiltrationW, r.ventilationW, r.ductW, r.totalW, r.loadW, r.designLoadW].every(
+            (x) => x >= 0,
+          );
+        },
+      ),
     );
   });
 

@@ -8,14 +8,7 @@
  */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import {
-  quantities,
-  formatQuantity,
-  fromSi,
-  toSi,
-  unitLabel,
-  type Quantity,
-} from '../../shared/units/units';
+import { quantities, formatQuantity, fromSi, toSi, unitLabel, type Quantity } from '../../shared/units/units';
 import { SENSIBLE_HEAT_FACTOR_BTUH_PER_CFM_F, SENSIBLE_HEAT_FACTOR_W_PER_LPS_K } from '../../shared/building/heat-loss';
 import { toSi as toSiClimate } from '../../shared/units/units';
 import { assertClose } from './close-to';
@@ -26,7 +19,12 @@ describe('NIST SP 811 (2008) Appendix B.8 factors through the engine conversions
     // handbook table of SP 811 factors); per hour: 1055.056 / 3600 = 0.293 071 1 W [C].
     assertClose(toSi('power', 1, 'IP'), 0.2930711, 5e-8, 'W per Btu/h');
     assertClose(toSi('power', 1, 'IP'), 1055.056 / 3600, 5e-8, 'W per Btu/h from Btu_IT');
-    assertClose(fromSi('power', 1000, 'IP'), 3412.142, 1e-3, 'Btu/h per kW (docs/methods.md#units: 1 W = 3.412142 Btu/h [S])');
+    assertClose(
+      fromSi('power', 1000, 'IP'),
+      3412.142,
+      1e-3,
+      'Btu/h per kW (docs/methods.md#units: 1 W = 3.412142 Btu/h [S])',
+    );
   });
 
   it('1 ft³/min = 4.719 474 E−04 m³/s = 0.471 947 4 L/s', () => {
@@ -80,7 +78,8 @@ describe('NIST SP 811 (2008) Appendix B.8 factors through the engine conversions
 
 describe('sensible-heat factor (ASHRAE Handbook—Fundamentals Ch. 18; docs/methods.md#air-heat)', () => {
   // The factor converts as W/(L/s·K) ↔ Btu/h per (cfm·°F): × (W→Btu/h) × (L/s per cfm) × (K per °F).
-  const siToIp = (f: number) => f * fromSi('power', 1, 'IP') * toSi('airflow', 1, 'IP') * toSiClimate('temperatureDifference', 1, 'IP');
+  const siToIp = (f: number) =>
+    f * fromSi('power', 1, 'IP') * toSi('airflow', 1, 'IP') * toSiClimate('temperatureDifference', 1, 'IP');
 
   it('1.23 W/(L/s·K) is 1.1004 Btu/(h·cfm·°F), and 1.08 Btu/(h·cfm·°F) is 1.2072 W/(L/s·K)', () => {
     assert.equal(SENSIBLE_HEAT_FACTOR_W_PER_LPS_K, 1.23); // [S] ASHRAE Fundamentals Ch. 18 via docs/methods.md#air-heat
@@ -102,7 +101,8 @@ describe('sensible-heat factor (ASHRAE Handbook—Fundamentals Ch. 18; docs/meth
   it('docs/methods.md#air-heat checks: 125 cfm × 70 °F → 9450 Btu/h with 1.08, 9625 Btu/h with 1.23 (≈ 1.10 in IP)', () => {
     const ip = 1.08 * 125 * 70; // [C] docs/methods.md#air-heat: 9450 Btu/h
     assert.equal(ip, 9450);
-    const siW = SENSIBLE_HEAT_FACTOR_W_PER_LPS_K * toSi('airflow', 125, 'IP') * toSiClimate('temperatureDifference', 70, 'IP');
+    const siW =
+      SENSIBLE_HEAT_FACTOR_W_PER_LPS_K * toSi('airflow', 125, 'IP') * toSiClimate('temperatureDifference', 70, 'IP');
     // With 1.23 the SI route gives the 1.10 value: 9625 Btu/h (docs/methods.md#air-heat) within 0.1 %.
     assertClose(fromSi('power', siW, 'IP'), 9625, 10, 'SI route in Btu/h');
   });

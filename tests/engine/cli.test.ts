@@ -50,7 +50,11 @@ describe('command line', () => {
 
     const expected = referenceConditions(readCsvPlainly(demo.stdout), 12);
     const { period, warnings: _warnings, ...rest } = conditions;
-    assertDeepClose({ qualifyingYears: period.qualifyingYears, validHours: period.validHours, ...rest }, expected, 1e-9);
+    assertDeepClose(
+      { qualifyingYears: period.qualifyingYears, validHours: period.validHours, ...rest },
+      expected,
+      1e-9,
+    );
   });
 
   it('detects ISD-Lite input and gives the same result as the CSV of the same record', () => {
@@ -85,7 +89,14 @@ describe('command line', () => {
   });
 
   it('usage errors exit with 2 and print the usage', () => {
-    for (const args of [[], ['frobnicate'], ['conditions'], ['conditions', join(work, 'missing.csv')], ['demo', 'nowhere'], ['demo', 'port-esmery', '--years', 'x']]) {
+    for (const args of [
+      [],
+      ['frobnicate'],
+      ['conditions'],
+      ['conditions', join(work, 'missing.csv')],
+      ['demo', 'nowhere'],
+      ['demo', 'port-esmery', '--years', 'x'],
+    ]) {
       const r = cli(...args);
       assert.equal(r.status, 2, args.join(' '));
       assert.match(r.stderr, /Usage:/);

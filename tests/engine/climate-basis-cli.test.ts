@@ -57,7 +57,13 @@ describe('adjust', () => {
     assertClose(adjusted.hdd18, target.hdd18, 1e-3, 'degree-days');
 
     // T̄ is the reference's mean dry-bulb, here summed by a plain read of the CSV.
-    const temps = readFileSync(referencePath, 'utf8').trim().split('\n').slice(1).map((l) => l.split(',')[1] ?? '').filter((v) => v !== '').map(Number);
+    const temps = readFileSync(referencePath, 'utf8')
+      .trim()
+      .split('\n')
+      .slice(1)
+      .map((l) => l.split(',')[1] ?? '')
+      .filter((v) => v !== '')
+      .map(Number);
     assertClose(line.referenceMeanC, temps.reduce((a, b) => a + b, 0) / temps.length, 1e-9, 'T̄');
   });
 
@@ -73,7 +79,10 @@ describe('adjust', () => {
 
   it('a refused adjustment exits 1 with the reason and prints no record', () => {
     const targetPath = join(work, 'target-far.json');
-    writeFileSync(targetPath, JSON.stringify({ heating: { db99_6: reference.heating.db99_6 - 12 }, hdd18: reference.hdd18 * 0.4 }));
+    writeFileSync(
+      targetPath,
+      JSON.stringify({ heating: { db99_6: reference.heating.db99_6 - 12 }, hdd18: reference.hdd18 * 0.4 }),
+    );
     const run = cli('adjust', '--weather', referencePath, '--target', targetPath);
     assert.equal(run.status, 1);
     assert.equal(run.stdout, '');
@@ -96,7 +105,10 @@ describe('conditions --last N', () => {
     const lastYear = reference.period.lastYear;
     const trimmedPath = join(work, 'trimmed.csv');
     // Trimmed by a plain text comparison of the year at the start of each time stamp.
-    writeFileSync(trimmedPath, [lines[0], ...lines.slice(1).filter((l) => Number(l.slice(0, 4)) > lastYear - 8)].join('\n') + '\n');
+    writeFileSync(
+      trimmedPath,
+      [lines[0], ...lines.slice(1).filter((l) => Number(l.slice(0, 4)) > lastYear - 8)].join('\n') + '\n',
+    );
     const windowed = cli('conditions', referencePath, '--last', '8');
     const trimmed = cli('conditions', trimmedPath);
     assert.equal(windowed.status, 0, windowed.stderr);
@@ -130,7 +142,10 @@ describe('trend', () => {
       const y = Number(time.slice(0, 4));
       minima.set(y, Math.min(minima.get(y) ?? Infinity, Number(db)));
     }
-    assert.deepEqual(out.annualMinimaC, [...minima.entries()].map(([year, minC]) => ({ year, minC })));
+    assert.deepEqual(
+      out.annualMinimaC,
+      [...minima.entries()].map(([year, minC]) => ({ year, minC })),
+    );
     assert.equal(typeof out.senSlopeKPerDecade, 'number');
     assert.deepEqual(Object.keys(out.mannKendall).sort(), ['p', 's', 'varS', 'z']);
     // Var(S) = [n(n−1)(2n+5) − Σ t(t−1)(2t+5)]/18 over groups of equal minima (Kendall 1975), from the plain read.

@@ -10,7 +10,11 @@ import jStat from 'jstat';
 import { TheilSenRegression } from 'ml-regression-theil-sen';
 import { computeDesignConditions } from '../../shared/climate/design-conditions';
 import { findDemoSite, generateDemoSeries } from '../../shared/climate/demo-weather';
-import { latestQualifyingYears, latestYearsSeries, designConditionsOfLatestYears } from '../../shared/climate/record-window';
+import {
+  latestQualifyingYears,
+  latestYearsSeries,
+  designConditionsOfLatestYears,
+} from '../../shared/climate/record-window';
 import { prepareSeries } from '../../shared/climate/prepared-series';
 import { MAX_STRETCH, shiftAndStretch } from '../../shared/climate/shift-stretch';
 import { coldestHourTrend, mannKendall, theilSenSlope } from '../../shared/climate/trend';
@@ -127,7 +131,8 @@ describe('Theil–Sen slope (Sen 1968, JASA 63) against the npm package ml-regre
         const theirs = new TheilSenRegression(years, values).slope;
         const pairs = (values.length * (values.length - 1)) / 2;
         if (pairs % 2 === 1) assertClose(ours, theirs, 1e-9, 'slope');
-        else assert.ok(ours !== null && ours >= theirs - 1e-12, `slope ${String(ours)} below the lower median ${theirs}`);
+        else
+          assert.ok(ours !== null && ours >= theirs - 1e-12, `slope ${String(ours)} below the lower median ${theirs}`);
       }),
       { numRuns: 300 },
     );
@@ -188,22 +193,32 @@ function recordWithMinima(minima: readonly number[]) {
 }
 
 describe('trend of the coldest hour: properties (fast-check)', () => {
-  const minimaArb = fc.array(fc.integer({ min: -400, max: -60 }).map((v) => v / 10), { minLength: 10, maxLength: 14 });
+  const minimaArb = fc.array(
+    fc.integer({ min: -400, max: -60 }).map((v) => v / 10),
+    { minLength: 10, maxLength: 14 },
+  );
 
   it('adding k to every temperature leaves the slope unchanged and shifts every minimum by k', () => {
     fc.assert(
-      fc.property(minimaArb, fc.integer({ min: -50, max: 50 }).map((v) => v / 10), (minima, k) => {
-        const base = recordWithMinima(minima);
-        const shifted = { ...base, dryBulbC: base.dryBulbC.map((t) => t + k) };
-        const a = coldestHourTrend(base);
-        const b = coldestHourTrend(shifted);
-        assert.deepEqual(a.annual.map((x) => x.minC), minima);
-        b.annual.forEach((x, i) => {
-          assertClose(x.minC - k, minima[i] ?? NaN, 1e-9, 'shifted minimum − k');
-        });
-        assertClose(b.senSlopeKPerDecade, a.senSlopeKPerDecade ?? NaN, 1e-9, 'slope');
-        assert.equal(b.mannKendall?.s, a.mannKendall?.s);
-      }),
+      fc.property(
+        minimaArb,
+        fc.integer({ min: -50, max: 50 }).map((v) => v / 10),
+        (minima, k) => {
+          const base = recordWithMinima(minima);
+          const shifted = { ...base, dryBulbC: base.dryBulbC.map((t) => t + k) };
+          const a = coldestHourTrend(base);
+          const b = coldestHourTrend(shifted);
+          assert.deepEqual(
+            a.annual.map((x) => x.minC),
+            minima,
+          );
+          b.annual.forEach((x, i) => {
+            assertClose(x.minC - k, minima[i] ?? NaN, 1e-9, 'shifted minimum − k');
+          });
+          assertClose(b.senSlopeKPerDecade, a.senSlopeKPerDecade ?? NaN, 1e-9, 'slope');
+          assert.equal(b.mannKendall?.s, a.mannKendall?.s);
+        },
+      ),
       { numRuns: 15 },
     );
   });
@@ -216,7 +231,10 @@ describe('trend of the coldest hour: properties (fast-check)', () => {
         const reversed = [...values].reverse();
         assertClose(theilSenSlope(years, reversed), -(theilSenSlope(years, values) ?? NaN), 1e-9, 'slope');
         const [forward, backward] = [mannKendall(values)?.s, mannKendall(reversed)?.s];
-        assert.ok(forward !== undefined && backward === -forward, `S ${String(forward)} reversed to ${String(backward)}`);
+        assert.ok(
+          forward !== undefined && backward === -forward,
+          `S ${String(forward)} reversed to ${String(backward)}`,
+        );
       }),
       { numRuns: 200 },
     );
@@ -229,6 +247,9 @@ describe('trend of the coldest hour: properties (fast-check)', () => {
     const warming = coldestHourTrend(recordWithMinima([-30, -29, -28, -27, -26, -25, -24, -23, -22, -21]));
     assert.equal(warming.enough, true);
     assertClose(warming.senSlopeKPerDecade, 10, 1e-9, 'K per decade');
-    assert.match(warming.sentence, /^Over 2000–2009 the coldest hour of the year has warmed by about 10\.0 K per decade; a trend this strong would arise by chance less than 1 time in 1000\.$/);
+    assert.match(
+      warming.sentence,
+      /^Over 2000–2009 the coldest hour of the year has warmed by about 10\.0 K per decade; a trend this strong would arise by chance less than 1 time in 1000\.$/,
+    );
   });
 });

@@ -1,8 +1,16 @@
 import assert from 'node:assert/strict';
 
 /** Asserts |actual − expected| ≤ tolerance, naming the quantity on failure. */
-export function assertClose(actual: number | null | undefined, expected: number, tolerance: number, label = 'value'): void {
-  assert.ok(typeof actual === 'number' && Number.isFinite(actual), `${label}: expected a finite number, got ${String(actual)}`);
+export function assertClose(
+  actual: number | null | undefined,
+  expected: number,
+  tolerance: number,
+  label = 'value',
+): void {
+  assert.ok(
+    typeof actual === 'number' && Number.isFinite(actual),
+    `${label}: expected a finite number, got ${String(actual)}`,
+  );
   assert.ok(
     Math.abs(actual - expected) <= tolerance,
     `${label}: expected ${expected} ± ${tolerance}, got ${actual} (off by ${Math.abs(actual - expected)})`,

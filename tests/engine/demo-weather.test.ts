@@ -65,11 +65,16 @@ describe('demo weather', () => {
   });
 
   it('gives distinct climates: continental colder in winter than maritime, a wider spread inland', () => {
-    const cold = computeDesignConditions(generateDemoSeries(site('kettlerun-crossing'), { years: 8 }), { elevationM: 560 });
+    const cold = computeDesignConditions(generateDemoSeries(site('kettlerun-crossing'), { years: 8 }), {
+      elevationM: 560,
+    });
     const mild = computeDesignConditions(generateDemoSeries(site('port-esmery'), { years: 8 }), { elevationM: 12 });
     assert.ok(cold.ok && mild.ok);
     assert.ok(cold.conditions.heating.db99_6 < mild.conditions.heating.db99_6 - 15);
-    assert.ok(cold.conditions.cooling.db0_4 - cold.conditions.heating.db99_6 > 2 * (mild.conditions.cooling.db0_4 - mild.conditions.heating.db99_6) - 10);
+    assert.ok(
+      cold.conditions.cooling.db0_4 - cold.conditions.heating.db99_6 >
+        2 * (mild.conditions.cooling.db0_4 - mild.conditions.heating.db99_6) - 10,
+    );
     assert.ok(cold.conditions.hdd18 > mild.conditions.hdd18);
     assert.ok(cold.conditions.warnings.length === 0, cold.conditions.warnings.join());
   });

@@ -15,7 +15,8 @@ function conditionsOf(result: DesignConditionsResult): DesignConditions {
 describe('record qualification', () => {
   it('a year qualifies with at least 85 % valid hours (8760 or 8784)', () => {
     // spec rule: ⌈0.85 × 8760⌉ = 7446 valid hours, ⌈0.85 × 8784⌉ = 7467 (arithmetic)
-    const partial = (year: number, valid: number): FixtureRow[] => yearRows(year, (i) => ({ dryBulbC: i < valid ? 5 : NaN }));
+    const partial = (year: number, valid: number): FixtureRow[] =>
+      yearRows(year, (i) => ({ dryBulbC: i < valid ? 5 : NaN }));
     const r = computeDesignConditions(
       toSeries([...partial(2019, 7446), ...partial(2020, 7466), ...partial(2021, 7445), ...partial(2022, 7467)]),
     );
@@ -26,11 +27,16 @@ describe('record qualification', () => {
     assert.equal(c.period.validHours, 7446 + 7467);
     assert.ok(c.warnings.includes('years-dropped'));
     assert.ok(c.warnings.includes('short-record'));
-    assert.ok(r.ok && r.warnings.some((w) => w.code === 'years-dropped' && w.message.includes('2020') && w.message.includes('2021')));
+    assert.ok(
+      r.ok &&
+        r.warnings.some((w) => w.code === 'years-dropped' && w.message.includes('2020') && w.message.includes('2021')),
+    );
   });
 
   it('eight qualifying years give no short-record warning', () => {
-    const c = conditionsOf(computeDesignConditions(toSeries(randomYears([2010, 2011, 2012, 2013, 2014, 2015, 2016, 2017], 3))));
+    const c = conditionsOf(
+      computeDesignConditions(toSeries(randomYears([2010, 2011, 2012, 2013, 2014, 2015, 2016, 2017], 3))),
+    );
     assert.equal(c.period.qualifyingYears.length, 8);
     assert.ok(!c.warnings.includes('short-record'));
   });
@@ -41,7 +47,10 @@ describe('record qualification', () => {
     assert.ok(!r.ok);
     assert.equal(r.error.code, 'no-qualifying-years');
     assert.match(r.error.message, /85 %/);
-    assert.deepEqual(r.years.map((y) => y.year), [2021]);
+    assert.deepEqual(
+      r.years.map((y) => y.year),
+      [2021],
+    );
     assert.ok(!('conditions' in r));
     const empty = computeDesignConditions(toSeries([]));
     assert.ok(!empty.ok && empty.error.code === 'no-data');
@@ -76,7 +85,9 @@ describe('dry-bulb design values', () => {
     // Values v_k = k/200 − 20 for k = 1..8760 in scrambled hour order. Type-7 quantiles of 1..8760 are
     // docs/methods.md#percentiles [C]: 36.036 (p .004), 88.59 (.01), 8724.964 (.996); the affine map carries over.
     const perm = (i: number) => (i * 7919) % 8760; // 7919 is prime, so this is a permutation of 0..8759
-    const c = conditionsOf(computeDesignConditions(toSeries(yearRows(2021, (i) => ({ dryBulbC: (perm(i) + 1) / 200 - 20 })))));
+    const c = conditionsOf(
+      computeDesignConditions(toSeries(yearRows(2021, (i) => ({ dryBulbC: (perm(i) + 1) / 200 - 20 })))),
+    );
     assertClose(c.heating.db99_6, 36.036 / 200 - 20, 1e-9, 'db99.6');
     assertClose(c.heating.db99, 88.59 / 200 - 20, 1e-9, 'db99');
     assertClose(c.cooling.db0_4, 8724.964 / 200 - 20, 1e-9, 'db0.4');
@@ -115,10 +126,25 @@ describe('dry-bulb design values', () => {
 describe('heating degree-days, base 18.3 °C', () => {
   it('a constant 0 °C year gives 18.3 × days (365 or 366)', () => {
     // docs/methods.md#degree-days, #check-values [C]: 18.3 × 365 = 6679.5; leap year 18.3 × 366 = 6697.8 (arithmetic)
-    assertClose(conditionsOf(computeDesignConditions(toSeries(yearRows(2021, () => ({ dryBulbC: 0 }))))).hdd18, 6679.5, 1e-9, '2021');
-    assertClose(conditionsOf(computeDesignConditions(toSeries(yearRows(2020, () => ({ dryBulbC: 0 }))))).hdd18, 6697.8, 1e-9, '2020');
+    assertClose(
+      conditionsOf(computeDesignConditions(toSeries(yearRows(2021, () => ({ dryBulbC: 0 }))))).hdd18,
+      6679.5,
+      1e-9,
+      '2021',
+    );
+    assertClose(
+      conditionsOf(computeDesignConditions(toSeries(yearRows(2020, () => ({ dryBulbC: 0 }))))).hdd18,
+      6697.8,
+      1e-9,
+      '2020',
+    );
     const both = [...yearRows(2020, () => ({ dryBulbC: 0 })), ...yearRows(2021, () => ({ dryBulbC: 0 }))];
-    assertClose(conditionsOf(computeDesignConditions(toSeries(both))).hdd18, (6697.8 + 6679.5) / 2, 1e-9, 'average year');
+    assertClose(
+      conditionsOf(computeDesignConditions(toSeries(both))).hdd18,
+      (6697.8 + 6679.5) / 2,
+      1e-9,
+      'average year',
+    );
   });
 
   it('days under 18 valid hours are left out and the year is scaled to its days', () => {
@@ -138,12 +164,19 @@ describe('heating degree-days, base 18.3 °C', () => {
       if (day === 40) return { dryBulbC: i % 24 < 18 ? 30 : NaN };
       return { dryBulbC: 0 };
     });
-    assertClose(conditionsOf(computeDesignConditions(toSeries(rows18))).hdd18, (18.3 * 354 * 365) / 355, 1e-9, 'hdd 18 h');
+    assertClose(
+      conditionsOf(computeDesignConditions(toSeries(rows18))).hdd18,
+      (18.3 * 354 * 365) / 355,
+      1e-9,
+      'hdd 18 h',
+    );
   });
 
   it('uses the daily mean, so warm afternoons offset cold nights within a day', () => {
     // hours alternate 10 °C and 30 °C: daily mean 20 °C > 18.3 → 0 degree-days (degree-hours would give > 0)
-    const c = conditionsOf(computeDesignConditions(toSeries(yearRows(2021, (i) => ({ dryBulbC: i % 2 === 0 ? 10 : 30 })))));
+    const c = conditionsOf(
+      computeDesignConditions(toSeries(yearRows(2021, (i) => ({ dryBulbC: i % 2 === 0 ? 10 : 30 })))),
+    );
     assert.equal(c.hdd18, 0);
   });
 });
@@ -238,7 +271,9 @@ describe('properties', () => {
       fc.property(fc.integer({ min: 1, max: 1e6 }), fc.double({ min: -20, max: 20, noNaN: true }), (seed, k) => {
         const rows = base(seed);
         const a = conditionsOf(computeDesignConditions(toSeries(rows)));
-        const b = conditionsOf(computeDesignConditions(toSeries(rows.map((r) => ({ ...r, dryBulbC: r.dryBulbC + k })))));
+        const b = conditionsOf(
+          computeDesignConditions(toSeries(rows.map((r) => ({ ...r, dryBulbC: r.dryBulbC + k })))),
+        );
         const tol = 1e-9;
         assertClose(b.heating.db99_6, a.heating.db99_6 + k, tol, 'db99.6');
         assertClose(b.heating.db99, a.heating.db99 + k, tol, 'db99');
@@ -287,33 +322,45 @@ describe('properties', () => {
 
   it('removing a whole non-qualifying year changes nothing but the period span and warnings', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 1e6 }), fc.double({ min: 0.05, max: 0.8, noNaN: true }), (seed, fraction) => {
-        const rows = base(seed);
-        const sparse = randomYears([2021], seed + 1, fraction);
-        const withSparse = conditionsOf(computeDesignConditions(toSeries([...rows, ...sparse])));
-        const without = conditionsOf(computeDesignConditions(toSeries(rows)));
-        assert.ok(withSparse.warnings.includes('years-dropped'));
-        assert.equal(withSparse.period.lastYear, 2021);
-        const strip = (c: DesignConditions) => ({ ...c, period: { ...c.period, firstYear: 0, lastYear: 0 }, warnings: [] });
-        assert.deepEqual(strip(withSparse), strip(without));
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 1e6 }),
+        fc.double({ min: 0.05, max: 0.8, noNaN: true }),
+        (seed, fraction) => {
+          const rows = base(seed);
+          const sparse = randomYears([2021], seed + 1, fraction);
+          const withSparse = conditionsOf(computeDesignConditions(toSeries([...rows, ...sparse])));
+          const without = conditionsOf(computeDesignConditions(toSeries(rows)));
+          assert.ok(withSparse.warnings.includes('years-dropped'));
+          assert.equal(withSparse.period.lastYear, 2021);
+          const strip = (c: DesignConditions) => ({
+            ...c,
+            period: { ...c.period, firstYear: 0, lastYear: 0 },
+            warnings: [],
+          });
+          assert.deepEqual(strip(withSparse), strip(without));
+        },
+      ),
       { numRuns: 10 },
     );
   });
 
   it('repeated hours keep the first value', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 1e6 }), fc.array(fc.nat(), { minLength: 1, maxLength: 50 }), (seed, picks) => {
-        const rows = base(seed);
-        const repeats = picks.map((p) => {
-          const r = rows[p % rows.length]!;
-          return { time: r.time + (p % 60) * 60_000, dryBulbC: -80, dewPointC: -85, windSpeedMs: 70 };
-        });
-        const a = conditionsOf(computeDesignConditions(toSeries([...rows, ...repeats])));
-        const b = conditionsOf(computeDesignConditions(toSeries(rows)));
-        assert.ok(a.warnings.includes('duplicate-hours'));
-        assert.deepEqual({ ...a, warnings: [] }, { ...b, warnings: [] });
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 1e6 }),
+        fc.array(fc.nat(), { minLength: 1, maxLength: 50 }),
+        (seed, picks) => {
+          const rows = base(seed);
+          const repeats = picks.map((p) => {
+            const r = rows[p % rows.length]!;
+            return { time: r.time + (p % 60) * 60_000, dryBulbC: -80, dewPointC: -85, windSpeedMs: 70 };
+          });
+          const a = conditionsOf(computeDesignConditions(toSeries([...rows, ...repeats])));
+          const b = conditionsOf(computeDesignConditions(toSeries(rows)));
+          assert.ok(a.warnings.includes('duplicate-hours'));
+          assert.deepEqual({ ...a, warnings: [] }, { ...b, warnings: [] });
+        },
+      ),
       { numRuns: 10 },
     );
   });

@@ -46,7 +46,9 @@ describe('end to end: demo record → design conditions', () => {
     const random = fixtureRandom(99);
     // a sparse extra year (about 40 % of its hours), repeated hours with other values, impossible values
     const sparse = rowsOf(generateDemoSeries(site, { years: 1, endYear: 2024, seed: 5 })).filter(() => random() < 0.4);
-    const repeats = rows.filter(() => random() < 0.01).map((r) => ({ ...r, dryBulbC: r.dryBulbC - 40, time: r.time + 60_000 }));
+    const repeats = rows
+      .filter(() => random() < 0.01)
+      .map((r) => ({ ...r, dryBulbC: r.dryBulbC - 40, time: r.time + 60_000 }));
     const impossible = rows.map((r) => (random() < 0.001 ? { ...r, dryBulbC: 99, windSpeedMs: -3 } : r));
     const shuffled = [...impossible, ...sparse];
     for (let i = shuffled.length - 1; i > 0; i--) {

@@ -89,7 +89,12 @@ describe('heat-pump capacity (#15, docs/methods.md#heat-pump-capacity)', () => {
     assertClose(heatPumpAt(heatPump(three), -12).capacityW, 6000 - 180 * (-8.3333333333 + 12), 1e-4, 'Q(−12 °C)');
     assertClose(heatPumpAt(heatPump(three), -20).capacityW, 4800, 1e-9, 'flat Q(−20 °C)');
     assertClose(heatPumpAt(heatPump(three), -20).cop, 1.9, 1e-9, 'flat COP(−20 °C)');
-    assertClose(heatPumpAt(heatPump({ ...three, extrapolate: true }), -20).capacityW, 4800 - 180 * 5, 1e-6, 'extrapolated Q(−20 °C)');
+    assertClose(
+      heatPumpAt(heatPump({ ...three, extrapolate: true }), -20).capacityW,
+      4800 - 180 * 5,
+      1e-6,
+      'extrapolated Q(−20 °C)',
+    );
     // Above −8.3 °C the third point plays no part.
     assertClose(heatPumpAt(heatPump(three), 0).capacityW, 8000, 1e-6, 'Q(0 °C)');
   });
@@ -127,7 +132,13 @@ describe('combustion and electric output (docs/methods.md#combustion-output)', (
   });
 
   it('electric resistance delivers its output at efficiency 1', () => {
-    const heater = equipmentOptionSchema.parse({ kind: 'electric', label: 'Baseboard', outputW: 9000, installedPrice: '1500', lifeYears: 25 });
+    const heater = equipmentOptionSchema.parse({
+      kind: 'electric',
+      label: 'Baseboard',
+      outputW: 9000,
+      installedPrice: '1500',
+      lifeYears: 25,
+    });
     assert.equal(heater.kind === 'electric' && ratedOutputW(heater), 9000);
     assert.deepEqual(capacityAt(heater, -40), { compressorW: 0, backupW: 0, totalW: 9000, cop: 1, inputW: 9000 });
   });
@@ -152,12 +163,22 @@ describe('balance point (#16, docs/methods.md#balance-point)', () => {
     assertClose(t, (250 * 21 - 8000) / (250 + 240), 1e-6, 'T_bp by formula');
     assertClose(heatPumpAt(heatPump(), t ?? 0).capacityW, 6653, 1, 'capacity at T_bp'); // [C] 6.653 kW
     // At −15 °C the deficit is 9.0 − 4.4 = 4.6 kW with extrapolation (docs/methods.md#balance-point [C]).
-    assertClose(heatLoss(b, -15, 0).totalW - heatPumpAt(heatPump({ extrapolate: true }), -15).capacityW, 4600, 1e-6, 'deficit');
+    assertClose(
+      heatLoss(b, -15, 0).totalW - heatPumpAt(heatPump({ extrapolate: true }), -15).capacityW,
+      4600,
+      1e-6,
+      'deficit',
+    );
   });
 
   it('credits internal gains: L = UA·(t_in − T) − G', () => {
     // [C] (250·21 − 500 − 8000)/(250 + 240) = −6.633 °C.
-    assertClose(balancePoint(heatPump(), building(250, { internalGainsW: 500 }), 0), (250 * 21 - 500 - 8000) / 490, 1e-6, 'T_bp');
+    assertClose(
+      balancePoint(heatPump(), building(250, { internalGainsW: 500 }), 0),
+      (250 * 21 - 500 - 8000) / 490,
+      1e-6,
+      'T_bp',
+    );
   });
 
   it('is where capacity meets the load with wind-driven ELA infiltration too', () => {
@@ -204,8 +225,14 @@ describe('equipment schema', () => {
   });
 
   it('refuses wrong fuels, efficiencies, partial −15 °C ratings and bad prices', () => {
-    assert.match(issues({ ...base, kind: 'furnace', fuel: 'electricity', efficiency: 0.95, outputW: 1 })[0]?.message ?? '', /gas, oil or propane/);
-    assert.match(issues({ ...base, kind: 'boiler', fuel: 'gas', efficiency: 95, outputW: 1 })[0]?.message ?? '', /0\.95/);
+    assert.match(
+      issues({ ...base, kind: 'furnace', fuel: 'electricity', efficiency: 0.95, outputW: 1 })[0]?.message ?? '',
+      /gas, oil or propane/,
+    );
+    assert.match(
+      issues({ ...base, kind: 'boiler', fuel: 'gas', efficiency: 95, outputW: 1 })[0]?.message ?? '',
+      /0\.95/,
+    );
     assert.ok(issues({ ...base, kind: 'electric', outputW: 1, efficiency: 0.9 }).length > 0);
     const hp = { ...base, kind: 'heat-pump', capacity8_3W: 10_000, cop8_3: 3.5, capacityM8_3W: 6000, copM8_3: 2.3 };
     assert.deepEqual(issues({ ...hp, capacityM15W: 4000 })[0]?.path, ['copM15']);

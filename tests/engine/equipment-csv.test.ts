@@ -44,7 +44,8 @@ describe('equipment CSV import', () => {
   });
 
   it('accepts columns in any order, output in Btu/h, CRLF line ends, a BOM and blank lines', () => {
-    const text = '\uFEFFlabel,kind,fuel,efficiency,output_btuh,installed_price,life_years\r\n\r\nGas furnace 80k,furnace,gas,0.95,76000,5200,20\r\n,,,,,,\r\n';
+    const text =
+      '\uFEFFlabel,kind,fuel,efficiency,output_btuh,installed_price,life_years\r\n\r\nGas furnace 80k,furnace,gas,0.95,76000,5200,20\r\n,,,,,,\r\n';
     const r = parseEquipmentCsv(text);
     assert.ok(r.ok, JSON.stringify(!r.ok && r.problems));
     const [f] = r.options;
@@ -66,7 +67,11 @@ describe('equipment CSV import', () => {
     assert.ok(!r.ok);
     const lines = [...new Set(r.problems.map((p) => p.line))];
     assert.deepEqual(lines, [3, 4, 5, 6, 7]);
-    const at = (line: number) => r.problems.filter((p) => p.line === line).map((p) => p.message).join(' | ');
+    const at = (line: number) =>
+      r.problems
+        .filter((p) => p.line === line)
+        .map((p) => p.message)
+        .join(' | ');
     assert.match(at(3), /output_w: Enter the rated output or the rated input/);
     assert.match(at(4), /cop_8_3: "abc" is not a number/);
     assert.match(at(5), /Expected 15 fields, found 3/);
@@ -78,7 +83,10 @@ describe('equipment CSV import', () => {
     const text = `${HEADER}\nfurnace,"Two\nline label",20000,,0.95,gas,,,,,,,,4000,20\nfurnace,Bad,20000,,1.5,gas,,,,,,,,4000,20\n`;
     const r = parseEquipmentCsv(text);
     assert.ok(!r.ok);
-    assert.deepEqual(r.problems.map((p) => p.line), [4]);
+    assert.deepEqual(
+      r.problems.map((p) => p.line),
+      [4],
+    );
     assert.match(r.problems[0]?.message ?? '', /efficiency: The efficiency must be at most 1/);
   });
 
@@ -124,10 +132,21 @@ describe('equipment CSV export', () => {
     // OWASP "CSV Injection": cells starting with =, +, -, @ get a leading apostrophe on export.
     const labels = ['=HYPERLINK("http://x.test")', '+1 furnace', '-cmd', '@SUM(A1)', 'Plain furnace'];
     const options = labels.map((label) =>
-      equipmentOptionSchema.parse({ kind: 'furnace', label, fuel: 'gas', efficiency: 0.95, outputW: 9000, installedPrice: '3000.00', lifeYears: 20 }),
+      equipmentOptionSchema.parse({
+        kind: 'furnace',
+        label,
+        fuel: 'gas',
+        efficiency: 0.95,
+        outputW: 9000,
+        installedPrice: '3000.00',
+        lifeYears: 20,
+      }),
     );
     const csv = toCsv(options);
-    const cells = csv.split('\r\n').slice(1, -1).map((line) => line.split(',')[1] ?? '');
+    const cells = csv
+      .split('\r\n')
+      .slice(1, -1)
+      .map((line) => line.split(',')[1] ?? '');
     assert.ok(cells[0]?.startsWith('"\'='), cells[0]);
     assert.equal(cells[1], "'+1 furnace");
     assert.equal(cells[2], "'-cmd");
@@ -135,7 +154,10 @@ describe('equipment CSV export', () => {
     assert.equal(cells[4], 'Plain furnace');
     const back = parseEquipmentCsv(csv);
     assert.ok(back.ok);
-    assert.deepEqual(back.options.map((o) => o.label), labels);
+    assert.deepEqual(
+      back.options.map((o) => o.label),
+      labels,
+    );
   });
 
   it('keeps the heat-pump settings in extra columns when they are used', () => {
@@ -163,7 +185,9 @@ describe('equipment CSV export', () => {
 
   it('property: any list of valid options round-trips', () => {
     const label = fc.string({ minLength: 1, maxLength: 20 }).filter((s) => s.trim() === s && s.trim() !== '');
-    const price = fc.tuple(fc.integer({ min: 0, max: 99_999 }), fc.integer({ min: 0, max: 99 })).map(([a, b]) => `${a}.${String(b).padStart(2, '0')}`);
+    const price = fc
+      .tuple(fc.integer({ min: 0, max: 99_999 }), fc.integer({ min: 0, max: 99 }))
+      .map(([a, b]) => `${a}.${String(b).padStart(2, '0')}`);
     const w = fc.double({ min: 100, max: 100_000, noNaN: true });
     const cop = fc.double({ min: 1, max: 6, noNaN: true });
     const fuelled = fc.record({

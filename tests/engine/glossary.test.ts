@@ -6,7 +6,14 @@
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import { describe, it } from 'node:test';
-import { designValueName, designValueTag, glossary, gridStepText, term, type Term } from '../../shared/glossary/glossary';
+import {
+  designValueName,
+  designValueTag,
+  glossary,
+  gridStepText,
+  term,
+  type Term,
+} from '../../shared/glossary/glossary';
 import { glossaryMarkdown } from '../../shared/glossary/glossary-doc';
 
 const terms = Object.values(glossary) as Term[];
@@ -20,7 +27,16 @@ describe('glossary', () => {
   });
 
   it('keeps the trade’s terms and the coined words out of the homeowner’s words', () => {
-    const jargon = [/unmet/i, /design/i, /set-point/i, /life-cycle/i, /equivalent/i, /degree-hour/i, /\b(ladder|rung|sag)\b/i, /balance point/i];
+    const jargon = [
+      /unmet/i,
+      /design/i,
+      /set-point/i,
+      /life-cycle/i,
+      /equivalent/i,
+      /degree-hour/i,
+      /\b(ladder|rung|sag)\b/i,
+      /balance point/i,
+    ];
     for (const t of terms) for (const j of jargon) assert.doesNotMatch(t.homeowner, j, t.homeowner);
     for (const t of terms) assert.doesNotMatch(`${t.designer} ${t.explain}`, /\b(ladder|rung|sag)\b/i);
   });

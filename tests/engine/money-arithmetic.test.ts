@@ -68,13 +68,15 @@ describe('money arithmetic', () => {
   it('parses amounts strictly', () => {
     assert.equal(parseMoney(' 1234.50 ').toFixed(2), '1234.50');
     assert.equal(parseMoney('-7').toString(), '-7');
-    for (const bad of ['1,234.50', '$12', '1e3', '', '.5', '12.']) assert.throws(() => parseMoney(bad), RangeError, bad);
+    for (const bad of ['1,234.50', '$12', '1e3', '', '.5', '12.'])
+      assert.throws(() => parseMoney(bad), RangeError, bad);
   });
 
   it('checks installed prices: digits with at most two decimals', () => {
     assert.ok(moneyStringSchema.safeParse('8450.00').success);
     assert.ok(moneyStringSchema.safeParse('8450').success);
-    for (const bad of ['8 450', '8450.005', '-1', 'abc']) assert.equal(moneyStringSchema.safeParse(bad).success, false, bad);
+    for (const bad of ['8 450', '8450.005', '-1', 'abc'])
+      assert.equal(moneyStringSchema.safeParse(bad).success, false, bad);
   });
 
   it('property: the decimal sum of cent amounts equals the integer sum of cents', () => {

@@ -26,9 +26,17 @@ const option = (o: Record<string, unknown>): EquipmentOption =>
   equipmentOptionSchema.parse({ label: 'Option', installedPrice: '1000', lifeYears: 15, ...o });
 
 const furnace95 = option({ kind: 'furnace', fuel: 'gas', efficiency: 0.95, outputW: 20_000 });
-const heatPump = option({ kind: 'heat-pump', capacity8_3W: 10_000, cop8_3: 3.5, capacityM8_3W: 6000, copM8_3: 2.3, backupW: 5000 });
+const heatPump = option({
+  kind: 'heat-pump',
+  capacity8_3W: 10_000,
+  cop8_3: 3.5,
+  capacityM8_3W: 6000,
+  copM8_3: 2.3,
+  backupW: 5000,
+});
 
-const prices = (p: Partial<EnergyPrices>): EnergyPrices => energyPricesSchema.parse({ currency: 'USD', electricityPerKwh: '0.15', ...p });
+const prices = (p: Partial<EnergyPrices>): EnergyPrices =>
+  energyPricesSchema.parse({ currency: 'USD', electricityPerKwh: '0.15', ...p });
 
 describe('heating values', () => {
   it('converts the stated fuel heat contents to SI', () => {
@@ -56,10 +64,18 @@ describe('cost of a kWh delivered', () => {
     const kwhPerM3 = (1036 * BTU_J) / FT3_M3 / 3.6e6; // ≈ 10.72 kWh/m³
     assertClose(energyCostPerKwhDelivered(furnace95, perM3)?.toNumber(), 0.4 / kwhPerM3 / 0.95, 1e-12, 'per m³');
     const own = prices({ gas: { unit: 'm3', price: '0.40' }, heatingValues: { gasMjPerM3: 36 } });
-    assertClose(energyCostPerKwhDelivered(furnace95, own)?.toNumber(), 0.4 / 10 / 0.95, 1e-12, 'own value: 36 MJ/m³ = 10 kWh/m³');
+    assertClose(
+      energyCostPerKwhDelivered(furnace95, own)?.toNumber(),
+      0.4 / 10 / 0.95,
+      1e-12,
+      'own value: 36 MJ/m³ = 10 kWh/m³',
+    );
     const perKwh = prices({ gas: { unit: 'kWh', price: '0.05' } });
     // [C] 0.05 / 0.95 = 1/19, to the 40 significant digits of the money arithmetic.
-    assert.equal(energyCostPerKwhDelivered(furnace95, perKwh)?.toString(), '0.05263157894736842105263157894736842105263');
+    assert.equal(
+      energyCostPerKwhDelivered(furnace95, perKwh)?.toString(),
+      '0.05263157894736842105263157894736842105263',
+    );
   });
 
   it('oil and propane per litre', () => {
@@ -68,7 +84,12 @@ describe('cost of a kWh delivered', () => {
     const kwhPerL = (138_500 * BTU_J) / GAL_L / 3.6e6;
     assertClose(energyCostPerKwhDelivered(boiler, p)?.toNumber(), 1.2 / kwhPerL / 0.85, 1e-12, 'oil');
     const lp = option({ kind: 'furnace', fuel: 'propane', efficiency: 0.96, inputW: 20_000 });
-    assertClose(energyCostPerKwhDelivered(lp, p)?.toNumber(), 0.8 / ((91_333 * BTU_J) / GAL_L / 3.6e6) / 0.96, 1e-12, 'propane');
+    assertClose(
+      energyCostPerKwhDelivered(lp, p)?.toNumber(),
+      0.8 / ((91_333 * BTU_J) / GAL_L / 3.6e6) / 0.96,
+      1e-12,
+      'propane',
+    );
   });
 
   it('electric resistance costs the electricity price; a heat pump divides it by its COP at the temperature', () => {
@@ -95,7 +116,11 @@ describe('energy prices schema', () => {
     assert.ok(!price.success);
     assert.deepEqual(price.error.issues[0]?.path, ['electricityPerKwh']);
     assert.match(price.error.issues[0]?.message ?? '', /electricity price per kWh/);
-    const unit = energyPricesSchema.safeParse({ currency: 'EUR', electricityPerKwh: '0.30', gas: { unit: 'gallon', price: '1' } });
+    const unit = energyPricesSchema.safeParse({
+      currency: 'EUR',
+      electricityPerKwh: '0.30',
+      gas: { unit: 'gallon', price: '1' },
+    });
     assert.ok(!unit.success);
     assert.match(unit.error.issues[0]?.message ?? '', /per m3, per kWh or per therm/);
   });

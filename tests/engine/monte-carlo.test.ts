@@ -11,7 +11,13 @@ import { buildingSchema, type Building } from '../../shared/building/building-sc
 import { seriesFromRows } from '../../shared/climate/hourly-series';
 import { equipmentOptionSchema } from '../../shared/equipment/equipment-schemas';
 import type { EnergyPrices } from '../../shared/money/energy-prices';
-import { monteCarloSweep, scaleBuilding, scalePrices, seededUniform, type Tolerances } from '../../shared/sweep/monte-carlo';
+import {
+  monteCarloSweep,
+  scaleBuilding,
+  scalePrices,
+  seededUniform,
+  type Tolerances,
+} from '../../shared/sweep/monte-carlo';
 import { indexSweepRecord, sweep, type SweepInput, type SweepOption } from '../../shared/sweep/sweep';
 import { conductionUa } from '../../shared/building/heat-loss';
 
@@ -27,23 +33,43 @@ const caseArb: fc.Arbitrary<SweepInput> = fc
     envelope: fc.boolean(),
     sizes: fc.uniqueArray(fc.integer({ min: 3, max: 25 }), { minLength: 2, maxLength: 3 }),
     q47: fc.integer({ min: 4000, max: 15000 }),
-    years: fc.array(fc.array(fc.integer({ min: -300, max: 120 }).map((t) => t / 10), { minLength: 24, maxLength: 150 }), {
-      minLength: 2,
-      maxLength: 3,
-    }),
+    years: fc.array(
+      fc.array(
+        fc.integer({ min: -300, max: 120 }).map((t) => t / 10),
+        { minLength: 24, maxLength: 150 },
+      ),
+      {
+        minLength: 2,
+        maxLength: 3,
+      },
+    ),
   })
   .map(({ ua, ach, envelope, sizes, q47, years }): SweepInput => {
     const building: Building = buildingSchema.parse({
       indoorDesignC: 21,
       conduction: envelope
-        ? { mode: 'envelope', components: [{ label: 'Walls', areaM2: ua, uValue: 0.6 }, { label: 'Roof', areaM2: 100, rValue: 2.5 }] }
+        ? {
+            mode: 'envelope',
+            components: [
+              { label: 'Walls', areaM2: ua, uValue: 0.6 },
+              { label: 'Roof', areaM2: 100, rValue: 2.5 },
+            ],
+          }
         : { mode: 'ua', uaWPerK: ua },
       airLeakage: { mode: 'ach', ach, volumeM3: 400 },
       thermalMass: { mode: 'hours', timeConstantH: 30 },
     });
     const options: SweepOption[] = [
       ...sizes.map((kw, i) => ({
-        ...equipmentOptionSchema.parse({ kind: 'furnace', label: `F${kw}`, fuel: 'gas', efficiency: 0.95, outputW: kw * 1000, installedPrice: (3000 + kw * 100).toFixed(2), lifeYears: 20 }),
+        ...equipmentOptionSchema.parse({
+          kind: 'furnace',
+          label: `F${kw}`,
+          fuel: 'gas',
+          efficiency: 0.95,
+          outputW: kw * 1000,
+          installedPrice: (3000 + kw * 100).toFixed(2),
+          lifeYears: 20,
+        }),
         id: `f${i}`,
       })),
       {
@@ -80,7 +106,10 @@ const caseArb: fc.Arbitrary<SweepInput> = fc
         extremeMin: { mean: minimum + 2, returnPeriod: { '5': minimum + 1, '50': minimum - 3 } },
       },
       designWindMs: 6.7,
-      record: indexSweepRecord({ series: seriesFromRows({ time, dryBulbC }), qualifyingYears: years.map((_, y) => 2001 + y) }),
+      record: indexSweepRecord({
+        series: seriesFromRows({ time, dryBulbC }),
+        qualifyingYears: years.map((_, y) => 2001 + y),
+      }),
     };
   });
 
@@ -130,14 +159,28 @@ describe('Monte Carlo over the tolerances', () => {
         fc.integer({ min: 1, max: 20 }),
         fc.integer({ min: 1, max: 20 }),
         (input, seed, small, extra) => {
-          const narrow = monteCarloSweep(input, { tolerances: { uaPct: small, airLeakagePct: small, pricesPct: 0 }, draws: 60, seed });
-          const wide = monteCarloSweep(input, { tolerances: { uaPct: small + extra, airLeakagePct: small + extra, pricesPct: 0 }, draws: 60, seed });
+          const narrow = monteCarloSweep(input, {
+            tolerances: { uaPct: small, airLeakagePct: small, pricesPct: 0 },
+            draws: 60,
+            seed,
+          });
+          const wide = monteCarloSweep(input, {
+            tolerances: { uaPct: small + extra, airLeakagePct: small + extra, pricesPct: 0 },
+            draws: 60,
+            seed,
+          });
           narrow.rows.forEach((n, i) => {
             const w = wide.rows[i];
             assert.ok(w);
             if (n.selectionChangeShare !== 0 || w.selectionChangeShare !== 0 || n.unmetHoursPerYearP10 === null) return;
-            assert.ok((w.unmetHoursPerYearP10 ?? NaN) <= n.unmetHoursPerYearP10 + 1e-9, `row ${i}: P10 ${w.unmetHoursPerYearP10} > ${n.unmetHoursPerYearP10}`);
-            assert.ok((w.unmetHoursPerYearP90 ?? NaN) >= (n.unmetHoursPerYearP90 ?? NaN) - 1e-9, `row ${i}: P90 narrowed`);
+            assert.ok(
+              (w.unmetHoursPerYearP10 ?? NaN) <= n.unmetHoursPerYearP10 + 1e-9,
+              `row ${i}: P10 ${w.unmetHoursPerYearP10} > ${n.unmetHoursPerYearP10}`,
+            );
+            assert.ok(
+              (w.unmetHoursPerYearP90 ?? NaN) >= (n.unmetHoursPerYearP90 ?? NaN) - 1e-9,
+              `row ${i}: P90 narrowed`,
+            );
           });
           const cheap = monteCarloSweep(input, { tolerances: { ...ZERO, pricesPct: small }, draws: 60, seed });
           const dear = monteCarloSweep(input, { tolerances: { ...ZERO, pricesPct: small + extra }, draws: 60, seed });
@@ -158,11 +201,23 @@ describe('Monte Carlo over the tolerances', () => {
     assert.ok(sampled);
     // Furnaces every kilowatt from 2 to 60 kW: a design load that moves by half moves across sizes.
     const ladder = Array.from({ length: 59 }, (_, k) => ({
-      ...equipmentOptionSchema.parse({ kind: 'furnace', label: `F${k + 2}`, fuel: 'gas', efficiency: 0.95, outputW: (k + 2) * 1000, installedPrice: '4000.00', lifeYears: 20 }),
+      ...equipmentOptionSchema.parse({
+        kind: 'furnace',
+        label: `F${k + 2}`,
+        fuel: 'gas',
+        efficiency: 0.95,
+        outputW: (k + 2) * 1000,
+        installedPrice: '4000.00',
+        lifeYears: 20,
+      }),
       id: `f${k + 2}`,
     }));
     const input: SweepInput = { ...sampled, options: ladder };
-    const wide = monteCarloSweep(input, { tolerances: { uaPct: 50, airLeakagePct: 50, pricesPct: 0 }, draws: 200, seed: 3 });
+    const wide = monteCarloSweep(input, {
+      tolerances: { uaPct: 50, airLeakagePct: 50, pricesPct: 0 },
+      draws: 200,
+      seed: 3,
+    });
     assert.ok(
       wide.rows.some((r) => r.selectionChangeShare > 0 && r.selectionChangeShare < 1),
       'a ±50 % UA should change the selected unit at some design temperature in some draws',
@@ -173,7 +228,13 @@ describe('Monte Carlo over the tolerances', () => {
 describe('the inputs a draw scales', () => {
   it('scales UA (a U-value up, an R-value down) and the air leakage by the factors', () => {
     const b = buildingSchema.parse({
-      conduction: { mode: 'envelope', components: [{ label: 'Walls', areaM2: 100, uValue: 0.5 }, { label: 'Roof', areaM2: 80, rValue: 4 }] },
+      conduction: {
+        mode: 'envelope',
+        components: [
+          { label: 'Walls', areaM2: 100, uValue: 0.5 },
+          { label: 'Roof', areaM2: 80, rValue: 4 },
+        ],
+      },
       airLeakage: { mode: 'ach50', ach50: 4, volumeM3: 400, nFactor: 20 },
       thermalMass: { mode: 'hours', timeConstantH: 30 },
     });
@@ -197,7 +258,10 @@ describe('the inputs a draw scales', () => {
     const a = seededUniform(42);
     const b = seededUniform(42);
     const xs = Array.from({ length: 1000 }, () => a());
-    assert.deepEqual(xs, Array.from({ length: 1000 }, () => b()));
+    assert.deepEqual(
+      xs,
+      Array.from({ length: 1000 }, () => b()),
+    );
     assert.ok(xs.every((x) => x >= 0 && x < 1));
     const mean = xs.reduce((s, x) => s + x, 0) / xs.length;
     // The mean of 1000 uniform numbers has a standard deviation of 0.0091: 0.5 ± 0.04 is over 4 of them.

@@ -19,9 +19,33 @@ const SCENARIO = {
     timeConstantH: 40,
   },
   equipment: [
-    { id: 'small', kind: 'furnace', outputW: 9000, efficiency: 0.95, installedPrice: 3900, lifeYears: 20, energy: 'gas' },
-    { id: 'mid', kind: 'furnace', outputW: 12000, efficiency: 0.95, installedPrice: 4400, lifeYears: 20, energy: 'gas' },
-    { id: 'large', kind: 'furnace', outputW: 16000, efficiency: 0.95, installedPrice: 5100, lifeYears: 20, energy: 'gas' },
+    {
+      id: 'small',
+      kind: 'furnace',
+      outputW: 9000,
+      efficiency: 0.95,
+      installedPrice: 3900,
+      lifeYears: 20,
+      energy: 'gas',
+    },
+    {
+      id: 'mid',
+      kind: 'furnace',
+      outputW: 12000,
+      efficiency: 0.95,
+      installedPrice: 4400,
+      lifeYears: 20,
+      energy: 'gas',
+    },
+    {
+      id: 'large',
+      kind: 'furnace',
+      outputW: 16000,
+      efficiency: 0.95,
+      installedPrice: 5100,
+      lifeYears: 20,
+      energy: 'gas',
+    },
   ],
   prices: { electricityPerKWh: 0.16, gasPerKWh: 0.045 },
   economics: { discountRatePct: 3 },
@@ -37,7 +61,9 @@ const scenarioFile = (name: string, extra: object = {}) => {
   return file;
 };
 const run = (...args: string[]) =>
-  spawnSync(process.execPath, ['--import', 'tsx', 'cli/tailroom-cli.ts', 'sweep', '--weather', weatherFile, ...args], { encoding: 'utf8' });
+  spawnSync(process.execPath, ['--import', 'tsx', 'cli/tailroom-cli.ts', 'sweep', '--weather', weatherFile, ...args], {
+    encoding: 'utf8',
+  });
 type Row = Record<string, unknown>;
 const rowsOf = (stdout: string) => (JSON.parse(stdout) as { rows: Row[] }).rows;
 
@@ -46,7 +72,12 @@ describe('tailroom-cli sweep: odds and uncertainty', () => {
     const out = run('--scenario', scenarioFile('plain'));
     assert.equal(out.status, 0, out.stderr);
     const rows = rowsOf(out.stdout);
-    for (const [label, n] of [['5-year', 5], ['10-year', 10], ['20-year', 20], ['50-year', 50]] as const) {
+    for (const [label, n] of [
+      ['5-year', 5],
+      ['10-year', 10],
+      ['20-year', 20],
+      ['50-year', 50],
+    ] as const) {
       const row = rows.find((r) => r['label'] === label);
       assert.ok(row, label);
       const p = row['annualExceedanceProbability'] as number;
@@ -58,15 +89,21 @@ describe('tailroom-cli sweep: odds and uncertainty', () => {
     }
     for (const r of rows) {
       const share = r['recordExceedanceShare'] as number;
-      assert.ok(share >= 0 && share <= 1 && Math.abs(share * 6 - Math.round(share * 6)) < 1e-9, `a share of 6 years: ${share}`);
+      assert.ok(
+        share >= 0 && share <= 1 && Math.abs(share * 6 - Math.round(share * 6)) < 1e-9,
+        `a share of 6 years: ${share}`,
+      );
       assert.equal('unmetHoursPerYearP10' in r, false, 'no band without --uncertainty');
       assert.ok('costPerAvoidedUnmetHour' in r);
     }
     const probabilities = rows.map((r) => r['annualExceedanceProbability'] as number);
-    probabilities.slice(1).forEach((p, i) => assert.ok(p <= (probabilities[i] ?? 1), 'odds fall as the design temperature gets colder'));
+    probabilities
+      .slice(1)
+      .forEach((p, i) => assert.ok(p <= (probabilities[i] ?? 1), 'odds fall as the design temperature gets colder'));
     // The price of comfort is defined only where the unit changes from the milder row.
     rows.forEach((r, i) => {
-      if (i === 0 || r['selectedOptionId'] === rows[i - 1]?.['selectedOptionId']) assert.equal(r['costPerAvoidedUnmetHour'], null);
+      if (i === 0 || r['selectedOptionId'] === rows[i - 1]?.['selectedOptionId'])
+        assert.equal(r['costPerAvoidedUnmetHour'], null);
     });
   });
 
@@ -90,7 +127,10 @@ describe('tailroom-cli sweep: odds and uncertainty', () => {
     assert.equal(a.status, 0, a.stderr);
     assert.equal(a.stdout, b.stdout);
     const rows = rowsOf(a.stdout);
-    assert.ok(rows.some((r) => Number(r['lifeCycleCostP90']) > Number(r['lifeCycleCostP10'])), 'prices ±15 % spread the life-cycle cost');
+    assert.ok(
+      rows.some((r) => Number(r['lifeCycleCostP90']) > Number(r['lifeCycleCostP10'])),
+      'prices ±15 % spread the life-cycle cost',
+    );
     for (const r of rows) {
       if (r['lifeCycleCostP10'] === null) continue;
       assert.ok(Number(r['lifeCycleCostP10']) <= Number(r['lifeCycleCostP90']));

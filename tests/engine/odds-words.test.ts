@@ -39,7 +39,14 @@ const row = (fields: Partial<OddsRow> & Pick<OddsRow, 'designC' | 'selectedOptio
 });
 
 const rows: OddsRow[] = [
-  row({ designC: -15, selectedOptionId: 'a', annualExceedanceProbability: 0.8, recordExceedanceShare: 0.8, lifetimeExceedanceProbability: 1, lifetimeYears: 20 }),
+  row({
+    designC: -15,
+    selectedOptionId: 'a',
+    annualExceedanceProbability: 0.8,
+    recordExceedanceShare: 0.8,
+    lifetimeExceedanceProbability: 1,
+    lifetimeYears: 20,
+  }),
   row({
     designC: -20,
     selectedOptionId: 'b',
@@ -57,7 +64,13 @@ const rows: OddsRow[] = [
     lifeCycleCostP90: '12299.60',
     selectionChangeShare: 0.12,
   }),
-  row({ designC: -22, selectedOptionId: 'b', annualExceedanceProbability: 0.05, lifetimeExceedanceProbability: 0.25, lifetimeYears: 20 }),
+  row({
+    designC: -22,
+    selectedOptionId: 'b',
+    annualExceedanceProbability: 0.05,
+    lifetimeExceedanceProbability: 0.25,
+    lifetimeYears: 20,
+  }),
   row({ designC: -26, selectedOptionId: 'c', costPerAvoidedUnmetHour: 41, lifetimeYears: 20 }),
 ];
 const ctx: OddsContext = {
@@ -83,8 +96,14 @@ describe('odds in words', () => {
       plainLifetimeSentence({ ...rows[2]!, designC: -22.4 }, 'SI'),
       'There is about a 1-in-4 chance of at least one night colder than −22 °C in the next 20 years, the period over which the costs are compared.',
     );
-    assert.match(oddsBasisSentence({ ...ctx.odds!, years: 6, shortRecord: true }) ?? '', /fewer than 10 years on record these odds mean little/);
-    assert.match(oddsBasisSentence({ meanC: -20, sdK: 3, source: 'published', years: null, shortRecord: false }) ?? '', /published mean and standard deviation/);
+    assert.match(
+      oddsBasisSentence({ ...ctx.odds!, years: 6, shortRecord: true }) ?? '',
+      /fewer than 10 years on record these odds mean little/,
+    );
+    assert.match(
+      oddsBasisSentence({ meanC: -20, sdK: 3, source: 'published', years: null, shortRecord: false }) ?? '',
+      /published mean and standard deviation/,
+    );
   });
 
   it('prices the step into the chosen unit and the step to the next larger one', () => {
@@ -94,7 +113,10 @@ describe('odds in words', () => {
       'Going up to this unit at −20.0 °C costs about $2.40 for each cold hour it avoids in an average year over 20 years ($0.60 if every year were like the worst on record). ' +
         'The next larger unit, from −26.0 °C, costs about $41.00 for each cold hour it avoids in an average year over 20 years.',
     );
-    assert.equal(plainComfortSentence(2, ctx), 'Compared with the next smaller unit, each hour of cold it avoids costs about $2.40 over 20 years.');
+    assert.equal(
+      plainComfortSentence(2, ctx),
+      'Compared with the next smaller unit, each hour of cold it avoids costs about $2.40 over 20 years.',
+    );
     assert.equal(comfortSentence(0, { ...ctx, rows: [rows[0]!] }), '');
   });
 

@@ -23,9 +23,19 @@ import { assertClose } from './close-to';
 describe('annual exceedance probability (Gumbel, method of moments)', () => {
   it('is 1/n at each n-year value of the ASHRAE Handbook—Fundamentals Ch. 14 check row (M = −20 °C, s = 3 K)', () => {
     // T_n from the handbook formula (docs/methods.md#odds-of-a-colder-night): −22.158, −23.914, −25.597, −27.777 °C.
-    const published: Record<(typeof RETURN_PERIODS)[number], number> = { 5: -22.158, 10: -23.914, 20: -25.597, 50: -27.777 };
+    const published: Record<(typeof RETURN_PERIODS)[number], number> = {
+      5: -22.158,
+      10: -23.914,
+      20: -25.597,
+      50: -27.777,
+    };
     for (const n of RETURN_PERIODS) {
-      assertClose(annualExceedanceProbability(returnPeriodMinimum(-20, 3, n), -20, 3), 1 / n, 1e-12, `p at the ${n}-year value`);
+      assertClose(
+        annualExceedanceProbability(returnPeriodMinimum(-20, 3, n), -20, 3),
+        1 / n,
+        1e-12,
+        `p at the ${n}-year value`,
+      );
       // The three-decimal table values give 1/n to within the rounding of the table.
       assertClose(annualExceedanceProbability(published[n], -20, 3), 1 / n, 2e-4, `p at the tabulated ${n}-year value`);
     }
@@ -40,7 +50,12 @@ describe('annual exceedance probability (Gumbel, method of moments)', () => {
         fc.double({ min: 0.01, max: 10, noNaN: true }),
         (mean, sd, t, step) => {
           for (const n of RETURN_PERIODS) {
-            assertClose(annualExceedanceProbability(returnPeriodMinimum(mean, sd, n), mean, sd), 1 / n, 1e-9, `p(T_${n})`);
+            assertClose(
+              annualExceedanceProbability(returnPeriodMinimum(mean, sd, n), mean, sd),
+              1 / n,
+              1e-9,
+              `p(T_${n})`,
+            );
           }
           const warmer = annualExceedanceProbability(t, mean, sd) ?? NaN;
           const colder = annualExceedanceProbability(t - step, mean, sd) ?? NaN;
@@ -147,7 +162,8 @@ describe('price of comfort', () => {
       { selectedOptionId: 'b', lifeCycleCost: '200.00', unmetHoursPerYear: 0, unmetHoursWorstYear: 0 },
       { selectedOptionId: 'c', lifeCycleCost: null, unmetHoursPerYear: 0, unmetHoursWorstYear: 0 },
     ];
-    for (const p of priceOfComfort(rows, () => 15)) assert.deepEqual(p, { costPerAvoidedUnmetHour: null, costPerAvoidedWorstYearHour: null });
+    for (const p of priceOfComfort(rows, () => 15))
+      assert.deepEqual(p, { costPerAvoidedUnmetHour: null, costPerAvoidedWorstYearHour: null });
   });
 });
 

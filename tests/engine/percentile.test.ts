@@ -36,7 +36,12 @@ describe('percentiles (linear interpolation between order statistics)', () => {
           const expected = d3QuantileSorted(Array.from(sorted), p);
           assert.ok(expected !== undefined);
           assertClose(quantileOfSorted(sorted, p), expected, 1e-9 * Math.max(1, Math.abs(expected)), `p=${p}`);
-          assertClose(quantile(values, p), d3Quantile(values, p) ?? NaN, 1e-9 * Math.max(1, Math.abs(expected)), `p=${p} unsorted`);
+          assertClose(
+            quantile(values, p),
+            d3Quantile(values, p) ?? NaN,
+            1e-9 * Math.max(1, Math.abs(expected)),
+            `p=${p} unsorted`,
+          );
         },
       ),
       { numRuns: 300 },

@@ -68,7 +68,12 @@ describe('psychrometrics (ASHRAE Handbook—Fundamentals 2017, Ch. 1)', () => {
         const w = humidityRatioFromDewPoint(dp, p);
         assertClose(w, expectedW, expectedW * 1e-12, `W(${dp.toFixed(1)} °C, ${p} Pa)`);
         const db = dp + 7.5;
-        assertClose(relativeHumidityFromHumidityRatio(db, w, p), psy.GetRelHumFromHumRatio(db, w, p), 1e-12, `φ(${db.toFixed(1)} °C)`);
+        assertClose(
+          relativeHumidityFromHumidityRatio(db, w, p),
+          psy.GetRelHumFromHumRatio(db, w, p),
+          1e-12,
+          `φ(${db.toFixed(1)} °C)`,
+        );
       }
     }
   });

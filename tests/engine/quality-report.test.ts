@@ -16,7 +16,12 @@ describe('data-quality report', () => {
   });
   const rows2022 = yearRows(2022, (i) => (i < 4000 ? { dryBulbC: -5 } : null));
   const start = Date.UTC(2021, 0, 1);
-  const rows: FixtureRow[] = [...rows2021, ...rows2022, { time: start + 50 * HOUR, dryBulbC: -30 }, { time: start + 51 * HOUR, dryBulbC: -30 }];
+  const rows: FixtureRow[] = [
+    ...rows2021,
+    ...rows2022,
+    { time: start + 50 * HOUR, dryBulbC: -30 },
+    { time: start + 51 * HOUR, dryBulbC: -30 },
+  ];
   const report = computeQualityReport(toSeries(rows));
 
   it('lists the years found and which qualify, with completeness', () => {
@@ -59,10 +64,16 @@ describe('data-quality report', () => {
     // −1.0, −0.5, 0, 0.5, 1, 1.5, 2 hold 1, 5, 5, 5, 5, 5, 4 values per cycle (arithmetic)
     const values = Array.from({ length: 30 }, (_, k) => Math.round((-1 + k / 10) * 10) / 10);
     const r = computeQualityReport(toSeries(yearRows(2021, (i) => ({ dryBulbC: values[i % 30]! }))));
-    assert.deepEqual(r.distribution.bins.map((b) => b.upperC), [-1, -0.5, 0, 0.5, 1, 1.5, 2]);
+    assert.deepEqual(
+      r.distribution.bins.map((b) => b.upperC),
+      [-1, -0.5, 0, 0.5, 1, 1.5, 2],
+    );
     const perCycle = [1, 5, 5, 5, 5, 5, 4];
     const fullCycles = Math.floor(8760 / 30); // 292, remainder 0
-    assert.deepEqual(r.distribution.bins.map((b) => b.hours), perCycle.map((c) => c * fullCycles));
+    assert.deepEqual(
+      r.distribution.bins.map((b) => b.hours),
+      perCycle.map((c) => c * fullCycles),
+    );
     assertClose(r.distribution.bins[2]?.cumulativeFraction, 11 / 30, 1e-12, 'F(0 °C)');
     assert.equal(r.distribution.bins.at(-1)?.cumulativeFraction, 1);
   });

@@ -13,8 +13,30 @@ import { readWeatherFiles } from '../../server/modules/climate/weather-files';
 const fileText = fc
   .array(
     fc.oneof(
-      fc.constantFrom('time,dry_bulb_c\n', 'time,dry_bulb_f,wind_speed_ms\n', 'kind,label,output_w,efficiency,fuel,installed_price,life_years\n', '2001 01 01 00   -50   -89 10200   250    30     8     0 -9999\n'),
-      fc.constantFrom('2001-01-01T00:00Z', '-12.5', '9999', 'NA', '"', '""', ',', ';', '\t', '\r\n', '\n', 'furnace', 'heat-pump', '=cmd', '1e308', '-0'),
+      fc.constantFrom(
+        'time,dry_bulb_c\n',
+        'time,dry_bulb_f,wind_speed_ms\n',
+        'kind,label,output_w,efficiency,fuel,installed_price,life_years\n',
+        '2001 01 01 00   -50   -89 10200   250    30     8     0 -9999\n',
+      ),
+      fc.constantFrom(
+        '2001-01-01T00:00Z',
+        '-12.5',
+        '9999',
+        'NA',
+        '"',
+        '""',
+        ',',
+        ';',
+        '\t',
+        '\r\n',
+        '\n',
+        'furnace',
+        'heat-pump',
+        '=cmd',
+        '1e308',
+        '-0',
+      ),
       fc.string({ maxLength: 30 }),
       fc.integer({ min: -1e6, max: 1e6 }).map(String),
     ),
@@ -25,15 +47,19 @@ const fileText = fc
 describe('readers on hostile text', () => {
   it('weather files are read or refused with a 400-class answer', async () => {
     await fc.assert(
-      fc.asyncProperty(fileText, fc.constantFrom<'auto' | 'csv' | 'isd-lite'>('auto', 'csv', 'isd-lite'), async (text, format) => {
-        try {
-          const r = await readWeatherFiles([{ name: 'fuzz.csv', content: Buffer.from(text) }], { format });
-          assert.equal(r.series.time.length, r.series.dryBulbC.length);
-        } catch (err) {
-          assert.ok(err instanceof HttpError, `threw ${String(err)}`);
-          assert.ok(err.status >= 400 && err.status < 500);
-        }
-      }),
+      fc.asyncProperty(
+        fileText,
+        fc.constantFrom<'auto' | 'csv' | 'isd-lite'>('auto', 'csv', 'isd-lite'),
+        async (text, format) => {
+          try {
+            const r = await readWeatherFiles([{ name: 'fuzz.csv', content: Buffer.from(text) }], { format });
+            assert.equal(r.series.time.length, r.series.dryBulbC.length);
+          } catch (err) {
+            assert.ok(err instanceof HttpError, `threw ${String(err)}`);
+            assert.ok(err.status >= 400 && err.status < 500);
+          }
+        },
+      ),
       { numRuns: 300 },
     );
   });

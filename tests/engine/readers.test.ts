@@ -61,13 +61,21 @@ describe('ISD-Lite reader', () => {
   });
 
   it('refuses a file with a wrong field count, naming the line', () => {
-    const p = single(isd('2020 01 15 06   -56  -112 10213   270    46     7     0 -9999\n2020 01 15 07   -56  -112 10213   270    46     7     0\n'));
+    const p = single(
+      isd(
+        '2020 01 15 06   -56  -112 10213   270    46     7     0 -9999\n2020 01 15 07   -56  -112 10213   270    46     7     0\n',
+      ),
+    );
     assert.equal(p.line, 2);
     assert.match(p.message, /Expected 12 fields, found 11/);
   });
 
   it('refuses text where a number should be', () => {
-    const p = single(isd('2020 01 15 06   -56  -112 10213   270    46     7     0 -9999\n\n2020 01 15 07   -5x  -112 10213   270    46     7     0 -9999'));
+    const p = single(
+      isd(
+        '2020 01 15 06   -56  -112 10213   270    46     7     0 -9999\n\n2020 01 15 07   -5x  -112 10213   270    46     7     0 -9999',
+      ),
+    );
     assert.equal(p.line, 3);
     assert.match(p.message, /air temperature/);
   });
@@ -145,7 +153,9 @@ describe('generic CSV reader', () => {
   });
 
   it('refuses a wrong column count, naming the line', () => {
-    const p = single(csv('time,dry_bulb_c,dew_point_c\n2020-01-01T00:00,1,0\n2020-01-01T01:00,1\n2020-01-01T02:00,1,0'));
+    const p = single(
+      csv('time,dry_bulb_c,dew_point_c\n2020-01-01T00:00,1,0\n2020-01-01T01:00,1\n2020-01-01T02:00,1,0'),
+    );
     assert.equal(p.line, 3);
     assert.match(p.message, /Expected 3 columns, found 2/);
   });
@@ -184,7 +194,10 @@ describe('generic CSV reader', () => {
     assert.ok(!r.ok);
     assert.equal(r.problems.length, 10);
     assert.equal(r.problemCount, 15);
-    assert.deepEqual(r.problems.map((p) => p.line), [2, 3, 4, 5, 6, 7, 8, 9, 10, 11]);
+    assert.deepEqual(
+      r.problems.map((p) => p.line),
+      [2, 3, 4, 5, 6, 7, 8, 9, 10, 11],
+    );
   });
 
   it('maps other column names by hand', () => {
@@ -198,8 +211,17 @@ describe('generic CSV reader', () => {
   });
 
   it('inspects a header and suggests a mapping', () => {
-    const i = inspectCsvHeader('\uFEFF"Date/Time","Temp (°F)","Dew Point (F)","Wind Speed (mph)","Wind Dir","Pressure (kPa)"');
-    assert.deepEqual(i.columns, ['Date/Time', 'Temp (°F)', 'Dew Point (F)', 'Wind Speed (mph)', 'Wind Dir', 'Pressure (kPa)']);
+    const i = inspectCsvHeader(
+      '\uFEFF"Date/Time","Temp (°F)","Dew Point (F)","Wind Speed (mph)","Wind Dir","Pressure (kPa)"',
+    );
+    assert.deepEqual(i.columns, [
+      'Date/Time',
+      'Temp (°F)',
+      'Dew Point (F)',
+      'Wind Speed (mph)',
+      'Wind Dir',
+      'Pressure (kPa)',
+    ]);
     assert.deepEqual(i.suggestedMapping, {
       time: 'Date/Time',
       dry_bulb_f: 'Temp (°F)',

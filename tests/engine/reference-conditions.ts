@@ -56,7 +56,11 @@ export function referenceConditions(rows: ReferenceRow[], elevationM: number | n
   const db = ascending(valid.map((h) => h.db));
 
   const heating = { db99_6: referenceQuantile(db, 0.004), db99: referenceQuantile(db, 0.01) };
-  const cooling = { db0_4: referenceQuantile(db, 0.996), db1: referenceQuantile(db, 0.99), db2: referenceQuantile(db, 0.98) };
+  const cooling = {
+    db0_4: referenceQuantile(db, 0.996),
+    db1: referenceQuantile(db, 0.99),
+    db2: referenceQuantile(db, 0.98),
+  };
 
   const minima = qualifying.map((y) => Math.min(...valid.filter((h) => h.year === y).map((h) => h.db)));
   const m = mean(minima);
@@ -117,7 +121,11 @@ export function referenceConditions(rows: ReferenceRow[], elevationM: number | n
     validHours: db.length,
     heating,
     cooling,
-    extremeMin: { mean: m, sd, returnPeriod: { '5': returnPeriod(5), '10': returnPeriod(10), '20': returnPeriod(20), '50': returnPeriod(50) } },
+    extremeMin: {
+      mean: m,
+      sd,
+      returnPeriod: { '5': returnPeriod(5), '10': returnPeriod(10), '20': returnPeriod(20), '50': returnPeriod(50) },
+    },
     humidification: { dp99_6: humid(0.004), dp99: humid(0.01) },
     wind: {
       coldestMonth,

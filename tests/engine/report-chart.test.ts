@@ -15,7 +15,9 @@ function view(withBand: boolean): ReportView {
     unmetLow: withBand ? 8 - i * 4 : null,
     unmetHigh: withBand ? 14 - i * 6 : null,
   }));
-  return { chart: { rows, points: [{ t: -15, label: 'A' }], temperatureUnit: '°C', currency: 'USD' } } as unknown as ReportView;
+  return {
+    chart: { rows, points: [{ t: -15, label: 'A' }], temperatureUnit: '°C', currency: 'USD' },
+  } as unknown as ReportView;
 }
 
 describe('report chart legend', () => {
@@ -33,6 +35,9 @@ describe('report chart legend', () => {
 
   it('leaves the band out of the legend when there is no band', () => {
     const option = reportChartOption(view(false), { compact: false });
-    assert.deepEqual((option['legend'] as { data: string[] }).data, ['Total cost over the years compared', 'Hours a year cooler than you set it']);
+    assert.deepEqual((option['legend'] as { data: string[] }).data, [
+      'Total cost over the years compared',
+      'Hours a year cooler than you set it',
+    ]);
   });
 });

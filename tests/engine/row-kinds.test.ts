@@ -10,7 +10,10 @@ import { designLadder } from '../../shared/sweep/sweep';
 
 describe('row kinds', () => {
   const ladder = designLadder(
-    { heating: { db99: -10, db99_6: -12 }, extremeMin: { mean: -15, returnPeriod: { '5': -16, '10': -17, '20': -18, '50': -19.2 } } },
+    {
+      heating: { db99: -10, db99_6: -12 },
+      extremeMin: { mean: -15, returnPeriod: { '5': -16, '10': -17, '20': -18, '50': -19.2 } },
+    },
     [-13.2],
   );
 

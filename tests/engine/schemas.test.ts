@@ -14,7 +14,16 @@ describe('design conditions schema', () => {
     assert.ok(r.ok);
     const parsed = designConditionsSchema.parse(JSON.parse(JSON.stringify(r.conditions)));
     assert.deepEqual(parsed, r.conditions); // nothing stripped: no undocumented keys
-    assert.deepEqual(Object.keys(r.conditions).sort(), ['cooling', 'extremeMin', 'hdd18', 'heating', 'humidification', 'period', 'warnings', 'wind']);
+    assert.deepEqual(Object.keys(r.conditions).sort(), [
+      'cooling',
+      'extremeMin',
+      'hdd18',
+      'heating',
+      'humidification',
+      'period',
+      'warnings',
+      'wind',
+    ]);
     assert.deepEqual(Object.keys(parsed.extremeMin.returnPeriod).sort(), ['10', '20', '5', '50']);
     assert.equal(r.methodVersion, METHOD_VERSION);
     assert.match(METHOD_VERSION, /^climate-\d+\.\d+\.\d+$/);
@@ -35,7 +44,14 @@ describe('published design values schema', () => {
       ...minimal,
       elevation: 2,
       humidification: { dp99_6: { dewPoint: -3.7, humidityRatio: 2.8, meanCoincidentDryBulb: 10.7 } },
-      wind: { coldestMonth: 1, coldestMonth1: 11.6, coincident99_6: 2.2, annual1: 12.8, annual2_5: 11.5, annual5: 10.6 },
+      wind: {
+        coldestMonth: 1,
+        coldestMonth1: 11.6,
+        coincident99_6: 2.2,
+        annual1: 12.8,
+        annual2_5: 11.5,
+        annual5: 10.6,
+      },
       extremeMin: { mean: 1.8, sd: 1.5, returnPeriod: { '5': 0.8, '10': -0.1, '20': -0.9, '50': -1.9 } },
     });
     assert.ok(full.success, JSON.stringify(full.error?.issues));
@@ -58,7 +74,10 @@ describe('published design values schema', () => {
     assert.ok(!badMonth.success);
     assert.match(badMonth.error.issues[0]?.message ?? '', /1 to 12/);
 
-    const badRh = publishedDesignValuesSchema.safeParse({ ...minimal, humidification: { dp99: { relativeHumidity: 120 } } });
+    const badRh = publishedDesignValuesSchema.safeParse({
+      ...minimal,
+      humidification: { dp99: { relativeHumidity: 120 } },
+    });
     assert.ok(!badRh.success);
   });
 

@@ -16,7 +16,10 @@ export function hoursOfYear(year: number): number {
 }
 
 /** One row per hour of a calendar year; `make(i, time)` gives the values of hour i (0-based). */
-export function yearRows(year: number, make: (i: number, time: number) => Omit<FixtureRow, 'time'> | null): FixtureRow[] {
+export function yearRows(
+  year: number,
+  make: (i: number, time: number) => Omit<FixtureRow, 'time'> | null,
+): FixtureRow[] {
   const start = Date.UTC(year, 0, 1);
   const rows: FixtureRow[] = [];
   for (let i = 0; i < hoursOfYear(year); i++) {

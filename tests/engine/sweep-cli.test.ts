@@ -26,7 +26,15 @@ const SCENARIO = {
     timeConstantH: 40,
   },
   equipment: [
-    { id: 'f-40', kind: 'furnace', outputW: 11700, efficiency: 0.96, installedPrice: 4100, lifeYears: 20, energy: 'gas' },
+    {
+      id: 'f-40',
+      kind: 'furnace',
+      outputW: 11700,
+      efficiency: 0.96,
+      installedPrice: 4100,
+      lifeYears: 20,
+      energy: 'gas',
+    },
     {
       id: 'hp-3',
       kind: 'heat-pump',
@@ -39,7 +47,15 @@ const SCENARIO = {
       lifeYears: 15,
       energy: 'electricity',
     },
-    { id: 'f-80', kind: 'furnace', outputW: 23400, efficiency: 0.95, installedPrice: 5700, lifeYears: 20, energy: 'gas' },
+    {
+      id: 'f-80',
+      kind: 'furnace',
+      outputW: 23400,
+      efficiency: 0.95,
+      installedPrice: 5700,
+      lifeYears: 20,
+      energy: 'gas',
+    },
   ],
   prices: { electricityPerKWh: 0.16, gasPerKWh: 0.045 },
   economics: { discountRatePct: 3 },
@@ -62,7 +78,8 @@ describe('tailroom-cli sweep', () => {
     assert.equal(out.status, 0, out.stderr);
     const { rows } = JSON.parse(out.stdout) as { rows: Record<string, unknown>[] };
     const labels = rows.map((r) => r['label']);
-    for (const l of ['99 %', '99.6 %', 'Extreme mean', '5-year', '50-year', '-15 °C']) assert.ok(labels.includes(l), `${l} in ${labels.join(', ')}`);
+    for (const l of ['99 %', '99.6 %', 'Extreme mean', '5-year', '50-year', '-15 °C'])
+      assert.ok(labels.includes(l), `${l} in ${labels.join(', ')}`);
 
     const parsed = parseWeatherText(csv);
     assert.ok(parsed.ok);
@@ -83,11 +100,23 @@ describe('tailroom-cli sweep', () => {
       assert.equal(row['selectedOptionId'], ref.selectedOptionId, String(row['label']));
       assert.equal(row['installedPrice'], ref.installedPrice);
       assert.equal(row['lifeCycleCost'], ref.lifeCycleCost);
-      for (const key of ['designLoadW', 'annualEnergyKWh', 'runHoursPerYear', 'backupHoursPerYear', 'backupEnergyKWh', 'unmetHoursPerYear', 'unmetDegreeHoursPerYear', 'lowestIndoorC', 'worstDropK', 'worstSagC'] as const) {
+      for (const key of [
+        'designLoadW',
+        'annualEnergyKWh',
+        'runHoursPerYear',
+        'backupHoursPerYear',
+        'backupEnergyKWh',
+        'unmetHoursPerYear',
+        'unmetDegreeHoursPerYear',
+        'lowestIndoorC',
+        'worstDropK',
+        'worstSagC',
+      ] as const) {
         const a = row[key] as number | null;
         const b = ref[key];
         if (a === null || b === null) assert.equal(a, b, key);
-        else assert.ok(Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(b)), `${String(row['label'])} ${key}: ${a} vs ${b}`);
+        else
+          assert.ok(Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(b)), `${String(row['label'])} ${key}: ${a} vs ${b}`);
       }
     });
     // Where nothing is large enough the row says so instead of hiding it.
@@ -109,7 +138,12 @@ describe('tailroom-cli sweep', () => {
     assert.match(out.stderr, /warning \(short-record\)/);
     assert.match(out.stderr, /warning \(return-periods-unreliable\)/);
     assert.match(out.stderr, /warning \(fifty-year-short-record\)/);
-    const answer = JSON.parse(out.stdout) as { warnings: { code: string }[]; heatPumpSizing: string; studyPeriodYears: number; selectionRule: string };
+    const answer = JSON.parse(out.stdout) as {
+      warnings: { code: string }[];
+      heatPumpSizing: string;
+      studyPeriodYears: number;
+      selectionRule: string;
+    };
     assert.equal(answer.heatPumpSizing, 'compressor');
     assert.equal(answer.studyPeriodYears, 20);
     // Furnaces and a heat pump: a mixed list is decided on life-cycle cost.
@@ -118,22 +152,58 @@ describe('tailroom-cli sweep', () => {
   });
 
   const refusals: [string, (s: typeof SCENARIO) => unknown, RegExp][] = [
-    ['UA of 0', (s) => ({ ...s, building: { ...s.building, uaWPerK: 0 } }), /building\.uaWPerK: The UA \(conduction heat-loss coefficient\) must be greater than 0 W\/K/],
-    ['indoor −40 °C', (s) => ({ ...s, building: { ...s.building, indoorC: -40 } }), /building\.indoorC: The indoor temperature must be at least 5 °C/],
-    ['duplicate option ids', (s) => ({ ...s, equipment: [...s.equipment, s.equipment[0]] }), /equipment "f-40"\.id: Another option already has the id "f-40"/],
-    ['an energy without a price', (s) => ({ ...s, prices: { electricityPerKWh: 0.16 } }), /equipment "f-40"\.energy: "f-40" uses gas, but prices has no gasPerKWh/],
-    ['an extra design temperature of −300 °C', (s) => ({ ...s, extraDesignTemperaturesC: [-300] }), /extraDesignTemperaturesC\[0\]: A design temperature must be between -60 °C and 20 °C/],
-    ['an extra design temperature of 80 °C', (s) => ({ ...s, extraDesignTemperaturesC: [80] }), /extraDesignTemperaturesC\[0\]: .*80 °C is not/],
+    [
+      'UA of 0',
+      (s) => ({ ...s, building: { ...s.building, uaWPerK: 0 } }),
+      /building\.uaWPerK: The UA \(conduction heat-loss coefficient\) must be greater than 0 W\/K/,
+    ],
+    [
+      'indoor −40 °C',
+      (s) => ({ ...s, building: { ...s.building, indoorC: -40 } }),
+      /building\.indoorC: The indoor temperature must be at least 5 °C/,
+    ],
+    [
+      'duplicate option ids',
+      (s) => ({ ...s, equipment: [...s.equipment, s.equipment[0]] }),
+      /equipment "f-40"\.id: Another option already has the id "f-40"/,
+    ],
+    [
+      'an energy without a price',
+      (s) => ({ ...s, prices: { electricityPerKWh: 0.16 } }),
+      /equipment "f-40"\.energy: "f-40" uses gas, but prices has no gasPerKWh/,
+    ],
+    [
+      'an extra design temperature of −300 °C',
+      (s) => ({ ...s, extraDesignTemperaturesC: [-300] }),
+      /extraDesignTemperaturesC\[0\]: A design temperature must be between -60 °C and 20 °C/,
+    ],
+    [
+      'an extra design temperature of 80 °C',
+      (s) => ({ ...s, extraDesignTemperaturesC: [80] }),
+      /extraDesignTemperaturesC\[0\]: .*80 °C is not/,
+    ],
     [
       'a COP below 1',
       (s) => ({
         ...s,
-        equipment: s.equipment.map((e) => (e.kind === 'heat-pump' && e.ratings ? { ...e, ratings: [e.ratings[0], { outdoorC: -8.3, capacityW: 7000, cop: 0.8 }] } : e)),
+        equipment: s.equipment.map((e) =>
+          e.kind === 'heat-pump' && e.ratings
+            ? { ...e, ratings: [e.ratings[0], { outdoorC: -8.3, capacityW: 7000, cop: 0.8 }] }
+            : e,
+        ),
       }),
       /equipment "hp-3"\.ratings\[1\]\.cop: The COP must be at least 1/,
     ],
-    ['a cycling degradation above 0.5', (s) => ({ ...s, equipment: [{ ...s.equipment[0], cyclingDegradation: 0.7 }] }), /equipment "f-40"\.cyclingDegradation: .*at most 0\.5/],
-    ['an unknown sizing rule', (s) => ({ ...s, heatPumpSizing: 'biggest' }), /heatPumpSizing: heatPumpSizing is "compressor" or "with-backup"/],
+    [
+      'a cycling degradation above 0.5',
+      (s) => ({ ...s, equipment: [{ ...s.equipment[0], cyclingDegradation: 0.7 }] }),
+      /equipment "f-40"\.cyclingDegradation: .*at most 0\.5/,
+    ],
+    [
+      'an unknown sizing rule',
+      (s) => ({ ...s, heatPumpSizing: 'biggest' }),
+      /heatPumpSizing: heatPumpSizing is "compressor" or "with-backup"/,
+    ],
   ];
   for (const [name, change, message] of refusals) {
     it(`refuses ${name}: exit 1, the field named in the scenario's own terms, no JSON dump`, () => {

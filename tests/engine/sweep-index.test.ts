@@ -21,7 +21,13 @@ function series(value: (i: number) => number): HourlySeries {
     dryBulbC[i] = value(i);
     windSpeedMs[i] = i % 97 === 0 ? NaN : Math.abs(value(i + 5));
   }
-  return { time, dryBulbC, dewPointC: dryBulbC.map((t) => t - 3), windSpeedMs, stationPressureKpa: new Float64Array(n).fill(100) };
+  return {
+    time,
+    dryBulbC,
+    dewPointC: dryBulbC.map((t) => t - 3),
+    windSpeedMs,
+    stationPressureKpa: new Float64Array(n).fill(100),
+  };
 }
 
 /** The index with every −0 in its arrays made 0. */
@@ -33,7 +39,10 @@ function withoutNegativeZero<T>(value: T): T {
 
 const cases: [string, (i: number) => number][] = [
   ['readings on a 0.1 K grid', (i) => Math.round(100 * Math.sin(i / 500) - 50 * Math.cos(i / 24)) / 10],
-  ['the same readings as float32 holds them', (i) => Math.fround(Math.round(100 * Math.sin(i / 500) - 50 * Math.cos(i / 24)) / 10)],
+  [
+    'the same readings as float32 holds them',
+    (i) => Math.fround(Math.round(100 * Math.sin(i / 500) - 50 * Math.cos(i / 24)) / 10),
+  ],
   ['readings off any grid', (i) => 10 * Math.sin(i / 500) - 5 * Math.cos(i / 24) + 1e-7 * i],
 ];
 

@@ -46,7 +46,13 @@ const option = (id: string, o: EquipmentOptionInput): SweepOption => ({ ...equip
 const furnace = (id: string, outputW: number, installedPrice: string, lifeYears = 20): SweepOption =>
   option(id, { kind: 'furnace', label: id, fuel: 'gas', efficiency: 0.95, outputW, installedPrice, lifeYears });
 /** A heat pump with the same capacity and COP at both rating points (flat below the coldest). */
-const flatHeatPump = (id: string, compressorW: number, cop: number, backupW: number, installedPrice: string): SweepOption =>
+const flatHeatPump = (
+  id: string,
+  compressorW: number,
+  cop: number,
+  backupW: number,
+  installedPrice: string,
+): SweepOption =>
   option(id, {
     kind: 'heat-pump',
     label: id,
@@ -99,7 +105,12 @@ describe('NIST Handbook 135 (Fuller & Petersen, 1995 ed.) present-value factors'
     assertClose(modifiedUniformPresentValue(0.03, 0.01, 15), 12.86832, 5e-6, 'UPV*(3 %, 1 %, 15), Handbook 135 [C]');
     assertClose(modifiedUniformPresentValue(0.03, 0.02, 20), 18.08123, 5e-6, 'UPV*(3 %, 2 %, 20), Handbook 135 [C]');
     // With no escalation UPV* is UPV; with e = d every year counts in full.
-    assertClose(modifiedUniformPresentValue(0.03, 0, 20), uniformPresentValue(0.03, 20), 1e-12, 'UPV*(d, 0, n) = UPV(d, n)');
+    assertClose(
+      modifiedUniformPresentValue(0.03, 0, 20),
+      uniformPresentValue(0.03, 20),
+      1e-12,
+      'UPV*(d, 0, n) = UPV(d, n)',
+    );
     assert.equal(modifiedUniformPresentValue(0.04, 0.04, 12), 12);
   });
 
@@ -142,7 +153,8 @@ describe('NIST Handbook 135 (Fuller & Petersen, 1995 ed.) present-value factors'
         fc.integer({ min: 0, max: 100_000 }),
         (dPct, ePct, life, n, annual) => {
           const lcc = (years: number) =>
-            ownershipFactor(dPct / 100, life, years).total * 5000 + annual * modifiedUniformPresentValue(dPct / 100, ePct / 100, years);
+            ownershipFactor(dPct / 100, life, years).total * 5000 +
+            annual * modifiedUniformPresentValue(dPct / 100, ePct / 100, years);
           assert.ok(lcc(n + 1) >= lcc(n) - 1e-9, `LCC fell from ${lcc(n)} to ${lcc(n + 1)}`);
         },
       ),
@@ -171,7 +183,10 @@ describe('part-load factor (DOE 10 CFR 430 Subpart B, Appendix M; docs/methods.m
       fc.property(
         fc.integer({ min: 0, max: 49 }),
         fc.integer({ min: 1, max: 50 }),
-        fc.array(fc.integer({ min: -300, max: 150 }).map((t) => t / 10), { minLength: 1, maxLength: 40 }),
+        fc.array(
+          fc.integer({ min: -300, max: 150 }).map((t) => t / 10),
+          { minLength: 1, maxLength: 40 },
+        ),
         fc.boolean(),
         (cdLow, step, temps, asHeatPump) => {
           const cdHigh = Math.min(0.5, (cdLow + step) / 100);
@@ -181,7 +196,9 @@ describe('part-load factor (DOE 10 CFR 430 Subpart B, Appendix M; docs/methods.m
               : { ...furnace('U', 12000, '4000.00'), cyclingDegradation: cd };
           const energy = (cd: number) =>
             rowOf(
-              sweep(base({ options: [unit(cd)], record: record(temps.map((t) => [1, t])), heatPumpSizing: 'with-backup' })).rows,
+              sweep(
+                base({ options: [unit(cd)], record: record(temps.map((t) => [1, t])), heatPumpSizing: 'with-backup' }),
+              ).rows,
               '99 %',
             ).annualEnergyKWh ?? NaN;
           assert.ok(energy(cdHigh) >= energy(cdLow / 100) - 1e-9);
@@ -314,7 +331,12 @@ describe('selection across equipment families', () => {
   });
 
   it('within one family the smallest capacity that covers the load is installed', () => {
-    const result = sweep(base({ options: [furnace('BIG', 12000, '3500.00'), furnace('SMALL', 7000, '3900.00')], record: record([[5, 1]]) }));
+    const result = sweep(
+      base({
+        options: [furnace('BIG', 12000, '3500.00'), furnace('SMALL', 7000, '3900.00')],
+        record: record([[5, 1]]),
+      }),
+    );
     assert.equal(result.selectionRule, 'smallest-capacity');
     assert.equal(rowOf(result.rows, '99 %').selectedOptionId, 'SMALL');
   });
@@ -330,7 +352,10 @@ describe('selection across equipment families', () => {
           }),
           { minLength: 2, maxLength: 5 },
         ),
-        fc.array(fc.integer({ min: -250, max: 100 }).map((t) => t / 10), { minLength: 1, maxLength: 30 }),
+        fc.array(
+          fc.integer({ min: -250, max: 100 }).map((t) => t / 10),
+          { minLength: 1, maxLength: 30 },
+        ),
         (specs, temps) => {
           fc.pre(specs.some((s) => s.pump) && specs.some((s) => !s.pump));
           const options = specs.map((s, i) =>
@@ -342,7 +367,10 @@ describe('selection across equipment families', () => {
             for (const o of options) {
               const alone = rowOf(sweep({ ...input, options: [o] }).rows, row.label);
               if (alone.selectedOptionId === null) continue;
-              assert.ok(Number(row.lifeCycleCost) <= Number(alone.lifeCycleCost) + 1e-9, `${row.label}: ${o.id} is cheaper`);
+              assert.ok(
+                Number(row.lifeCycleCost) <= Number(alone.lifeCycleCost) + 1e-9,
+                `${row.label}: ${o.id} is cheaper`,
+              );
             }
           }
         },
@@ -359,7 +387,9 @@ describe('warnings about the record', () => {
   };
 
   it('a one-year record: short, return periods unreliable, the 50-year row a rough estimate; rows marked', () => {
-    const result = sweep(base({ options: [furnace('F', 12000, '4000.00')], designConditions: values, record: record([[5, 1]]) }));
+    const result = sweep(
+      base({ options: [furnace('F', 12000, '4000.00')], designConditions: values, record: record([[5, 1]]) }),
+    );
     const codes = result.warnings.map((w) => w.code).sort();
     assert.deepEqual(codes, ['fifty-year-short-record', 'return-periods-unreliable', 'short-record']);
     assert.match(rowOf(result.rows, '10-year').reliabilityNote ?? '', /fewer than 10/);
@@ -370,6 +400,9 @@ describe('warnings about the record', () => {
   it('a record without return periods says the ladder stops early; published values alone warn of nothing', () => {
     const short = sweep(base({ options: [furnace('F', 12000, '4000.00')], record: record([[5, 1]]) }));
     assert.ok(short.warnings.some((w) => w.code === 'no-return-periods'));
-    assert.deepEqual(sweep(base({ options: [furnace('F', 12000, '4000.00')], designConditions: values, record: null })).warnings, []);
+    assert.deepEqual(
+      sweep(base({ options: [furnace('F', 12000, '4000.00')], designConditions: values, record: null })).warnings,
+      [],
+    );
   });
 });

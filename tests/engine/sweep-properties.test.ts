@@ -122,7 +122,14 @@ const flatArb: fc.Arbitrary<EquipmentOptionInput> = fc
       ...(o.minOutput === null ? {} : { minOutputFraction: o.minOutput }),
     };
     return o.kind === 'electric'
-      ? { kind: 'electric', label: 'E', outputW: o.outputW, installedPrice: money(o.cents), lifeYears: o.lifeYears, ...cycling }
+      ? {
+          kind: 'electric',
+          label: 'E',
+          outputW: o.outputW,
+          installedPrice: money(o.cents),
+          lifeYears: o.lifeYears,
+          ...cycling,
+        }
       : {
           kind: o.kind,
           label: 'F',
@@ -246,7 +253,11 @@ describe('sweep properties', () => {
             building,
             options: withIds(options),
             prices,
-            economics: { discountRatePct: rate, studyPeriodYears: period.study, energyEscalationPctPerYear: period.escalation },
+            economics: {
+              discountRatePct: rate,
+              studyPeriodYears: period.study,
+              energyEscalationPctPerYear: period.escalation,
+            },
             designConditions,
             designWindMs,
             record,

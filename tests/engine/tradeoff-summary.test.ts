@@ -7,7 +7,12 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import fc from 'fast-check';
 import { csvField, csvTextField, unguardCsvText } from '../../shared/csv/csv-field';
-import { coldestNamedRow, homeownerSentence, tradeoffSentence, type SummaryContext } from '../../shared/sweep/tradeoff-summary';
+import {
+  coldestNamedRow,
+  homeownerSentence,
+  tradeoffSentence,
+  type SummaryContext,
+} from '../../shared/sweep/tradeoff-summary';
 
 type Row = SummaryContext['rows'][number];
 const row = (label: string, designC: number, fields: Partial<Row> = {}): Row => ({
@@ -36,7 +41,14 @@ const ctx = (rows: Row[], fields: Partial<SummaryContext> = {}): SummaryContext 
 });
 
 describe('trade-off sentence (designer)', () => {
-  const mild = row('99 %', -17, { selectedOptionId: 'a', installedPrice: '4290.00', lifeCycleCost: '23739.01', unmetHoursPerYear: 22.6, unmetHoursWorstYear: 110, worstSagC: 2.2 });
+  const mild = row('99 %', -17, {
+    selectedOptionId: 'a',
+    installedPrice: '4290.00',
+    lifeCycleCost: '23739.01',
+    unmetHoursPerYear: 22.6,
+    unmetHoursWorstYear: 110,
+    worstSagC: 2.2,
+  });
   const grid = row('-20 °C', -20, { isGrid: true, designC: -40 });
   const coldest = row('50-year', -32.5);
 
@@ -61,19 +73,31 @@ describe('trade-off sentence (designer)', () => {
     const cold = row('50-year', -32);
     const s = tradeoffSentence(same, ctx([same, cold], { unitSystem: 'IP' }));
     // −17 °C = 1.4 °F → "1 °F"; −32 °C = −25.6 °F → "−26 °F" (°F = °C × 1.8 + 32).
-    assert.match(s, /^Sizing for 1 °F \(99 % design temperature\) installs the same unit as sizing for −26 °F \(50-year return period\) \(Large furnace\)/);
+    assert.match(
+      s,
+      /^Sizing for 1 °F \(99 % design temperature\) installs the same unit as sizing for −26 °F \(50-year return period\) \(Large furnace\)/,
+    );
     assert.match(s, /meets the load in every hour/);
   });
 
   it('says when no option is large enough, in the reader’s units, and when there is no hourly record', () => {
     const none = row('50-year', -32.5, { selectedOptionId: null, designLoadW: 12300 });
-    assert.equal(tradeoffSentence(none, ctx([mild, none])), 'No option on the list delivers the design load of 12.3 kW at −32.5 °C; add a larger unit.');
+    assert.equal(
+      tradeoffSentence(none, ctx([mild, none])),
+      'No option on the list delivers the design load of 12.3 kW at −32.5 °C; add a larger unit.',
+    );
     // 12 300 W ÷ 0.29307107 W per Btu/h = 41 969 Btu/h → nearest 100: 42,000 Btu/h; −32 °C = −25.6 °F → "−26 °F" (NIST SP 811 factors).
     const noneIp = row('50-year', -32, { selectedOptionId: null, designLoadW: 12300 });
-    assert.equal(tradeoffSentence(noneIp, ctx([mild, noneIp], { unitSystem: 'IP' })), 'No option on the list delivers the design load of 42,000 Btu/h at −26 °F; add a larger unit.');
+    assert.equal(
+      tradeoffSentence(noneIp, ctx([mild, noneIp], { unitSystem: 'IP' })),
+      'No option on the list delivers the design load of 42,000 Btu/h at −26 °F; add a larger unit.',
+    );
     const s = tradeoffSentence(mild, ctx([mild, coldest], { hasRecord: false }));
     assert.match(s, /need an hourly record/);
-    assert.match(tradeoffSentence(mild, ctx([mild, none])), /no option on the list covers −32\.5 °C \(50-year return period\)/);
+    assert.match(
+      tradeoffSentence(mild, ctx([mild, none])),
+      /no option on the list covers −32\.5 °C \(50-year return period\)/,
+    );
   });
 });
 
@@ -98,7 +122,10 @@ describe('homeowner sentence', () => {
   it('in °F', () => {
     const r = row('99 %', -17, { unmetHoursPerYear: 0.2, unmetHoursWorstYear: 6, worstSagC: 3 });
     // 21 − 3 = 18 °C = 64.4 °F → "64 °F".
-    assert.match(homeownerSentence(r, ctx([r], { unitSystem: 'IP' })), /^On the coldest nights of a typical winter this unit keeps up; in the coldest of the last 30 years it would have fallen short for about 6 hours, and at the worst the house would have cooled to about 64 °F\.$/);
+    assert.match(
+      homeownerSentence(r, ctx([r], { unitSystem: 'IP' })),
+      /^On the coldest nights of a typical winter this unit keeps up; in the coldest of the last 30 years it would have fallen short for about 6 hours, and at the worst the house would have cooled to about 64 °F\.$/,
+    );
   });
 });
 

@@ -30,17 +30,27 @@ export function corruptPng(): Buffer {
 
 /** A PNG that declares 100 000 × 100 000 pixels (a decompression bomb's header). */
 export function hugePng(): Buffer {
-  return Buffer.concat([SIGNATURE, header(100_000, 100_000), chunk('IDAT', deflateSync(Buffer.alloc(1000))), chunk('IEND', Buffer.alloc(0))]);
+  return Buffer.concat([
+    SIGNATURE,
+    header(100_000, 100_000),
+    chunk('IDAT', deflateSync(Buffer.alloc(1000))),
+    chunk('IEND', Buffer.alloc(0)),
+  ]);
 }
 
 /** A JPEG start-of-image marker followed by a web page. */
 export function junkJpeg(): Buffer {
-  return Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0]), Buffer.from('<!doctype html><html><body>Not an image</body></html>')]);
+  return Buffer.concat([
+    Buffer.from([0xff, 0xd8, 0xff, 0xe0]),
+    Buffer.from('<!doctype html><html><body>Not an image</body></html>'),
+  ]);
 }
 
 /** An SVG sized 1e308 in both directions. */
 export function hugeSvg(): Buffer {
-  return Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="1e308" height="1e308" viewBox="0 0 1e308 1e308"><rect width="1e308" height="10" fill="#1D4E5F"/></svg>');
+  return Buffer.from(
+    '<svg xmlns="http://www.w3.org/2000/svg" width="1e308" height="1e308" viewBox="0 0 1e308 1e308"><rect width="1e308" height="10" fill="#1D4E5F"/></svg>',
+  );
 }
 
 function pixels(width: number, height: number): Buffer {
@@ -55,7 +65,11 @@ export function realPng(): Buffer {
   pixels(24, 12).copy(png.data);
   const plain = PNG.sync.write(png);
   const end = plain.length - 12; // before IEND
-  return Buffer.concat([plain.subarray(0, end), chunk('tEXt', Buffer.from('Comment\0invented firm logo', 'latin1')), plain.subarray(end)]);
+  return Buffer.concat([
+    plain.subarray(0, end),
+    chunk('tEXt', Buffer.from('Comment\0invented firm logo', 'latin1')),
+    plain.subarray(end),
+  ]);
 }
 
 /** A real 24 × 12 JPEG. */

@@ -63,7 +63,9 @@ export async function createTestApp(overrides: Record<string, string> = {}): Pro
 
 /** Empties every table the app writes (the schema stays). */
 export async function resetDb(db: Knex): Promise<void> {
-  await db.raw('TRUNCATE users, organizations, memberships, invitations, password_resets, sign_up_requests, projects, sweep_results, rate_limit_hits, "session" CASCADE');
+  await db.raw(
+    'TRUNCATE users, organizations, memberships, invitations, password_resets, sign_up_requests, projects, sweep_results, rate_limit_hits, "session" CASCADE',
+  );
 }
 
 export const PASSWORD = 'correct horse battery';

@@ -15,7 +15,14 @@ export interface AuditRow {
 
 export async function insertEvent(
   db: Knex,
-  values: { organizationId: string | null; userId: string | null; actorEmail: string | null; type: string; detail: unknown; ip: string | null },
+  values: {
+    organizationId: string | null;
+    userId: string | null;
+    actorEmail: string | null;
+    type: string;
+    detail: unknown;
+    ip: string | null;
+  },
 ): Promise<void> {
   await db('audit_events').insert({
     organization_id: values.organizationId,
@@ -28,7 +35,12 @@ export async function insertEvent(
 }
 
 /** The latest 200 events of the organisation, and the account events (`personalTypes`) of these users. */
-export function recentEvents(db: Knex, organizationId: string, userIds: readonly string[], personalTypes: readonly string[]): Promise<AuditRow[]> {
+export function recentEvents(
+  db: Knex,
+  organizationId: string,
+  userIds: readonly string[],
+  personalTypes: readonly string[],
+): Promise<AuditRow[]> {
   return db('audit_events as a')
     .where('a.organization_id', organizationId)
     .orWhere((q) => q.whereNull('a.organization_id').whereIn('a.type', personalTypes).whereIn('a.user_id', userIds))

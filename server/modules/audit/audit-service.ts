@@ -55,7 +55,10 @@ const PERSONAL_TYPES = ['sign_in', 'sign_in_failed', 'sign_out_everywhere', 'pas
 /** The organisation's latest events, each with who did it. */
 export async function recentEvents(db: Knex, organizationId: string) {
   const rows = await repo.recentEvents(db, organizationId, await memberUserIds(db, organizationId), PERSONAL_TYPES);
-  const people = await contactsByIds(db, rows.flatMap((r) => (r.user_id ? [r.user_id] : [])));
+  const people = await contactsByIds(
+    db,
+    rows.flatMap((r) => (r.user_id ? [r.user_id] : [])),
+  );
   return rows.map((r) => ({
     id: r.public_id,
     type: r.type,
@@ -63,6 +66,9 @@ export async function recentEvents(db: Knex, organizationId: string) {
     ip: r.ip,
     at: r.created_at.toISOString(),
     // Events without a person (the payment provider's confirmations) name where they came from.
-    who: (r.user_id ? people.get(r.user_id)?.name : undefined) ?? r.actor_email ?? (r.type === 'plan_changed' ? 'The payment provider' : 'The system'),
+    who:
+      (r.user_id ? people.get(r.user_id)?.name : undefined) ??
+      r.actor_email ??
+      (r.type === 'plan_changed' ? 'The payment provider' : 'The system'),
   }));
 }

@@ -30,9 +30,22 @@ export async function insertSignUp(
 }
 
 /** The unused, unexpired sign-up request with this token hash. */
-export function findUsableSignUp(db: Knex, tokenHash: string, options: { lock?: boolean } = {}): Promise<SignUpRow | undefined> {
-  const query = db('sign_up_requests').where({ token_hash: tokenHash }).whereNull('used_at').where('expires_at', '>', db.fn.now());
-  return (options.lock ? query.forUpdate() : query).first<SignUpRow | undefined>('id', 'email', 'name', 'organization_name', 'expires_at');
+export function findUsableSignUp(
+  db: Knex,
+  tokenHash: string,
+  options: { lock?: boolean } = {},
+): Promise<SignUpRow | undefined> {
+  const query = db('sign_up_requests')
+    .where({ token_hash: tokenHash })
+    .whereNull('used_at')
+    .where('expires_at', '>', db.fn.now());
+  return (options.lock ? query.forUpdate() : query).first<SignUpRow | undefined>(
+    'id',
+    'email',
+    'name',
+    'organization_name',
+    'expires_at',
+  );
 }
 
 /** Every open request for the address ends (with the account it made). */
@@ -40,12 +53,22 @@ export async function closeSignUpsFor(db: Knex, email: string): Promise<void> {
   await db('sign_up_requests').where({ email }).whereNull('used_at').update({ used_at: db.fn.now() });
 }
 
-export async function insertPasswordReset(db: Knex, values: { userId: string; tokenHash: string; expiresAt: Date }): Promise<void> {
-  await db('password_resets').insert({ user_id: values.userId, token_hash: values.tokenHash, expires_at: values.expiresAt });
+export async function insertPasswordReset(
+  db: Knex,
+  values: { userId: string; tokenHash: string; expiresAt: Date },
+): Promise<void> {
+  await db('password_resets').insert({
+    user_id: values.userId,
+    token_hash: values.tokenHash,
+    expires_at: values.expiresAt,
+  });
 }
 
 /** The unused, unexpired password reset with this token hash, locked for the caller's transaction. */
-export function lockUsableReset(trx: Knex.Transaction, tokenHash: string): Promise<{ id: string; user_id: string } | undefined> {
+export function lockUsableReset(
+  trx: Knex.Transaction,
+  tokenHash: string,
+): Promise<{ id: string; user_id: string } | undefined> {
   return trx('password_resets')
     .where({ token_hash: tokenHash })
     .whereNull('used_at')

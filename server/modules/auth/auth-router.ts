@@ -20,7 +20,11 @@ import * as accounts from './auth-service';
 import { logIn, saveSession, sessionView, startSession } from './session-view';
 import type { UserRecord } from './users-repo';
 
-const INVALID_CREDENTIALS = new HttpError(401, 'invalid_credentials', 'That e-mail and password do not match an account');
+const INVALID_CREDENTIALS = new HttpError(
+  401,
+  'invalid_credentials',
+  'That e-mail and password do not match an account',
+);
 
 function authenticateLocal(auth: passport.Authenticator, req: Request, res: Response): Promise<UserRecord | false> {
   return new Promise((resolve, reject) => {
@@ -61,7 +65,12 @@ export function authRouter(db: Knex, config: Config, mailer: Mailer, auth: passp
     const { password } = finishSignUpSchema.parse(req.body);
     const created = await accounts.finishSignUp(db, req.params['token'], password);
     await startSession(req, created.user, created.organizationId);
-    await audit(db, req, { type: 'account_created', organizationId: created.organizationId, userId: created.user.id, actorEmail: created.user.email });
+    await audit(db, req, {
+      type: 'account_created',
+      organizationId: created.organizationId,
+      userId: created.user.id,
+      actorEmail: created.user.email,
+    });
     req.log.info({ userId: created.user.id }, 'account created');
     res.status(201).json(await sessionView(db, req, devOutbox));
   });
@@ -106,7 +115,9 @@ export function authRouter(db: Knex, config: Config, mailer: Mailer, auth: passp
   router.post('/auth/password-resets', async (req, res) => {
     const { email } = passwordResetRequestSchema.parse(req.body);
     await accounts.requestPasswordReset({ db, config, mailer }, req, email);
-    res.status(202).json({ message: 'If an account exists for that address, we have e-mailed a link to reset its password' });
+    res
+      .status(202)
+      .json({ message: 'If an account exists for that address, we have e-mailed a link to reset its password' });
   });
 
   router.post('/auth/password-resets/:token', async (req, res) => {

@@ -23,7 +23,11 @@ export const SIGN_UP_LINK_HOURS = 24;
 
 /** The unused, unexpired sign-up request of a link, or 400 `invalid_sign_up_link`. */
 async function usableSignUp(db: Knex, token: unknown, options: { lock?: boolean } = {}): Promise<repo.SignUpRow> {
-  const invalid = new HttpError(400, 'invalid_sign_up_link', 'This link is not valid any more: it has been used or has expired. Start again to get a new one.');
+  const invalid = new HttpError(
+    400,
+    'invalid_sign_up_link',
+    'This link is not valid any more: it has been used or has expired. Start again to get a new one.',
+  );
   const parsed = linkTokenSchema.safeParse(token);
   if (!parsed.success) throw invalid;
   const row = await repo.findUsableSignUp(db, hashLinkToken(parsed.data), options);
@@ -47,7 +51,13 @@ export async function startSignUp(
   const expiresAt = new Date(Date.now() + SIGN_UP_LINK_HOURS * 3_600_000);
   const exists = await db.transaction(async (trx) => {
     await repo.pruneSignUps(trx);
-    await repo.insertSignUp(trx, { email: input.email, name: input.name, organizationName: input.organizationName ?? null, tokenHash: hash, expiresAt });
+    await repo.insertSignUp(trx, {
+      email: input.email,
+      name: input.name,
+      organizationName: input.organizationName ?? null,
+      tokenHash: hash,
+      expiresAt,
+    });
     return users.emailExists(trx, input.email);
   });
   const mail = exists
@@ -70,11 +80,20 @@ export async function startSignUp(
 /** What a sign-up link is for (the address, name and organisation), to show before the password is chosen. */
 export async function pendingSignUp(db: Knex, token: unknown): Promise<PendingSignUp> {
   const row = await usableSignUp(db, token);
-  return { email: row.email, name: row.name, organizationName: row.organization_name, expiresAt: row.expires_at.toISOString() };
+  return {
+    email: row.email,
+    name: row.name,
+    organizationName: row.organization_name,
+    expiresAt: row.expires_at.toISOString(),
+  };
 }
 
 /** Finishes a new account with its password: the account and its organisation. */
-export async function finishSignUp(db: Knex, token: unknown, password: string): Promise<{ user: users.UserRecord; organizationId: string }> {
+export async function finishSignUp(
+  db: Knex,
+  token: unknown,
+  password: string,
+): Promise<{ user: users.UserRecord; organizationId: string }> {
   await usableSignUp(db, token);
   const passwordHash = await hashPassword(password);
   return db
@@ -100,11 +119,20 @@ export async function auditFailedSignIn(db: Knex, req: Request, email: string): 
 /** Ends every session of the user, on every device (audited). */
 export async function signOutEverywhere(db: Knex, req: Request, user: users.UserRecord): Promise<void> {
   const ended = await repo.deleteSessionsOf(db, user.id);
-  await audit(db, req, { type: 'sign_out_everywhere', userId: user.id, actorEmail: user.email, detail: { sessions: ended } });
+  await audit(db, req, {
+    type: 'sign_out_everywhere',
+    userId: user.id,
+    actorEmail: user.email,
+    detail: { sessions: ended },
+  });
 }
 
 /** E-mails a reset link when the address has an account; does the same visible work either way. */
-export async function requestPasswordReset(deps: { db: Knex; config: Config; mailer: Mailer }, req: Request, email: string): Promise<void> {
+export async function requestPasswordReset(
+  deps: { db: Knex; config: Config; mailer: Mailer },
+  req: Request,
+  email: string,
+): Promise<void> {
   const { db, config, mailer } = deps;
   const found = await users.findByEmailWithHash(db, email);
   if (!found) return;

@@ -88,9 +88,16 @@ export async function update(
 }
 
 /** The name and e-mail address of each of these users that still has an account, by id. */
-export async function contactsByIds(db: Knex, ids: readonly string[]): Promise<Map<string, { name: string; email: string }>> {
+export async function contactsByIds(
+  db: Knex,
+  ids: readonly string[],
+): Promise<Map<string, { name: string; email: string }>> {
   const wanted = [...new Set(ids)];
-  const rows = wanted.length ? await db('users').whereIn('id', wanted).select<{ id: string; name: string; email: string }[]>('id', 'name', 'email') : [];
+  const rows = wanted.length
+    ? await db('users')
+        .whereIn('id', wanted)
+        .select<{ id: string; name: string; email: string }[]>('id', 'name', 'email')
+    : [];
   return new Map(rows.map((r) => [r.id, { name: r.name, email: r.email }]));
 }
 

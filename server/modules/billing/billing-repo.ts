@@ -23,22 +23,34 @@ export async function ensureAccount(db: Knex, organizationId: string): Promise<A
 
 /** The plan and status of the organisation's account, when it has one. */
 export function findPlan(db: Knex, organizationId: string): Promise<{ plan: string; status: string } | undefined> {
-  return db('billing_accounts').where({ organization_id: organizationId }).first<{ plan: string; status: string } | undefined>('plan', 'status');
+  return db('billing_accounts')
+    .where({ organization_id: organizationId })
+    .first<{ plan: string; status: string } | undefined>('plan', 'status');
 }
 
 export async function setCustomer(db: Knex, organizationId: string, customerId: string): Promise<void> {
-  await db('billing_accounts').where({ organization_id: organizationId }).update({ customer_id: customerId, updated_at: db.fn.now() });
+  await db('billing_accounts')
+    .where({ organization_id: organizationId })
+    .update({ customer_id: customerId, updated_at: db.fn.now() });
 }
 
 export async function organizationOfCustomer(db: Knex, customerId: string): Promise<string | null> {
-  const row = await db('billing_accounts').where({ customer_id: customerId }).first<{ organization_id: string } | undefined>('organization_id');
+  const row = await db('billing_accounts')
+    .where({ customer_id: customerId })
+    .first<{ organization_id: string } | undefined>('organization_id');
   return row?.organization_id ?? null;
 }
 
 /** The account's plan and status before a change, locked for the caller's transaction (made first if missing). */
-export async function lockAccount(trx: Knex.Transaction, organizationId: string): Promise<{ plan: string; status: string }> {
+export async function lockAccount(
+  trx: Knex.Transaction,
+  organizationId: string,
+): Promise<{ plan: string; status: string }> {
   await trx('billing_accounts').insert({ organization_id: organizationId }).onConflict('organization_id').ignore();
-  return trx('billing_accounts').where({ organization_id: organizationId }).forUpdate().first<{ plan: string; status: string }>('plan', 'status');
+  return trx('billing_accounts')
+    .where({ organization_id: organizationId })
+    .forUpdate()
+    .first<{ plan: string; status: string }>('plan', 'status');
 }
 
 export async function updateSubscription(
@@ -67,7 +79,10 @@ export async function updateSubscription(
 }
 
 /** The organisation's latest 20 provider events. */
-export function recentEvents(db: Knex, organizationId: string): Promise<{ id: string; type: string; outcome: string; received_at: Date }[]> {
+export function recentEvents(
+  db: Knex,
+  organizationId: string,
+): Promise<{ id: string; type: string; outcome: string; received_at: Date }[]> {
   return db('billing_events')
     .where({ organization_id: organizationId })
     .orderBy('received_at', 'desc')
@@ -76,15 +91,29 @@ export function recentEvents(db: Knex, organizationId: string): Promise<{ id: st
 }
 
 /** Records an event the first time it arrives; false for one already recorded. */
-export async function recordEvent(db: Knex, event: { id: string; type: string; created: number; payload: unknown }): Promise<boolean> {
+export async function recordEvent(
+  db: Knex,
+  event: { id: string; type: string; created: number; payload: unknown },
+): Promise<boolean> {
   const inserted = await db('billing_events')
-    .insert({ id: event.id, type: event.type, provider_created: event.created, outcome: 'received', payload: JSON.stringify(event.payload) })
+    .insert({
+      id: event.id,
+      type: event.type,
+      provider_created: event.created,
+      outcome: 'received',
+      payload: JSON.stringify(event.payload),
+    })
     .onConflict('id')
     .ignore()
     .returning<{ id: string }[]>('id');
   return inserted.length > 0;
 }
 
-export async function setEventOutcome(db: Knex, id: string, outcome: string, organizationId: string | null): Promise<void> {
+export async function setEventOutcome(
+  db: Knex,
+  id: string,
+  outcome: string,
+  organizationId: string | null,
+): Promise<void> {
   await db('billing_events').where({ id }).update({ outcome, organization_id: organizationId });
 }

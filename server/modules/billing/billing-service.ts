@@ -6,7 +6,13 @@
  */
 import type { Knex } from 'knex';
 import Stripe from 'stripe';
-import { billingSchema, planOfPrice, priceId, type Billing, type SubscriptionStatus } from '@shared/billing/billing-schemas';
+import {
+  billingSchema,
+  planOfPrice,
+  priceId,
+  type Billing,
+  type SubscriptionStatus,
+} from '@shared/billing/billing-schemas';
 import type { Config } from '../../config';
 import { HttpError } from '../../http/http-error';
 import { audit } from '../audit/audit-service';
@@ -26,7 +32,11 @@ export function stripeClient(config: Config): Stripe {
 }
 
 const providerDown = (err: unknown) =>
-  new HttpError(502, 'provider_unavailable', `The payment provider could not be reached; try again in a moment (${err instanceof Error ? err.message : String(err)})`);
+  new HttpError(
+    502,
+    'provider_unavailable',
+    `The payment provider could not be reached; try again in a moment (${err instanceof Error ? err.message : String(err)})`,
+  );
 
 const statusOf = (s: string): SubscriptionStatus =>
   s === 'active' || s === 'trialing' || s === 'past_due' || s === 'canceled'
@@ -52,15 +62,29 @@ export function billingService(db: Knex, config: Config) {
       currentPeriodEnd: a.current_period_end ? a.current_period_end.toISOString() : null,
       cancelAtPeriodEnd: a.cancel_at_period_end,
       hasCustomer: a.customer_id !== null,
-      events: events.map((e) => ({ id: e.id, type: e.type, outcome: e.outcome, receivedAt: e.received_at.toISOString() })),
+      events: events.map((e) => ({
+        id: e.id,
+        type: e.type,
+        outcome: e.outcome,
+        receivedAt: e.received_at.toISOString(),
+      })),
     });
   }
 
   /** The provider's checkout page for a plan (409 when the organisation already pays for one). */
-  async function checkout(organizationId: string, email: string, plan: Parameters<typeof priceId>[0], interval: Parameters<typeof priceId>[1]): Promise<{ url: string }> {
+  async function checkout(
+    organizationId: string,
+    email: string,
+    plan: Parameters<typeof priceId>[0],
+    interval: Parameters<typeof priceId>[1],
+  ): Promise<{ url: string }> {
     const a = await repo.ensureAccount(db, organizationId);
     if (a.subscription_id && (a.status === 'active' || a.status === 'trialing' || a.status === 'past_due')) {
-      throw new HttpError(409, 'already_subscribed', 'This organisation already has a subscription; change or cancel it through Manage billing');
+      throw new HttpError(
+        409,
+        'already_subscribed',
+        'This organisation already has a subscription; change or cancel it through Manage billing',
+      );
     }
     let customerId = a.customer_id;
     try {
@@ -91,7 +115,10 @@ export function billingService(db: Knex, config: Config) {
     const a = await repo.ensureAccount(db, organizationId);
     if (!a.customer_id) throw new HttpError(409, 'no_customer', 'There is no billing account yet: choose a plan first');
     try {
-      const session = await stripe.billingPortal.sessions.create({ customer: a.customer_id, return_url: `${config.publicUrl}/billing` });
+      const session = await stripe.billingPortal.sessions.create({
+        customer: a.customer_id,
+        return_url: `${config.publicUrl}/billing`,
+      });
       return { url: session.url };
     } catch (err) {
       throw providerDown(err);
@@ -101,7 +128,8 @@ export function billingService(db: Knex, config: Config) {
   /** Asks the provider to end the subscription at the end of the paid period; the plan changes when it confirms. */
   async function cancel(organizationId: string): Promise<void> {
     const a = await repo.ensureAccount(db, organizationId);
-    if (!a.subscription_id || a.status === 'canceled' || a.status === 'none') throw new HttpError(409, 'no_subscription', 'There is no subscription to cancel');
+    if (!a.subscription_id || a.status === 'canceled' || a.status === 'none')
+      throw new HttpError(409, 'no_subscription', 'There is no subscription to cancel');
     try {
       await stripe.subscriptions.update(a.subscription_id, { cancel_at_period_end: true });
     } catch (err) {
@@ -111,12 +139,16 @@ export function billingService(db: Knex, config: Config) {
 
   // --- Webhook -----------------------------------------------------------------------------
 
-  async function applySubscription(trx: Knex.Transaction, sub: Stripe.Subscription): Promise<{ organizationId: string | null; outcome: string }> {
+  async function applySubscription(
+    trx: Knex.Transaction,
+    sub: Stripe.Subscription,
+  ): Promise<{ organizationId: string | null; outcome: string }> {
     const customerId = typeof sub.customer === 'string' ? sub.customer : sub.customer.id;
     let organizationId = sub.metadata['organization_id'] ?? null;
     organizationId ??= await repo.organizationOfCustomer(trx, customerId);
     if (!organizationId) return { organizationId: null, outcome: 'ignored: no organisation for this customer' };
-    if (!(await existingOrganizations(trx, [organizationId])).has(organizationId)) return { organizationId: null, outcome: 'ignored: unknown organisation' };
+    if (!(await existingOrganizations(trx, [organizationId])).has(organizationId))
+      return { organizationId: null, outcome: 'ignored: unknown organisation' };
     const item = sub.items.data[0];
     const priced = item ? planOfPrice(item.price.id) : null;
     if (!priced) return { organizationId, outcome: `ignored: unknown price ${item?.price.id ?? ''}` };
@@ -133,9 +165,16 @@ export function billingService(db: Knex, config: Config) {
       cancelAtPeriodEnd: sub.cancel_at_period_end,
     });
     if (before.plan !== plan || before.status !== status) {
-      await audit(trx, null, { type: 'plan_changed', organizationId, detail: { from: `${before.plan} ${before.status}`, to: `${plan} ${status}` } });
+      await audit(trx, null, {
+        type: 'plan_changed',
+        organizationId,
+        detail: { from: `${before.plan} ${before.status}`, to: `${plan} ${status}` },
+      });
     }
-    return { organizationId, outcome: `applied: ${priced.plan} ${status}${sub.cancel_at_period_end ? ', ends at period end' : ''}` };
+    return {
+      organizationId,
+      outcome: `applied: ${priced.plan} ${status}${sub.cancel_at_period_end ? ', ends at period end' : ''}`,
+    };
   }
 
   /** The subscription as the provider has it now (the event's copy when the provider no longer knows it). */
@@ -181,12 +220,22 @@ export function billingService(db: Knex, config: Config) {
       throw providerDown(err);
     }
     return db.transaction(async (trx) => {
-      if (!(await repo.recordEvent(trx, { id: event.id, type: event.type, created: event.created, payload: event }))) return 'duplicate: already recorded';
-      const applied = sub ? await applySubscription(trx, sub) : { organizationId: null, outcome: `ignored: ${event.type} is not used` };
+      if (!(await repo.recordEvent(trx, { id: event.id, type: event.type, created: event.created, payload: event })))
+        return 'duplicate: already recorded';
+      const applied = sub
+        ? await applySubscription(trx, sub)
+        : { organizationId: null, outcome: `ignored: ${event.type} is not used` };
       await repo.setEventOutcome(trx, event.id, applied.outcome, applied.organizationId);
       return applied.outcome;
     });
   }
 
-  return { usage: (organizationId: string) => usageOf(db, organizationId), billingOf, checkout, portal, cancel, receiveWebhook };
+  return {
+    usage: (organizationId: string) => usageOf(db, organizationId),
+    billingOf,
+    checkout,
+    portal,
+    cancel,
+    receiveWebhook,
+  };
 }

@@ -7,7 +7,11 @@ import type { Knex } from 'knex';
 import type { Building } from '@shared/building/building-schemas';
 import { findBuilding, projectNotFound, staleProject, updateBuilding } from '../projects/projects-service';
 
-export async function getBuilding(db: Knex, organizationId: string, projectId: string): Promise<{ version: number; building: Building | null }> {
+export async function getBuilding(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+): Promise<{ version: number; building: Building | null }> {
   const row = await findBuilding(db, organizationId, projectId);
   if (!row) throw projectNotFound();
   return { version: row.version, building: row.building };

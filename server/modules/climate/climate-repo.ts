@@ -266,7 +266,9 @@ export async function writeRecord(
       hour_count: packed.hourCount,
       hours: packed.hours,
       ...packed.values,
-      sweep_index: sweepIndex ? Buffer.from(sweepIndex.bytes.buffer, sweepIndex.bytes.byteOffset, sweepIndex.bytes.byteLength) : null,
+      sweep_index: sweepIndex
+        ? Buffer.from(sweepIndex.bytes.buffer, sweepIndex.bytes.byteOffset, sweepIndex.bytes.byteLength)
+        : null,
       sweep_index_key: sweepIndex?.key ?? null,
       stored_at: trx.fn.now(),
     })
@@ -282,7 +284,13 @@ export async function loadRecord(db: Knex, siteId: string): Promise<HourlySeries
   const row = await db('climate_records')
     .where({ climate_site_id: siteId })
     .first<RecordRow | undefined>('hour_count', 'hours', ...VALUE_COLUMNS);
-  if (!row) return unpackRecord(0, Buffer.alloc(0), { dry_bulb_c: Buffer.alloc(0), dew_point_c: Buffer.alloc(0), wind_speed_ms: Buffer.alloc(0), station_pressure_kpa: Buffer.alloc(0) });
+  if (!row)
+    return unpackRecord(0, Buffer.alloc(0), {
+      dry_bulb_c: Buffer.alloc(0),
+      dew_point_c: Buffer.alloc(0),
+      wind_speed_ms: Buffer.alloc(0),
+      station_pressure_kpa: Buffer.alloc(0),
+    });
   return unpackRecord(row.hour_count, row.hours, row);
 }
 
@@ -295,7 +303,10 @@ async function loadSweepIndexBytes(db: Knex, siteId: string, indexKey: string): 
   interface PgConnection {
     query(q: { text: string; values: unknown[]; binary: boolean }): Promise<{ rows: { sweep_index: unknown }[] }>;
   }
-  const client = db.client as { acquireConnection(): Promise<PgConnection>; releaseConnection(c: PgConnection): Promise<void> };
+  const client = db.client as {
+    acquireConnection(): Promise<PgConnection>;
+    releaseConnection(c: PgConnection): Promise<void>;
+  };
   const connection = await client.acquireConnection();
   try {
     const { rows } = await connection.query({
@@ -324,16 +335,24 @@ export async function loadRecordForSweep(
   const fresh = 'sweep_index IS NOT NULL AND sweep_index_key = ?';
   const row = await db('climate_records')
     .where({ climate_site_id: siteId })
-    .first<({ index: Buffer | null; hour_count: number; hours: Buffer | null } & Record<ValueColumn, Buffer | null>) | undefined>(
+    .first<
+      | ({ index: Buffer | null; hour_count: number; hours: Buffer | null } & Record<ValueColumn, Buffer | null>)
+      | undefined
+    >(
       db.raw(`CASE WHEN ${fresh} THEN sweep_index END AS index`, [indexKey]),
       'hour_count',
-      ...['hours', ...VALUE_COLUMNS].map((c) => db.raw(`CASE WHEN ${fresh} THEN NULL ELSE ?? END AS ??`, [indexKey, c, c])),
+      ...['hours', ...VALUE_COLUMNS].map((c) =>
+        db.raw(`CASE WHEN ${fresh} THEN NULL ELSE ?? END AS ??`, [indexKey, c, c]),
+      ),
     );
   if (!row) return undefined;
   if (row.index) return { index: row.index };
   const { hours, dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa } = row;
-  if (!hours || !dry_bulb_c || !dew_point_c || !wind_speed_ms || !station_pressure_kpa) throw new Error('climate record without columns');
-  return { series: unpackRecord(row.hour_count, hours, { dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa }) };
+  if (!hours || !dry_bulb_c || !dew_point_c || !wind_speed_ms || !station_pressure_kpa)
+    throw new Error('climate record without columns');
+  return {
+    series: unpackRecord(row.hour_count, hours, { dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa }),
+  };
 }
 
 export interface StoredComputation {
@@ -386,8 +405,13 @@ export async function siteBelongsTo(db: Knex, organizationId: string, id: string
 }
 
 /** The file name and row count of the record a site's stored conditions were computed from. */
-export function computationSource(db: Knex, siteId: string): Promise<{ file_name: string | null; row_count: number } | undefined> {
-  return db('design_conditions').where({ climate_site_id: siteId }).first<{ file_name: string | null; row_count: number } | undefined>('file_name', 'row_count');
+export function computationSource(
+  db: Knex,
+  siteId: string,
+): Promise<{ file_name: string | null; row_count: number } | undefined> {
+  return db('design_conditions')
+    .where({ climate_site_id: siteId })
+    .first<{ file_name: string | null; row_count: number } | undefined>('file_name', 'row_count');
 }
 
 /** The tables this area owns: no other area names them (tests/api/module-tables.test.ts). */

@@ -29,7 +29,9 @@ const MULTIPART_SLACK_BYTES = 1024 * 1024;
 const declaredSizeCheck: RequestHandler = (req, _res, next) => {
   const declared = Number(req.headers['content-length']);
   if (Number.isFinite(declared) && declared > CLIMATE_UPLOAD_MAX_BYTES + MULTIPART_SLACK_BYTES) {
-    next(new HttpError(413, 'file_too_large', `An upload can hold at most ${CLIMATE_UPLOAD_MAX_BYTES / 1024 / 1024} MB`));
+    next(
+      new HttpError(413, 'file_too_large', `An upload can hold at most ${CLIMATE_UPLOAD_MAX_BYTES / 1024 / 1024} MB`),
+    );
     return;
   }
   next();
@@ -104,7 +106,9 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
         try {
           raw = JSON.parse(fields.mapping);
         } catch {
-          throw new HttpError(400, 'invalid_input', 'The column mapping is not valid JSON', [{ path: 'mapping', message: 'Not valid JSON' }]);
+          throw new HttpError(400, 'invalid_input', 'The column mapping is not valid JSON', [
+            { path: 'mapping', message: 'Not valid JSON' },
+          ]);
         }
         // JSON escapes (\u0000, \ud800) reach the text only now: check it again, under the field's name.
         safeRequestTextSchema.parse({ mapping: raw });
@@ -112,7 +116,14 @@ export function climateRouter(db: Knex, uploads: UploadPool): Router {
       }
       const { organizationId, user } = orgContext(req);
       const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-      const answer = await uploadsService.receiveUpload(db, uploads, { organizationId, userId: user.id }, siteId, files, { format: fields.format, mapping });
+      const answer = await uploadsService.receiveUpload(
+        db,
+        uploads,
+        { organizationId, userId: user.id },
+        siteId,
+        files,
+        { format: fields.format, mapping },
+      );
       res.status(201).location(`/api/v1/climate-uploads/${answer.id}`).json(answer);
     },
   );

@@ -7,7 +7,11 @@ import {
   type RecordWindow,
   type SiteEstimate,
 } from '@shared/climate/climate-schemas';
-import { computeDesignConditions, computeFromPrepared, type DesignConditionsResult } from '@shared/climate/design-conditions';
+import {
+  computeDesignConditions,
+  computeFromPrepared,
+  type DesignConditionsResult,
+} from '@shared/climate/design-conditions';
 import { METHOD_VERSION, type DesignConditions } from '@shared/climate/design-conditions-schema';
 import { latestYearsSeries, RECENT_WINDOWS } from '@shared/climate/record-window';
 import { SHIFT_STRETCH_VERSION, shiftAndStretch } from '@shared/climate/shift-stretch';
@@ -48,7 +52,11 @@ export function qualitySummary(q: QualityReport): QualitySummary {
     completeness: q.completeness.map((y) => ({ ...y })),
     gaps: q.gaps,
     duplicates: q.duplicates,
-    outOfRange: { count: q.outOfRange.count, byField: { ...q.outOfRange.byField }, first: q.outOfRange.first.map((o) => ({ ...o })) },
+    outOfRange: {
+      count: q.outOfRange.count,
+      byField: { ...q.outOfRange.byField },
+      first: q.outOfRange.first.map((o) => ({ ...o })),
+    },
   };
 }
 
@@ -71,10 +79,15 @@ export function storedComputation(
 }
 
 /** The sweep index of a record over the given years, packed for storing beside it. */
-export function storedSweepIndex(record: HourlySeries | PreparedSeries, qualifyingYears: readonly number[]): repo.StoredSweepIndex {
+export function storedSweepIndex(
+  record: HourlySeries | PreparedSeries,
+  qualifyingYears: readonly number[],
+): repo.StoredSweepIndex {
   return {
     key: sweepIndexKey(qualifyingYears),
-    bytes: packSweepIndex(buildSweepIndex('hour' in record ? { prepared: record, qualifyingYears } : { series: record, qualifyingYears })),
+    bytes: packSweepIndex(
+      buildSweepIndex('hour' in record ? { prepared: record, qualifyingYears } : { series: record, qualifyingYears }),
+    ),
   };
 }
 
@@ -97,7 +110,11 @@ export async function storeRecord(
   const current =
     computed?.methodVersion === METHOD_VERSION ? computed : storedComputation(analyse(series, elevationM), source);
   if (!current) {
-    throw new HttpError(422, 'no_qualifying_years', 'No year of the record has enough valid hours (85 %). Nothing was stored.');
+    throw new HttpError(
+      422,
+      'no_qualifying_years',
+      'No year of the record has enough valid hours (85 %). Nothing was stored.',
+    );
   }
   const years = current.conditions.period.qualifyingYears;
   const index = sweepIndex?.key === sweepIndexKey(years) ? sweepIndex : storedSweepIndex(series, years);
@@ -110,7 +127,10 @@ export async function recompute(trx: Knex.Transaction, siteId: string, elevation
   const current = await repo.computationSource(trx, siteId);
   if (!current) return;
   const series = await repo.loadRecord(trx, siteId);
-  const computed = storedComputation(analyse(series, elevationM), { fileName: current.file_name, rowCount: current.row_count });
+  const computed = storedComputation(analyse(series, elevationM), {
+    fileName: current.file_name,
+    rowCount: current.row_count,
+  });
   if (computed) await repo.saveComputation(trx, siteId, computed);
 }
 
@@ -119,16 +139,23 @@ export async function recompute(trx: Knex.Transaction, siteId: string, elevation
  * (docs/methods.md#shift-and-stretch) and stores it as the site's record, with its provenance, inside
  * the caller's transaction. A refused adjustment answers 422 and stores nothing.
  */
-export async function estimateRecord(trx: Knex.Transaction, organizationId: string, siteId: string, referenceSiteId: string): Promise<void> {
+export async function estimateRecord(
+  trx: Knex.Transaction,
+  organizationId: string,
+  siteId: string,
+  referenceSiteId: string,
+): Promise<void> {
   const site = await repo.findSite(trx, organizationId, siteId);
   if (!site) throw new HttpError(404, 'not_found', 'That climate site was not found');
-  const refuse = (message: string) => new HttpError(422, 'estimate_refused', message, [{ path: 'referenceSiteId', message }]);
+  const refuse = (message: string) =>
+    new HttpError(422, 'estimate_refused', message, [{ path: 'referenceSiteId', message }]);
   if (site.sourceKind !== 'published' || !site.publishedValues) {
     throw new HttpError(422, 'not_published', 'Only a site with published values takes an estimated record', [
       { path: 'siteId', message: 'This site has its own hourly record' },
     ]);
   }
-  if (referenceSiteId === siteId) throw refuse('A site cannot be its own reference; choose a site with an hourly record');
+  if (referenceSiteId === siteId)
+    throw refuse('A site cannot be its own reference; choose a site with an hourly record');
   const reference = await repo.findSite(trx, organizationId, referenceSiteId);
   if (!reference) throw refuse('That reference site was not found');
   if (reference.sourceKind !== 'hourly' || !reference.computed) {
@@ -169,7 +196,9 @@ export function estimateIsStale(site: ClimateSite, reference: ClimateSite | unde
     e.matched.db99_6 !== site.publishedValues.heating.db99_6 ||
     e.matched.hdd18 !== (site.publishedValues.hdd18 ?? null) ||
     e.label !== estimateLabel(e.referenceSiteName, site.name) ||
-    (reference?.computed !== null && reference?.computed !== undefined && reference.computed.computedAt !== e.referenceComputedAt)
+    (reference?.computed !== null &&
+      reference?.computed !== undefined &&
+      reference.computed.computedAt !== e.referenceComputedAt)
   );
 }
 
@@ -178,7 +207,11 @@ export function estimateIsStale(site: ClimateSite, reference: ClimateSite | unde
  * reference. A site whose estimate the new record refuses keeps its stored one (a refusal is decided
  * before anything is written) and shows it as made from the reference's earlier record.
  */
-export async function refreshEstimatesFrom(trx: Knex.Transaction, organizationId: string, referenceSiteId: string): Promise<void> {
+export async function refreshEstimatesFrom(
+  trx: Knex.Transaction,
+  organizationId: string,
+  referenceSiteId: string,
+): Promise<void> {
   for (const id of await repo.sitesEstimatedFrom(trx, organizationId, referenceSiteId)) {
     try {
       await estimateRecord(trx, organizationId, id, referenceSiteId);
@@ -195,7 +228,8 @@ function windowOf(conditions: DesignConditions, latestYears: number | null): Rec
   return {
     latestYears,
     firstYear: conditions.period.qualifyingYears[0] ?? conditions.period.firstYear,
-    lastYear: conditions.period.qualifyingYears[conditions.period.qualifyingYears.length - 1] ?? conditions.period.lastYear,
+    lastYear:
+      conditions.period.qualifyingYears[conditions.period.qualifyingYears.length - 1] ?? conditions.period.lastYear,
     qualifyingYearCount: conditions.period.qualifyingYears.length,
     heating: conditions.heating,
     extremeMinMean: conditions.extremeMin.mean,
@@ -246,7 +280,12 @@ export async function requireSite(db: Knex, organizationId: string, siteId: stri
   return site;
 }
 
-export async function createSite(db: Knex, organizationId: string, userId: string, input: repo.SiteWrite & { name: string; sourceKind: ClimateSite['sourceKind'] }): Promise<{ id: string; site: ClimateSite | undefined }> {
+export async function createSite(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  input: repo.SiteWrite & { name: string; sourceKind: ClimateSite['sourceKind'] },
+): Promise<{ id: string; site: ClimateSite | undefined }> {
   const id = await repo.insertSite(db, organizationId, userId, input);
   return { id, site: await repo.findSite(db, organizationId, id) };
 }
@@ -273,7 +312,12 @@ export async function currentSite(db: Knex, organizationId: string, siteId: stri
   return site;
 }
 
-export async function estimateSite(db: Knex, organizationId: string, siteId: string, referenceSiteId: string): Promise<ClimateSite | undefined> {
+export async function estimateSite(
+  db: Knex,
+  organizationId: string,
+  siteId: string,
+  referenceSiteId: string,
+): Promise<ClimateSite | undefined> {
   await requireSite(db, organizationId, siteId);
   await db.transaction((trx) => estimateRecord(trx, organizationId, siteId, referenceSiteId));
   return repo.findSite(db, organizationId, siteId);
@@ -285,7 +329,12 @@ export async function siteRecentYears(db: Knex, organizationId: string, siteId: 
   return answer;
 }
 
-export async function patchSite(db: Knex, organizationId: string, siteId: string, patch: repo.SiteWrite): Promise<ClimateSite | undefined> {
+export async function patchSite(
+  db: Knex,
+  organizationId: string,
+  siteId: string,
+  patch: repo.SiteWrite,
+): Promise<ClimateSite | undefined> {
   await db.transaction(async (trx) => {
     const before = await repo.findSite(trx, organizationId, siteId);
     if (!before) throw siteNotFound();
@@ -317,7 +366,11 @@ export async function deleteSite(db: Knex, organizationId: string, siteId: strin
   if (!(await repo.deleteSite(db, organizationId, siteId))) throw siteNotFound();
 }
 
-export async function siteChartData(db: Knex, organizationId: string, siteId: string): Promise<NonNullable<Awaited<ReturnType<typeof repo.chartData>>>> {
+export async function siteChartData(
+  db: Knex,
+  organizationId: string,
+  siteId: string,
+): Promise<NonNullable<Awaited<ReturnType<typeof repo.chartData>>>> {
   const data = await repo.chartData(db, organizationId, siteId);
   if (!data) {
     await requireSite(db, organizationId, siteId);

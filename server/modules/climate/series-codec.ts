@@ -26,7 +26,12 @@ export function decodeSeries(buf: Buffer): HourlySeries {
   const copy = new Uint8Array(buf.subarray(4)); // aligned copy
   const time = new Float64Array(copy.buffer, 0, n);
   const columns = [0, 1, 2, 3].map((k) => Float64Array.from(new Float32Array(copy.buffer, n * 8 + k * n * 4, n)));
-  const [dryBulbC, dewPointC, windSpeedMs, stationPressureKpa] = columns as [Float64Array, Float64Array, Float64Array, Float64Array];
+  const [dryBulbC, dewPointC, windSpeedMs, stationPressureKpa] = columns as [
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+  ];
   return { time: Float64Array.from(time), dryBulbC, dewPointC, windSpeedMs, stationPressureKpa };
 }
 

@@ -35,7 +35,11 @@ export function createUploadPool(options: { max: number; perOrganization: number
   let running = 0;
 
   const busy = () =>
-    new HttpError(503, 'uploads_busy', `Too many weather files are waiting to be read; try again in ${RETRY_AFTER_S} seconds`);
+    new HttpError(
+      503,
+      'uploads_busy',
+      `Too many weather files are waiting to be read; try again in ${RETRY_AFTER_S} seconds`,
+    );
 
   async function take(organizationId: string): Promise<void> {
     let turn = turns.get(organizationId);
@@ -74,7 +78,11 @@ export function createUploadPool(options: { max: number; perOrganization: number
         const transferList = task.files
           .map((f) => f.content.buffer)
           .filter((b): b is ArrayBuffer => b instanceof ArrayBuffer)
-          .filter((b, i, all) => all.indexOf(b) === i && task.files.every((f) => f.content.buffer !== b || f.content.byteLength === b.byteLength));
+          .filter(
+            (b, i, all) =>
+              all.indexOf(b) === i &&
+              task.files.every((f) => f.content.buffer !== b || f.content.byteLength === b.byteLength),
+          );
         return await piscina.run(task, { transferList });
       } catch (err) {
         if (err instanceof Error && /queue is at limit/i.test(err.message)) throw busy();

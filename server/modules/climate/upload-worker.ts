@@ -41,7 +41,10 @@ export type UploadParseResult =
 export default async function parseUpload(task: UploadParseTask): Promise<UploadParseResult> {
   try {
     const { series, format, rowCount } = await readWeatherFiles(
-      task.files.map((f) => ({ name: f.name, content: Buffer.from(f.content.buffer, f.content.byteOffset, f.content.byteLength) })),
+      task.files.map((f) => ({
+        name: f.name,
+        content: Buffer.from(f.content.buffer, f.content.byteOffset, f.content.byteLength),
+      })),
       { format: task.format, mapping: task.mapping },
     );
     const stored = atStoragePrecision(series);
@@ -61,7 +64,8 @@ export default async function parseUpload(task: UploadParseTask): Promise<Upload
       sweepIndex: computed ? storedSweepIndex(analysis.prepared, computed.conditions.period.qualifyingYears) : null,
     };
   } catch (err) {
-    if (err instanceof HttpError) return { ok: false, status: err.status, code: err.code, message: err.message, details: err.details };
+    if (err instanceof HttpError)
+      return { ok: false, status: err.status, code: err.code, message: err.message, details: err.details };
     throw err;
   }
 }

@@ -54,12 +54,25 @@ export async function insertUpload(
 }
 
 /** A parked upload that has not expired, locked for the caller's transaction. */
-export function lockUpload(trx: Knex.Transaction, organizationId: string, uploadId: string): Promise<ParkedUpload | undefined> {
+export function lockUpload(
+  trx: Knex.Transaction,
+  organizationId: string,
+  uploadId: string,
+): Promise<ParkedUpload | undefined> {
   return trx('climate_uploads')
     .where({ id: uploadId, organization_id: organizationId })
     .where('expires_at', '>', trx.fn.now())
     .forUpdate()
-    .first<ParkedUpload | undefined>('climate_site_id', 'series', 'file_name', 'row_count', 'analysis', 'elevation_m', 'sweep_index', 'sweep_index_key');
+    .first<ParkedUpload | undefined>(
+      'climate_site_id',
+      'series',
+      'file_name',
+      'row_count',
+      'analysis',
+      'elevation_m',
+      'sweep_index',
+      'sweep_index_key',
+    );
 }
 
 export async function deleteUploadsOfSite(db: Knex, siteId: string): Promise<void> {

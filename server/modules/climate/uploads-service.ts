@@ -20,7 +20,12 @@ const UPLOAD_HOURS = 24;
  * claims, with / or \\), without control characters, at most 200 characters. Nothing is written to disk.
  */
 export function baseName(claimed: string): string {
-  const last = claimed.split(/[/\\]/).pop()?.replace(/[\u0000-\u001f\u007f]/g, '').trim() ?? '';
+  const last =
+    claimed
+      .split(/[/\\]/)
+      .pop()
+      ?.replace(/[\u0000-\u001f\u007f]/g, '')
+      .trim() ?? '';
   const name = last === '.' || last === '..' ? '' : last.slice(0, 200);
   return name || 'upload';
 }
@@ -41,7 +46,11 @@ export async function receiveUpload(
   }
   const total = files.reduce((s, f) => s + f.size, 0);
   if (total > CLIMATE_UPLOAD_MAX_BYTES) {
-    throw new HttpError(413, 'file_too_large', `An upload can hold at most ${CLIMATE_UPLOAD_MAX_BYTES / 1024 / 1024} MB`);
+    throw new HttpError(
+      413,
+      'file_too_large',
+      `An upload can hold at most ${CLIMATE_UPLOAD_MAX_BYTES / 1024 / 1024} MB`,
+    );
   }
   const names = files.map((f) => baseName(f.originalname));
   // Yearly ISD-Lite files name their station and year: the station becomes the record's source.
@@ -73,7 +82,14 @@ export async function receiveUpload(
     analysis: computed,
     elevationM: site.elevationM,
     sweepIndex: parsed.sweepIndex
-      ? { key: parsed.sweepIndex.key, bytes: Buffer.from(parsed.sweepIndex.bytes.buffer, parsed.sweepIndex.bytes.byteOffset, parsed.sweepIndex.bytes.byteLength) }
+      ? {
+          key: parsed.sweepIndex.key,
+          bytes: Buffer.from(
+            parsed.sweepIndex.bytes.buffer,
+            parsed.sweepIndex.bytes.byteOffset,
+            parsed.sweepIndex.bytes.byteLength,
+          ),
+        }
       : null,
     expiresAt,
   });
@@ -87,7 +103,9 @@ export async function receiveUpload(
     preview: parsed.preview,
     warnings: [
       ...(station && station.missingYears.length > 0
-        ? [`No file for ${station.missingYears.join(', ')} of ISD-Lite station ${station.id}: ${station.missingYears.length === 1 ? 'that year is' : 'those years are'} missing from the record.`]
+        ? [
+            `No file for ${station.missingYears.join(', ')} of ISD-Lite station ${station.id}: ${station.missingYears.length === 1 ? 'that year is' : 'those years are'} missing from the record.`,
+          ]
         : []),
       ...parsed.warnings,
     ],
@@ -97,7 +115,11 @@ export async function receiveUpload(
 }
 
 /** Stores a parked upload as its site's record, in one transaction (404 when it is gone or expired). */
-export async function confirmUpload(db: Knex, organizationId: string, uploadId: string): Promise<ClimateSite | undefined> {
+export async function confirmUpload(
+  db: Knex,
+  organizationId: string,
+  uploadId: string,
+): Promise<ClimateSite | undefined> {
   const siteId = await db.transaction(async (trx) => {
     const up = await uploadsRepo.lockUpload(trx, organizationId, uploadId);
     if (!up) throw new HttpError(404, 'not_found', 'That upload was not found or has expired; upload the file again');
@@ -123,5 +145,6 @@ export async function confirmUpload(db: Knex, organizationId: string, uploadId: 
 }
 
 export async function discardUpload(db: Knex, organizationId: string, uploadId: string): Promise<void> {
-  if (!(await uploadsRepo.deleteUpload(db, organizationId, uploadId))) throw new HttpError(404, 'not_found', 'That upload was not found');
+  if (!(await uploadsRepo.deleteUpload(db, organizationId, uploadId)))
+    throw new HttpError(404, 'not_found', 'That upload was not found');
 }

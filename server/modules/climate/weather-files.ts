@@ -2,7 +2,13 @@ import { StringDecoder } from 'node:string_decoder';
 import { createGunzip } from 'node:zlib';
 import { CLIMATE_UPLOAD_MAX_BYTES } from '@shared/climate/climate-schemas';
 import type { HourlySeries } from '@shared/climate/hourly-series';
-import { createParser, detectFormat, type CsvMapping, type LineParser, type WeatherFileFormat } from '@shared/climate/readers';
+import {
+  createParser,
+  detectFormat,
+  type CsvMapping,
+  type LineParser,
+  type WeatherFileFormat,
+} from '@shared/climate/readers';
 import type { FieldIssue } from '@shared/api/api-error';
 import { HttpError } from '../../http/http-error';
 import { concatSeries } from './series-codec';
@@ -69,7 +75,11 @@ async function* fileChunks(file: WeatherFile): AsyncGenerator<Buffer> {
     for await (const chunk of gunzip as AsyncIterable<Buffer>) {
       unpacked += chunk.length;
       if (unpacked > MAX_UNPACKED_BYTES) {
-        throw new HttpError(413, 'file_too_large', `${file.name} unpacks to more than ${MAX_UNPACKED_BYTES / MB} MB; nothing was stored`);
+        throw new HttpError(
+          413,
+          'file_too_large',
+          `${file.name} unpacks to more than ${MAX_UNPACKED_BYTES / MB} MB; nothing was stored`,
+        );
       }
       yield chunk;
     }
@@ -110,7 +120,8 @@ async function readFile(
   };
   const checkHead = (final: boolean) => {
     if (head.length >= SAMPLE_CHARS || final) {
-      if (head.slice(0, SAMPLE_CHARS).includes('\uFFFD')) throw new HttpError(415, 'unsupported_file', `${file.name} is not UTF-8 text`);
+      if (head.slice(0, SAMPLE_CHARS).includes('\uFFFD'))
+        throw new HttpError(415, 'unsupported_file', `${file.name} is not UTF-8 text`);
       head = '';
       sampled = Infinity;
     }
@@ -118,10 +129,18 @@ async function readFile(
   for await (const chunk of fileChunks(file)) {
     bytes += chunk.length;
     if (unpackedBefore + bytes > MAX_UNPACKED_TOTAL_BYTES) {
-      throw new HttpError(413, 'file_too_large', `The files of one upload may hold at most ${MAX_UNPACKED_TOTAL_BYTES / MB} MB of text unpacked; nothing was stored`);
+      throw new HttpError(
+        413,
+        'file_too_large',
+        `The files of one upload may hold at most ${MAX_UNPACKED_TOTAL_BYTES / MB} MB of text unpacked; nothing was stored`,
+      );
     }
     if (sampled < SAMPLE_BYTES && chunk.subarray(0, SAMPLE_BYTES - sampled).includes(0)) {
-      throw new HttpError(415, 'unsupported_file', `${file.name} is not a text file: upload a CSV or NOAA ISD-Lite text file`);
+      throw new HttpError(
+        415,
+        'unsupported_file',
+        `${file.name} is not a text file: upload a CSV or NOAA ISD-Lite text file`,
+      );
     }
     const text = decoder.write(chunk);
     if (sampled !== Infinity) {
@@ -157,7 +176,8 @@ export async function readWeatherFiles(
   files: WeatherFile[],
   options: { format: 'auto' | WeatherFileFormat; mapping?: CsvMapping },
 ): Promise<{ series: HourlySeries; format: WeatherFileFormat; rowCount: number }> {
-  if (files.length === 0) throw new HttpError(400, 'invalid_input', 'Choose a file to upload', [{ path: 'files', message: 'Choose a file' }]);
+  if (files.length === 0)
+    throw new HttpError(400, 'invalid_input', 'Choose a file to upload', [{ path: 'files', message: 'Choose a file' }]);
   const parts: HourlySeries[] = [];
   const problems: FieldIssue[] = [];
   let format: WeatherFileFormat | undefined;

@@ -19,7 +19,11 @@ export function devOutboxRouter(db: Knex, outboxUrl: string, token: string): Rou
     const userId = req.user ? currentUser(req).id : undefined;
     const organizationId = req.session.organizationId;
     if (!everything && (!userId || !organizationId)) {
-      throw new HttpError(401, 'unauthenticated', 'Sign in, or open the outbox with the development token printed when the server started');
+      throw new HttpError(
+        401,
+        'unauthenticated',
+        'Sign in, or open the outbox with the development token printed when the server started',
+      );
     }
     const messages = await outbox.allMessages(outboxUrl);
     if (everything || !userId || !organizationId) {

@@ -17,7 +17,12 @@ export async function allMessages(outboxUrl: string): Promise<OutboxMessage[]> {
 }
 
 /** The messages to the organisation's members, its invitations and its report recipients (none once the user has left it). */
-export async function organizationMessages(db: Knex, messages: readonly OutboxMessage[], organizationId: string, userId: string): Promise<OutboxMessage[]> {
+export async function organizationMessages(
+  db: Knex,
+  messages: readonly OutboxMessage[],
+  organizationId: string,
+  userId: string,
+): Promise<OutboxMessage[]> {
   const addresses = await organizationAddresses(db, organizationId, userId);
   return messages.filter((m) => m.to.some((to) => addresses.has(to.trim().toLowerCase())));
 }

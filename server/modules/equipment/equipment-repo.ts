@@ -48,23 +48,36 @@ export async function findListRow(db: Knex, organizationId: string, id: string):
 
 /** The list's name, when it is the organisation's. */
 export async function findListName(db: Knex, organizationId: string, id: string): Promise<string | undefined> {
-  const row = await db('equipment_lists').where({ id, organization_id: organizationId }).first<{ name: string } | undefined>('name');
+  const row = await db('equipment_lists')
+    .where({ id, organization_id: organizationId })
+    .first<{ name: string } | undefined>('name');
   return row?.name;
 }
 
 /** The list's options in their order, each with its position (as stored: parse before use). */
 export function optionsOf(db: Knex, listId: string): Promise<{ position: number; option: unknown }[]> {
-  return db('equipment_options').where({ equipment_list_id: listId }).orderBy('position').select<{ position: number; option: unknown }[]>('position', 'option');
+  return db('equipment_options')
+    .where({ equipment_list_id: listId })
+    .orderBy('position')
+    .select<{ position: number; option: unknown }[]>('position', 'option');
 }
 
 export async function insertList(db: Knex, organizationId: string, name: string, userId: string): Promise<string> {
-  const [row] = await db('equipment_lists').insert({ organization_id: organizationId, name, updated_by: userId }).returning<{ id: string }[]>('id');
+  const [row] = await db('equipment_lists')
+    .insert({ organization_id: organizationId, name, updated_by: userId })
+    .returning<{ id: string }[]>('id');
   if (!row) throw new Error('equipment list not created');
   return row.id;
 }
 
 /** Bumps a list's version only if it is still `version`; false otherwise. */
-export async function claimListVersion(trx: Knex.Transaction, organizationId: string, id: string, version: number, userId: string): Promise<boolean> {
+export async function claimListVersion(
+  trx: Knex.Transaction,
+  organizationId: string,
+  id: string,
+  version: number,
+  userId: string,
+): Promise<boolean> {
   const n = await trx('equipment_lists')
     .where({ id, organization_id: organizationId, version })
     .update({ version: trx.raw('version + 1'), updated_by: userId, updated_at: trx.fn.now() });
@@ -80,7 +93,11 @@ export async function deleteList(db: Knex, organizationId: string, id: string): 
   return n > 0;
 }
 
-export async function replaceOptions(trx: Knex.Transaction, listId: string, options: readonly EquipmentOption[]): Promise<void> {
+export async function replaceOptions(
+  trx: Knex.Transaction,
+  listId: string,
+  options: readonly EquipmentOption[],
+): Promise<void> {
   await trx('equipment_options').where({ equipment_list_id: listId }).delete();
   if (options.length > 0) {
     await trx('equipment_options').insert(
@@ -103,8 +120,13 @@ export async function listBelongsTo(db: Knex, organizationId: string, id: string
 }
 
 /** The organisation's energy prices as stored (parse before use), with their version. */
-export function findPrices(db: Knex, organizationId: string): Promise<{ prices: unknown; version: number } | undefined> {
-  return db('energy_prices').where({ organization_id: organizationId }).first<{ prices: unknown; version: number } | undefined>('prices', 'version');
+export function findPrices(
+  db: Knex,
+  organizationId: string,
+): Promise<{ prices: unknown; version: number } | undefined> {
+  return db('energy_prices')
+    .where({ organization_id: organizationId })
+    .first<{ prices: unknown; version: number } | undefined>('prices', 'version');
 }
 
 /** Who last changed the organisation's prices (null when that person has no account any more). */
@@ -117,7 +139,12 @@ export async function pricesUpdatedByName(db: Knex, organizationId: string): Pro
 }
 
 /** Stores the first prices of an organisation; no row when another request stored them first. */
-export function insertPrices(db: Knex, organizationId: string, prices: EnergyPrices, userId: string): Promise<{ version: number }[]> {
+export function insertPrices(
+  db: Knex,
+  organizationId: string,
+  prices: EnergyPrices,
+  userId: string,
+): Promise<{ version: number }[]> {
   return db('energy_prices')
     .insert({ organization_id: organizationId, prices: JSON.stringify(prices), updated_by: userId })
     .onConflict('organization_id')
@@ -126,9 +153,20 @@ export function insertPrices(db: Knex, organizationId: string, prices: EnergyPri
 }
 
 /** Replaces the prices of `version`; no row when they have changed since. */
-export function updatePrices(db: Knex, organizationId: string, version: number, prices: EnergyPrices, userId: string): Promise<{ version: number }[]> {
+export function updatePrices(
+  db: Knex,
+  organizationId: string,
+  version: number,
+  prices: EnergyPrices,
+  userId: string,
+): Promise<{ version: number }[]> {
   return db('energy_prices')
     .where({ organization_id: organizationId, version })
-    .update({ prices: JSON.stringify(prices), version: db.raw('version + 1'), updated_by: userId, updated_at: db.fn.now() })
+    .update({
+      prices: JSON.stringify(prices),
+      version: db.raw('version + 1'),
+      updated_by: userId,
+      updated_at: db.fn.now(),
+    })
     .returning<{ version: number }[]>('version');
 }

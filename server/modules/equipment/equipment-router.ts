@@ -25,7 +25,10 @@ export function equipmentRouter(db: Knex): Router {
     const { name } = equipmentListInputSchema.parse(req.body);
     const { organizationId, user } = orgContext(req);
     const created = await equipment.createList(db, organizationId, user.id, name);
-    res.status(201).location(`/api/v1/equipment-lists/${created?.id ?? ''}`).json(created);
+    res
+      .status(201)
+      .location(`/api/v1/equipment-lists/${created?.id ?? ''}`)
+      .json(created);
   });
 
   router.get('/equipment-lists/:listId', authorize(db, 'org:read'), async (req, res) => {
@@ -63,11 +66,12 @@ export function equipmentRouter(db: Knex): Router {
   router.get('/equipment-lists/:listId/csv', authorize(db, 'org:read'), async (req, res) => {
     const { listId } = listParam.parse(req.params);
     const list = await equipment.requireList(db, orgContext(req).organizationId, listId);
-    const fileName = list.name.replace(/[^A-Za-z0-9 _-]+/g, '').trim().replace(/\s+/g, '-') || 'equipment';
-    res
-      .type('text/csv; charset=utf-8')
-      .attachment(`${fileName}.csv`)
-      .send(toCsv(list.options));
+    const fileName =
+      list.name
+        .replace(/[^A-Za-z0-9 _-]+/g, '')
+        .trim()
+        .replace(/\s+/g, '-') || 'equipment';
+    res.type('text/csv; charset=utf-8').attachment(`${fileName}.csv`).send(toCsv(list.options));
   });
 
   router.get('/energy-prices', authorize(db, 'org:read'), async (req, res) => {

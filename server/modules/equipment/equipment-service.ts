@@ -27,20 +27,38 @@ export async function requireList(db: Knex, organizationId: string, id: string):
   return list;
 }
 
-export async function createList(db: Knex, organizationId: string, userId: string, name: string): Promise<EquipmentList | undefined> {
+export async function createList(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  name: string,
+): Promise<EquipmentList | undefined> {
   const id = await repo.insertList(db, organizationId, name, userId);
   return findList(db, organizationId, id);
 }
 
 /** Bumps a list's version only if it is still `version`; 409 (or 404) otherwise. */
-async function claimVersion(trx: Knex.Transaction, organizationId: string, id: string, version: number, userId: string) {
+async function claimVersion(
+  trx: Knex.Transaction,
+  organizationId: string,
+  id: string,
+  version: number,
+  userId: string,
+) {
   if (await repo.claimListVersion(trx, organizationId, id, version, userId)) return;
   const current = await repo.findListRow(trx, organizationId, id);
   if (!current) throw listNotFound();
   throw staleUpdate(current.updated_by_name ?? 'Someone', 'equipment list');
 }
 
-export async function renameList(db: Knex, organizationId: string, userId: string, id: string, version: number, name: string): Promise<EquipmentList | undefined> {
+export async function renameList(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  id: string,
+  version: number,
+  name: string,
+): Promise<EquipmentList | undefined> {
   await db.transaction(async (trx) => {
     await claimVersion(trx, organizationId, id, version, userId);
     await repo.renameList(trx, id, name);
@@ -69,7 +87,12 @@ export async function replaceOptions(
 }
 
 /** The options read from a CSV file, or 400 with the lines to fix (nothing is stored either way). */
-export async function previewCsv(db: Knex, organizationId: string, id: string, csv: string): Promise<{ options: EquipmentOption[] }> {
+export async function previewCsv(
+  db: Knex,
+  organizationId: string,
+  id: string,
+  csv: string,
+): Promise<{ options: EquipmentOption[] }> {
   await requireList(db, organizationId, id);
   const parsed = parseEquipmentCsv(csv);
   if (!parsed.ok) {
@@ -84,7 +107,10 @@ export async function previewCsv(db: Knex, organizationId: string, id: string, c
 }
 
 /** The organisation's prices as stored, with their version (0 and null before the first save). */
-export async function currentPrices(db: Knex, organizationId: string): Promise<{ version: number; prices: EnergyPrices | null }> {
+export async function currentPrices(
+  db: Knex,
+  organizationId: string,
+): Promise<{ version: number; prices: EnergyPrices | null }> {
   const row = await repo.findPrices(db, organizationId);
   return row ? { version: row.version, prices: row.prices as EnergyPrices } : { version: 0, prices: null };
 }
@@ -97,14 +123,27 @@ export async function organizationPrices(db: Knex, organizationId: string): Prom
 }
 
 /** Saves the organisation's prices over `version` (0: the first save); 409 naming who changed them otherwise. */
-export async function savePrices(db: Knex, organizationId: string, userId: string, version: number, prices: EnergyPrices): Promise<{ version: number; prices: EnergyPrices }> {
-  const saved = version === 0 ? await repo.insertPrices(db, organizationId, prices, userId) : await repo.updatePrices(db, organizationId, version, prices, userId);
+export async function savePrices(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  version: number,
+  prices: EnergyPrices,
+): Promise<{ version: number; prices: EnergyPrices }> {
+  const saved =
+    version === 0
+      ? await repo.insertPrices(db, organizationId, prices, userId)
+      : await repo.updatePrices(db, organizationId, version, prices, userId);
   if (!saved[0]) throw staleUpdate((await repo.pricesUpdatedByName(db, organizationId)) ?? 'Someone', 'price list');
   return { version: saved[0].version, prices };
 }
 
 /** The list's name and stored options, when it is the organisation's (what a sweep is put together from). */
-export async function listForSweep(db: Knex, organizationId: string, id: string): Promise<{ name: string; options: { position: number; option: unknown }[] } | undefined> {
+export async function listForSweep(
+  db: Knex,
+  organizationId: string,
+  id: string,
+): Promise<{ name: string; options: { position: number; option: unknown }[] } | undefined> {
   const name = await repo.findListName(db, organizationId, id);
   return name === undefined ? undefined : { name, options: await repo.optionsOf(db, id) };
 }

@@ -97,7 +97,9 @@ export async function insertInvitation(
 
 /** Revokes an invitation of the organisation (one already revoked keeps its time); false when there is none. */
 export async function revokeInvitation(db: Knex, organizationId: string, id: string): Promise<boolean> {
-  const n = await db('invitations').where({ id, organization_id: organizationId }).update({ revoked_at: db.raw('COALESCE(revoked_at, now())') });
+  const n = await db('invitations')
+    .where({ id, organization_id: organizationId })
+    .update({ revoked_at: db.raw('COALESCE(revoked_at, now())') });
   return n > 0;
 }
 
@@ -106,12 +108,18 @@ export async function markAccepted(db: Knex, id: string): Promise<void> {
 }
 
 /** The organisation's name and the inviter's name (null when that person has no account any more). */
-export function invitationDetails(db: Knex, id: string): Promise<{ organization_name: string; invited_by_name: string | null } | undefined> {
+export function invitationDetails(
+  db: Knex,
+  id: string,
+): Promise<{ organization_name: string; invited_by_name: string | null } | undefined> {
   return db('invitations as i')
     .join('organizations as o', 'o.id', 'i.organization_id')
     .leftJoin('users as u', 'u.id', 'i.invited_by')
     .where('i.id', id)
-    .first<{ organization_name: string; invited_by_name: string | null } | undefined>('o.name as organization_name', 'u.name as invited_by_name');
+    .first<{ organization_name: string; invited_by_name: string | null } | undefined>(
+      'o.name as organization_name',
+      'u.name as invited_by_name',
+    );
 }
 
 /** Open invitations that still take a place on the plan. */
@@ -127,6 +135,8 @@ export async function pendingCount(db: Knex, organizationId: string): Promise<nu
 
 /** The addresses the organisation has ever invited, in lower case. */
 export async function invitedAddresses(db: Knex, organizationId: string): Promise<string[]> {
-  const rows = await db('invitations').where({ organization_id: organizationId }).select<{ address: string }[]>(db.raw('lower(email) as address'));
+  const rows = await db('invitations')
+    .where({ organization_id: organizationId })
+    .select<{ address: string }[]>(db.raw('lower(email) as address'));
   return rows.map((r) => r.address);
 }

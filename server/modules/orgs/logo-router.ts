@@ -7,7 +7,11 @@ import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
 import * as logos from './logo-service';
 
-const upload = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: LOGO_MAX_BYTES, files: 1, fields: 0 } });
+const upload = multer({
+  storage: multer.memoryStorage(),
+  defParamCharset: 'utf8',
+  limits: { fileSize: LOGO_MAX_BYTES, files: 1, fields: 0 },
+});
 
 export function logoRouter(db: Knex): Router {
   const router = Router();

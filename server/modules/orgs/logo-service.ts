@@ -33,8 +33,12 @@ const JPEG = Buffer.from([0xff, 0xd8, 0xff]);
 export function sniffImage(content: Buffer): 'image/png' | 'image/jpeg' | 'image/svg+xml' | null {
   if (content.subarray(0, PNG.length).equals(PNG)) return 'image/png';
   if (content.subarray(0, JPEG.length).equals(JPEG)) return 'image/jpeg';
-  const head = content.subarray(0, 2048).toString('utf8').replace(/^\uFEFF/, '');
-  if (/^\s*(<\?xml[^>]*\?>\s*)?(<!--[\s\S]*?-->\s*)*(<!DOCTYPE svg[^>]*>\s*)?<svg[\s>]/i.test(head)) return 'image/svg+xml';
+  const head = content
+    .subarray(0, 2048)
+    .toString('utf8')
+    .replace(/^\uFEFF/, '');
+  if (/^\s*(<\?xml[^>]*\?>\s*)?(<!--[\s\S]*?-->\s*)*(<!DOCTYPE svg[^>]*>\s*)?<svg[\s>]/i.test(head))
+    return 'image/svg+xml';
   return null;
 }
 
@@ -57,7 +61,10 @@ export async function storeLogo(
   organizationId: string,
   file: { buffer: Buffer; originalname: string } | undefined,
 ): Promise<{ contentType: string; bytes: number }> {
-  if (!file) throw new HttpError(400, 'invalid_file', 'Choose a PNG, JPEG or SVG file', [{ path: 'logo', message: 'Choose a file' }]);
+  if (!file)
+    throw new HttpError(400, 'invalid_file', 'Choose a PNG, JPEG or SVG file', [
+      { path: 'logo', message: 'Choose a file' },
+    ]);
   const type = sniffImage(file.buffer);
   if (!type) {
     throw new HttpError(400, 'invalid_file', 'The logo must be a PNG, JPEG or SVG image; this file is none of those', [
@@ -67,15 +74,24 @@ export async function storeLogo(
   let content = file.buffer;
   if (type === 'image/svg+xml') {
     const clean = sanitizeSvg(file.buffer.toString('utf8'));
-    if (!clean) throw new HttpError(400, 'invalid_file', 'Nothing drawable is left in this SVG once scripts and links are removed', [{ path: 'logo', message: 'Not a usable SVG' }]);
+    if (!clean)
+      throw new HttpError(
+        400,
+        'invalid_file',
+        'Nothing drawable is left in this SVG once scripts and links are removed',
+        [{ path: 'logo', message: 'Not a usable SVG' }],
+      );
     content = Buffer.from(clean, 'utf8');
   }
   // Decoded in full now, so that a file that only looks like an image is refused here, not when a PDF is made.
   const checked = checkLogo(type, content);
   if (!checked.ok) {
-    throw new HttpError(400, 'invalid_file', 'This image could not be read; export it again as a PNG, JPEG or SVG and upload that', [
-      { path: 'logo', message: checked.reason },
-    ]);
+    throw new HttpError(
+      400,
+      'invalid_file',
+      'This image could not be read; export it again as a PNG, JPEG or SVG and upload that',
+      [{ path: 'logo', message: checked.reason }],
+    );
   }
   content = checked.content;
   await logos.saveLogo(db, organizationId, { contentType: type, content });

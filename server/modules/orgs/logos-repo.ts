@@ -16,13 +16,20 @@ export async function findLogo(db: Knex, organizationId: string): Promise<Stored
 }
 
 export async function hasLogo(db: Knex, organizationId: string): Promise<boolean> {
-  const row: unknown = await db('organization_logos').where({ organization_id: organizationId }).first('organization_id');
+  const row: unknown = await db('organization_logos')
+    .where({ organization_id: organizationId })
+    .first('organization_id');
   return Boolean(row);
 }
 
 export async function saveLogo(db: Knex, organizationId: string, logo: StoredLogo): Promise<void> {
   await db('organization_logos')
-    .insert({ organization_id: organizationId, content_type: logo.contentType, content: logo.content, updated_at: db.fn.now() })
+    .insert({
+      organization_id: organizationId,
+      content_type: logo.contentType,
+      content: logo.content,
+      updated_at: db.fn.now(),
+    })
     .onConflict('organization_id')
     .merge();
 }

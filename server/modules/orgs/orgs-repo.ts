@@ -85,7 +85,9 @@ export async function organizationName(db: Knex, organizationId: string): Promis
 }
 
 export async function setRole(db: Knex, organizationId: string, userId: string, role: Role): Promise<void> {
-  await db('memberships').where({ organization_id: organizationId, user_id: userId }).update({ role, updated_at: db.fn.now() });
+  await db('memberships')
+    .where({ organization_id: organizationId, user_id: userId })
+    .update({ role, updated_at: db.fn.now() });
 }
 
 export async function removeMember(db: Knex, organizationId: string, userId: string): Promise<void> {
@@ -102,7 +104,9 @@ export async function isMemberByEmail(db: Knex, organizationId: string, email: s
 }
 
 export async function memberCount(db: Knex, organizationId: string): Promise<number> {
-  const [row] = await db('memberships').where({ organization_id: organizationId }).count<{ n: number }[]>('user_id as n');
+  const [row] = await db('memberships')
+    .where({ organization_id: organizationId })
+    .count<{ n: number }[]>('user_id as n');
   return row?.n ?? 0;
 }
 
@@ -120,7 +124,9 @@ export async function existingOrganizations(db: Knex, ids: readonly string[]): P
 
 /** The user ids of the organisation's members. */
 export async function memberUserIds(db: Knex, organizationId: string): Promise<string[]> {
-  const rows = await db('memberships').where({ organization_id: organizationId }).select<{ user_id: string }[]>('user_id');
+  const rows = await db('memberships')
+    .where({ organization_id: organizationId })
+    .select<{ user_id: string }[]>('user_id');
   return rows.map((r) => r.user_id);
 }
 

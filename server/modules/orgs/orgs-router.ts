@@ -48,7 +48,12 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
   router.post('/invitations', authorize(db, 'member:manage'), async (req, res) => {
     const input = invitationInputSchema.parse(req.body);
     const { organizationId, user } = orgContext(req);
-    const created = await orgs.invite({ db, config, mailer }, req, { organizationId, id: user.id, name: user.name }, input);
+    const created = await orgs.invite(
+      { db, config, mailer },
+      req,
+      { organizationId, id: user.id, name: user.name },
+      input,
+    );
     res.status(201).location(`/api/v1/invitations/${created.id}`).json(created);
   });
 
@@ -82,7 +87,13 @@ export function orgsRouter(db: Knex, config: Config, mailer: Mailer): Router {
   router.post('/invitation-links/:token/accept', requireUser, async (req, res) => {
     const user = currentUser(req);
     const organizationId = await orgs.acceptAsUser(db, req.params['token'], user);
-    await audit(db, req, { type: 'member_joined', organizationId, userId: user.id, actorEmail: user.email, detail: { newAccount: false } });
+    await audit(db, req, {
+      type: 'member_joined',
+      organizationId,
+      userId: user.id,
+      actorEmail: user.email,
+      detail: { newAccount: false },
+    });
     req.session.organizationId = organizationId;
     res.json(await sessionView(db, req, devOutbox));
   });

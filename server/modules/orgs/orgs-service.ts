@@ -17,7 +17,11 @@ import * as invitations from './invitations-repo';
 import * as orgs from './orgs-repo';
 import { recipientAddresses } from '../reports/reports-repo';
 
-const LAST_OWNER = new HttpError(409, 'last_owner', 'An organisation needs at least one owner: make someone else owner first');
+const LAST_OWNER = new HttpError(
+  409,
+  'last_owner',
+  'An organisation needs at least one owner: make someone else owner first',
+);
 const memberNotFound = () => new HttpError(404, 'not_found', 'That member was not found');
 
 export function createOrganization(db: Knex, name: string, ownerId: string): Promise<string> {
@@ -28,11 +32,19 @@ export function listMembers(db: Knex, organizationId: string): Promise<Member[]>
   return orgs.listMembers(db, organizationId);
 }
 
-export async function changeRole(db: Knex, req: Request, actorId: string, organizationId: string, userId: string, role: Role): Promise<Member> {
+export async function changeRole(
+  db: Knex,
+  req: Request,
+  actorId: string,
+  organizationId: string,
+  userId: string,
+  role: Role,
+): Promise<Member> {
   const member = await db.transaction(async (trx) => {
     const before = await orgs.findMember(trx, organizationId, userId);
     if (!before) throw memberNotFound();
-    if (before.role === 'owner' && role !== 'owner' && (await orgs.lockedOwnerCount(trx, organizationId)) <= 1) throw LAST_OWNER;
+    if (before.role === 'owner' && role !== 'owner' && (await orgs.lockedOwnerCount(trx, organizationId)) <= 1)
+      throw LAST_OWNER;
     await orgs.setRole(trx, organizationId, userId, role);
     return { ...before, role };
   });
@@ -40,7 +52,13 @@ export async function changeRole(db: Knex, req: Request, actorId: string, organi
   return member;
 }
 
-export async function removeMember(db: Knex, req: Request, actorId: string, organizationId: string, userId: string): Promise<void> {
+export async function removeMember(
+  db: Knex,
+  req: Request,
+  actorId: string,
+  organizationId: string,
+  userId: string,
+): Promise<void> {
   await db.transaction(async (trx) => {
     const before = await orgs.findMember(trx, organizationId, userId);
     if (!before) throw memberNotFound();
@@ -65,14 +83,23 @@ export async function invite(
   const { organizationId } = inviter;
   const created = await db.transaction(async (trx) => {
     if (await orgs.isMemberByEmail(trx, organizationId, input.email)) {
-      throw new HttpError(409, 'already_member', 'That person is already a member of this organisation', [{ path: 'email', message: 'Already a member' }]);
+      throw new HttpError(409, 'already_member', 'That person is already a member of this organisation', [
+        { path: 'email', message: 'Already a member' },
+      ]);
     }
     // A new invitation replaces any earlier pending one for the same address.
     const replaced = await invitations.revokePendingFor(trx, organizationId, input.email);
     if (replaced === 0) await assertCanAddMember(trx, organizationId);
     const { token, hash } = newLinkToken();
     const expiresAt = new Date(Date.now() + config.invitationDays * 86_400_000);
-    const row = await invitations.insertInvitation(trx, { organizationId, email: input.email, role: input.role, tokenHash: hash, invitedBy: inviter.id, expiresAt });
+    const row = await invitations.insertInvitation(trx, {
+      organizationId,
+      email: input.email,
+      role: input.role,
+      tokenHash: hash,
+      invitedBy: inviter.id,
+      expiresAt,
+    });
     const organizationName = await orgs.organizationName(trx, organizationId);
     // Sent inside the transaction: if the e-mail cannot be sent, nothing is saved and the owner can retry.
     try {
@@ -86,7 +113,11 @@ export async function invite(
       );
     } catch (err) {
       req.log.error({ err }, 'invitation e-mail failed');
-      throw new HttpError(502, 'mail_failed', 'The invitation e-mail could not be sent; nothing was saved, please try again');
+      throw new HttpError(
+        502,
+        'mail_failed',
+        'The invitation e-mail could not be sent; nothing was saved, please try again',
+      );
     }
     return {
       id: row.id,
@@ -98,23 +129,43 @@ export async function invite(
       status: 'pending' as const,
     };
   });
-  await audit(db, req, { type: 'invitation_created', organizationId, userId: inviter.id, detail: { email: input.email, role: input.role } });
+  await audit(db, req, {
+    type: 'invitation_created',
+    organizationId,
+    userId: inviter.id,
+    detail: { email: input.email, role: input.role },
+  });
   return created;
 }
 
-export async function revokeInvitation(db: Knex, req: Request, actorId: string, organizationId: string, invitationId: string): Promise<void> {
-  if (!(await invitations.revokeInvitation(db, organizationId, invitationId))) throw new HttpError(404, 'not_found', 'That invitation was not found');
-  await audit(db, req, { type: 'invitation_revoked', organizationId, userId: actorId, detail: { invitation: invitationId } });
+export async function revokeInvitation(
+  db: Knex,
+  req: Request,
+  actorId: string,
+  organizationId: string,
+  invitationId: string,
+): Promise<void> {
+  if (!(await invitations.revokeInvitation(db, organizationId, invitationId)))
+    throw new HttpError(404, 'not_found', 'That invitation was not found');
+  await audit(db, req, {
+    type: 'invitation_revoked',
+    organizationId,
+    userId: actorId,
+    detail: { invitation: invitationId },
+  });
 }
 
 /** The invitation of a link that can still be used: 404 for an unknown or withdrawn one, 410 for one used or expired. */
 async function usableInvitation(db: Knex, token: unknown, lock = false): Promise<invitations.InvitationRecord> {
   const parsed = linkTokenSchema.safeParse(token);
-  const found = parsed.success ? await invitations.findByTokenHash(db, hashLinkToken(parsed.data), { lock }) : undefined;
+  const found = parsed.success
+    ? await invitations.findByTokenHash(db, hashLinkToken(parsed.data), { lock })
+    : undefined;
   if (!found || found.status === 'revoked') {
     throw new HttpError(404, 'invitation_not_found', 'This invitation link is not valid');
   }
-  if (found.status === 'accepted') throw new HttpError(410, 'invitation_used', 'This invitation has already been accepted');
+  if (found.status === 'accepted')
+    throw new HttpError(410, 'invitation_used', 'This invitation has already been accepted');
   if (found.status === 'expired') {
     throw new HttpError(410, 'invitation_expired', 'This invitation has expired; ask for a new one');
   }
@@ -163,7 +214,11 @@ export async function acceptAsUser(db: Knex, token: unknown, user: users.UserRec
   return db.transaction(async (trx) => {
     const invitation = await usableInvitation(trx, token, true);
     if (invitation.email !== user.email) {
-      throw new HttpError(403, 'wrong_account', `This invitation was sent to ${invitation.email}; sign in with that address`);
+      throw new HttpError(
+        403,
+        'wrong_account',
+        `This invitation was sent to ${invitation.email}; sign in with that address`,
+      );
     }
     await orgs.addMember(trx, invitation.organizationId, user.id, invitation.role);
     await invitations.markAccepted(trx, invitation.id);

@@ -91,7 +91,11 @@ export function findProjectRefs(
 ): Promise<{ id: string; climate_site_id: string | null; equipment_list_id: string | null } | undefined> {
   return db('projects')
     .where({ id, organization_id: organizationId })
-    .first<{ id: string; climate_site_id: string | null; equipment_list_id: string | null } | undefined>('id', 'climate_site_id', 'equipment_list_id');
+    .first<{ id: string; climate_site_id: string | null; equipment_list_id: string | null } | undefined>(
+      'id',
+      'climate_site_id',
+      'equipment_list_id',
+    );
 }
 
 export interface ProjectWrite {
@@ -104,7 +108,13 @@ export interface ProjectWrite {
 }
 
 /** Inserts a project; `buildingFrom` copies the building description of another project. */
-export async function insertProject(db: Knex, organizationId: string, userId: string, input: ProjectWrite, buildingFrom?: string): Promise<string> {
+export async function insertProject(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  input: ProjectWrite,
+  buildingFrom?: string,
+): Promise<string> {
   const [row] = await db('projects')
     .insert({
       organization_id: organizationId,
@@ -113,7 +123,9 @@ export async function insertProject(db: Knex, organizationId: string, userId: st
       site_address: input.siteAddress,
       climate_site_id: input.climateSiteId,
       equipment_list_id: input.equipmentListId,
-      ...(buildingFrom === undefined ? {} : { building: db.raw('(SELECT building FROM projects WHERE id = ?)', [buildingFrom]) }),
+      ...(buildingFrom === undefined
+        ? {}
+        : { building: db.raw('(SELECT building FROM projects WHERE id = ?)', [buildingFrom]) }),
       notes: input.notes,
       created_by: userId,
       updated_by: userId,
@@ -124,7 +136,9 @@ export async function insertProject(db: Knex, organizationId: string, userId: st
 }
 
 export async function isArchived(db: Knex, organizationId: string, id: string): Promise<boolean> {
-  const current = await db('projects').where({ id, organization_id: organizationId }).first<{ archived_at: Date | null } | undefined>('archived_at');
+  const current = await db('projects')
+    .where({ id, organization_id: organizationId })
+    .first<{ archived_at: Date | null } | undefined>('archived_at');
   return Boolean(current?.archived_at);
 }
 
@@ -162,15 +176,33 @@ export function countActiveProjects(db: Knex, organizationId: string): Promise<n
     .then((rows) => rows[0]?.n ?? 0);
 }
 
-export function findBuilding(db: Knex, organizationId: string, id: string): Promise<{ version: number; building: Building | null } | undefined> {
-  return db('projects').where({ id, organization_id: organizationId }).first<{ version: number; building: Building | null } | undefined>('version', 'building');
+export function findBuilding(
+  db: Knex,
+  organizationId: string,
+  id: string,
+): Promise<{ version: number; building: Building | null } | undefined> {
+  return db('projects')
+    .where({ id, organization_id: organizationId })
+    .first<{ version: number; building: Building | null } | undefined>('version', 'building');
 }
 
 /** Stores the building if the project is still `version`; the new version, or undefined when it was not. */
-export async function updateBuilding(db: Knex, organizationId: string, userId: string, id: string, version: number, building: Building): Promise<number | undefined> {
+export async function updateBuilding(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  id: string,
+  version: number,
+  building: Building,
+): Promise<number | undefined> {
   const updated = await db('projects')
     .where({ id, organization_id: organizationId, version })
-    .update({ building: JSON.stringify(building), version: db.raw('version + 1'), updated_by: userId, updated_at: db.fn.now() })
+    .update({
+      building: JSON.stringify(building),
+      version: db.raw('version + 1'),
+      updated_by: userId,
+      updated_at: db.fn.now(),
+    })
     .returning<{ version: number }[]>('version');
   return updated[0]?.version;
 }
@@ -182,5 +214,10 @@ export function findReportFacts(
 ): Promise<{ name: string; client_name: string; site_address: string; building: Building | null } | undefined> {
   return db('projects')
     .where({ id })
-    .first<{ name: string; client_name: string; site_address: string; building: Building | null } | undefined>('name', 'client_name', 'site_address', 'building');
+    .first<{ name: string; client_name: string; site_address: string; building: Building | null } | undefined>(
+      'name',
+      'client_name',
+      'site_address',
+      'building',
+    );
 }

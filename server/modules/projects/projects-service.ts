@@ -36,7 +36,9 @@ export async function checkReferences(
   for (const c of checks) {
     if (!c.id) continue;
     if (!(await c.belongs(db, organizationId, c.id))) {
-      throw new HttpError(404, 'not_found', `That ${c.what} was not found`, [{ path: c.path, message: `Choose a ${c.what} of this organisation` }]);
+      throw new HttpError(404, 'not_found', `That ${c.what} was not found`, [
+        { path: c.path, message: `Choose a ${c.what} of this organisation` },
+      ]);
     }
   }
 }
@@ -51,7 +53,12 @@ export async function getProject(db: Knex, organizationId: string, projectId: st
   return project;
 }
 
-export async function createProject(db: Knex, organizationId: string, userId: string, input: ProjectInput): Promise<Project> {
+export async function createProject(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  input: ProjectInput,
+): Promise<Project> {
   await checkReferences(db, organizationId, input);
   const id = await db.transaction(async (trx) => {
     await assertCanAddProject(trx, organizationId);
@@ -76,20 +83,32 @@ export async function staleProject(db: Knex, organizationId: string, projectId: 
   return staleUpdate(current.updatedByName, 'project');
 }
 
-export async function patchProject(db: Knex, organizationId: string, userId: string, projectId: string, patch: ProjectPatch): Promise<Project | undefined> {
+export async function patchProject(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  projectId: string,
+  patch: ProjectPatch,
+): Promise<Project | undefined> {
   await checkReferences(db, organizationId, patch);
   const { version, ...changes } = patch;
   // Optimistic concurrency: the update applies only to the version the user was looking at.
   // Bringing a project back from the archive takes a place on the plan like a new one.
   const updated = await db.transaction(async (trx) => {
-    if (patch.archived === false && (await repo.isArchived(trx, organizationId, projectId))) await assertCanAddProject(trx, organizationId);
+    if (patch.archived === false && (await repo.isArchived(trx, organizationId, projectId)))
+      await assertCanAddProject(trx, organizationId);
     return repo.updateProject(trx, organizationId, userId, projectId, version, changes);
   });
   if (!updated) throw await staleProject(db, organizationId, projectId);
   return repo.findProject(db, organizationId, projectId);
 }
 
-export async function duplicateProject(db: Knex, organizationId: string, userId: string, projectId: string): Promise<Project> {
+export async function duplicateProject(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  projectId: string,
+): Promise<Project> {
   const source = await getProject(db, organizationId, projectId);
   const id = await db.transaction(async (trx) => {
     await assertCanAddProject(trx, organizationId);

@@ -37,7 +37,7 @@ function checkPng(content: Buffer): LogoCheck {
     // pngjs does not report every broken zlib stream (it can return uninitialised pixels), so the
     // image data is inflated here first, where a corrupt stream throws.
     const idat: Buffer[] = [];
-    for (let at = 8; at + 12 <= content.length; ) {
+    for (let at = 8; at + 12 <= content.length;) {
       const length = content.readUInt32BE(at);
       if (content.toString('latin1', at + 4, at + 8) === 'IDAT') idat.push(content.subarray(at + 8, at + 8 + length));
       at += 12 + length;
@@ -55,7 +55,12 @@ function checkPng(content: Buffer): LogoCheck {
 
 function checkJpeg(content: Buffer): LogoCheck {
   try {
-    const image = jpeg.decode(content, { useTArray: true, tolerantDecoding: false, maxResolutionInMP: 16, maxMemoryUsageInMB: 128 });
+    const image = jpeg.decode(content, {
+      useTArray: true,
+      tolerantDecoding: false,
+      maxResolutionInMP: 16,
+      maxMemoryUsageInMB: 128,
+    });
     const tooBig = sizeReason(image.width, image.height);
     return tooBig ? fail(tooBig) : { ok: true, content };
   } catch (err) {
@@ -70,7 +75,8 @@ function checkSvg(content: Buffer): LogoCheck {
   try {
     const doc = new window.DOMParser().parseFromString(content.toString('utf8'), 'image/svg+xml');
     const root = doc.documentElement;
-    if (root.nodeName.toLowerCase() !== 'svg' || doc.getElementsByTagName('parsererror').length > 0) return fail('the SVG is not well-formed');
+    if (root.nodeName.toLowerCase() !== 'svg' || doc.getElementsByTagName('parsererror').length > 0)
+      return fail('the SVG is not well-formed');
     for (const el of [root, ...Array.from(root.getElementsByTagName('*'))]) {
       for (const attr of Array.from(el.attributes)) {
         if (attr.name === 'id' || attr.name === 'class' || attr.name.startsWith('xmlns')) continue;

@@ -16,14 +16,23 @@ export interface PdfPool {
 }
 
 export const logoUnreadable = (reason: string) =>
-  new HttpError(422, 'logo_unreadable', 'The firm’s logo could not be read, so the PDF could not be made; upload the logo again (or remove it).', [
-    { path: 'logo', message: reason },
-  ]);
+  new HttpError(
+    422,
+    'logo_unreadable',
+    'The firm’s logo could not be read, so the PDF could not be made; upload the logo again (or remove it).',
+    [{ path: 'logo', message: reason }],
+  );
 
 export const pdfFailed = (why: string) =>
-  new HttpError(500, 'pdf_failed', `The PDF could not be made (${why}); the report itself is unchanged and its page still opens. Try again.`);
+  new HttpError(
+    500,
+    'pdf_failed',
+    `The PDF could not be made (${why}); the report itself is unchanged and its page still opens. Try again.`,
+  );
 
-export function createPdfPool(options: { filename?: string; maxThreads?: number; timeoutMs?: number; logger?: Logger } = {}): PdfPool {
+export function createPdfPool(
+  options: { filename?: string; maxThreads?: number; timeoutMs?: number; logger?: Logger } = {},
+): PdfPool {
   const piscina = new Piscina<PdfTask, PdfTaskResult>({
     filename: options.filename ?? new URL('./pdf-worker.ts', import.meta.url).href,
     minThreads: 0,
@@ -38,11 +47,17 @@ export function createPdfPool(options: { filename?: string; maxThreads?: number;
     return piscina.run(task, { signal: AbortSignal.timeout(timeoutMs) });
   }
 
-  const causeOf = (err: unknown) => (err instanceof Error && err.name === 'AbortError' ? `it took longer than ${timeoutMs / 1000} s` : 'the PDF writer failed');
+  const causeOf = (err: unknown) =>
+    err instanceof Error && err.name === 'AbortError'
+      ? `it took longer than ${timeoutMs / 1000} s`
+      : 'the PDF writer failed';
 
   return {
     async render(view, logo) {
-      const task: PdfTask = { view, logo: logo ? { contentType: logo.contentType, content: new Uint8Array(logo.content) } : null };
+      const task: PdfTask = {
+        view,
+        logo: logo ? { contentType: logo.contentType, content: new Uint8Array(logo.content) } : null,
+      };
       let result: PdfTaskResult;
       try {
         result = await run(task);

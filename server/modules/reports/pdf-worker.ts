@@ -42,7 +42,10 @@ export default async function renderPdfTask(task: PdfTask): Promise<PdfTaskResul
   let logo: { contentType: string; content: Buffer } | null = null;
   if (task.logo) {
     const type = task.logo.contentType as LogoType;
-    const checked = checkLogo(type, Buffer.from(task.logo.content.buffer, task.logo.content.byteOffset, task.logo.content.byteLength));
+    const checked = checkLogo(
+      type,
+      Buffer.from(task.logo.content.buffer, task.logo.content.byteOffset, task.logo.content.byteLength),
+    );
     if (!checked.ok) return { logoRefused: checked.reason };
     logo = { contentType: type, content: checked.content };
   }

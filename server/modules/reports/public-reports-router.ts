@@ -9,7 +9,10 @@ import { sendPdf } from './reports-router';
 import * as reports from './reports-service';
 
 const tokenParam = z.object({ token: z.string().max(200) });
-const publicUrls = (token: string) => ({ pdfUrl: `/api/v1/public/reports/${token}/pdf`, logoUrl: `/api/v1/public/reports/${token}/logo` });
+const publicUrls = (token: string) => ({
+  pdfUrl: `/api/v1/public/reports/${token}/pdf`,
+  logoUrl: `/api/v1/public/reports/${token}/logo`,
+});
 
 export function publicReportsRouter(deps: reports.ReportsDeps): Router {
   const router = Router();

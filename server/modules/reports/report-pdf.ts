@@ -29,7 +29,14 @@ function printer(): PdfMake {
   p.setUrlAccessPolicy(() => false);
   p.setLocalAccessPolicy((file) => path.resolve(file).startsWith(FONT_DIR + path.sep));
   const f = (weight: number, style: string) => path.join(FONT_DIR, `source-sans-3-latin-${weight}-${style}.woff`);
-  p.addFonts({ SourceSans: { normal: f(400, 'normal'), bold: f(700, 'normal'), italics: f(400, 'italic'), bolditalics: f(700, 'italic') } });
+  p.addFonts({
+    SourceSans: {
+      normal: f(400, 'normal'),
+      bold: f(700, 'normal'),
+      italics: f(400, 'italic'),
+      bolditalics: f(700, 'italic'),
+    },
+  });
   pdfmake = p;
   return p;
 }
@@ -47,13 +54,20 @@ const INK = '#1D4E5F';
 /** Ember's darker text tone (4.8:1 on white paper); the base ember is for marks and lines only. */
 const EMBER_TEXT = '#B44E33';
 
-export async function reportPdf(view: ReportView, logo: { contentType: string; content: Buffer } | null): Promise<Buffer> {
+export async function reportPdf(
+  view: ReportView,
+  logo: { contentType: string; content: Buffer } | null,
+): Promise<Buffer> {
   const header: unknown[] = [];
   if (logo) {
     header.push(
       logo.contentType === 'image/svg+xml'
         ? { svg: logo.content.toString('utf8'), fit: [140, 48], margin: [0, 0, 0, 6] }
-        : { image: `data:${logo.contentType};base64,${logo.content.toString('base64')}`, fit: [140, 48], margin: [0, 0, 0, 6] },
+        : {
+            image: `data:${logo.contentType};base64,${logo.content.toString('base64')}`,
+            fit: [140, 48],
+            margin: [0, 0, 0, 6],
+          },
     );
   }
   // One table with an option per column, so that every figure sits on the same line in each option.
@@ -66,8 +80,14 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
       widths: [110, ...view.options.map(() => '*')],
       body: [
         [cell(''), ...view.options.map((o) => cell(o.heading, { bold: true, fontSize: 10.5, color: INK }))],
-        [cell('Heating unit', { color: '#555' }), ...view.options.map((o) => cell(o.unit, { bold: true, color: EMBER_TEXT }))],
-        [cell('Heat it gives', { color: '#555' }), ...view.options.map((o) => cell(`${o.capacity} at ${o.temperature}`))],
+        [
+          cell('Heating unit', { color: '#555' }),
+          ...view.options.map((o) => cell(o.unit, { bold: true, color: EMBER_TEXT })),
+        ],
+        [
+          cell('Heat it gives', { color: '#555' }),
+          ...view.options.map((o) => cell(`${o.capacity} at ${o.temperature}`)),
+        ],
         ...firstFigures.map((f, k) => [
           cell(f.label, { color: '#555' }),
           ...view.options.map((o) => cell(o.figures[k]?.text ?? '—', { bold: true })),
@@ -95,13 +115,22 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
       h3: { fontSize: 11, bold: true, margin: [0, 0, 0, 2] },
       small: { fontSize: 8.5, color: '#555' },
     },
-    footer: (page: number, pages: number) => ({ text: `${view.firm.name} · ${view.title} · page ${page} of ${pages}`, style: 'small', alignment: 'center', margin: [0, 16, 0, 0] }),
+    footer: (page: number, pages: number) => ({
+      text: `${view.firm.name} · ${view.title} · page ${page} of ${pages}`,
+      style: 'small',
+      alignment: 'center',
+      margin: [0, 16, 0, 0],
+    }),
     content: [
       ...header,
       { text: view.firm.name, style: 'firm' },
       { text: view.title, style: 'h1' },
       { text: [view.project.clientName, view.project.siteAddress].filter((x) => x).join(' · '), style: 'small' },
-      { text: `Prepared ${view.preparedAt.slice(0, 10)} by ${view.contact.name}. ${view.status}`, style: 'small', margin: [0, 2, 0, 0] },
+      {
+        text: `Prepared ${view.preparedAt.slice(0, 10)} by ${view.contact.name}. ${view.status}`,
+        style: 'small',
+        margin: [0, 2, 0, 0],
+      },
       { text: 'The house', style: 'h2' },
       { text: view.building },
       { text: 'The climate', style: 'h2' },
@@ -125,7 +154,13 @@ export async function reportPdf(view: ReportView, logo: { contentType: string; c
       {
         stack: [
           { text: 'Questions?', style: 'h2' },
-          { text: [`Contact ${view.contact.name} at ${view.firm.name}`, view.contact.email ? `: ${view.contact.email}` : '', view.contact.phone ? ` · ${view.contact.phone}` : ''].join('') },
+          {
+            text: [
+              `Contact ${view.contact.name} at ${view.firm.name}`,
+              view.contact.email ? `: ${view.contact.email}` : '',
+              view.contact.phone ? ` · ${view.contact.phone}` : '',
+            ].join(''),
+          },
         ],
         unbreakable: true,
       },

@@ -8,7 +8,11 @@ import { createHash, createHmac, randomBytes, timingSafeEqual } from 'node:crypt
 const TAG_BYTES = 16;
 
 function tag(secret: string, random: string): string {
-  return createHmac('sha256', secret).update(`report-link:${random}`).digest().subarray(0, TAG_BYTES).toString('base64url');
+  return createHmac('sha256', secret)
+    .update(`report-link:${random}`)
+    .digest()
+    .subarray(0, TAG_BYTES)
+    .toString('base64url');
 }
 
 export function newReportToken(secret: string): { token: string; hash: string } {

@@ -11,13 +11,25 @@ import { HOMEOWNER_CAUTIONS, HOMEOWNER_CAUTIONS_TITLE } from '@shared/reports/ca
 import { reportFigureLabels, type ReportFigure, type ReportView } from '@shared/reports/report-schemas';
 import { sweepAnswerSchema, type SweepAnswer, type SweepRowAnswer } from '@shared/scenarios/scenario-schemas';
 import type { RowKind } from '@shared/sweep/sweep';
-import { oddsBasisSentence, plainBandSentence, plainComfortSentence, plainLifetimeSentence } from '@shared/sweep/odds-words';
+import {
+  oddsBasisSentence,
+  plainBandSentence,
+  plainComfortSentence,
+  plainLifetimeSentence,
+} from '@shared/sweep/odds-words';
 import { homeownerSentence, lowestIndoorC, nearestRowIndex, wholeDegrees } from '@shared/sweep/tradeoff-summary';
 import { formatPower, formatQuantity, fromSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import { SWEEP_VERSION } from '../scenarios/sweep-service';
 
 export interface ReportSource {
-  report: { title: string; note: string; points: number[]; figures: ReportFigure[]; unitSystem: UnitSystem; createdAt: Date };
+  report: {
+    title: string;
+    note: string;
+    points: number[];
+    figures: ReportFigure[];
+    unitSystem: UnitSystem;
+    createdAt: Date;
+  };
   frozenAt: Date | null;
   sweep: SweepAnswer;
   project: { name: string; clientName: string; siteAddress: string; building: Building | null };
@@ -46,7 +58,9 @@ function figureText(key: ReportFigure, r: SweepRowAnswer, a: SweepAnswer, system
     case 'annualCost':
       return money(r.annualCost);
     case 'lifeCycleCost':
-      return r.lifeCycleCost === null || a.studyPeriodYears === null ? money(r.lifeCycleCost) : `${money(r.lifeCycleCost)} over ${a.studyPeriodYears} years`;
+      return r.lifeCycleCost === null || a.studyPeriodYears === null
+        ? money(r.lifeCycleCost)
+        : `${money(r.lifeCycleCost)} over ${a.studyPeriodYears} years`;
     case 'compressor':
       return r.compressorAtDesignW === null ? 'not a heat pump' : formatPower(r.compressorAtDesignW, system);
     case 'runHours':
@@ -54,7 +68,13 @@ function figureText(key: ReportFigure, r: SweepRowAnswer, a: SweepAnswer, system
     case 'backupHours':
       return r.compressorAtDesignW === null ? 'not a heat pump' : hours(r.backupHoursPerYear);
     case 'backupEnergy':
-      return r.compressorAtDesignW === null ? 'not a heat pump' : r.backupEnergyKWh === null ? 'not known' : Math.round(r.backupEnergyKWh) === 0 ? 'none' : `about ${Math.round(r.backupEnergyKWh).toLocaleString('en-US')} kWh`;
+      return r.compressorAtDesignW === null
+        ? 'not a heat pump'
+        : r.backupEnergyKWh === null
+          ? 'not known'
+          : Math.round(r.backupEnergyKWh) === 0
+            ? 'none'
+            : `about ${Math.round(r.backupEnergyKWh).toLocaleString('en-US')} kWh`;
     case 'unmetHours':
       return hours(r.unmetHoursPerYear);
     case 'unmetWorstYear':
@@ -62,12 +82,18 @@ function figureText(key: ReportFigure, r: SweepRowAnswer, a: SweepAnswer, system
     case 'lowestIndoor': {
       const low = r.lowestIndoorC ?? lowestIndoorC(r, a.indoorDesignC);
       if (low === null) return 'not known';
-      return low >= a.indoorDesignC - 0.05 ? `stays at ${wholeDegrees(a.indoorDesignC, system)}` : `about ${wholeDegrees(low, system)}`;
+      return low >= a.indoorDesignC - 0.05
+        ? `stays at ${wholeDegrees(a.indoorDesignC, system)}`
+        : `about ${wholeDegrees(low, system)}`;
     }
   }
 }
 
-const HEAT_PUMP_FIGURES: ReadonlySet<ReportFigure> = new Set<ReportFigure>(['compressor', 'backupHours', 'backupEnergy']);
+const HEAT_PUMP_FIGURES: ReadonlySet<ReportFigure> = new Set<ReportFigure>([
+  'compressor',
+  'backupHours',
+  'backupEnergy',
+]);
 
 export function buildReportView(src: ReportSource): ReportView {
   const { report } = src;
@@ -108,17 +134,28 @@ export function buildReportView(src: ReportSource): ReportView {
   if (mean) climate.push(`The average coldest hour of the year is about ${roundTemp(mean.designC)}.`);
   const r50 = named('rp50');
   if (r50) {
-    climate.push(`The cold to expect about once in 50 years is near ${roundTemp(r50.designC)}: any one winter has about a 2 % chance of getting that cold.`);
+    climate.push(
+      `The cold to expect about once in 50 years is near ${roundTemp(r50.designC)}: any one winter has about a 2 % chance of getting that cold.`,
+    );
   }
   climate.push(
     a.hasRecord && a.years.length > 0
       ? `The figures below replay ${a.years.length} years of ${a.climateBasis?.estimateLabel ? 'an estimated hour-by-hour weather record' : 'hour-by-hour weather records'} (${a.years[0] ?? ''}–${a.years.at(-1) ?? ''}) against the house.`
       : 'This place has no hour-by-hour weather record here, so running costs and the hours a unit could fall short are not known.',
   );
-  if (a.climateBasis?.latestYears) climate.push(`These figures use the latest ${a.climateBasis.latestYears} years of the record only, to reflect recent winters.`);
+  if (a.climateBasis?.latestYears)
+    climate.push(
+      `These figures use the latest ${a.climateBasis.latestYears} years of the record only, to reflect recent winters.`,
+    );
   if (a.climateBasis?.estimateLabel) climate.push(a.climateBasis.estimateLabel);
 
-  const oddsContext = { rows: a.rows, currency: a.currency, unitSystem: system, odds: a.odds, uncertainty: a.uncertainty };
+  const oddsContext = {
+    rows: a.rows,
+    currency: a.currency,
+    unitSystem: system,
+    odds: a.odds,
+    uncertainty: a.uncertainty,
+  };
   const letters = 'ABC';
   const options = report.points.flatMap((t, k) => {
     const r = a.rows[nearestRowIndex(a.rows, t)];
@@ -131,7 +168,9 @@ export function buildReportView(src: ReportSource): ReportView {
       plainComfortSentence(a.rows.indexOf(r), oddsContext),
     ].filter((x): x is string => x !== null);
     const odds = oddsLines.length > 0 ? [`Option ${letter}: ${oddsLines.join(' ')}`] : [];
-    const unit = r.selectedOptionId ? (labelOf.get(r.selectedOptionId) ?? r.selectedOptionId) : 'No unit on the list is big enough';
+    const unit = r.selectedOptionId
+      ? (labelOf.get(r.selectedOptionId) ?? r.selectedOptionId)
+      : 'No unit on the list is big enough';
     return [
       {
         heading: r.isGrid
@@ -194,10 +233,16 @@ export function buildReportView(src: ReportSource): ReportView {
     cautionsTitle: HOMEOWNER_CAUTIONS_TITLE,
     cautions: [...HOMEOWNER_CAUTIONS],
     provenance:
-      (src.frozenAt ? `Figures fixed on ${src.frozenAt.toISOString().slice(0, 10)}` : `Figures last worked out ${computed.toISOString().slice(0, 16).replace('T', ' ')} UTC`) +
+      (src.frozenAt
+        ? `Figures fixed on ${src.frozenAt.toISOString().slice(0, 10)}`
+        : `Figures last worked out ${computed.toISOString().slice(0, 16).replace('T', ' ')} UTC`) +
       `. Indoors ${temp(a.indoorDesignC)}, wind ${formatQuantity('speed', a.designWindMs, system)}, discount rate ${a.discountRatePct} % a year above inflation` +
       (a.studyPeriodYears === null ? '' : `, costs over ${a.studyPeriodYears} years`) +
-      (a.options.some((o) => o.kind === 'heat-pump') ? (a.heatPumpSizing === 'compressor' ? ', heat pumps sized without their backup heater' : ', heat pumps sized with their backup heater') : '') +
+      (a.options.some((o) => o.kind === 'heat-pump')
+        ? a.heatPumpSizing === 'compressor'
+          ? ', heat pumps sized without their backup heater'
+          : ', heat pumps sized with their backup heater'
+        : '') +
       `, prices in ${a.currency}. ` +
       `Methods ${SWEEP_VERSION} and ${METHOD_VERSION}; inputs ${a.inputHash.slice(0, 12)}.`,
     unitSystem: system,

@@ -75,19 +75,33 @@ const REPORT_COLUMNS = [
 ] as const;
 
 /** A project's reports, newest first (of one scenario when it is given). */
-export function listReports(db: Knex, organizationId: string, projectId: string, scenarioId?: string): Promise<ReportRow[]> {
-  const q = db('reports').where({ organization_id: organizationId, project_id: projectId }).orderBy('created_at', 'desc');
+export function listReports(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  scenarioId?: string,
+): Promise<ReportRow[]> {
+  const q = db('reports')
+    .where({ organization_id: organizationId, project_id: projectId })
+    .orderBy('created_at', 'desc');
   return (scenarioId ? q.andWhere('scenario_id', scenarioId) : q).select<ReportRow[]>(...REPORT_COLUMNS);
 }
 
-export async function findReport(db: Knex, organizationId: string, projectId: string, reportId: string): Promise<ReportRow | undefined> {
+export async function findReport(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  reportId: string,
+): Promise<ReportRow | undefined> {
   return db('reports')
     .where({ id: reportId, project_id: projectId, organization_id: organizationId })
     .first<ReportRow | undefined>(...REPORT_COLUMNS);
 }
 
 export async function findReportById(db: Knex, reportId: string): Promise<ReportRow | undefined> {
-  return db('reports').where({ id: reportId }).first<ReportRow | undefined>(...REPORT_COLUMNS);
+  return db('reports')
+    .where({ id: reportId })
+    .first<ReportRow | undefined>(...REPORT_COLUMNS);
 }
 
 export async function insertReport(
@@ -124,15 +138,25 @@ export async function insertReport(
 }
 
 /** Deletes a report (its links and sends go with it); false when there was none. */
-export async function deleteReport(db: Knex, organizationId: string, projectId: string, reportId: string): Promise<boolean> {
-  const n = await db('reports').where({ id: reportId, project_id: projectId, organization_id: organizationId }).delete();
+export async function deleteReport(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  reportId: string,
+): Promise<boolean> {
+  const n = await db('reports')
+    .where({ id: reportId, project_id: projectId, organization_id: organizationId })
+    .delete();
   return n > 0;
 }
 
 /** The links of these reports, newest first. */
 export function linksOf(db: Knex, reportIds: readonly string[]): Promise<LinkRow[]> {
   if (reportIds.length === 0) return Promise.resolve([]);
-  return db('report_links').whereIn('report_id', reportIds).orderBy('created_at', 'desc').select<LinkRow[]>('id', 'report_id', 'created_at', 'expires_at', 'revoked_at');
+  return db('report_links')
+    .whereIn('report_id', reportIds)
+    .orderBy('created_at', 'desc')
+    .select<LinkRow[]>('id', 'report_id', 'created_at', 'expires_at', 'revoked_at');
 }
 
 /** The sends of these reports, newest first. */
@@ -141,16 +165,26 @@ export function sendsOf(db: Knex, reportIds: readonly string[]): Promise<SendRow
   return db('report_sends').whereIn('report_id', reportIds).orderBy('sent_at', 'desc').select<SendRow[]>('*');
 }
 
-export async function insertLink(db: Knex, input: { reportId: string; tokenHash: string; expiresAt: Date; createdBy: string }): Promise<LinkRow> {
+export async function insertLink(
+  db: Knex,
+  input: { reportId: string; tokenHash: string; expiresAt: Date; createdBy: string },
+): Promise<LinkRow> {
   const [row] = await db('report_links')
-    .insert({ report_id: input.reportId, token_hash: input.tokenHash, expires_at: input.expiresAt, created_by: input.createdBy })
+    .insert({
+      report_id: input.reportId,
+      token_hash: input.tokenHash,
+      expires_at: input.expiresAt,
+      created_by: input.createdBy,
+    })
     .returning<LinkRow[]>(['id', 'report_id', 'created_at', 'expires_at', 'revoked_at']);
   if (!row) throw new Error('link not created');
   return row;
 }
 
 export function findLinkByTokenHash(db: Knex, tokenHash: string): Promise<LinkRow | undefined> {
-  return db('report_links').where({ token_hash: tokenHash }).first<LinkRow | undefined>('id', 'report_id', 'created_at', 'expires_at', 'revoked_at');
+  return db('report_links')
+    .where({ token_hash: tokenHash })
+    .first<LinkRow | undefined>('id', 'report_id', 'created_at', 'expires_at', 'revoked_at');
 }
 
 export async function linkExists(db: Knex, reportId: string, linkId: string): Promise<boolean> {
@@ -161,13 +195,23 @@ export async function linkExists(db: Knex, reportId: string, linkId: string): Pr
 /** Revokes a link that is not revoked yet; false when there was none to revoke. */
 export async function revokeLink(db: Knex, linkId: string, reportId?: string): Promise<boolean> {
   const q = db('report_links').where({ id: linkId }).whereNull('revoked_at');
-  const n = await (reportId === undefined ? q : q.andWhere({ report_id: reportId })).update({ revoked_at: db.fn.now() });
+  const n = await (reportId === undefined ? q : q.andWhere({ report_id: reportId })).update({
+    revoked_at: db.fn.now(),
+  });
   return n > 0;
 }
 
 export async function insertSend(
   db: Knex,
-  input: { reportId: string; linkId: string; recipient: string; message: string; status: ReportSend['status']; error: string | null; sentBy: string },
+  input: {
+    reportId: string;
+    linkId: string;
+    recipient: string;
+    message: string;
+    status: ReportSend['status'];
+    error: string | null;
+    sentBy: string;
+  },
 ): Promise<string> {
   const [send] = await db('report_sends')
     .insert({
@@ -185,10 +229,16 @@ export async function insertSend(
 }
 
 export async function setSendOutcome(db: Knex, sendId: string, error: string | null): Promise<void> {
-  await db('report_sends').where({ id: sendId }).update({ status: error ? 'failed' : 'sent', error });
+  await db('report_sends')
+    .where({ id: sendId })
+    .update({ status: error ? 'failed' : 'sent', error });
 }
 
-export function findSend(db: Knex, reportId: string, sendId: string): Promise<Pick<SendRow, 'recipient' | 'message' | 'link_id'> | undefined> {
+export function findSend(
+  db: Knex,
+  reportId: string,
+  sendId: string,
+): Promise<Pick<SendRow, 'recipient' | 'message' | 'link_id'> | undefined> {
   return db('report_sends')
     .where({ id: sendId, report_id: reportId })
     .first<Pick<SendRow, 'recipient' | 'message' | 'link_id'> | undefined>('recipient', 'message', 'link_id');

@@ -14,7 +14,12 @@ const reportParams = projectParam.extend({ reportId: z.uuid('Unknown report') })
 const listQuery = z.strictObject({ scenarioId: z.uuid('Unknown scenario').optional() });
 
 /** A report's PDF, shown in the browser (inline) under a name from its title. */
-export async function sendPdf(deps: reports.ReportsDeps, res: Response, row: reports.ReportRow, view: ReportView): Promise<void> {
+export async function sendPdf(
+  deps: reports.ReportsDeps,
+  res: Response,
+  row: reports.ReportRow,
+  view: ReportView,
+): Promise<void> {
   const { pdf, fileName } = await reports.pdfOf(deps, row, view);
   res.type('application/pdf').set('Content-Disposition', `inline; filename="${fileName}"`).send(pdf);
 }
@@ -23,7 +28,11 @@ export async function sendPdf(deps: reports.ReportsDeps, res: Response, row: rep
 function sendAnswer(res: Response, to: string, outcome: reports.SendOutcome): void {
   if (outcome.error) {
     res.status(502).json({
-      error: { code: 'send_failed', message: `The e-mail to ${to} could not be sent (${outcome.error}). It is recorded; try again.`, details: [] },
+      error: {
+        code: 'send_failed',
+        message: `The e-mail to ${to} could not be sent (${outcome.error}). It is recorded; try again.`,
+        details: [],
+      },
       report: outcome.report,
       sendId: outcome.sendId,
     });
@@ -83,14 +92,20 @@ export function reportsRouter(deps: reports.ReportsDeps): Router {
     const { projectId, reportId } = reportParams.parse(req.params);
     const { expiresInDays } = linkInputSchema.parse(req.body ?? {});
     const { organizationId, user } = orgContext(req);
-    res.status(201).json(await reports.shareReport(deps, req, organizationId, user.id, projectId, reportId, expiresInDays));
+    res
+      .status(201)
+      .json(await reports.shareReport(deps, req, organizationId, user.id, projectId, reportId, expiresInDays));
   });
 
-  router.delete('/projects/:projectId/reports/:reportId/links/:linkId', authorize(db, 'project:write'), async (req, res) => {
-    const { projectId, reportId, linkId } = reportParams.extend({ linkId: z.uuid('Unknown link') }).parse(req.params);
-    const { organizationId, user } = orgContext(req);
-    res.json(await reports.revokeLink(deps, req, organizationId, user.id, projectId, reportId, linkId));
-  });
+  router.delete(
+    '/projects/:projectId/reports/:reportId/links/:linkId',
+    authorize(db, 'project:write'),
+    async (req, res) => {
+      const { projectId, reportId, linkId } = reportParams.extend({ linkId: z.uuid('Unknown link') }).parse(req.params);
+      const { organizationId, user } = orgContext(req);
+      res.json(await reports.revokeLink(deps, req, organizationId, user.id, projectId, reportId, linkId));
+    },
+  );
 
   router.post('/projects/:projectId/reports/:reportId/send', authorize(db, 'project:write'), async (req, res) => {
     const { projectId, reportId } = reportParams.parse(req.params);
@@ -101,14 +116,18 @@ export function reportsRouter(deps: reports.ReportsDeps): Router {
     sendAnswer(res, input.to, await reports.sendReport(deps, req, sender, row, input));
   });
 
-  router.post('/projects/:projectId/reports/:reportId/sends/:sendId/retry', authorize(db, 'project:write'), async (req, res) => {
-    const { projectId, reportId, sendId } = reportParams.extend({ sendId: z.uuid('Unknown send') }).parse(req.params);
-    const { organizationId, user } = orgContext(req);
-    const row = await reports.findReport(db, organizationId, projectId, reportId);
-    const input = await reports.previousSend(db, row, sendId);
-    const sender = { organizationId, userId: user.id, name: user.name, email: user.email };
-    sendAnswer(res, input.to, await reports.sendReport(deps, req, sender, row, input));
-  });
+  router.post(
+    '/projects/:projectId/reports/:reportId/sends/:sendId/retry',
+    authorize(db, 'project:write'),
+    async (req, res) => {
+      const { projectId, reportId, sendId } = reportParams.extend({ sendId: z.uuid('Unknown send') }).parse(req.params);
+      const { organizationId, user } = orgContext(req);
+      const row = await reports.findReport(db, organizationId, projectId, reportId);
+      const input = await reports.previousSend(db, row, sendId);
+      const sender = { organizationId, userId: user.id, name: user.name, email: user.email };
+      sendAnswer(res, input.to, await reports.sendReport(deps, req, sender, row, input));
+    },
+  );
 
   return router;
 }

@@ -52,8 +52,14 @@ async function toReports(db: Knex, rows: repo.ReportRow[]): Promise<Report[]> {
   const [links, sends, scenarios, people] = await Promise.all([
     repo.linksOf(db, ids),
     repo.sendsOf(db, ids),
-    scenarioLabels(db, rows.map((r) => r.scenario_id)),
-    contactsByIds(db, rows.flatMap((r) => (r.created_by ? [r.created_by] : []))),
+    scenarioLabels(
+      db,
+      rows.map((r) => r.scenario_id),
+    ),
+    contactsByIds(
+      db,
+      rows.flatMap((r) => (r.created_by ? [r.created_by] : [])),
+    ),
   ]);
   return rows.flatMap((r) => {
     const scenario = scenarios.get(r.scenario_id);
@@ -87,25 +93,53 @@ async function toReport(db: Knex, row: repo.ReportRow): Promise<Report> {
 }
 
 /** The report of the project in the organisation, or 404. */
-export async function findReport(db: Knex, organizationId: string, projectId: string, reportId: string): Promise<repo.ReportRow> {
+export async function findReport(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  reportId: string,
+): Promise<repo.ReportRow> {
   const row = await repo.findReport(db, organizationId, projectId, reportId);
   if (!row) throw reportNotFound();
   return row;
 }
 
-export async function listReports(db: Knex, organizationId: string, projectId: string, scenarioId: string | undefined): Promise<Report[]> {
+export async function listReports(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  scenarioId: string | undefined,
+): Promise<Report[]> {
   await projectInOrganization(db, organizationId, projectId);
   return toReports(db, await repo.listReports(db, organizationId, projectId, scenarioId));
 }
 
-export async function getReport(db: Knex, organizationId: string, projectId: string, reportId: string): Promise<Report> {
+export async function getReport(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  reportId: string,
+): Promise<Report> {
   return toReport(db, await findReport(db, organizationId, projectId, reportId));
 }
 
-export async function createReport(deps: ReportsDeps, organizationId: string, userId: string, projectId: string, input: ReportInput): Promise<Report> {
+export async function createReport(
+  deps: ReportsDeps,
+  organizationId: string,
+  userId: string,
+  projectId: string,
+  input: ReportInput,
+): Promise<Report> {
   const { db, pool, config } = deps;
-  const scenario = await findScenarioRow(db, { id: input.scenarioId, project_id: projectId, organization_id: organizationId });
-  if (!scenario) throw new HttpError(404, 'not_found', 'That scenario was not found', [{ path: 'scenarioId', message: 'Choose a scenario of this project' }]);
+  const scenario = await findScenarioRow(db, {
+    id: input.scenarioId,
+    project_id: projectId,
+    organization_id: organizationId,
+  });
+  if (!scenario)
+    throw new HttpError(404, 'not_found', 'That scenario was not found', [
+      { path: 'scenarioId', message: 'Choose a scenario of this project' },
+    ]);
   // The scenario must sweep (422 with what is missing otherwise) before a report can show it.
   await scenarioSweep(db, pool, config.databaseUrl, scenario);
   const id = await repo.insertReport(db, {
@@ -123,12 +157,22 @@ export async function createReport(deps: ReportsDeps, organizationId: string, us
   return getReport(db, organizationId, projectId, id);
 }
 
-export async function deleteReport(db: Knex, organizationId: string, projectId: string, reportId: string): Promise<void> {
+export async function deleteReport(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  reportId: string,
+): Promise<void> {
   if (!(await repo.deleteReport(db, organizationId, projectId, reportId))) throw reportNotFound();
 }
 
 /** The client's view of a report, with the sweep of its scenario (frozen, cached or computed now). */
-export async function viewOf(deps: ReportsDeps, row: repo.ReportRow, urls: { pdfUrl: string; logoUrl: string }, expiresAt: Date | null): Promise<ReportView> {
+export async function viewOf(
+  deps: ReportsDeps,
+  row: repo.ReportRow,
+  urls: { pdfUrl: string; logoUrl: string },
+  expiresAt: Date | null,
+): Promise<ReportView> {
   const { db, pool, config } = deps;
   const scenario = await findScenarioRow(db, { id: row.scenario_id });
   if (!scenario) throw reportNotFound();
@@ -140,10 +184,22 @@ export async function viewOf(deps: ReportsDeps, row: repo.ReportRow, urls: { pdf
   const author = row.created_by ? (await contactsByIds(db, [row.created_by])).get(row.created_by) : undefined;
   const withLogo = await hasLogo(db, row.organization_id);
   return buildReportView({
-    report: { title: row.title, note: row.note, points: row.points, figures: row.figures, unitSystem: row.unit_system, createdAt: row.created_at },
+    report: {
+      title: row.title,
+      note: row.note,
+      points: row.points,
+      figures: row.figures,
+      unitSystem: row.unit_system,
+      createdAt: row.created_at,
+    },
     frozenAt: scenario.frozen_at,
     sweep,
-    project: { name: project.name, clientName: project.client_name, siteAddress: project.site_address, building: project.building },
+    project: {
+      name: project.name,
+      clientName: project.client_name,
+      siteAddress: project.site_address,
+      building: project.building,
+    },
     firmName,
     contact: { name: author?.name ?? firmName, email: author?.email ?? '', phone: row.contact_phone },
     logoUrl: withLogo ? urls.logoUrl : null,
@@ -153,15 +209,34 @@ export async function viewOf(deps: ReportsDeps, row: repo.ReportRow, urls: { pdf
 }
 
 /** The report's PDF, with a file name from its title. */
-export async function pdfOf(deps: ReportsDeps, row: repo.ReportRow, view: ReportView): Promise<{ pdf: Buffer; fileName: string }> {
+export async function pdfOf(
+  deps: ReportsDeps,
+  row: repo.ReportRow,
+  view: ReportView,
+): Promise<{ pdf: Buffer; fileName: string }> {
   const pdf = await deps.pdfPool.render(view, await loadLogo(deps.db, row.organization_id));
-  const name = view.title.replace(/[^\w.-]+/g, '-').replace(/-+/g, '-').slice(0, 80) || 'report';
+  const name =
+    view.title
+      .replace(/[^\w.-]+/g, '-')
+      .replace(/-+/g, '-')
+      .slice(0, 80) || 'report';
   return { pdf, fileName: `${name}.pdf` };
 }
 
-async function createLink(deps: ReportsDeps, reportId: string, userId: string, days: number, conn: Knex): Promise<{ link: ReportLink; url: string; id: string }> {
+async function createLink(
+  deps: ReportsDeps,
+  reportId: string,
+  userId: string,
+  days: number,
+  conn: Knex,
+): Promise<{ link: ReportLink; url: string; id: string }> {
   const { token, hash } = newReportToken(deps.config.sessionSecret);
-  const row = await repo.insertLink(conn, { reportId, tokenHash: hash, expiresAt: new Date(Date.now() + days * DAY_MS), createdBy: userId });
+  const row = await repo.insertLink(conn, {
+    reportId,
+    tokenHash: hash,
+    expiresAt: new Date(Date.now() + days * DAY_MS),
+    createdBy: userId,
+  });
   return { link: repo.toLink(row), url: `${deps.config.publicUrl}/r/${token}`, id: row.id };
 }
 
@@ -177,7 +252,12 @@ export async function shareReport(
 ): Promise<{ link: ReportLink; url: string }> {
   const row = await findReport(deps.db, organizationId, projectId, reportId);
   const { link, url } = await createLink(deps, row.id, userId, expiresInDays, deps.db);
-  await audit(deps.db, req, { type: 'report_link_created', organizationId, userId, detail: { report: row.id, title: row.title, link: link.id } });
+  await audit(deps.db, req, {
+    type: 'report_link_created',
+    organizationId,
+    userId,
+    detail: { report: row.id, title: row.title, link: link.id },
+  });
   return { link, url };
 }
 
@@ -194,8 +274,15 @@ export async function revokeLink(
   const { db } = deps;
   const row = await findReport(db, organizationId, projectId, reportId);
   const revoked = await repo.revokeLink(db, linkId, row.id);
-  if (revoked) await audit(db, req, { type: 'report_link_revoked', organizationId: row.organization_id, userId, detail: { report: row.id, title: row.title, link: linkId } });
-  if (!revoked && !(await repo.linkExists(db, row.id, linkId))) throw new HttpError(404, 'not_found', 'That link was not found');
+  if (revoked)
+    await audit(db, req, {
+      type: 'report_link_revoked',
+      organizationId: row.organization_id,
+      userId,
+      detail: { report: row.id, title: row.title, link: linkId },
+    });
+  if (!revoked && !(await repo.linkExists(db, row.id, linkId)))
+    throw new HttpError(404, 'not_found', 'That link was not found');
   return toReport(db, row);
 }
 
@@ -212,8 +299,21 @@ async function deliver(
   // out: a failure before it leaves nothing behind, and nothing after it can make a retry send twice.
   const { url, linkId, link, sendId } = await db.transaction(async (trx) => {
     const made = await createLink(deps, row.id, userId, input.expiresInDays, trx);
-    await audit(trx, null, { type: 'report_link_created', organizationId: row.organization_id, userId, detail: { report: row.id, title: row.title, link: made.id, emailedTo: input.to } });
-    const id = await repo.insertSend(trx, { reportId: row.id, linkId: made.id, recipient: input.to, message: input.message, status: 'failed', error: SEND_INTERRUPTED, sentBy: userId });
+    await audit(trx, null, {
+      type: 'report_link_created',
+      organizationId: row.organization_id,
+      userId,
+      detail: { report: row.id, title: row.title, link: made.id, emailedTo: input.to },
+    });
+    const id = await repo.insertSend(trx, {
+      reportId: row.id,
+      linkId: made.id,
+      recipient: input.to,
+      message: input.message,
+      status: 'failed',
+      error: SEND_INTERRUPTED,
+      sentBy: userId,
+    });
     return { url: made.url, linkId: made.id, link: made.link, sendId: id };
   });
   let error: string | null = null;
@@ -259,13 +359,29 @@ export async function sendReport(
   await consume(sendLimits.perOrganization, organizationId);
   await consume(sendLimits.perRecipient, input.to.trim().toLowerCase());
   const orgName = await organizationName(db, organizationId);
-  const { sendId, error } = await deliver(deps, row, orgName, { name: sender.name, email: sender.email }, input, userId);
-  await audit(db, req, { type: 'report_sent', organizationId, userId, detail: { report: row.id, title: row.title, to: input.to, send: sendId, status: error ? 'failed' : 'sent' } });
+  const { sendId, error } = await deliver(
+    deps,
+    row,
+    orgName,
+    { name: sender.name, email: sender.email },
+    input,
+    userId,
+  );
+  await audit(db, req, {
+    type: 'report_sent',
+    organizationId,
+    userId,
+    detail: { report: row.id, title: row.title, to: input.to, send: sendId, status: error ? 'failed' : 'sent' },
+  });
   return { report: await toReport(db, row), sendId, error };
 }
 
 /** The recipient and message of an earlier send of the report, to send again; 404 when there is none. */
-export async function previousSend(db: Knex, row: repo.ReportRow, sendId: string): Promise<{ to: string; message: string; expiresInDays: number }> {
+export async function previousSend(
+  db: Knex,
+  row: repo.ReportRow,
+  sendId: string,
+): Promise<{ to: string; message: string; expiresInDays: number }> {
   const previous = await repo.findSend(db, row.id, sendId);
   if (!previous) throw new HttpError(404, 'not_found', 'That e-mail was not found');
   return { to: previous.recipient, message: previous.message, expiresInDays: 30 };
@@ -276,12 +392,19 @@ export async function previousSend(db: Knex, row: repo.ReportRow, sendId: string
 /** The report and link of a token: 404 for a forged or unknown one, 410 for one withdrawn or expired. */
 export async function byToken(deps: ReportsDeps, token: string): Promise<{ row: repo.ReportRow; link: repo.LinkRow }> {
   const { db, config } = deps;
-  if (!verifyReportToken(config.sessionSecret, token)) throw new HttpError(404, 'not_found', 'This report link is not valid');
+  if (!verifyReportToken(config.sessionSecret, token))
+    throw new HttpError(404, 'not_found', 'This report link is not valid');
   const link = await repo.findLinkByTokenHash(db, hashReportToken(token));
   if (!link) throw new HttpError(404, 'not_found', 'This report link is not valid');
   const status = repo.linkStatus(link);
-  if (status === 'revoked') throw new HttpError(410, 'link_revoked', 'This report link was withdrawn by the contractor. Ask them for a new one.');
-  if (status === 'expired') throw new HttpError(410, 'link_expired', 'This report link has expired. Ask the contractor for a new one.');
+  if (status === 'revoked')
+    throw new HttpError(
+      410,
+      'link_revoked',
+      'This report link was withdrawn by the contractor. Ask them for a new one.',
+    );
+  if (status === 'expired')
+    throw new HttpError(410, 'link_expired', 'This report link has expired. Ask the contractor for a new one.');
   const row = await repo.findReportById(db, link.report_id);
   if (!row) throw new HttpError(404, 'not_found', 'This report link is not valid');
   return { row, link };

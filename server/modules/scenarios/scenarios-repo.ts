@@ -1,6 +1,11 @@
 /** The tables of scenarios and of the sweep result cache, with their row mappers. */
 import type { Knex } from 'knex';
-import { scenarioSettingsSchema, type Scenario, type ScenarioSettings, type SweepAnswer } from '@shared/scenarios/scenario-schemas';
+import {
+  scenarioSettingsSchema,
+  type Scenario,
+  type ScenarioSettings,
+  type SweepAnswer,
+} from '@shared/scenarios/scenario-schemas';
 import { prepared } from '../../db';
 
 export const TABLES = ['scenarios', 'sweep_results'] as const;
@@ -96,34 +101,60 @@ function scenarioQuery(db: Knex, organizationId: string, projectId: string) {
     .leftJoin('equipment_lists as el', 'el.id', 's.equipment_list_id')
     .leftJoin('users as uu', 'uu.id', 's.updated_by')
     .where({ 's.organization_id': organizationId, 's.project_id': projectId })
-    .select<ListedRow[]>('s.*', 'cs.name as climate_site_name', 'el.name as equipment_list_name', 'uu.name as updated_by_name');
+    .select<ListedRow[]>(
+      's.*',
+      'cs.name as climate_site_name',
+      'el.name as equipment_list_name',
+      'uu.name as updated_by_name',
+    );
   return joinInputsKey(db, query);
 }
 
-export async function findScenario(db: Knex, organizationId: string, projectId: string, scenarioId: string): Promise<ListedRow | undefined> {
+export async function findScenario(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  scenarioId: string,
+): Promise<ListedRow | undefined> {
   const rows = await prepared(scenarioQuery(db, organizationId, projectId).andWhere('s.id', scenarioId));
   return rows[0];
 }
 
 /** A project's scenarios, oldest first. */
 export function listScenarios(db: Knex, organizationId: string, projectId: string): Promise<ListedRow[]> {
-  return scenarioQuery(db, organizationId, projectId).orderBy([{ column: 's.created_at', order: 'asc' }, { column: 's.id' }]);
+  return scenarioQuery(db, organizationId, projectId).orderBy([
+    { column: 's.created_at', order: 'asc' },
+    { column: 's.id' },
+  ]);
 }
 
-export function listScenariosByIds(db: Knex, organizationId: string, projectId: string, ids: readonly string[]): Promise<ListedRow[]> {
+export function listScenariosByIds(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  ids: readonly string[],
+): Promise<ListedRow[]> {
   return scenarioQuery(db, organizationId, projectId).whereIn('s.id', ids);
 }
 
 /** A scenario's own row (without names or key), matching all of `where`. */
-export function findScenarioRow(db: Knex, where: { id: string; organization_id?: string; project_id?: string }): Promise<ScenarioRow | undefined> {
+export function findScenarioRow(
+  db: Knex,
+  where: { id: string; organization_id?: string; project_id?: string },
+): Promise<ScenarioRow | undefined> {
   return db('scenarios').where(where).first<ScenarioRow | undefined>('*');
 }
 
 /** The name and frozen time of each of these scenarios, by id. */
-export async function scenarioLabels(db: Knex, ids: readonly string[]): Promise<Map<string, { name: string; frozenAt: Date | null }>> {
+export async function scenarioLabels(
+  db: Knex,
+  ids: readonly string[],
+): Promise<Map<string, { name: string; frozenAt: Date | null }>> {
   const wanted = [...new Set(ids)];
   const rows = wanted.length
-    ? await db('scenarios').whereIn('id', wanted).select<{ id: string; name: string; frozen_at: Date | null }[]>('id', 'name', 'frozen_at')
+    ? await db('scenarios')
+        .whereIn('id', wanted)
+        .select<{ id: string; name: string; frozen_at: Date | null }[]>('id', 'name', 'frozen_at')
     : [];
   return new Map(rows.map((r) => [r.id, { name: r.name, frozenAt: r.frozen_at }]));
 }
@@ -135,21 +166,34 @@ export async function insertScenario(db: Knex, values: Record<string, unknown>):
 }
 
 /** Applies `update` to the scenario if it is still `version` (the version moves by one); false otherwise. */
-export async function updateScenario(db: Knex, organizationId: string, id: string, version: number, update: Record<string, unknown>): Promise<boolean> {
+export async function updateScenario(
+  db: Knex,
+  organizationId: string,
+  id: string,
+  version: number,
+  update: Record<string, unknown>,
+): Promise<boolean> {
   const n = await db('scenarios')
     .where({ id, organization_id: organizationId, version })
     .update({ ...update, updated_at: db.fn.now(), version: db.raw('version + 1') });
   return n > 0;
 }
 
-export async function deleteScenario(db: Knex, organizationId: string, projectId: string, id: string): Promise<boolean> {
+export async function deleteScenario(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  id: string,
+): Promise<boolean> {
   const n = await db('scenarios').where({ id, project_id: projectId, organization_id: organizationId }).delete();
   return n > 0;
 }
 
 /** A cached sweep result by its input hash. */
 export function findResult(db: Knex, hash: string): Promise<{ result: SweepAnswerBody; used_at: Date } | undefined> {
-  return db('sweep_results').where({ input_hash: hash }).first<{ result: SweepAnswerBody; used_at: Date } | undefined>('result', 'used_at');
+  return db('sweep_results')
+    .where({ input_hash: hash })
+    .first<{ result: SweepAnswerBody; used_at: Date } | undefined>('result', 'used_at');
 }
 
 export async function touchResult(db: Knex, hash: string): Promise<void> {
@@ -157,5 +201,8 @@ export async function touchResult(db: Knex, hash: string): Promise<void> {
 }
 
 export async function insertResult(db: Knex, hash: string, body: SweepAnswerBody): Promise<void> {
-  await db('sweep_results').insert({ input_hash: hash, result: JSON.stringify(body) }).onConflict('input_hash').ignore();
+  await db('sweep_results')
+    .insert({ input_hash: hash, result: JSON.stringify(body) })
+    .onConflict('input_hash')
+    .ignore();
 }

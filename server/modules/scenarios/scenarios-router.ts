@@ -8,7 +8,13 @@ import { z } from 'zod';
 import { csvLines, csvTextField } from '@shared/csv/csv-field';
 import { csvColumn } from '@shared/glossary/glossary';
 import { chosenRowIndex } from '@shared/sweep/tradeoff-summary';
-import { compareQuerySchema, scenarioCopySchema, scenarioInputSchema, scenarioPatchSchema, type SweepAnswer } from '@shared/scenarios/scenario-schemas';
+import {
+  compareQuerySchema,
+  scenarioCopySchema,
+  scenarioInputSchema,
+  scenarioPatchSchema,
+  type SweepAnswer,
+} from '@shared/scenarios/scenario-schemas';
 import { authorize, orgContext } from '../../http/authorize';
 import { HttpError } from '../../http/http-error';
 import * as scenarios from './scenarios-service';
@@ -71,7 +77,15 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     const { projectId, scenarioId } = scenarioParams.parse(req.params);
     const copyInput = scenarioCopySchema.parse(req.body ?? {});
     const { organizationId, user } = orgContext(req);
-    const frozen = await scenarios.freezeScenario(db, runner, organizationId, user.id, projectId, scenarioId, copyInput);
+    const frozen = await scenarios.freezeScenario(
+      db,
+      runner,
+      organizationId,
+      user.id,
+      projectId,
+      scenarioId,
+      copyInput,
+    );
     res.status(201).location(`/api/v1/projects/${projectId}/scenarios/${frozen.id}`).json(frozen);
   });
 
@@ -85,15 +99,27 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
   /** The cached sweep only (404 `not_computed` when the current inputs have not been swept yet). */
   router.get('/:projectId/scenarios/:scenarioId/sweep', authorize(db, 'org:read'), async (req, res) => {
     const { projectId, scenarioId } = scenarioParams.parse(req.params);
-    const json = await scenarios.sweepJsonOf(db, runner, orgContext(req).organizationId, projectId, scenarioId, { onlyCached: true });
+    const json = await scenarios.sweepJsonOf(db, runner, orgContext(req).organizationId, projectId, scenarioId, {
+      onlyCached: true,
+    });
     if (!json) throw new HttpError(404, 'not_computed', 'This scenario has not been swept with its current inputs yet');
     sendSweepJson(res, json);
   });
 
   router.get('/:projectId/scenarios/:scenarioId/sweep.csv', authorize(db, 'org:read'), async (req, res) => {
     const { projectId, scenarioId } = scenarioParams.parse(req.params);
-    const { row, answer } = await scenarios.scenarioWithSweep(db, runner, orgContext(req).organizationId, projectId, scenarioId);
-    sendCsv(res, `${row.name}-sweep.csv`, csvLines([SWEEP_CSV_HEADER, ...sweepCsvRows(row.name, answer, row.chosen_design_c, false)]));
+    const { row, answer } = await scenarios.scenarioWithSweep(
+      db,
+      runner,
+      orgContext(req).organizationId,
+      projectId,
+      scenarioId,
+    );
+    sendCsv(
+      res,
+      `${row.name}-sweep.csv`,
+      csvLines([SWEEP_CSV_HEADER, ...sweepCsvRows(row.name, answer, row.chosen_design_c, false)]),
+    );
   });
 
   router.get('/:projectId/scenario-comparison', authorize(db, 'org:read'), async (req, res) => {
@@ -107,7 +133,8 @@ export function scenariosRouter(db: Knex, pool: SweepPool, databaseUrl: string):
     const { ids } = compareQuerySchema.parse(req.query);
     const { entries } = await scenarios.comparison(db, runner, orgContext(req).organizationId, projectId, ids);
     const lines = [SWEEP_CSV_HEADER];
-    for (const e of entries) if (e.sweep) lines.push(...sweepCsvRows(e.scenario.name, e.sweep, e.scenario.chosenDesignC, true));
+    for (const e of entries)
+      if (e.sweep) lines.push(...sweepCsvRows(e.scenario.name, e.sweep, e.scenario.chosenDesignC, true));
     sendCsv(res, 'scenario-comparison.csv', csvLines(lines));
   });
 
@@ -141,7 +168,12 @@ const SWEEP_CSV_HEADER = [
 const num = (v: number | null, digits: number) => (v === null ? '' : String(Number(v.toFixed(digits))));
 
 /** A sweep's rows as CSV (the comparison: named values and the chosen point only); the chosen point says "yes". */
-function sweepCsvRows(scenarioName: string, a: SweepAnswer, chosenDesignC: number | null, namedOnly: boolean): string[][] {
+function sweepCsvRows(
+  scenarioName: string,
+  a: SweepAnswer,
+  chosenDesignC: number | null,
+  namedOnly: boolean,
+): string[][] {
   const labels = new Map(a.options.map((o) => [o.id, o.label]));
   const chosen = a.rows[chosenRowIndex(a.rows, chosenDesignC)];
   return a.rows
@@ -172,8 +204,5 @@ function sweepCsvRows(scenarioName: string, a: SweepAnswer, chosenDesignC: numbe
 
 function sendCsv(res: Response, fileName: string, body: string): void {
   const safe = fileName.replace(/[^\w.-]+/g, '-').replace(/-+/g, '-');
-  res
-    .type('text/csv; charset=utf-8')
-    .set('Content-Disposition', `attachment; filename="${safe}"`)
-    .send(body);
+  res.type('text/csv; charset=utf-8').set('Content-Disposition', `attachment; filename="${safe}"`).send(body);
 }

@@ -37,19 +37,31 @@ export interface SweepRunner {
 
 export const scenarioNotFound = () => new HttpError(404, 'not_found', 'That scenario was not found');
 const frozenError = () =>
-  new HttpError(409, 'frozen', 'This scenario is frozen for a bid: its inputs and results cannot change. Duplicate it to work on a copy.');
+  new HttpError(
+    409,
+    'frozen',
+    'This scenario is frozen for a bid: its inputs and results cannot change. Duplicate it to work on a copy.',
+  );
 
 const bidDate = (d: Date) => d.toISOString().slice(0, 10);
 
 /** The scenario of the project in the organisation, or 404. */
-export async function findScenario(db: Knex, organizationId: string, projectId: string, scenarioId: string): Promise<repo.ListedRow> {
+export async function findScenario(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  scenarioId: string,
+): Promise<repo.ListedRow> {
   const row = await repo.findScenario(db, organizationId, projectId, scenarioId);
   if (!row) throw scenarioNotFound();
   return row;
 }
 
 /** A scenario's own row by id, in the organisation (and project, when given). */
-export function findScenarioRow(db: Knex, where: { id: string; organization_id?: string; project_id?: string }): Promise<repo.ScenarioRow | undefined> {
+export function findScenarioRow(
+  db: Knex,
+  where: { id: string; organization_id?: string; project_id?: string },
+): Promise<repo.ScenarioRow | undefined> {
   return repo.findScenarioRow(db, where);
 }
 
@@ -67,20 +79,45 @@ async function chosenPointOf(db: Knex, runner: SweepRunner, r: repo.ListedRow): 
   const row = answer?.rows[chosenRowIndex(answer.rows, r.chosen_design_c)];
   if (!answer || !row) return null;
   const unit = row.selectedOptionId ? (answer.options.find((o) => o.id === row.selectedOptionId)?.label ?? null) : null;
-  return { designC: row.designC, label: row.label, isGrid: row.isGrid, unit, installedPrice: row.installedPrice, currency: answer.currency };
+  return {
+    designC: row.designC,
+    label: row.label,
+    isGrid: row.isGrid,
+    unit,
+    installedPrice: row.installedPrice,
+    currency: answer.currency,
+  };
 }
 
-export async function listScenarios(db: Knex, runner: SweepRunner, organizationId: string, projectId: string): Promise<Scenario[]> {
+export async function listScenarios(
+  db: Knex,
+  runner: SweepRunner,
+  organizationId: string,
+  projectId: string,
+): Promise<Scenario[]> {
   await projectInOrganization(db, organizationId, projectId);
   const rows = await repo.listScenarios(db, organizationId, projectId);
-  return Promise.all(rows.map(async (r) => ({ ...repo.toScenario(r), chosenPoint: await chosenPointOf(db, runner, r) })));
+  return Promise.all(
+    rows.map(async (r) => ({ ...repo.toScenario(r), chosenPoint: await chosenPointOf(db, runner, r) })),
+  );
 }
 
-export async function getScenario(db: Knex, organizationId: string, projectId: string, scenarioId: string): Promise<Scenario> {
+export async function getScenario(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  scenarioId: string,
+): Promise<Scenario> {
   return repo.toScenario(await findScenario(db, organizationId, projectId, scenarioId));
 }
 
-export async function createScenario(db: Knex, organizationId: string, userId: string, projectId: string, input: ScenarioInput): Promise<Scenario> {
+export async function createScenario(
+  db: Knex,
+  organizationId: string,
+  userId: string,
+  projectId: string,
+  input: ScenarioInput,
+): Promise<Scenario> {
   const project = await projectInOrganization(db, organizationId, projectId);
   await checkReferences(db, organizationId, input);
   const settings: ScenarioSettings = input.settings ?? scenarioSettingsSchema.parse({});
@@ -107,7 +144,10 @@ export async function patchScenario(
 ): Promise<Scenario> {
   const current = await findScenario(db, organizationId, projectId, scenarioId);
   const changesInputs =
-    patch.climateSiteId !== undefined || patch.equipmentListId !== undefined || patch.settings !== undefined || patch.chosenDesignC !== undefined;
+    patch.climateSiteId !== undefined ||
+    patch.equipmentListId !== undefined ||
+    patch.settings !== undefined ||
+    patch.chosenDesignC !== undefined;
   if (current.frozen_at && changesInputs) throw frozenError();
   await checkReferences(db, organizationId, patch);
   const update: Record<string, unknown> = { updated_by: userId };
@@ -116,11 +156,17 @@ export async function patchScenario(
   if (patch.equipmentListId !== undefined) update['equipment_list_id'] = patch.equipmentListId;
   if (patch.settings !== undefined) update['settings'] = JSON.stringify(patch.settings);
   if (patch.chosenDesignC !== undefined) update['chosen_design_c'] = patch.chosenDesignC;
-  if (!(await repo.updateScenario(db, organizationId, scenarioId, patch.version, update))) throw staleUpdate(current.updated_by_name ?? repo.FORMER, 'scenario');
+  if (!(await repo.updateScenario(db, organizationId, scenarioId, patch.version, update)))
+    throw staleUpdate(current.updated_by_name ?? repo.FORMER, 'scenario');
   return getScenario(db, organizationId, projectId, scenarioId);
 }
 
-export async function deleteScenario(db: Knex, organizationId: string, projectId: string, scenarioId: string): Promise<void> {
+export async function deleteScenario(
+  db: Knex,
+  organizationId: string,
+  projectId: string,
+  scenarioId: string,
+): Promise<void> {
   if (!(await repo.deleteScenario(db, organizationId, projectId, scenarioId))) throw scenarioNotFound();
 }
 
@@ -194,7 +240,13 @@ export async function sweepJsonOf(
   scenarioId: string,
   options: { onlyCached?: boolean } = {},
 ): Promise<SweepJson | null> {
-  return scenarioSweepJson(db, runner.pool, runner.databaseUrl, await findScenario(db, organizationId, projectId, scenarioId), options);
+  return scenarioSweepJson(
+    db,
+    runner.pool,
+    runner.databaseUrl,
+    await findScenario(db, organizationId, projectId, scenarioId),
+    options,
+  );
 }
 
 /** The scenario and its sweep (run now when it is not cached). */
@@ -217,12 +269,21 @@ async function pricesOf(db: Knex, organizationId: string, r: repo.ListedRow): Pr
   return organizationPrices(db, organizationId);
 }
 
-export async function comparison(db: Knex, runner: SweepRunner, organizationId: string, projectId: string, ids: string[]): Promise<Comparison> {
+export async function comparison(
+  db: Knex,
+  runner: SweepRunner,
+  organizationId: string,
+  projectId: string,
+  ids: string[],
+): Promise<Comparison> {
   await projectInOrganization(db, organizationId, projectId);
   const rows = await repo.listScenariosByIds(db, organizationId, projectId, ids);
   const byId = new Map(rows.map((r) => [r.id, r]));
   const missing = ids.filter((id) => !byId.has(id));
-  if (missing.length > 0) throw new HttpError(404, 'not_found', 'Some of these scenarios were not found', [{ path: 'ids', message: `Unknown scenario: ${missing.join(', ')}` }]);
+  if (missing.length > 0)
+    throw new HttpError(404, 'not_found', 'Some of these scenarios were not found', [
+      { path: 'ids', message: `Unknown scenario: ${missing.join(', ')}` },
+    ]);
   const entries: Comparison['entries'] = [];
   for (const id of ids) {
     const r = byId.get(id);

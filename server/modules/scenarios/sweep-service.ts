@@ -67,9 +67,18 @@ function toSweepJson(answer: SweepAnswer): SweepJson {
 
 /** 422 `scenario_incomplete` with what is missing, field by field. */
 export const incomplete = (details: FieldIssue[]) =>
-  new HttpError(422, 'scenario_incomplete', 'This scenario cannot be swept yet: ' + details.map((d) => d.message).join('; '), details);
+  new HttpError(
+    422,
+    'scenario_incomplete',
+    'This scenario cannot be swept yet: ' + details.map((d) => d.message).join('; '),
+    details,
+  );
 
-const FAMILY_NAMES = { 'fuel-fired': 'fuel-fired equipment', 'heat-pump': 'heat pumps', electric: 'electric resistance heat' } as const;
+const FAMILY_NAMES = {
+  'fuel-fired': 'fuel-fired equipment',
+  'heat-pump': 'heat pumps',
+  electric: 'electric resistance heat',
+} as const;
 
 const CURVE_FROM_C = 20;
 const CURVE_TO_C = -45;
@@ -90,11 +99,19 @@ function definedOnly<T extends object>(value: T | undefined): Partial<T> {
  * The qualifying years a scenario's sweep uses: all of them, or the latest N (docs/methods.md#recent-years),
  * with the basis in plain words.
  */
-export function basisYears(qualifying: readonly number[], latestYears: number | null): { years: number[]; isWindow: boolean; description: string } {
+export function basisYears(
+  qualifying: readonly number[],
+  latestYears: number | null,
+): { years: number[]; isWindow: boolean; description: string } {
   const span = (ys: readonly number[]) => `${String(ys[0])}–${String(ys[ys.length - 1])}`;
   if (latestYears === null || latestYears >= qualifying.length) {
     const whole = `Whole record (${span(qualifying)}, ${qualifying.length} years)`;
-    return { years: [...qualifying], isWindow: false, description: latestYears === null ? whole : `${whole}; it has fewer than the ${latestYears} recent years asked for` };
+    return {
+      years: [...qualifying],
+      isWindow: false,
+      description:
+        latestYears === null ? whole : `${whole}; it has fewer than the ${latestYears} recent years asked for`,
+    };
   }
   const years = qualifying.slice(qualifying.length - latestYears);
   return { years, isWindow: true, description: `Latest ${latestYears} years of the record (${span(years)})` };
@@ -108,7 +125,8 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
   const orgId = scenario.organization_id;
   const project = await findBuilding(db, orgId, scenario.project_id);
   const building = project?.building ?? null;
-  if (building === null) problems.push({ path: 'building', message: 'Describe the building on the project page first' });
+  if (building === null)
+    problems.push({ path: 'building', message: 'Describe the building on the project page first' });
 
   const site = scenario.climate_site_id ? await findSite(db, orgId, scenario.climate_site_id) : undefined;
   let designConditions: SweepDesignValues | null = null;
@@ -125,7 +143,14 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     const c = site.computed.conditions;
     const table = site.publishedValues; // present when the record is estimated from another site's
     designConditions = table
-      ? { heating: table.heating, extremeMin: { ...c.extremeMin, ...definedOnly(table.extremeMin), returnPeriod: { ...c.extremeMin.returnPeriod, ...definedOnly(table.extremeMin?.returnPeriod) } } }
+      ? {
+          heating: table.heating,
+          extremeMin: {
+            ...c.extremeMin,
+            ...definedOnly(table.extremeMin),
+            returnPeriod: { ...c.extremeMin.returnPeriod, ...definedOnly(table.extremeMin?.returnPeriod) },
+          },
+        }
       : { heating: c.heating, extremeMin: c.extremeMin };
     windValues = table?.wind ? { ...c.wind, ...definedOnly(table.wind) } : c.wind;
     const basis = basisYears(c.period.qualifyingYears, scenario.settings.climateBasisYears ?? null);
@@ -146,7 +171,10 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     designConditions = { heating: p.heating, extremeMin: p.extremeMin };
     windValues = p.wind ?? null;
   } else {
-    problems.push({ path: 'climateSiteId', message: `"${site.name}" has no design values yet: upload and confirm its hourly record` });
+    problems.push({
+      path: 'climateSiteId',
+      message: `"${site.name}" has no design values yet: upload and confirm its hourly record`,
+    });
   }
 
   const list = scenario.equipment_list_id ? await listForSweep(db, orgId, scenario.equipment_list_id) : undefined;
@@ -168,15 +196,23 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     }
     const missing = (wanted ?? []).filter((l) => !seen.has(l));
     if (missing.length > 0) {
-      notes.push(`${missing.length === 1 ? 'An option' : `${missing.length} options`} chosen for this scenario ${missing.length === 1 ? 'is' : 'are'} no longer in the list: ${missing.join(', ')}`);
+      notes.push(
+        `${missing.length === 1 ? 'An option' : `${missing.length} options`} chosen for this scenario ${missing.length === 1 ? 'is' : 'are'} no longer in the list: ${missing.join(', ')}`,
+      );
     }
     if (options.length === 0) {
       problems.push(
         family !== null && rows.length > 0
-          ? { path: 'settings.equipmentFamily', message: `"${list.name}" has no ${FAMILY_NAMES[family]} among the options considered` }
+          ? {
+              path: 'settings.equipmentFamily',
+              message: `"${list.name}" has no ${FAMILY_NAMES[family]} among the options considered`,
+            }
           : {
               path: wanted === null ? 'equipmentListId' : 'settings.optionLabels',
-              message: wanted === null ? `"${list.name}" has no options yet` : 'None of the chosen options is in the list any more',
+              message:
+                wanted === null
+                  ? `"${list.name}" has no options yet`
+                  : 'None of the chosen options is in the list any more',
             },
       );
     }
@@ -188,7 +224,10 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     prices = stored === undefined ? null : energyPricesSchema.parse(stored);
   }
   if (prices === null) {
-    problems.push({ path: 'settings.prices', message: 'Enter the organisation’s energy prices, or give this scenario its own' });
+    problems.push({
+      path: 'settings.prices',
+      message: 'Enter the organisation’s energy prices, or give this scenario its own',
+    });
   }
 
   if (prices !== null) {
@@ -196,7 +235,10 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     const unpriced = [...new Set(options.filter((o) => pricePerKwhOfFuel(o.fuel, prices) === null).map((o) => o.fuel))];
     for (const fuel of unpriced) {
       const users = options.filter((o) => o.fuel === fuel).map((o) => `"${o.label}"`);
-      problems.push({ path: 'settings.prices', message: `Enter a ${fuel} price: ${users.join(', ')} ${users.length === 1 ? 'uses' : 'use'} ${fuel}` });
+      problems.push({
+        path: 'settings.prices',
+        message: `Enter a ${fuel} price: ${users.join(', ')} ${users.length === 1 ? 'uses' : 'use'} ${fuel}`,
+      });
     }
   }
   if (building !== null) {
@@ -217,8 +259,14 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
   const sized: Building = { ...building, safetyFactorPct: settings.safetyFactorPct ?? building.safetyFactorPct };
   const wind = resolveDesignWind(building.designWind, windValues);
   // Notes are kept with cached answers, so they name no quantity in one unit system (the screen shows the wind in the user's units).
-  if (wind.fellBack) notes.push(`The building's design wind choice has no value at "${site.name}"; the trade default wind speed is used`);
-  if (record === null) notes.push(`"${site.name}" has published values only: running cost, equivalent full-load hours and unmet hours need an hourly record`);
+  if (wind.fellBack)
+    notes.push(
+      `The building's design wind choice has no value at "${site.name}"; the trade default wind speed is used`,
+    );
+  if (record === null)
+    notes.push(
+      `"${site.name}" has published values only: running cost, equivalent full-load hours and unmet hours need an hourly record`,
+    );
 
   const input: SweepTask['input'] = {
     building: sized,
@@ -234,7 +282,10 @@ export async function prepareSweep(db: Knex, scenario: ScenarioRow): Promise<Pre
     extraDesignC: settings.extraDesignC,
     heatPumpSizing: settings.heatPumpSizing,
   };
-  const odds: SweepTask['odds'] = { uncertainty: { ...settings.uncertainty, tolerances: settings.tolerances }, periodYears: settings.studyPeriodYears };
+  const odds: SweepTask['odds'] = {
+    uncertainty: { ...settings.uncertainty, tolerances: settings.tolerances },
+    periodYears: settings.studyPeriodYears,
+  };
   const hash = createHash('sha256')
     .update(JSON.stringify({ v: SWEEP_VERSION, m: METHOD_VERSION, input, record, odds }))
     .digest('hex');
@@ -344,7 +395,9 @@ async function prepareSweepReusing(db: Knex, row: ScenarioRow): Promise<Prepared
 
 /** A frozen scenario's answer: the result kept with it, never computed again. */
 function frozenAnswer(row: ScenarioRow): SweepAnswer | null {
-  return row.frozen_at && row.frozen_result ? { ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true } : null;
+  return row.frozen_at && row.frozen_result
+    ? { ...row.frozen_result, scenarioId: row.id, cached: true, frozen: true }
+    : null;
 }
 
 /** The sweep answer of a scenario: its frozen result, or the cache, or a new run (null: `onlyCached` and not cached). */

@@ -30,7 +30,15 @@ export function warmUpSweeps(): void {
       timeConstantH: 40,
     },
     equipment: [
-      { id: 'warm-furnace', kind: 'furnace', outputW: 12_000, efficiency: 0.95, installedPrice: 4000, lifeYears: 20, energy: 'gas' },
+      {
+        id: 'warm-furnace',
+        kind: 'furnace',
+        outputW: 12_000,
+        efficiency: 0.95,
+        installedPrice: 4000,
+        lifeYears: 20,
+        energy: 'gas',
+      },
       {
         id: 'warm-heat-pump',
         kind: 'heat-pump',

@@ -7,7 +7,13 @@
 import type { Knex } from 'knex';
 import { computeDesignConditions } from '@shared/climate/design-conditions';
 import { seriesFromYear } from '@shared/climate/record-window';
-import { loadDuration, type LoadDurationPoint, type SweepDesignValues, type SweepInput, type SweepRecordIndex } from '@shared/sweep/sweep';
+import {
+  loadDuration,
+  type LoadDurationPoint,
+  type SweepDesignValues,
+  type SweepInput,
+  type SweepRecordIndex,
+} from '@shared/sweep/sweep';
 import { sweepWithOdds, type SweepOddsOptions, type SweepWithOdds } from '@shared/sweep/sweep-odds';
 import { createDb } from '../../db';
 import { buildSweepIndex, sweepIndexKey, unpackSweepIndex } from '@shared/sweep/sweep-index';
@@ -90,14 +96,19 @@ async function loadIndex(url: string, record: SweepTaskRecord): Promise<LoadedRe
     const window = from !== undefined ? computeDesignConditions(seriesFromYear(series, from)) : null;
     return {
       index: buildSweepIndex({ series, qualifyingYears: record.qualifyingYears }),
-      windowDesign: window?.ok ? { heating: window.conditions.heating, extremeMin: window.conditions.extremeMin } : null,
+      windowDesign: window?.ok
+        ? { heating: window.conditions.heating, extremeMin: window.conditions.extremeMin }
+        : null,
     };
   }
   const stored = await loadRecordForSweep(database(url), record.siteId, sweepIndexKey(record.qualifyingYears));
   if (stored === undefined) throw new Error(`climate site ${record.siteId} has no stored record`);
   if ('index' in stored) return { index: unpackSweepIndex(stored.index), windowDesign: null };
   // Stored before its index was kept, or with another index format: build it here.
-  return { index: buildSweepIndex({ series: stored.series, qualifyingYears: record.qualifyingYears }), windowDesign: null };
+  return {
+    index: buildSweepIndex({ series: stored.series, qualifyingYears: record.qualifyingYears }),
+    windowDesign: null,
+  };
 }
 
 export default async function runSweepTask(task: SweepTask | WarmUpTask): Promise<SweepTaskResult | null> {

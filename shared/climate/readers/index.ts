@@ -26,7 +26,10 @@ export interface ParseTextOptions {
 }
 
 /** Parses a whole file held in memory (the streaming parsers do the work). */
-export function parseWeatherText(text: string, options: ParseTextOptions = {}): ParseResult & { format: WeatherFileFormat } {
+export function parseWeatherText(
+  text: string,
+  options: ParseTextOptions = {},
+): ParseResult & { format: WeatherFileFormat } {
   const lines = text.split('\n');
   const firstLine = lines.find((l) => l.trim() !== '') ?? '';
   const format = options.format ?? detectFormat(firstLine);

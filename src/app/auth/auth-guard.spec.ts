@@ -1,11 +1,5 @@
 import { TestBed } from '@angular/core/testing';
-import {
-  type ActivatedRouteSnapshot,
-  provideRouter,
-  Router,
-  type RouterStateSnapshot,
-  UrlTree,
-} from '@angular/router';
+import { type ActivatedRouteSnapshot, provideRouter, Router, type RouterStateSnapshot, UrlTree } from '@angular/router';
 import { signedInSession, signedOutSession } from '../testing/test-sessions';
 import { authGuard } from './auth-guard';
 import { AuthStore } from './auth-store';

@@ -1,13 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, computed, inject, signal } from '@angular/core';
 import { firstValueFrom, type Observable } from 'rxjs';
-import type {
-  InvitedAccountInput,
-  Session,
-  SignInInput,
-  SignUpInput,
-  SignUpStarted,
-} from '@shared/auth/auth-schemas';
+import type { InvitedAccountInput, Session, SignInInput, SignUpInput, SignUpStarted } from '@shared/auth/auth-schemas';
 import { can, type Action } from '@shared/auth/roles';
 import type { UnitSystem } from '@shared/units/units';
 

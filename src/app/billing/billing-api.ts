@@ -2,7 +2,13 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import { z } from 'zod';
-import { billingSchema, usageSchema, type Billing, type BillingInterval, type Usage } from '@shared/billing/billing-schemas';
+import {
+  billingSchema,
+  usageSchema,
+  type Billing,
+  type BillingInterval,
+  type Usage,
+} from '@shared/billing/billing-schemas';
 
 const urlSchema = z.object({ url: z.string() });
 
@@ -21,7 +27,9 @@ export class BillingApi {
 
   /** The provider's checkout page for a paid plan. */
   async checkout(plan: 'crew' | 'firm', interval: BillingInterval): Promise<string> {
-    return urlSchema.parse(await firstValueFrom(this.http.post<unknown>('/api/v1/billing/checkout', { plan, interval }))).url;
+    return urlSchema.parse(
+      await firstValueFrom(this.http.post<unknown>('/api/v1/billing/checkout', { plan, interval })),
+    ).url;
   }
 
   async portal(): Promise<string> {

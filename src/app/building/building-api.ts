@@ -1,7 +1,11 @@
 import { HttpClient, httpResource } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
-import { projectBuildingAnswerSchema, type ProjectBuildingAnswer, type Building } from '@shared/building/building-schemas';
+import {
+  projectBuildingAnswerSchema,
+  type ProjectBuildingAnswer,
+  type Building,
+} from '@shared/building/building-schemas';
 import { equipmentListSchema } from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../auth/auth-store';
 

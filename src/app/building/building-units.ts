@@ -3,7 +3,18 @@
  * source of truth); what the user sees and types is converted for display only, so switching the
  * unit system never changes a stored value.
  */
-import { fromSi, groupDigits, formatPower, powerChartUnit, powerInChartUnit, quantities, toSi, unitLabel, type BuildingQuantity, type UnitSystem } from '@shared/units/units';
+import {
+  fromSi,
+  groupDigits,
+  formatPower,
+  powerChartUnit,
+  powerInChartUnit,
+  quantities,
+  toSi,
+  unitLabel,
+  type BuildingQuantity,
+  type UnitSystem,
+} from '@shared/units/units';
 
 export { formatPower, groupDigits, powerChartUnit, powerInChartUnit };
 

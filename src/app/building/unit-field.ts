@@ -19,7 +19,14 @@ import { UnitInput } from './unit-input';
   template: `
     <mat-form-field>
       <mat-label>{{ label() }}</mat-label>
-      <input matInput type="number" step="any" [formControl]="control()" [appUnitInput]="unit()" [unitSystem]="system()" />
+      <input
+        matInput
+        type="number"
+        step="any"
+        [formControl]="control()"
+        [appUnitInput]="unit()"
+        [unitSystem]="system()"
+      />
       @if (unitText()) {
         <span matTextSuffix>{{ unitText() }}</span>
       }

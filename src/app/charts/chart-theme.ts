@@ -2,7 +2,19 @@
  * The one chart theme of the screens: the palette shared with the report's chart, and the pieces
  * every ECharts option repeats (grid lines, text style, series colours in order).
  */
-import { CHART_FONT, COLD, GOLD, GREEN, INK, EMBER, SPLIT, TEAL, TEXT, UMBER, VIOLET } from '@shared/charts/chart-palette';
+import {
+  CHART_FONT,
+  COLD,
+  GOLD,
+  GREEN,
+  INK,
+  EMBER,
+  SPLIT,
+  TEAL,
+  TEXT,
+  UMBER,
+  VIOLET,
+} from '@shared/charts/chart-palette';
 
 export * from '@shared/charts/chart-palette';
 

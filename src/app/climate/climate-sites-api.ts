@@ -65,7 +65,9 @@ export class ClimateSitesApi {
 
   /** Estimates a published site's hourly record from a reference site's record (422 with the reason when refused). */
   async estimate(siteId: string, referenceSiteId: string): Promise<ClimateSite> {
-    return climateSiteSchema.parse(await firstValueFrom(this.http.post<unknown>(`${this.url}/${siteId}/estimate`, { referenceSiteId })));
+    return climateSiteSchema.parse(
+      await firstValueFrom(this.http.post<unknown>(`${this.url}/${siteId}/estimate`, { referenceSiteId })),
+    );
   }
 
   async create(input: ClimateSiteInput): Promise<ClimateSite> {

@@ -2,7 +2,16 @@ import { HttpClient, httpResource } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
 import { z } from 'zod';
-import { energyPricesAnswerSchema, equipmentCsvPreviewResultSchema, equipmentListSchema, equipmentListSummarySchema, type EnergyPricesAnswer, type EquipmentList, type EquipmentOption, type EquipmentOptionInput } from '@shared/equipment/equipment-schemas';
+import {
+  energyPricesAnswerSchema,
+  equipmentCsvPreviewResultSchema,
+  equipmentListSchema,
+  equipmentListSummarySchema,
+  type EnergyPricesAnswer,
+  type EquipmentList,
+  type EquipmentOption,
+  type EquipmentOptionInput,
+} from '@shared/equipment/equipment-schemas';
 import type { EnergyPrices } from '@shared/money/energy-prices';
 import { AuthStore } from '../auth/auth-store';
 

@@ -78,7 +78,12 @@ export const VALUE_COLUMNS: readonly ValueColumn[] = [
   { field: 'backupW', type: 'power', kinds: HEAT_PUMP, header: 'Backup heat ({u})' },
   { field: 'installedPrice', type: 'money', kinds: ALL, header: 'Installed price ({c})' },
   { field: 'lifeYears', type: 'years', kinds: ALL, header: 'Expected life (years)' },
-  { field: 'cyclingDegradation', type: 'ratio', kinds: ALL, header: 'Cycling loss C_d (blank: 0.25 heat pumps, 0 others)' },
+  {
+    field: 'cyclingDegradation',
+    type: 'ratio',
+    kinds: ALL,
+    header: 'Cycling loss C_d (blank: 0.25 heat pumps, 0 others)',
+  },
   { field: 'minOutputFraction', type: 'ratio', kinds: ALL, header: 'Minimum output, fraction (blank: single-stage)' },
 ];
 
@@ -120,7 +125,12 @@ export function formatPowerNumber(watts: number, system: UnitSystem): string {
 }
 
 /** One stored value as a table cell reads it ('—' when the option has none). */
-export function displayValue(column: ValueColumn, option: EquipmentOption, system: UnitSystem, currency: string): string {
+export function displayValue(
+  column: ValueColumn,
+  option: EquipmentOption,
+  system: UnitSystem,
+  currency: string,
+): string {
   if (column.field === 'efficiency' && option.kind === 'electric') return '100';
   if (!column.kinds.includes(option.kind)) return '—';
   const value = (option as Partial<Record<TextField, number | string>>)[column.field];
@@ -319,7 +329,13 @@ export class OptionRow {
       issues: result.error.issues.map((issue) => {
         const field = typeof issue.path[0] === 'string' ? issue.path[0] : '';
         // The schema speaks of a fraction; the cell takes a percentage.
-        return { field, message: field === 'efficiency' ? 'Enter the efficiency in %, more than 0 and at most 100 (for example 95)' : issue.message };
+        return {
+          field,
+          message:
+            field === 'efficiency'
+              ? 'Enter the efficiency in %, more than 0 and at most 100 (for example 95)'
+              : issue.message,
+        };
       }),
     };
   }

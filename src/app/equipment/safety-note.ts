@@ -9,8 +9,8 @@ import { MatIconModule } from '@angular/material/icon';
     <p class="tr-note" role="note" data-testid="safety-note">
       <mat-icon aria-hidden="true">warning</mat-icon>
       <span
-        >Combustion equipment must be installed and vented by qualified people; capacities come from the
-        manufacturer’s data, which governs.</span
+        >Combustion equipment must be installed and vented by qualified people; capacities come from the manufacturer’s
+        data, which governs.</span
       >
     </p>
   `,

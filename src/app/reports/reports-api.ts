@@ -44,24 +44,38 @@ export class ReportsApi {
 
   /** A new link; its address (with the token) is shown only in this answer. */
   async createLink(projectId: string, id: string, expiresInDays: number): Promise<z.infer<typeof linkCreatedSchema>> {
-    return linkCreatedSchema.parse(await firstValueFrom(this.http.post<unknown>(`${this.base(projectId)}/${id}/links`, { expiresInDays })));
+    return linkCreatedSchema.parse(
+      await firstValueFrom(this.http.post<unknown>(`${this.base(projectId)}/${id}/links`, { expiresInDays })),
+    );
   }
 
   async revokeLink(projectId: string, id: string, linkId: string): Promise<Report> {
-    return reportSchema.parse(await firstValueFrom(this.http.delete<unknown>(`${this.base(projectId)}/${id}/links/${linkId}`)));
+    return reportSchema.parse(
+      await firstValueFrom(this.http.delete<unknown>(`${this.base(projectId)}/${id}/links/${linkId}`)),
+    );
   }
 
   /** 502 `send_failed` when the e-mail could not be sent (the attempt is recorded and can be retried). */
-  async send(projectId: string, id: string, input: { to: string; message: string; expiresInDays: number }): Promise<Report> {
-    return reportSchema.parse(await firstValueFrom(this.http.post<unknown>(`${this.base(projectId)}/${id}/send`, input)));
+  async send(
+    projectId: string,
+    id: string,
+    input: { to: string; message: string; expiresInDays: number },
+  ): Promise<Report> {
+    return reportSchema.parse(
+      await firstValueFrom(this.http.post<unknown>(`${this.base(projectId)}/${id}/send`, input)),
+    );
   }
 
   async retry(projectId: string, id: string, sendId: string): Promise<Report> {
-    return reportSchema.parse(await firstValueFrom(this.http.post<unknown>(`${this.base(projectId)}/${id}/sends/${sendId}/retry`, {})));
+    return reportSchema.parse(
+      await firstValueFrom(this.http.post<unknown>(`${this.base(projectId)}/${id}/sends/${sendId}/retry`, {})),
+    );
   }
 
   /** GET /api/v1/public/reports/:token: 410 for an expired or withdrawn link, 404 for an unknown one. */
   async publicView(token: string): Promise<ReportView> {
-    return reportViewSchema.parse(await firstValueFrom(this.http.get<unknown>(`/api/v1/public/reports/${encodeURIComponent(token)}`)));
+    return reportViewSchema.parse(
+      await firstValueFrom(this.http.get<unknown>(`/api/v1/public/reports/${encodeURIComponent(token)}`)),
+    );
   }
 }

@@ -46,20 +46,38 @@ export interface CompareEntry {
 /** The named design values of the compared sweeps, mildest first (the choices of the comparison's point). */
 export function comparePointChoices(entries: readonly CompareEntry[]): { value: ComparePoint; text: string }[] {
   const labels: { label: string; designC: number }[] = [];
-  for (const e of entries) for (const r of e.sweep?.rows ?? []) if (!r.isGrid && !labels.some((l) => l.label === r.label)) labels.push({ label: r.label, designC: r.designC });
+  for (const e of entries)
+    for (const r of e.sweep?.rows ?? [])
+      if (!r.isGrid && !labels.some((l) => l.label === r.label)) labels.push({ label: r.label, designC: r.designC });
   labels.sort((a, b) => b.designC - a.designC);
-  return [{ value: 'chosen', text: 'The point chosen in each scenario' }, ...labels.map((l) => ({ value: l.label, text: designValueName(l.label) }))];
+  return [
+    { value: 'chosen', text: 'The point chosen in each scenario' },
+    ...labels.map((l) => ({ value: l.label, text: designValueName(l.label) })),
+  ];
 }
 
 /**
  * The estimator's comparison: one column per scenario at the chosen design point (or a named
  * value), with the figures a bid needs, named and explained from the glossary; money to whole units.
  */
-export function comparisonTable(entries: readonly CompareEntry[], point: ComparePoint, system: UnitSystem): ComparisonTable {
+export function comparisonTable(
+  entries: readonly CompareEntry[],
+  point: ComparePoint,
+  system: UnitSystem,
+): ComparisonTable {
   const columns: ComparisonColumn[] = entries.map((e) => {
     const rows = e.sweep?.rows ?? [];
-    const row = point === 'chosen' ? (rows[chosenRowIndex(rows, e.scenario.chosenDesignC)] ?? null) : (rows.find((r) => !r.isGrid && r.label === point) ?? null);
-    return { scenarioId: e.scenario.id, name: e.scenario.name, frozen: e.scenario.frozenAt !== null, row, currency: e.sweep?.currency ?? '' };
+    const row =
+      point === 'chosen'
+        ? (rows[chosenRowIndex(rows, e.scenario.chosenDesignC)] ?? null)
+        : (rows.find((r) => !r.isGrid && r.label === point) ?? null);
+    return {
+      scenarioId: e.scenario.id,
+      name: e.scenario.name,
+      frozen: e.scenario.frozenAt !== null,
+      row,
+      currency: e.sweep?.currency ?? '',
+    };
   });
   const cell = (k: number, f: (r: SweepRowAnswer, a: SweepAnswer, e: CompareEntry) => string) => {
     const e = entries[k];
@@ -67,15 +85,22 @@ export function comparisonTable(entries: readonly CompareEntry[], point: Compare
     return e?.sweep && r ? f(r, e.sweep, e) : '—';
   };
   const money = (v: string | null, a: SweepAnswer) => (v === null ? '—' : formatMoneyWhole(v, a.currency));
-  const option = (r: SweepRowAnswer, a: SweepAnswer) => (r.selectedOptionId ? a.options.find((o) => o.id === r.selectedOptionId) : undefined);
-  const figure = (key: TermKey, f: (r: SweepRowAnswer, a: SweepAnswer, e: CompareEntry) => string): ComparisonFigureRow => ({
+  const option = (r: SweepRowAnswer, a: SweepAnswer) =>
+    r.selectedOptionId ? a.options.find((o) => o.id === r.selectedOptionId) : undefined;
+  const figure = (
+    key: TermKey,
+    f: (r: SweepRowAnswer, a: SweepAnswer, e: CompareEntry) => string,
+  ): ComparisonFigureRow => ({
     key,
     name: term(key),
     explain: explain(key),
     cells: entries.map((_, k) => cell(k, f)),
   });
   const rows: ComparisonFigureRow[] = [
-    figure('designTemperature', (r) => `${formatQuantity('temperature', r.designC, system)}${r.isGrid ? '' : ` (${designValueTag(r.label)})`}`),
+    figure(
+      'designTemperature',
+      (r) => `${formatQuantity('temperature', r.designC, system)}${r.isGrid ? '' : ` (${designValueTag(r.label)})`}`,
+    ),
     figure('designLoad', (r) => formatPower(r.designLoadW, system)),
     figure('unit', (r, a) => option(r, a)?.label ?? 'None large enough'),
     figure('capacityAtDesign', (r) => (r.capacityAtDesignW === null ? '—' : formatPower(r.capacityAtDesignW, system))),
@@ -94,31 +119,49 @@ export function comparisonTable(entries: readonly CompareEntry[], point: Compare
     figure('unmetHoursWorstYear', (r) => hours(r.unmetHoursWorstYear)),
     figure('lowestIndoor', (r, a) => formatQuantity('temperature', lowestIndoorC(r, a.indoorDesignC), system)),
     figure('discountRate', (_r, a) => `${a.discountRatePct} %`),
-    { key: 'prices', name: 'Energy prices', explain: 'The prices the scenario was swept with: its own, or the organisation’s.', cells: entries.map((e) => pricesText(e.prices, system)) },
+    {
+      key: 'prices',
+      name: 'Energy prices',
+      explain: 'The prices the scenario was swept with: its own, or the organisation’s.',
+      cells: entries.map((e) => pricesText(e.prices, system)),
+    },
     {
       key: 'unmetRange',
       name: 'Likely range of unmet hours',
-      explain: 'Unmet hours per average year, 10th to 90th percentile over the tolerances of the estimated inputs (air leakage, UA, prices).',
-      cells: entries.map((_, k) => cell(k, (r) => (r.unmetHoursPerYearP10 === null ? '—' : `${hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90)} h/yr`))),
+      explain:
+        'Unmet hours per average year, 10th to 90th percentile over the tolerances of the estimated inputs (air leakage, UA, prices).',
+      cells: entries.map((_, k) =>
+        cell(k, (r) =>
+          r.unmetHoursPerYearP10 === null ? '—' : `${hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90)} h/yr`,
+        ),
+      ),
     },
     {
       key: 'odds',
       name: 'Odds of a colder night',
-      explain: 'Chance that a winter brings an hour colder than the design temperature (Gumbel fit of the yearly minima), per year and over the study period.',
+      explain:
+        'Chance that a winter brings an hour colder than the design temperature (Gumbel fit of the yearly minima), per year and over the study period.',
       cells: entries.map((_, k) =>
         cell(k, (r) =>
           r.annualExceedanceProbability === null
             ? '—'
             : `${oneIn(r.annualExceedanceProbability)} a year` +
-              (r.lifetimeExceedanceProbability === null || r.lifetimeYears === null ? '' : `, ${oneIn(r.lifetimeExceedanceProbability)} over ${Math.round(r.lifetimeYears)} years`),
+              (r.lifetimeExceedanceProbability === null || r.lifetimeYears === null
+                ? ''
+                : `, ${oneIn(r.lifetimeExceedanceProbability)} over ${Math.round(r.lifetimeYears)} years`),
         ),
       ),
     },
     {
       key: 'comfortPrice',
       name: 'Price of each avoided cold hour',
-      explain: 'Extra life-cycle cost of this unit over the next milder choice, divided by the unmet hours it avoids over the study period.',
-      cells: entries.map((_, k) => cell(k, (r, a) => (r.costPerAvoidedUnmetHour === null ? '—' : `${perHour(r.costPerAvoidedUnmetHour, a.currency)} per hour`))),
+      explain:
+        'Extra life-cycle cost of this unit over the next milder choice, divided by the unmet hours it avoids over the study period.',
+      cells: entries.map((_, k) =>
+        cell(k, (r, a) =>
+          r.costPerAvoidedUnmetHour === null ? '—' : `${perHour(r.costPerAvoidedUnmetHour, a.currency)} per hour`,
+        ),
+      ),
     },
   ];
   return { columns, rows };
@@ -155,6 +198,11 @@ export function differenceRows(table: ComparisonTable, baseline: number): Compar
     money('installedPrice', (r) => r.installedPrice),
     money('annualCost', (r) => r.annualCost),
     money('lifeCycleCost', (r) => r.lifeCycleCost),
-    { key: 'unmetHours', name: `${term('unmetHours')}, difference`, explain: `${explain('unmetHours')} Shown against the baseline scenario.`, cells: table.columns.map((_, k) => diffHours(k)) },
+    {
+      key: 'unmetHours',
+      name: `${term('unmetHours')}, difference`,
+      explain: `${explain('unmetHours')} Shown against the baseline scenario.`,
+      cells: table.columns.map((_, k) => diffHours(k)),
+    },
   ];
 }

@@ -58,7 +58,9 @@ export class ScenariosApi {
 
   /** Runs the sweep (or reads it from the result cache). 422 `scenario_incomplete` lists what is missing. */
   async sweep(projectId: string, id: string): Promise<SweepAnswer> {
-    return sweepAnswerSchema.parse(await firstValueFrom(this.http.post<unknown>(`${this.base(projectId)}/${id}/sweep`, null)));
+    return sweepAnswerSchema.parse(
+      await firstValueFrom(this.http.post<unknown>(`${this.base(projectId)}/${id}/sweep`, null)),
+    );
   }
 
   sweepCsvUrl(projectId: string, id: string): string {

@@ -37,7 +37,12 @@ import {
 } from '../charts/chart-theme';
 
 export type ChartOption = ComposeOption<
-  LineSeriesOption | BarSeriesOption | GridComponentOption | TooltipComponentOption | LegendComponentOption | MarkLineComponentOption
+  | LineSeriesOption
+  | BarSeriesOption
+  | GridComponentOption
+  | TooltipComponentOption
+  | LegendComponentOption
+  | MarkLineComponentOption
 >;
 
 const moneyNumber = (v: string | null) => (v === null ? null : Number(v));
@@ -79,7 +84,15 @@ export function tradeoffChart(
             xAxis: x(r.designC),
             lineStyle: { color: FAINT, type: 'dotted' as const, width: 1 },
             // On the page's paper colour, so the cost lines passing behind do not strike the tag through.
-            label: { formatter: designValueTag(r.label), color: TEXT, fontSize: compact ? 9 : 11, position: 'insideEndTop' as const, rotate: 90, backgroundColor: 'rgba(247, 248, 246, 0.9)', padding: [1, 2] },
+            label: {
+              formatter: designValueTag(r.label),
+              color: TEXT,
+              fontSize: compact ? 9 : 11,
+              position: 'insideEndTop' as const,
+              rotate: 90,
+              backgroundColor: 'rgba(247, 248, 246, 0.9)',
+              padding: [1, 2],
+            },
           })),
           ...(chosen
             ? [
@@ -120,7 +133,12 @@ export function tradeoffChart(
   return {
     animation: false,
     textStyle: CHART_TEXT,
-    grid: { left: compact ? 58 : 80, right: answer.hasRecord ? (compact ? 44 : 64) : 16, top: compact ? 64 : 48, bottom: compact ? 44 : 52 },
+    grid: {
+      left: compact ? 58 : 80,
+      right: answer.hasRecord ? (compact ? 44 : 64) : 16,
+      top: compact ? 64 : 48,
+      bottom: compact ? 44 : 52,
+    },
     legend: {
       top: 0,
       left: 'center',
@@ -132,7 +150,9 @@ export function tradeoffChart(
       trigger: 'axis',
       axisPointer: { type: 'line' },
       formatter: (params: unknown) => {
-        const list = Array.isArray(params) ? (params as { seriesName: string; dataIndex: number; value: [number, number | null] }[]) : [];
+        const list = Array.isArray(params)
+          ? (params as { seriesName: string; dataIndex: number; value: [number, number | null] }[])
+          : [];
         const t = list[0]?.value[0];
         const lines = list
           .filter((p) => p.seriesName !== BAND_BASE)
@@ -141,7 +161,9 @@ export function tradeoffChart(
               const r = rows[p.dataIndex];
               return `${BAND_NAME}: ${r ? hoursRange(r.unmetHoursPerYearP10, r.unmetHoursPerYearP90) : '—'}`;
             }
-            return p.value[1] === null ? `${p.seriesName}: —` : `${p.seriesName}: ${p.seriesName.startsWith('Unmet') ? groupDigits(p.value[1], 1) : money(p.value[1])}`;
+            return p.value[1] === null
+              ? `${p.seriesName}: —`
+              : `${p.seriesName}: ${p.seriesName.startsWith('Unmet') ? groupDigits(p.value[1], 1) : money(p.value[1])}`;
           });
         return [`${t === undefined ? '' : groupDigits(t, 1)} ${tUnit}`, ...lines].join('<br>');
       },
@@ -209,7 +231,9 @@ function unmetBandSeries(answer: SweepAnswer, x: (c: number) => number): LineSer
       stack: 'unmet-band',
       data: rows.map((r) => [
         x(r.designC),
-        r.unmetHoursPerYearP10 === null || r.unmetHoursPerYearP90 === null ? null : r.unmetHoursPerYearP90 - r.unmetHoursPerYearP10,
+        r.unmetHoursPerYearP10 === null || r.unmetHoursPerYearP90 === null
+          ? null
+          : r.unmetHoursPerYearP90 - r.unmetHoursPerYearP10,
       ]),
       showSymbol: false,
       silent: true,
@@ -228,13 +252,24 @@ function ruleMark(answer: SweepAnswer, ruleIndex: number | null, x: (c: number) 
     {
       xAxis: x(r.designC),
       lineStyle: { color: RULE, type: 'dashed' as const, width: 2 },
-      label: { formatter: 'Rule', color: RULE_TEXT, fontSize: compact ? 10 : 12, position: 'end' as const, fontWeight: 'bold' as const },
+      label: {
+        formatter: 'Rule',
+        color: RULE_TEXT,
+        fontSize: compact ? 10 : 12,
+        position: 'end' as const,
+        fontWeight: 'bold' as const,
+      },
     },
   ];
 }
 
 /** Hourly loads of the record in descending order against hours per year, with the chosen unit's capacity at each hour's temperature. */
-export function loadDurationChart(answer: SweepAnswer, index: number, system: UnitSystem, compact: boolean): ChartOption | null {
+export function loadDurationChart(
+  answer: SweepAnswer,
+  index: number,
+  system: UnitSystem,
+  compact: boolean,
+): ChartOption | null {
   const points = answer.loadDuration?.points;
   if (!points || points.length === 0) return null;
   const unit = powerChartUnit(system);
@@ -277,13 +312,22 @@ export function loadDurationChart(answer: SweepAnswer, index: number, system: Un
       axisLabel: { fontSize: compact ? 10 : 12 },
       splitLine: SPLIT_LINE,
     },
-    yAxis: { type: 'value', name: `Load (${unit})`, axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) }, splitLine: SPLIT_LINE },
+    yAxis: {
+      type: 'value',
+      name: `Load (${unit})`,
+      axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) },
+      splitLine: SPLIT_LINE,
+    },
     series,
   };
 }
 
 /** One chart of the compared scenarios: life-cycle cost (solid) and unmet hours per year (dotted) against the design temperature. */
-export function comparisonChart(entries: readonly { name: string; sweep: SweepAnswer | null }[], system: UnitSystem, compact: boolean): ChartOption {
+export function comparisonChart(
+  entries: readonly { name: string; sweep: SweepAnswer | null }[],
+  system: UnitSystem,
+  compact: boolean,
+): ChartOption {
   const x = (c: number) => temperatureForChart(c, system);
   const tUnit = unitLabel('temperature', system);
   const series: LineSeriesOption[] = [];
@@ -316,7 +360,12 @@ export function comparisonChart(entries: readonly { name: string; sweep: SweepAn
   return {
     animation: false,
     textStyle: CHART_TEXT,
-    grid: { left: compact ? 58 : 80, right: compact ? 44 : 64, top: compact ? 72 : 24 + 24 * Math.ceil(series.length / 2), bottom: compact ? 44 : 52 },
+    grid: {
+      left: compact ? 58 : 80,
+      right: compact ? 44 : 64,
+      top: compact ? 72 : 24 + 24 * Math.ceil(series.length / 2),
+      bottom: compact ? 44 : 52,
+    },
     legend: { top: 0, left: 'center', type: compact ? 'scroll' : 'plain', textStyle: { fontSize: compact ? 11 : 12 } },
     tooltip: { trigger: 'axis' },
     xAxis: {
@@ -330,7 +379,13 @@ export function comparisonChart(entries: readonly { name: string; sweep: SweepAn
       splitLine: SPLIT_LINE,
     },
     yAxis: [
-      { type: 'value', name: `Life-cycle cost (${currency})`, min: 0, axisLabel: { formatter: (v: number) => groupDigits(v) }, splitLine: SPLIT_LINE },
+      {
+        type: 'value',
+        name: `Life-cycle cost (${currency})`,
+        min: 0,
+        axisLabel: { formatter: (v: number) => groupDigits(v) },
+        splitLine: SPLIT_LINE,
+      },
       { type: 'value', name: 'Unmet hours / yr', min: 0, splitLine: { show: false } },
     ],
     series,

@@ -3,7 +3,15 @@ import { aSweepAnswer } from './testing/scenario-fixtures';
 import { aScenario } from './testing/scenario-fixtures';
 import { comparisonTable, differenceRows } from './compare-rows';
 import { loadDurationChart, tradeoffChart } from './tradeoff-charts';
-import { capacityAtC, defaultIndex, designRows, loadDurationTable, nearestIndex, pricesText, sentenceFor } from './tradeoff-text';
+import {
+  capacityAtC,
+  defaultIndex,
+  designRows,
+  loadDurationTable,
+  nearestIndex,
+  pricesText,
+  sentenceFor,
+} from './tradeoff-text';
 
 describe('trade-off model', () => {
   const answer = aSweepAnswer();
@@ -27,7 +35,10 @@ describe('trade-off model', () => {
     expect(ip[0]?.designLoad).toBe('30,000 Btu/h');
     // 1.8 K = 3.24 °F shown to 0.1.
     expect(ip[0]?.drop).toBe('3.2 °F');
-    const none = designRows(aSweepAnswer({ rows: [{ ...answer.rows[0]!, selectedOptionId: null, installedPrice: null }] }), 'SI');
+    const none = designRows(
+      aSweepAnswer({ rows: [{ ...answer.rows[0]!, selectedOptionId: null, installedPrice: null }] }),
+      'SI',
+    );
     expect(none[0]?.unit).toBe('None large enough');
     expect(none[0]?.installedPrice).toBe('—');
   });
@@ -59,7 +70,9 @@ describe('trade-off model', () => {
   it('says what the mild point saves against the coldest, and what it risks, in the trade’s terms', () => {
     const s = sentenceFor(answer, 0, 'SI');
     // 4600.00 − 4000.00 = 600; life-cycle 15000.00 − 14400.00 = 600; lowest indoor 21 − 1.8 = 19.2 °C.
-    expect(s).toContain('Sizing for −17.0 °C (99 % design temperature) instead of −32.0 °C (50-year return period) installs Furnace 9 kW instead of Furnace 12 kW');
+    expect(s).toContain(
+      'Sizing for −17.0 °C (99 % design temperature) instead of −32.0 °C (50-year return period) installs Furnace 9 kW instead of Furnace 12 kW',
+    );
     expect(s).toContain('for $600 less installed ($600 less life-cycle cost over the study period)');
     expect(s).toContain("Unmet hours: 12 hours in an average year and 40 hours in the worst of the record's 4 years");
     expect(s).toContain('lowest indoor temperature in the worst spell 19.2 °C');
@@ -91,11 +104,22 @@ describe('trade-off model', () => {
   it('compares each scenario at its chosen point, with a difference row against the baseline', () => {
     const other: SweepAnswer = aSweepAnswer({
       currency: 'USD',
-      rows: answer.rows.map((r) => (r.label === '99 %' ? { ...r, installedPrice: '4500.00', annualCost: '900.00', unmetHoursPerYear: 3.5 } : r)),
+      rows: answer.rows.map((r) =>
+        r.label === '99 %' ? { ...r, installedPrice: '4500.00', annualCost: '900.00', unmetHoursPerYear: 3.5 } : r,
+      ),
     });
-    const prices = { currency: 'USD', electricityPerKwh: '0.1523', gas: { unit: 'therm' as const, price: '1.2' }, propanePerLitre: '0.8' };
+    const prices = {
+      currency: 'USD',
+      electricityPerKwh: '0.1523',
+      gas: { unit: 'therm' as const, price: '1.2' },
+      propanePerLitre: '0.8',
+    };
     const entries = [
-      { scenario: aScenario({ id: 'a', name: 'Gas line', chosenDesignC: null }), sweep: { ...answer, rows: answer.rows.map((r) => ({ ...r, annualCost: '1000.00' })) }, prices },
+      {
+        scenario: aScenario({ id: 'a', name: 'Gas line', chosenDesignC: null }),
+        sweep: { ...answer, rows: answer.rows.map((r) => ({ ...r, annualCost: '1000.00' })) },
+        prices,
+      },
       { scenario: aScenario({ id: 'b', name: 'Other line', chosenDesignC: -17 }), sweep: other, prices: null },
     ];
     const table = comparisonTable(entries, 'chosen', 'SI');
@@ -117,12 +141,19 @@ describe('trade-off model', () => {
       ['baseline', '−8.5 h'],
     ]);
     // At a named value instead: the 50-year one.
-    expect(comparisonTable(entries, '50-year', 'SI').rows.find((r) => r.key === 'designTemperature')!.cells).toEqual(['−32.0 °C (50-yr)', '−32.0 °C (50-yr)']);
+    expect(comparisonTable(entries, '50-year', 'SI').rows.find((r) => r.key === 'designTemperature')!.cells).toEqual([
+      '−32.0 °C (50-yr)',
+      '−32.0 °C (50-yr)',
+    ]);
   });
 
   it('marks the chosen design temperature on the chart and puts unmet hours on the second axis', () => {
     const option = tradeoffChart(answer, 2, 'SI', false);
-    const series = option.series as { name: string; yAxisIndex: number; markLine?: { data: { xAxis: number; lineStyle: { color: string } }[] } }[];
+    const series = option.series as {
+      name: string;
+      yAxisIndex: number;
+      markLine?: { data: { xAxis: number; lineStyle: { color: string } }[] };
+    }[];
     expect(series.map((s) => s.name)).toEqual(['Installed price', 'Life-cycle cost', 'Unmet hours per year']);
     expect(series[2]?.yAxisIndex).toBe(1);
     const marks = series[0]?.markLine?.data ?? [];
@@ -135,18 +166,36 @@ describe('trade-off model', () => {
   it('draws the 10–90 % band of the unmet hours and the stated rule’s point, and lists the range, odds and price per row', () => {
     const rows = answer.rows.map((r, i) =>
       i === 0
-        ? { ...r, unmetHoursPerYearP10: 6, unmetHoursPerYearP90: 21, annualExceedanceProbability: 0.125, lifetimeExceedanceProbability: 0.93, lifetimeYears: 20 }
+        ? {
+            ...r,
+            unmetHoursPerYearP10: 6,
+            unmetHoursPerYearP90: 21,
+            annualExceedanceProbability: 0.125,
+            lifetimeExceedanceProbability: 0.93,
+            lifetimeYears: 20,
+          }
         : i === 1
           ? { ...r, unmetHoursPerYearP10: 0, unmetHoursPerYearP90: 2.5, costPerAvoidedUnmetHour: 12.5 }
           : r,
     );
-    const banded = aSweepAnswer({ rows, uncertainty: { draws: 300, seed: 1, tolerances: { uaPct: 10, airLeakagePct: 25, pricesPct: 15 } } });
+    const banded = aSweepAnswer({
+      rows,
+      uncertainty: { draws: 300, seed: 1, tolerances: { uaPct: 10, airLeakagePct: 25, pricesPct: 15 } },
+    });
     const option = tradeoffChart(banded, 0, 'SI', false, 3);
-    const series = option.series as { name: string; stack?: string; data: [number, number | null][]; markLine?: { data: { xAxis: number; label: { formatter?: string } }[] } }[];
+    const series = option.series as {
+      name: string;
+      stack?: string;
+      data: [number, number | null][];
+      markLine?: { data: { xAxis: number; label: { formatter?: string } }[] };
+    }[];
     const band = series.find((x) => x.name === 'Unmet h/yr, 10–90 % range');
     // Stacked on the 10th percentile, the shaded width is P90 − P10: 21 − 6 = 15 and 2.5 − 0 = 2.5.
     expect(band?.stack).toBe('unmet-band');
-    expect(band?.data.slice(0, 2)).toEqual([[-17, 15], [-20.5, 2.5]]);
+    expect(band?.data.slice(0, 2)).toEqual([
+      [-17, 15],
+      [-20.5, 2.5],
+    ]);
     expect(band?.data[2]).toEqual([-24, null]);
     expect(series[0]?.markLine?.data.some((m) => m.label.formatter === 'Rule' && m.xAxis === -32)).toBeTrue();
     const legend = (option.legend as { data: string[] }).data;
@@ -165,6 +214,8 @@ describe('trade-off model', () => {
     expect(compared.rows.find((r) => r.key === 'odds')?.cells[0]).toBe('1-in-8 a year, 9-in-10 over 20 years');
     expect(compared.rows.find((r) => r.key === 'unmetRange')?.cells[0]).toBe('6–21 h/yr');
     // Without draws there is no band series.
-    expect((tradeoffChart(answer, 0, 'SI', false).series as { name: string }[]).some((x) => x.name.includes('10–90'))).toBeFalse();
+    expect(
+      (tradeoffChart(answer, 0, 'SI', false).series as { name: string }[]).some((x) => x.name.includes('10–90')),
+    ).toBeFalse();
   });
 });

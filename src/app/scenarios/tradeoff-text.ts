@@ -54,7 +54,8 @@ export function optionLabelOf(answer: SweepAnswer): (id: string) => string {
 }
 
 /** Unmet hours in one format everywhere: one decimal below 10, whole hours from 10 up. */
-export const hours = (h: number | null): string => (h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h));
+export const hours = (h: number | null): string =>
+  h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h);
 
 /** The design temperatures as the table shows them (money to whole units: a summary). */
 export function designRows(answer: SweepAnswer, system: UnitSystem): DesignRowText[] {
@@ -78,7 +79,8 @@ export function designRows(answer: SweepAnswer, system: UnitSystem): DesignRowTe
     unmetWorst: hours(r.unmetHoursWorstYear),
     degreeHours: formatQuantity('degreeHours', r.unmetDegreeHoursPerYear, system),
     backupHours: r.compressorAtDesignW === null ? '—' : hours(r.backupHoursPerYear),
-    backupEnergy: r.compressorAtDesignW === null || r.backupEnergyKWh === null ? '—' : `${groupDigits(r.backupEnergyKWh)} kWh`,
+    backupEnergy:
+      r.compressorAtDesignW === null || r.backupEnergyKWh === null ? '—' : `${groupDigits(r.backupEnergyKWh)} kWh`,
     lowestIndoor: formatQuantity('temperature', r.lowestIndoorC ?? lowestIndoorC(r, answer.indoorDesignC), system),
     drop: r.worstDropK === null ? '—' : formatQuantity('temperatureDifference', r.worstDropK, system),
     reliability: r.reliabilityNote ?? '',
@@ -100,12 +102,19 @@ export function rulesText(answer: SweepAnswer): string[] {
     );
   }
   if (answer.selectionRule === 'lowest-life-cycle-cost') {
-    lines.push('The options mix equipment families, so among those that cover the design load the lowest life-cycle cost is installed.');
+    lines.push(
+      'The options mix equipment families, so among those that cover the design load the lowest life-cycle cost is installed.',
+    );
   } else if (answer.selectionRule === 'lowest-installed-price') {
-    lines.push('The options mix equipment families and there is no hourly record, so among those that cover the design load the lowest installed price is installed.');
+    lines.push(
+      'The options mix equipment families and there is no hourly record, so among those that cover the design load the lowest installed price is installed.',
+    );
   }
   if (answer.studyPeriodYears !== null) {
-    const escalation = answer.energyEscalationPctPerYear === 0 ? '' : `, energy prices rising ${answer.energyEscalationPctPerYear} % a year above inflation`;
+    const escalation =
+      answer.energyEscalationPctPerYear === 0
+        ? ''
+        : `, energy prices rising ${answer.energyEscalationPctPerYear} % a year above inflation`;
     lines.push(
       `Life-cycle costs cover one ${answer.studyPeriodYears}-year study period for every option (replacements and remaining value included) at a ${answer.discountRatePct} % real discount rate${escalation}; running costs include cycling losses.`,
     );
@@ -141,7 +150,8 @@ export function capacityAtC(curve: readonly { outdoorC: number; capacityW: numbe
   for (let k = 1; k < pts.length; k++) {
     const a = pts[k - 1];
     const b = pts[k];
-    if (a && b && t <= b.outdoorC) return a.capacityW + ((b.capacityW - a.capacityW) * (t - a.outdoorC)) / (b.outdoorC - a.outdoorC);
+    if (a && b && t <= b.outdoorC)
+      return a.capacityW + ((b.capacityW - a.capacityW) * (t - a.outdoorC)) / (b.outdoorC - a.outdoorC);
   }
   return last.capacityW;
 }
@@ -202,9 +212,22 @@ export { formatPower };
 /** Energy prices as an estimator reads them; oil and propane per US gallon in IP (1 gal = 3.785411784 L, exact). */
 export function pricesText(p: EnergyPrices | null, system: UnitSystem): string {
   if (!p) return '—';
-  const unitPrice = new Intl.NumberFormat('en-US', { style: 'currency', currency: p.currency, minimumFractionDigits: 2, maximumFractionDigits: 4 });
+  const unitPrice = new Intl.NumberFormat('en-US', {
+    style: 'currency',
+    currency: p.currency,
+    minimumFractionDigits: 2,
+    maximumFractionDigits: 4,
+  });
   const m = (v: string, unit: string) => `${unitPrice.format(parseMoney(v).toFixed(4) as `${number}`)}/${unit}`;
-  const perVolume = (perLitre: string) => (system === 'IP' ? m(parseMoney(perLitre).times(convertUnits(1, 'gal', 'L')).toFixed(6), 'gal') : m(perLitre, 'L'));
+  const perVolume = (perLitre: string) =>
+    system === 'IP'
+      ? m(
+          parseMoney(perLitre)
+            .times(convertUnits(1, 'gal', 'L'))
+            .toFixed(6),
+          'gal',
+        )
+      : m(perLitre, 'L');
   const parts = [`electricity ${m(p.electricityPerKwh, 'kWh')}`];
   if (p.gas) parts.push(`gas ${m(p.gas.price, p.gas.unit === 'm3' ? 'm³' : p.gas.unit)}`);
   if (p.oilPerLitre) parts.push(`oil ${perVolume(p.oilPerLitre)}`);

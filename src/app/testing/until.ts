@@ -15,7 +15,11 @@ export async function until(condition: () => boolean, what = 'the condition', ti
 }
 
 /** Waits until the page has sent one request matching `match`, and answers it like `expectOne`. */
-export async function nextRequest(http: HttpTestingController, match: RequestMatch, timeoutMs = 3000): Promise<TestRequest> {
+export async function nextRequest(
+  http: HttpTestingController,
+  match: RequestMatch,
+  timeoutMs = 3000,
+): Promise<TestRequest> {
   let found: TestRequest[] = [];
   await until(
     () => {
@@ -25,7 +29,8 @@ export async function nextRequest(http: HttpTestingController, match: RequestMat
     `a request matching ${JSON.stringify(match)}`,
     timeoutMs,
   );
-  if (found.length > 1) throw new Error(`Expected one request matching ${JSON.stringify(match)}, found ${found.length}`);
+  if (found.length > 1)
+    throw new Error(`Expected one request matching ${JSON.stringify(match)}, found ${found.length}`);
   const [request] = found;
   if (!request) throw new Error('No request');
   return request;

@@ -20,7 +20,10 @@ export type NewPasswordForm = FormGroup<{ password: FormControl<string>; confirm
 export function newPasswordForm(fb: NonNullableFormBuilder): NewPasswordForm {
   return fb.group(
     {
-      password: ['', [Validators.required, Validators.minLength(PASSWORD_MIN_LENGTH), Validators.maxLength(PASSWORD_MAX_LENGTH)]],
+      password: [
+        '',
+        [Validators.required, Validators.minLength(PASSWORD_MIN_LENGTH), Validators.maxLength(PASSWORD_MAX_LENGTH)],
+      ],
       confirmPassword: ['', [Validators.required]],
     },
     { validators: [passwordsMatch] },

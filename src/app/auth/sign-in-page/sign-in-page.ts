@@ -13,7 +13,15 @@ import { AuthStore } from '../auth-store';
 
 @Component({
   selector: 'app-sign-in-page',
-  imports: [ReactiveFormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, AuthCard],
+  imports: [
+    ReactiveFormsModule,
+    RouterLink,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    AuthCard,
+  ],
   templateUrl: './sign-in-page.html',
   changeDetection: ChangeDetectionStrategy.OnPush,
 })

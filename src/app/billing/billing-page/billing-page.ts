@@ -1,5 +1,15 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatDialog } from '@angular/material/dialog';
@@ -87,8 +97,7 @@ export class BillingPage {
           if (b.usage.plan !== 'starter') {
             this.waiting.set(false);
             this.confirmed.set(b.usage.planName);
-          }
-          else if (left > 1) this.poll(left - 1);
+          } else if (left > 1) this.poll(left - 1);
           else this.waiting.set(false);
         } catch {
           if (left > 1) this.poll(left - 1);
@@ -142,10 +151,13 @@ export class BillingPage {
   protected async cancel(): Promise<void> {
     const data: ConfirmDialogData = {
       title: 'Cancel at the end of the period?',
-      message: 'The plan stays until the end of the paid period, then the organisation returns to the free Starter plan. Projects over its limit stay readable.',
+      message:
+        'The plan stays until the end of the paid period, then the organisation returns to the free Starter plan. Projects over its limit stay readable.',
       confirmLabel: 'Cancel the plan',
     };
-    const ok = await firstValueFrom(this.dialog.open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data }).afterClosed());
+    const ok = await firstValueFrom(
+      this.dialog.open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data }).afterClosed(),
+    );
     if (!ok) return;
     await this.run(async () => {
       await this.api.cancel();

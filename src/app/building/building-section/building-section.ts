@@ -22,7 +22,17 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
-import { type ProjectBuildingAnswer, DEFAULT_DESIGN_WIND_MS, buildingSchema, lblStoreys, shieldingClasses, thermalMassClasses, type Building, type ShieldingClass, type ThermalMassClass } from '@shared/building/building-schemas';
+import {
+  type ProjectBuildingAnswer,
+  DEFAULT_DESIGN_WIND_MS,
+  buildingSchema,
+  lblStoreys,
+  shieldingClasses,
+  thermalMassClasses,
+  type Building,
+  type ShieldingClass,
+  type ThermalMassClass,
+} from '@shared/building/building-schemas';
 import { envelopeUa, resolveDesignWind, timeConstantHours } from '@shared/building/heat-loss';
 import type { DesignConditions, PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import { formatQuantity } from '@shared/units/units';

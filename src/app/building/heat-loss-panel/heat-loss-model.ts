@@ -11,7 +11,6 @@ import { formatQuantity, type UnitSystem } from '@shared/units/units';
 import { COLD, EMBER, EQUIPMENT_COLOURS, INK } from '../../charts/chart-theme';
 import { formatPower } from '../building-units';
 
-
 /** The coldest temperature the chart reaches when the site gives nothing colder, °C. */
 export const CHART_FLOOR_C = -30;
 

@@ -26,7 +26,6 @@ type ChartOption = ComposeOption<
   | MarkLineComponentOption
 >;
 
-
 /**
  * The building's heat loss as it stands in the form: the breakdown at the design temperature, and the
  * heat loss against outdoor temperature beside the output of the project's equipment.
@@ -115,7 +114,11 @@ export class HeatLossPanel {
         nameLocation: 'middle',
         nameGap: compact ? 26 : 30,
         splitNumber: compact ? 3 : 5,
-        axisLabel: { fontSize: compact ? 10 : 12, hideOverlap: true, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) },
+        axisLabel: {
+          fontSize: compact ? 10 : 12,
+          hideOverlap: true,
+          formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1),
+        },
         splitLine: SPLIT_LINE,
       },
       yAxis: {
@@ -269,7 +272,10 @@ export class HeatLossPanel {
         axisLine: { onZero: false },
         nameLocation: 'middle',
         nameGap: compact ? 40 : 60,
-        axisLabel: { fontSize: compact ? 10 : 12, formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1) },
+        axisLabel: {
+          fontSize: compact ? 10 : 12,
+          formatter: (v: number) => groupDigits(v, Number.isInteger(v) ? 0 : 1),
+        },
         splitLine: SPLIT_LINE,
       },
       series,

@@ -17,8 +17,9 @@ import { provideCharts } from '../../charts/provide-charts';
 import { apiErrorMessage } from '../../core/api-errors';
 import { ClimateSitesApi } from '../climate-sites-api';
 
-type ChartOption = ComposeOption<LineSeriesOption | GridComponentOption | TooltipComponentOption | LegendComponentOption>;
-
+type ChartOption = ComposeOption<
+  LineSeriesOption | GridComponentOption | TooltipComponentOption | LegendComponentOption
+>;
 
 /**
  * A site's climate basis: for a site with published values, an hour-by-hour record estimated from a
@@ -27,7 +28,16 @@ type ChartOption = ComposeOption<LineSeriesOption | GridComponentOption | Toolti
  */
 @Component({
   selector: 'app-climate-basis-panel',
-  imports: [DecimalPipe, FormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatProgressBarModule, MatSelectModule, NgxEchartsDirective],
+  imports: [
+    DecimalPipe,
+    FormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    NgxEchartsDirective,
+  ],
   providers: [provideCharts()],
   templateUrl: './climate-basis-panel.html',
   styleUrl: './climate-basis-panel.scss',
@@ -55,7 +65,9 @@ export class ClimateBasisPanel {
   protected readonly estimateError = signal<string | null>(null);
 
   protected readonly recent = this.api.recentYearsResource(() => (this.site().computed ? this.site().id : undefined));
-  protected readonly recentValue = computed<RecentYears | null>(() => (this.recent.hasValue() ? this.recent.value() : null));
+  protected readonly recentValue = computed<RecentYears | null>(() =>
+    this.recent.hasValue() ? this.recent.value() : null,
+  );
 
   protected temp(c: number | null | undefined): string {
     return c === null || c === undefined ? '—' : formatQuantity('temperature', c, this.unitSystem());
@@ -108,12 +120,44 @@ export class ClimateBasisPanel {
       grid: { left: 56, right: 16, top: 40, bottom: 44 },
       legend: { top: 0, data: ['Coldest hour', '99.6 % value of the year', 'Trend of the coldest hour'] },
       tooltip: { trigger: 'axis' },
-      xAxis: { type: 'value', name: 'Year', nameLocation: 'middle', nameGap: 28, min: 'dataMin', max: 'dataMax', minInterval: 1, axisLabel: { formatter: (v: number) => String(v) } },
+      xAxis: {
+        type: 'value',
+        name: 'Year',
+        nameLocation: 'middle',
+        nameGap: 28,
+        min: 'dataMin',
+        max: 'dataMax',
+        minInterval: 1,
+        axisLabel: { formatter: (v: number) => String(v) },
+      },
       yAxis: { type: 'value', name: unit, nameLocation: 'end', scale: true },
       series: [
-        { name: 'Coldest hour', type: 'line', symbol: 'circle', symbolSize: 8, lineStyle: { width: 0 }, itemStyle: { color: COLD }, data: annual.map((a) => [a.year, t(a.minC)]) },
-        { name: '99.6 % value of the year', type: 'line', symbol: 'circle', symbolSize: 5, lineStyle: { color: INK, width: 1.5 }, itemStyle: { color: INK }, data: annual.map((a) => [a.year, t(a.db99_6C)]) },
-        { name: 'Trend of the coldest hour', type: 'line', symbol: 'none', lineStyle: { color: EMBER, width: 2, type: 'dashed' }, itemStyle: { color: EMBER }, data: line },
+        {
+          name: 'Coldest hour',
+          type: 'line',
+          symbol: 'circle',
+          symbolSize: 8,
+          lineStyle: { width: 0 },
+          itemStyle: { color: COLD },
+          data: annual.map((a) => [a.year, t(a.minC)]),
+        },
+        {
+          name: '99.6 % value of the year',
+          type: 'line',
+          symbol: 'circle',
+          symbolSize: 5,
+          lineStyle: { color: INK, width: 1.5 },
+          itemStyle: { color: INK },
+          data: annual.map((a) => [a.year, t(a.db99_6C)]),
+        },
+        {
+          name: 'Trend of the coldest hour',
+          type: 'line',
+          symbol: 'none',
+          lineStyle: { color: EMBER, width: 2, type: 'dashed' },
+          itemStyle: { color: EMBER },
+          data: line,
+        },
       ],
     };
   });

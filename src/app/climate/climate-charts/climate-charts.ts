@@ -31,7 +31,6 @@ type ChartOption = ComposeOption<
 >;
 type MarkLineData = NonNullable<MarkLineComponentOption['data']>[number];
 
-
 /** The lowest share of hours the log axis shows, % (about one hour in 1.1 years). */
 const LOG_FLOOR_PERCENT = 0.01;
 

@@ -7,7 +7,14 @@ import type { UnitSystem } from '@shared/units/units';
 import type { ClimateSite } from '@shared/climate/climate-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { settle } from '../../testing/test-sessions';
-import { SITE_ID, aPublishedSite, anHourlySite, sessionWithUnits, someChartData, someRecentYears } from '../testing/climate-fixtures';
+import {
+  SITE_ID,
+  aPublishedSite,
+  anHourlySite,
+  sessionWithUnits,
+  someChartData,
+  someRecentYears,
+} from '../testing/climate-fixtures';
 import { ClimateSitePage } from './climate-site-page';
 
 const SITE_URL = `/api/v1/climate-sites/${SITE_ID}`;
@@ -99,11 +106,14 @@ describe('ClimateSitePage', () => {
       'Latest 15 years2010–2024, 15 years',
     ]);
     expect(table?.querySelector('tbody tr td')?.textContent?.trim()).toBe('−22.4 °C');
-    expect(el.querySelector('[data-testid="trend-sentence"]')?.textContent).toContain('warmed by about 1.0 K per decade');
+    expect(el.querySelector('[data-testid="trend-sentence"]')?.textContent).toContain(
+      'warmed by about 1.0 K per decade',
+    );
   });
 
   it('labels a published site’s estimated record in plain words', async () => {
-    const label = "Hour-by-hour figures estimated from Lakeview's record, adjusted to Hilltop (table)'s published values.";
+    const label =
+      "Hour-by-hour figures estimated from Lakeview's record, adjusted to Hilltop (table)'s published values.";
     const site: ClimateSite = {
       ...aPublishedSite(),
       computed: anHourlySite().computed,
@@ -121,7 +131,9 @@ describe('ClimateSitePage', () => {
       },
     };
     const { el } = await render(site);
-    expect(el.querySelector('[data-testid="estimate-panel"] [data-testid="estimate-label"] span')?.textContent?.trim()).toBe(label);
+    expect(
+      el.querySelector('[data-testid="estimate-panel"] [data-testid="estimate-label"] span')?.textContent?.trim(),
+    ).toBe(label);
     expect(el.querySelector('[data-testid="estimate-button"]')).toBeNull(); // a viewer cannot estimate
   });
 

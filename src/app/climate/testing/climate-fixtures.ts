@@ -87,7 +87,11 @@ export function aPublishedSite(): ClimateSite {
 
 /** Recent years of a 16-year record with a slightly warming coldest hour (invented). */
 export function someRecentYears(): RecentYears {
-  const annual = Array.from({ length: 16 }, (_, i) => ({ year: 2009 + i, minC: -30 + i * 0.1, db99_6C: -22 + i * 0.05 }));
+  const annual = Array.from({ length: 16 }, (_, i) => ({
+    year: 2009 + i,
+    minC: -30 + i * 0.1,
+    db99_6C: -22 + i * 0.05,
+  }));
   const window = (latestYears: number | null, firstYear: number, db99_6: number) => ({
     latestYears,
     firstYear,
@@ -105,7 +109,8 @@ export function someRecentYears(): RecentYears {
       senSlopeKPerDecade: 1,
       mannKendall: { s: 120, varS: 493.3, z: 5.36, p: 0.0000001 },
       enough: true,
-      sentence: 'Over 2009–2024 the coldest hour of the year has warmed by about 1.0 K per decade; a trend this strong would arise by chance less than 1 time in 1000.',
+      sentence:
+        'Over 2009–2024 the coldest hour of the year has warmed by about 1.0 K per decade; a trend this strong would arise by chance less than 1 time in 1000.',
     },
     estimateLabel: null,
   };

@@ -28,10 +28,7 @@ export class OutboxPage {
   private readonly token = rememberedToken(this.route.snapshot.queryParamMap.get('token'));
 
   protected readonly messages = httpResource(
-    () =>
-      this.auth.devOutbox()
-        ? { url: '/api/v1/dev/outbox', headers: tokenHeaders(this.token) }
-        : undefined,
+    () => (this.auth.devOutbox() ? { url: '/api/v1/dev/outbox', headers: tokenHeaders(this.token) } : undefined),
     { parse: outboxMessageListSchema.parse },
   );
 

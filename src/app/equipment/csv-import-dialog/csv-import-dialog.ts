@@ -68,9 +68,7 @@ export class CsvImportDialog {
   protected readonly powerUnit = unitLabel('power', this.data.unitSystem);
   protected readonly columns = ['kind', 'label', 'fuel', 'rating', 'installedPrice', 'lifeYears'];
   /** Adding would take the list past its limit. */
-  protected readonly tooManyToAdd = computed(
-    () => this.data.rowCount + this.options().length > this.data.maxOptions,
-  );
+  protected readonly tooManyToAdd = computed(() => this.data.rowCount + this.options().length > this.data.maxOptions);
   protected readonly count = computed(() => {
     const n = this.options().length;
     return n === 1 ? '1 option' : `${n} options`;
@@ -137,7 +135,8 @@ export class CsvImportDialog {
   protected rating(o: EquipmentOption): string {
     const p = (w: number) => `${formatPowerNumber(w, this.data.unitSystem)} ${this.powerUnit}`;
     const system = this.data.unitSystem;
-    if (o.kind === 'heat-pump') return `${p(o.capacity8_3W)} at ${ratingPoint('H1', system)}, ${p(o.capacityM8_3W)} at ${ratingPoint('H3', system)}`;
+    if (o.kind === 'heat-pump')
+      return `${p(o.capacity8_3W)} at ${ratingPoint('H1', system)}, ${p(o.capacityM8_3W)} at ${ratingPoint('H3', system)}`;
     const efficiency = o.kind === 'electric' ? '' : `, efficiency ${percentText(o.efficiency)} %`;
     if (o.outputW !== undefined) return `${p(o.outputW)} output${efficiency}`;
     return `${o.inputW === undefined ? '—' : p(o.inputW)} input${efficiency}`;

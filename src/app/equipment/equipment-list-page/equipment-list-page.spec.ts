@@ -71,7 +71,8 @@ describe('EquipmentListPage', () => {
     };
     const cellError = (id: string) =>
       byTestId(id)?.closest('mat-form-field')?.querySelector('mat-error')?.textContent?.trim() ?? '';
-    const bodyRows = () => el.querySelectorAll('table[data-testid="options-table"] tr.mat-mdc-row:not(.no-rows)').length;
+    const bodyRows = () =>
+      el.querySelectorAll('table[data-testid="options-table"] tr.mat-mdc-row:not(.no-rows)').length;
     return { fixture, el, byTestId, type, click, cellError, bodyRows };
   }
 
@@ -131,7 +132,9 @@ describe('EquipmentListPage', () => {
     expect(heatPump['defrostBand']).toBeTrue();
     expect(heatPump['cutoutC']).toBe(-25);
 
-    put.flush(aList([aFurnace({ label: 'Condensing gas furnace 60k', outputW: 17584.26 }), aHeatPump()], { version: 4 }));
+    put.flush(
+      aList([aFurnace({ label: 'Condensing gas furnace 60k', outputW: 17584.26 }), aHeatPump()], { version: 4 }),
+    );
     await stable(fixture);
     expect(byTestId('unsaved')).toBeNull();
     expect(byTestId('option-0-outputW')!.value).toBe('60000');

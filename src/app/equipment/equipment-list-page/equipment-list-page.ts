@@ -1,14 +1,5 @@
 import { DatePipe } from '@angular/common';
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  inject,
-  input,
-  signal,
-  untracked,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
 import { ReactiveFormsModule, type AbstractControl } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -22,7 +13,13 @@ import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import type { UnitSystem } from '@shared/units/units';
-import { EQUIPMENT_OPTIONS_MAX, type EquipmentList, equipmentKinds, type EquipmentKind, type EquipmentOption } from '@shared/equipment/equipment-schemas';
+import {
+  EQUIPMENT_OPTIONS_MAX,
+  type EquipmentList,
+  equipmentKinds,
+  type EquipmentKind,
+  type EquipmentOption,
+} from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorCode, apiErrorMessage, fieldError, readApiError } from '../../core/api-errors';
 import { VersionedEdit } from '../../core/versioned-edit';
@@ -101,7 +98,10 @@ export class EquipmentListPage {
   protected readonly overriding = signal(false);
 
   protected readonly kinds = equipmentKinds.map((value) => ({ value, label: KIND_LABELS[value] }));
-  protected readonly fuels = (['gas', 'oil', 'propane'] as const).map((value) => ({ value, label: FUEL_LABELS[value] }));
+  protected readonly fuels = (['gas', 'oil', 'propane'] as const).map((value) => ({
+    value,
+    label: FUEL_LABELS[value],
+  }));
   protected readonly valueColumns = VALUE_COLUMNS;
   protected readonly editColumns = ['kind', 'label', 'fuel', ...VALUE_COLUMNS.map((c) => c.field), 'remove'];
   protected readonly readColumns = ['kind', 'label', 'fuel', ...VALUE_COLUMNS.map((c) => c.field)];
@@ -187,7 +187,9 @@ export class EquipmentListPage {
     });
     if (rowsWithProblems > 0) {
       const rows = rowsWithProblems === 1 ? '1 row needs' : `${rowsWithProblems} rows need`;
-      this.edit.refuse([`${rows} attention before the list can be saved; the messages are under the cells.`, ...problems].join(' '));
+      this.edit.refuse(
+        [`${rows} attention before the list can be saved; the messages are under the cells.`, ...problems].join(' '),
+      );
       return;
     }
     if (options.length > EQUIPMENT_OPTIONS_MAX) {

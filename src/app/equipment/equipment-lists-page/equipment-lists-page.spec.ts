@@ -40,7 +40,11 @@ describe('EquipmentListsPage', () => {
     await fixture.whenStable();
   }
 
-  async function render(role: Role, lists: EquipmentListSummary[], prices: EnergyPricesAnswer = { version: 0, prices: null }) {
+  async function render(
+    role: Role,
+    lists: EquipmentListSummary[],
+    prices: EnergyPricesAnswer = { version: 0, prices: null },
+  ) {
     TestBed.inject(AuthStore).setSession(signedInSession(role));
     const fixture = TestBed.createComponent(EquipmentListsPage);
     fixture.detectChanges();
@@ -85,12 +89,18 @@ describe('EquipmentListsPage', () => {
   it('lists the equipment lists with their option counts, each linking to its page', async () => {
     const { el } = await render('viewer', twoLists);
     expect(el.querySelector('h1')?.textContent).toBe('Equipment');
-    const headers = Array.from(el.querySelectorAll('table[data-testid="lists-table"] th'), (th) => th.textContent?.trim());
+    const headers = Array.from(el.querySelectorAll('table[data-testid="lists-table"] th'), (th) =>
+      th.textContent?.trim(),
+    );
     expect(headers).toEqual(['Name', 'Options', 'Updated']);
-    const cells = Array.from(el.querySelectorAll('tr.mat-mdc-row')[0]!.querySelectorAll('td'), (td) => td.textContent?.trim());
+    const cells = Array.from(el.querySelectorAll('tr.mat-mdc-row')[0]!.querySelectorAll('td'), (td) =>
+      td.textContent?.trim(),
+    );
     expect(cells).toEqual(['Gas furnaces 2026', '4', 'Feb 3, 2026']);
     expect(el.querySelector('td.name a')?.getAttribute('href')).toBe(`/equipment-lists/${listId(1)}`);
-    expect(el.querySelector('[data-testid="safety-note"]')?.textContent).toContain('manufacturer’s data, which governs');
+    expect(el.querySelector('[data-testid="safety-note"]')?.textContent).toContain(
+      'manufacturer’s data, which governs',
+    );
   });
 
   it('hides creating, renaming, deleting and saving prices from viewers', async () => {
@@ -117,7 +127,10 @@ describe('EquipmentListsPage', () => {
     await stable(fixture);
     const post = http.expectOne({ method: 'POST', url: LISTS_URL });
     expect(post.request.body).toEqual({ name: 'Gas furnaces 2026' });
-    post.flush(aList([], { id: listId(7), name: 'Gas furnaces 2026', version: 1 }), { status: 201, statusText: 'Created' });
+    post.flush(aList([], { id: listId(7), name: 'Gas furnaces 2026', version: 1 }), {
+      status: 201,
+      statusText: 'Created',
+    });
     await stable(fixture);
     expect(navigate).toHaveBeenCalledWith(['/equipment-lists', listId(7)]);
   });

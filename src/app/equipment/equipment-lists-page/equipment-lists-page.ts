@@ -9,7 +9,11 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
-import { EQUIPMENT_LIST_NAME_MAX, type EquipmentList, type EquipmentListSummary } from '@shared/equipment/equipment-schemas';
+import {
+  EQUIPMENT_LIST_NAME_MAX,
+  type EquipmentList,
+  type EquipmentListSummary,
+} from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage } from '../../core/api-errors';
 import { ConfirmDialog, type ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
@@ -71,7 +75,9 @@ export class EquipmentListsPage {
       save: (name) => this.api.create(name),
     };
     const created = await firstValueFrom(
-      this.dialog.open<NameDialog<EquipmentList>, NameDialogData<EquipmentList>, EquipmentList>(NameDialog, { data }).afterClosed(),
+      this.dialog
+        .open<NameDialog<EquipmentList>, NameDialogData<EquipmentList>, EquipmentList>(NameDialog, { data })
+        .afterClosed(),
     );
     if (!created) return;
     this.snackBar.open(`Equipment list “${created.name}” created`, 'Close', { duration: 4000 });

@@ -3,7 +3,14 @@ import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed } from '@angular/core';
 import { z } from 'zod';
 
-const entrySchema = z.object({ id: z.string(), type: z.string(), detail: z.unknown(), ip: z.string().nullable(), at: z.string(), who: z.string() });
+const entrySchema = z.object({
+  id: z.string(),
+  type: z.string(),
+  detail: z.unknown(),
+  ip: z.string().nullable(),
+  at: z.string(),
+  who: z.string(),
+});
 const listSchema = z.array(entrySchema);
 
 const LABELS: Record<string, string> = {
@@ -36,7 +43,11 @@ const LABELS: Record<string, string> = {
         <ul>
           @for (e of entries(); track e.id) {
             <li>
-              <strong>{{ label(e.type) }}</strong>@if (change(e); as c) { <span class="change">{{ c }}</span> } · {{ e.who }} · <span class="when">{{ e.at | date: 'medium' }}</span>
+              <strong>{{ label(e.type) }}</strong>
+              @if (change(e); as c) {
+                <span class="change">{{ c }}</span>
+              }
+              · {{ e.who }} · <span class="when">{{ e.at | date: 'medium' }}</span>
               @if (e.ip) {
                 <span class="ip"> · {{ e.ip }}</span>
               }

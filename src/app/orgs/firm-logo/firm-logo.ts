@@ -22,12 +22,19 @@ import { apiErrorMessage } from '../../core/api-errors';
         }
       </div>
       @if (error()) {
-        <p class="tr-alert" role="alert"><mat-icon aria-hidden="true">error</mat-icon><span>{{ error() }}</span></p>
+        <p class="tr-alert" role="alert">
+          <mat-icon aria-hidden="true">error</mat-icon><span>{{ error() }}</span>
+        </p>
       }
       @if (canManage()) {
         <div class="tr-actions">
           <label class="upload">
-            <input type="file" accept="image/png,image/jpeg,image/svg+xml,.png,.jpg,.jpeg,.svg" (change)="upload($event)" [disabled]="pending()" />
+            <input
+              type="file"
+              accept="image/png,image/jpeg,image/svg+xml,.png,.jpg,.jpeg,.svg"
+              (change)="upload($event)"
+              [disabled]="pending()"
+            />
             <mat-icon>upload</mat-icon><span>Choose a PNG, JPEG or SVG (up to 1 MB)</span>
           </label>
           @if (hasLogo()) {

@@ -35,9 +35,12 @@ describe('NewProjectDialog', () => {
     fixture.detectChanges();
     await settle(1);
     http.expectOne({ method: 'GET', url: '/api/v1/climate-sites' }).flush(someClimateSites());
-    http
-      .expectOne({ method: 'GET', url: '/api/v1/billing/usage' })
-      .flush({ plan: 'starter', planName: 'Starter', projects: { used: projectsUsed, limit: 3 }, members: { used: 1, limit: 2 } });
+    http.expectOne({ method: 'GET', url: '/api/v1/billing/usage' }).flush({
+      plan: 'starter',
+      planName: 'Starter',
+      projects: { used: projectsUsed, limit: 3 },
+      members: { used: 1, limit: 2 },
+    });
     const stable = async () => {
       await settle();
       await fixture.whenStable();
@@ -111,9 +114,13 @@ describe('NewProjectDialog', () => {
 
   it('says when the plan’s project limit is reached, offers owners the upgrade, and does not create', async () => {
     const { el } = await render(3, 'owner');
-    expect(el.querySelector('[data-testid="plan-limit"]')?.textContent).toContain('The Starter plan holds 3 active projects');
+    expect(el.querySelector('[data-testid="plan-limit"]')?.textContent).toContain(
+      'The Starter plan holds 3 active projects',
+    );
     expect(el.querySelector('[data-testid="plan-limit"] a')?.getAttribute('href')).toBe('/billing');
-    const create = Array.from(el.querySelectorAll<HTMLButtonElement>('button')).find((b) => b.textContent?.includes('Create project'));
+    const create = Array.from(el.querySelectorAll<HTMLButtonElement>('button')).find((b) =>
+      b.textContent?.includes('Create project'),
+    );
     expect(create?.disabled).toBeTrue();
   });
 

@@ -45,7 +45,9 @@ export interface ClimateSiteRef {
         <mat-select [formControl]="f.controls.climateSiteId">
           <mat-option [value]="null">None chosen yet</mat-option>
           @for (s of choices(); track s.id) {
-            <mat-option [value]="s.id">{{ s.name }}{{ s.isDemo && !s.name.includes('(invented') ? ' (invented demo)' : '' }}</mat-option>
+            <mat-option [value]="s.id"
+              >{{ s.name }}{{ s.isDemo && !s.name.includes('(invented') ? ' (invented demo)' : '' }}</mat-option
+            >
           }
         </mat-select>
         @if (selectedHint(); as hint) {

@@ -140,7 +140,10 @@ export class ProjectListPage {
     };
     const renamed = await firstValueFrom(
       this.dialog
-        .open<NameDialog<Project, Project>, NameDialogData<Project, Project>, Project>(NameDialog, { data, autoFocus: 'first-tabbable' })
+        .open<NameDialog<Project, Project>, NameDialogData<Project, Project>, Project>(NameDialog, {
+          data,
+          autoFocus: 'first-tabbable',
+        })
         .afterClosed(),
     );
     if (!renamed) return;

@@ -141,7 +141,9 @@ describe('ProjectPage', () => {
     expect(rows.map((r) => r.dataset['scenario'])).toEqual(['Gas bid', 'Gas bid · bid 2026-11-30']);
     expect(rows[0]?.querySelector('.frozen')).toBeNull();
     expect(rows[1]?.querySelector('.frozen')?.textContent).toContain('Frozen');
-    expect(rows[0]?.querySelector('a.name')?.getAttribute('href')).toBe(`/projects/${PROJECT_ID}/scenarios/${SCENARIO_A}`);
+    expect(rows[0]?.querySelector('a.name')?.getAttribute('href')).toBe(
+      `/projects/${PROJECT_ID}/scenarios/${SCENARIO_A}`,
+    );
     const compare = el.querySelector<HTMLButtonElement>('[data-testid="compare-selected"]')!;
     expect(compare.disabled).toBeTrue();
     const boxes = Array.from(el.querySelectorAll<HTMLInputElement>('[data-scenario] input[type="checkbox"]'));

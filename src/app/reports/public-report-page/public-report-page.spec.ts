@@ -12,7 +12,11 @@ describe('PublicReportPage', () => {
   beforeEach(() => {
     TestBed.configureTestingModule({
       imports: [PublicReportPage],
-      providers: [provideHttpClient(), provideHttpClientTesting(), { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } }],
+      providers: [
+        provideHttpClient(),
+        provideHttpClientTesting(),
+        { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      ],
     });
     http = TestBed.inject(HttpTestingController);
   });
@@ -51,7 +55,9 @@ describe('PublicReportPage', () => {
     expect(contact?.textContent).toContain('Robin Frost');
     expect(contact?.querySelector('a[href="mailto:robin@frost-heating.test"]')).not.toBeNull();
     expect(contact?.querySelector('a[href^="tel:"]')?.textContent?.trim()).toBe('555 0100');
-    expect(el.querySelector<HTMLAnchorElement>('[data-testid="report-pdf"]')?.getAttribute('href')).toBe('/api/v1/public/reports/abc/pdf');
+    expect(el.querySelector<HTMLAnchorElement>('[data-testid="report-pdf"]')?.getAttribute('href')).toBe(
+      '/api/v1/public/reports/abc/pdf',
+    );
   });
 
   it('leaves the note section out when there is no note', async () => {
@@ -60,7 +66,15 @@ describe('PublicReportPage', () => {
   });
 
   it('shows a clear page and nothing of the report for a withdrawn link', async () => {
-    const el = await open({ error: { code: 'link_revoked', message: 'This report link was withdrawn by the contractor. Ask them for a new one.' } }, 410);
+    const el = await open(
+      {
+        error: {
+          code: 'link_revoked',
+          message: 'This report link was withdrawn by the contractor. Ask them for a new one.',
+        },
+      },
+      410,
+    );
     expect(el.querySelector('[data-testid="report-document"]')).toBeNull();
     expect(el.querySelector('[data-testid="report-gone"]')?.textContent).toContain('withdrawn by the contractor');
   });

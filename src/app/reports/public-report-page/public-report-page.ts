@@ -24,11 +24,15 @@ import { ReportsApi } from '../reports-api';
         </section>
       }
       @if (error()) {
-        <p class="tr-alert" role="alert"><mat-icon aria-hidden="true">error</mat-icon><span>{{ error() }}</span></p>
+        <p class="tr-alert" role="alert">
+          <mat-icon aria-hidden="true">error</mat-icon><span>{{ error() }}</span>
+        </p>
       }
       @if (view(); as v) {
         <div class="tools no-print">
-          <a mat-stroked-button [href]="v.pdfUrl" target="_blank" rel="noopener" data-testid="report-pdf"><mat-icon>picture_as_pdf</mat-icon>PDF</a>
+          <a mat-stroked-button [href]="v.pdfUrl" target="_blank" rel="noopener" data-testid="report-pdf"
+            ><mat-icon>picture_as_pdf</mat-icon>PDF</a
+          >
           <button mat-stroked-button type="button" (click)="print()"><mat-icon>print</mat-icon>Print</button>
         </div>
         <app-report-document [view]="v" />
@@ -89,7 +93,11 @@ export class PublicReportPage {
     } catch (err) {
       const e = readApiError(err);
       if (e?.code === 'link_expired' || e?.code === 'link_revoked' || e?.code === 'not_found') {
-        this.gone.set(e.code === 'not_found' ? 'This link is not valid. Check that it was copied whole, or ask your contractor for a new one.' : e.message);
+        this.gone.set(
+          e.code === 'not_found'
+            ? 'This link is not valid. Check that it was copied whole, or ask your contractor for a new one.'
+            : e.message,
+        );
       } else {
         this.error.set(apiErrorMessage(err, 'The report could not be opened. Try again in a moment.'));
       }

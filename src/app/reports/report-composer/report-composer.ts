@@ -37,7 +37,15 @@ export interface ReportComposerData {
 /** Picks the design points, figures, units and note of a client report; closes with the created report. */
 @Component({
   selector: 'app-report-composer',
-  imports: [ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatRadioModule],
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatRadioModule,
+  ],
   templateUrl: './report-composer.html',
   styles: `
     .field {
@@ -69,7 +77,10 @@ export class ReportComposer {
   private readonly api = inject(ReportsApi);
   private readonly dialogRef = inject<MatDialogRef<ReportComposer, Report>>(MatDialogRef);
   protected readonly form = inject(NonNullableFormBuilder).group({
-    title: [this.data.defaultTitle.slice(0, REPORT_TITLE_MAX), [Validators.required, Validators.maxLength(REPORT_TITLE_MAX)]],
+    title: [
+      this.data.defaultTitle.slice(0, REPORT_TITLE_MAX),
+      [Validators.required, Validators.maxLength(REPORT_TITLE_MAX)],
+    ],
     note: ['', Validators.maxLength(REPORT_NOTE_MAX)],
     contactPhone: ['', Validators.maxLength(REPORT_PHONE_MAX)],
     unitSystem: this.data.unitSystem,
@@ -94,7 +105,9 @@ export class ReportComposer {
 
   private defaultPoints(): Set<number> {
     const rows = this.data.sweep.rows;
-    const coldest = rows.filter((r) => !r.isGrid).reduce<number | null>((m, r) => (m === null || r.designC < m ? r.designC : m), null);
+    const coldest = rows
+      .filter((r) => !r.isGrid)
+      .reduce<number | null>((m, r) => (m === null || r.designC < m ? r.designC : m), null);
     const set = new Set<number>([this.data.chosenC]);
     if (coldest !== null) set.add(coldest);
     return set;

@@ -27,10 +27,15 @@ export class ReportDocument {
       .pipe(map((s) => s.matches)),
     { initialValue: false },
   );
-  protected readonly chart = computed(() => reportChartOption(this.view(), { compact: this.compact() }) as EChartsCoreOption);
+  protected readonly chart = computed(
+    () => reportChartOption(this.view(), { compact: this.compact() }) as EChartsCoreOption,
+  );
   protected readonly marks = computed(() => optionMarks(this.view().options.length));
   protected readonly chartLabel = computed(
-    () => `Total cost over the years compared and hours a year the house could get cooler than set, for units sized for milder to colder nights; options ${this.view().options.map((_, k) => 'ABC'[k] ?? '').join(', ')} marked`,
+    () =>
+      `Total cost over the years compared and hours a year the house could get cooler than set, for units sized for milder to colder nights; options ${this.view()
+        .options.map((_, k) => 'ABC'[k] ?? '')
+        .join(', ')} marked`,
   );
   protected readonly projectLine = computed(() => {
     const p = this.view().project;

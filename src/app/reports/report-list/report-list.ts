@@ -21,10 +21,14 @@ import { ReportsApi } from '../reports-api';
       <div class="head">
         <h2 id="reports-title">Client reports</h2>
         @if (canWrite() && sweep()) {
-          <button mat-flat-button type="button" (click)="compose()"><mat-icon>description</mat-icon>New client report</button>
+          <button mat-flat-button type="button" (click)="compose()">
+            <mat-icon>description</mat-icon>New client report
+          </button>
         }
       </div>
-      <p class="lead">A homeowner-readable page and PDF of two or three design points, shared by an expiring link or e-mail.</p>
+      <p class="lead">
+        A homeowner-readable page and PDF of two or three design points, shared by an expiring link or e-mail.
+      </p>
       @if (reports().length === 0) {
         <p class="empty">No reports of this scenario yet.</p>
       } @else {
@@ -32,7 +36,10 @@ import { ReportsApi } from '../reports-api';
           @for (r of reports(); track r.id) {
             <li>
               <a [routerLink]="['/projects', projectId(), 'reports', r.id]">{{ r.title }}</a>
-              <span class="meta">{{ r.createdAt | date: 'medium' }} · {{ r.sends.length }} sent · {{ activeLinks(r) }} active links</span>
+              <span class="meta"
+                >{{ r.createdAt | date: 'medium' }} · {{ r.sends.length }} sent · {{ activeLinks(r) }} active
+                links</span
+              >
             </li>
           }
         </ul>
@@ -100,12 +107,18 @@ export class ReportList {
       projectId: this.projectId(),
       scenarioId: this.scenarioId(),
       scenarioName: this.scenarioName(),
-      defaultTitle: project ? `Heating options for ${project.clientName || project.name}` : 'Heating options for your home',
+      defaultTitle: project
+        ? `Heating options for ${project.clientName || project.name}`
+        : 'Heating options for your home',
       sweep,
       chosenC: this.chosenC() ?? sweep.rows[0]?.designC ?? 0,
       unitSystem: this.unitSystem(),
     };
-    const created = await firstValueFrom(this.dialog.open<ReportComposer, ReportComposerData, Report>(ReportComposer, { data, width: '560px', maxWidth: '95vw' }).afterClosed());
+    const created = await firstValueFrom(
+      this.dialog
+        .open<ReportComposer, ReportComposerData, Report>(ReportComposer, { data, width: '560px', maxWidth: '95vw' })
+        .afterClosed(),
+    );
     if (created) await this.router.navigate(['/projects', this.projectId(), 'reports', created.id]);
   }
 }

@@ -1,5 +1,15 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+  untracked,
+  viewChild,
+} from '@angular/core';
 import { FormGroupDirective, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -21,7 +31,17 @@ import { ReportsApi } from '../reports-api';
 /** `/projects/:id/reports/:reportId`: share a client report by e-mail or link, manage its links, and preview it. */
 @Component({
   selector: 'app-report-page',
-  imports: [DatePipe, ReactiveFormsModule, RouterLink, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, MatProgressBarModule, ReportDocument],
+  imports: [
+    DatePipe,
+    ReactiveFormsModule,
+    RouterLink,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatProgressBarModule,
+    ReportDocument,
+  ],
   templateUrl: './report-page.html',
   styleUrl: './report-page.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -54,7 +74,11 @@ export class ReportPage {
     message: ['', Validators.maxLength(1000)],
     expiresInDays: [LINK_DAYS_DEFAULT, [Validators.required, Validators.min(1), Validators.max(LINK_DAYS_MAX)]],
   });
-  protected readonly linkDays = this.fb.control(LINK_DAYS_DEFAULT, [Validators.required, Validators.min(1), Validators.max(LINK_DAYS_MAX)]);
+  protected readonly linkDays = this.fb.control(LINK_DAYS_DEFAULT, [
+    Validators.required,
+    Validators.min(1),
+    Validators.max(LINK_DAYS_MAX),
+  ]);
 
   constructor() {
     effect(() => {
@@ -69,7 +93,11 @@ export class ReportPage {
       this.report.set(await this.api.get(projectId, reportId));
       this.view.set(await this.api.preview(projectId, reportId));
     } catch (err) {
-      this.loadError.set(readApiError(err)?.code === 'not_found' ? 'This report was not found.' : apiErrorMessage(err, 'The report could not be loaded.'));
+      this.loadError.set(
+        readApiError(err)?.code === 'not_found'
+          ? 'This report was not found.'
+          : apiErrorMessage(err, 'The report could not be loaded.'),
+      );
     }
   }
 
@@ -84,7 +112,9 @@ export class ReportPage {
     this.sendError.set('');
     try {
       const v = this.sendForm.getRawValue();
-      this.report.set(await this.api.send(r.projectId, r.id, { to: v.to.trim(), message: v.message, expiresInDays: v.expiresInDays }));
+      this.report.set(
+        await this.api.send(r.projectId, r.id, { to: v.to.trim(), message: v.message, expiresInDays: v.expiresInDays }),
+      );
       this.snack.open(`Sent to ${v.to.trim()}`, undefined, { duration: 4000 });
       this.resetSendForm();
     } catch (err) {
@@ -128,10 +158,18 @@ export class ReportPage {
         figures: r.figures,
         unitSystem: r.unitSystem,
       });
-      const sent = await this.api.send(r.projectId, copy.id, { to: v.to.trim(), message: v.message, expiresInDays: v.expiresInDays });
+      const sent = await this.api.send(r.projectId, copy.id, {
+        to: v.to.trim(),
+        message: v.message,
+        expiresInDays: v.expiresInDays,
+      });
       this.resetSendForm();
       await this.router.navigate(['/projects', r.projectId, 'reports', sent.id]);
-      this.snack.open(`Frozen and sent to ${v.to.trim()}. This is the frozen report; its figures never change.`, undefined, { duration: 6000 });
+      this.snack.open(
+        `Frozen and sent to ${v.to.trim()}. This is the frozen report; its figures never change.`,
+        undefined,
+        { duration: 6000 },
+      );
     } catch (err) {
       this.sendError.set(applyApiErrors(this.sendForm, err));
     } finally {
@@ -175,7 +213,9 @@ export class ReportPage {
       message: 'Anyone who opens it will see that the report is no longer available. Other links keep working.',
       confirmLabel: 'Withdraw',
     };
-    const ok = await firstValueFrom(this.dialog.open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data }).afterClosed());
+    const ok = await firstValueFrom(
+      this.dialog.open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data }).afterClosed(),
+    );
     if (!ok) return;
     await this.act(async () => {
       this.report.set(await this.api.revokeLink(r.projectId, r.id, linkId));
@@ -185,8 +225,14 @@ export class ReportPage {
   protected async remove(): Promise<void> {
     const r = this.report();
     if (!r) return;
-    const data: ConfirmDialogData = { title: 'Delete report?', message: `“${r.title}” and all its links will stop working.`, confirmLabel: 'Delete' };
-    const ok = await firstValueFrom(this.dialog.open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data }).afterClosed());
+    const data: ConfirmDialogData = {
+      title: 'Delete report?',
+      message: `“${r.title}” and all its links will stop working.`,
+      confirmLabel: 'Delete',
+    };
+    const ok = await firstValueFrom(
+      this.dialog.open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data }).afterClosed(),
+    );
     if (!ok) return;
     await this.act(async () => {
       await this.api.remove(r.projectId, r.id);

@@ -10,7 +10,8 @@ export function aReportView(fields: Partial<ReportView> = {}): ReportView {
     preparedAt: '2026-11-30T09:00:00.000Z',
     computedAt: '2026-11-30T09:05:00.000Z',
     frozen: false,
-    status: 'The figures in this report may still change if your installer updates the details; they were last worked out on 2026-11-30.',
+    status:
+      'The figures in this report may still change if your installer updates the details; they were last worked out on 2026-11-30.',
     project: { name: 'Maple Street duplex', clientName: 'Jordan Hale', siteAddress: '14 Maple Street' },
     building: 'Kept at 21.0 °C indoors, the house loses about 200 W for every degree.',
     climate: ['At Lakeview station, a typical cold winter night gets down to about −17 °C.'],
@@ -40,7 +41,8 @@ export function aReportView(fields: Partial<ReportView> = {}): ReportView {
           { key: 'installedPrice', label: 'Price to install', text: '$4,600' },
           { key: 'unmetHours', label: 'Hours a year the house could get cooler than you set it', text: 'none' },
         ],
-        sentence: 'This unit keeps the house at the temperature you set in every hour of the last 30 years of weather records.',
+        sentence:
+          'This unit keeps the house at the temperature you set in every hour of the last 30 years of weather records.',
         odds: [],
       },
     ],
@@ -57,7 +59,10 @@ export function aReportView(fields: Partial<ReportView> = {}): ReportView {
       ],
     },
     cautionsTitle: 'Please read: staying safe and warm',
-    cautions: ['A colder spell than any in the record can happen.', 'A licensed professional governs the final design.'],
+    cautions: [
+      'A colder spell than any in the record can happen.',
+      'A licensed professional governs the final design.',
+    ],
     provenance: 'Figures last worked out 2026-11-30 09:05 UTC.',
     unitSystem: 'SI',
     expiresAt: '2026-12-30T09:00:00.000Z',

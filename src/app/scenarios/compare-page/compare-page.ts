@@ -22,7 +22,17 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
 /** `/projects/:id/compare?ids=a,b…`: two to five scenarios side by side, in one table and one chart. */
 @Component({
   selector: 'app-compare-page',
-  imports: [RouterLink, NgxEchartsDirective, MatButtonModule, MatFormFieldModule, MatIconModule, MatProgressBarModule, MatSelectModule, TermInfo, TradeoffCautions],
+  imports: [
+    RouterLink,
+    NgxEchartsDirective,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatProgressBarModule,
+    MatSelectModule,
+    TermInfo,
+    TradeoffCautions,
+  ],
   providers: [provideCharts()],
   template: `
     <section class="tr-page">
@@ -32,22 +42,34 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
       <header class="tr-page-header head">
         <h1>Compare scenarios</h1>
         @if (comparison()) {
-          <a mat-stroked-button [href]="csvUrl()" download data-testid="compare-csv"><mat-icon>download</mat-icon>CSV</a>
+          <a mat-stroked-button [href]="csvUrl()" download data-testid="compare-csv"
+            ><mat-icon>download</mat-icon>CSV</a
+          >
         }
       </header>
       @if (loading()) {
         <div class="progress" role="status" aria-live="polite">
           <mat-progress-bar mode="indeterminate" aria-label="Sweeping the scenarios" />
-          <span>Sweeping {{ idList().length }} scenarios over the hourly record; a first sweep of a site takes a few seconds…</span>
+          <span
+            >Sweeping {{ idList().length }} scenarios over the hourly record; a first sweep of a site takes a few
+            seconds…</span
+          >
         </div>
       }
       @if (error()) {
-        <p class="tr-alert" role="alert"><mat-icon aria-hidden="true">error</mat-icon><span>{{ error() }}</span></p>
+        <p class="tr-alert" role="alert">
+          <mat-icon aria-hidden="true">error</mat-icon><span>{{ error() }}</span>
+        </p>
       }
       @if (comparison(); as c) {
         @for (e of c.entries; track e.scenario.id) {
           @if (e.problem) {
-            <p class="tr-note" role="note"><mat-icon aria-hidden="true">info</mat-icon><span><strong>{{ e.scenario.name }}:</strong> {{ e.problem }}</span></p>
+            <p class="tr-note" role="note">
+              <mat-icon aria-hidden="true">info</mat-icon
+              ><span
+                ><strong>{{ e.scenario.name }}:</strong> {{ e.problem }}</span
+              >
+            </p>
           }
         }
         <div class="controls">
@@ -61,7 +83,11 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
           </mat-form-field>
           <mat-form-field subscriptSizing="dynamic">
             <mat-label>Baseline for the differences</mat-label>
-            <mat-select [value]="baseline()" (selectionChange)="baseline.set($event.value)" data-testid="compare-baseline">
+            <mat-select
+              [value]="baseline()"
+              (selectionChange)="baseline.set($event.value)"
+              data-testid="compare-baseline"
+            >
               @for (col of table().columns; track col.scenarioId; let k = $index) {
                 <mat-option [value]="k">{{ col.name }}</mat-option>
               }
@@ -94,7 +120,11 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
               }
             </tbody>
             <tbody class="differences" data-testid="compare-differences">
-              <tr class="section"><th scope="rowgroup" [attr.colspan]="table().columns.length + 1">Against {{ table().columns[baseline()]?.name }}</th></tr>
+              <tr class="section">
+                <th scope="rowgroup" [attr.colspan]="table().columns.length + 1">
+                  Against {{ table().columns[baseline()]?.name }}
+                </th>
+              </tr>
               @for (r of differences(); track r.key) {
                 <tr [attr.data-figure]="r.key">
                   <th scope="row">{{ r.name }}</th>
@@ -108,7 +138,14 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
         </div>
         <section class="chart-card" aria-labelledby="compare-chart-title">
           <h2 id="compare-chart-title">Life-cycle cost and unmet hours across the design temperatures</h2>
-          <div class="chart" echarts role="img" data-testid="compare-chart" aria-label="Life-cycle cost and unmet hours per year of each scenario against the design temperature; the table lists the named points" [options]="chart()"></div>
+          <div
+            class="chart"
+            echarts
+            role="img"
+            data-testid="compare-chart"
+            aria-label="Life-cycle cost and unmet hours per year of each scenario against the design temperature; the table lists the named points"
+            [options]="chart()"
+          ></div>
         </section>
         <app-tradeoff-cautions />
       }
@@ -197,12 +234,18 @@ export class ComparePage {
     { initialValue: false },
   );
 
-  protected readonly idList = computed(() => this.ids().split(',').filter((x) => x.length > 0));
+  protected readonly idList = computed(() =>
+    this.ids()
+      .split(',')
+      .filter((x) => x.length > 0),
+  );
   private readonly loaded = resource({
     params: () => ({ projectId: this.id(), ids: this.idList() }),
     loader: ({ params }) => this.api.compare(params.projectId, params.ids),
   });
-  protected readonly comparison = computed<Comparison | null>(() => (this.loaded.hasValue() ? this.loaded.value() : null));
+  protected readonly comparison = computed<Comparison | null>(() =>
+    this.loaded.hasValue() ? this.loaded.value() : null,
+  );
   protected readonly loading = this.loaded.isLoading;
   protected readonly error = computed(() => {
     const err = this.loaded.error();
@@ -211,10 +254,16 @@ export class ComparePage {
   protected readonly point = signal<ComparePoint>('chosen');
   protected readonly baseline = signal(0);
   protected readonly pointChoices = computed(() => comparePointChoices(this.comparison()?.entries ?? []));
-  protected readonly table = computed(() => comparisonTable(this.comparison()?.entries ?? [], this.point(), this.auth.unitSystem()));
+  protected readonly table = computed(() =>
+    comparisonTable(this.comparison()?.entries ?? [], this.point(), this.auth.unitSystem()),
+  );
   protected readonly differences = computed(() => differenceRows(this.table(), this.baseline()));
   protected readonly chart = computed(() =>
-    comparisonChart(this.comparison()?.entries.map((e) => ({ name: e.scenario.name, sweep: e.sweep })) ?? [], this.auth.unitSystem(), this.compact()),
+    comparisonChart(
+      this.comparison()?.entries.map((e) => ({ name: e.scenario.name, sweep: e.sweep })) ?? [],
+      this.auth.unitSystem(),
+      this.compact(),
+    ),
   );
   protected readonly csvUrl = computed(() => this.api.compareCsvUrl(this.id(), this.idList()));
 }

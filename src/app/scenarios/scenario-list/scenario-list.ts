@@ -59,7 +59,9 @@ export class ScenarioList {
     const price = c.installedPrice === null ? '' : ` · ${formatMoneyWhole(c.installedPrice, c.currency)}`;
     return `${s.chosenDesignC === null ? 'Default point' : 'Chosen'}: ${designPointText(c, this.auth.unitSystem())} · ${c.unit ?? 'no unit large enough'}${price}`;
   }
-  protected readonly canCompare = computed(() => this.selected().size >= COMPARE_MIN && this.selected().size <= COMPARE_MAX);
+  protected readonly canCompare = computed(
+    () => this.selected().size >= COMPARE_MIN && this.selected().size <= COMPARE_MAX,
+  );
 
   constructor() {
     effect(() => {
@@ -84,7 +86,9 @@ export class ScenarioList {
   }
 
   protected compare(): void {
-    void this.router.navigate(['/projects', this.projectId(), 'compare'], { queryParams: { ids: [...this.selected()].join(',') } });
+    void this.router.navigate(['/projects', this.projectId(), 'compare'], {
+      queryParams: { ids: [...this.selected()].join(',') },
+    });
   }
 
   protected async create(): Promise<void> {
@@ -108,7 +112,9 @@ export class ScenarioList {
       save: (name, family) =>
         this.api.create(this.projectId(), {
           name,
-          settings: { equipmentFamily: family === 'fuel-fired' || family === 'heat-pump' || family === 'electric' ? family : null },
+          settings: {
+            equipmentFamily: family === 'fuel-fired' || family === 'heat-pump' || family === 'electric' ? family : null,
+          },
         }),
     });
     if (created) await this.router.navigate(['/projects', this.projectId(), 'scenarios', created.id]);
@@ -120,7 +126,8 @@ export class ScenarioList {
       label: 'Scenario name',
       initial: s.name,
       submitLabel: 'Rename',
-      save: (name, _choice, current) => this.api.update(this.projectId(), s.id, { version: (current ?? s).version, name }),
+      save: (name, _choice, current) =>
+        this.api.update(this.projectId(), s.id, { version: (current ?? s).version, name }),
       versioned: { record: s, load: (latest) => this.api.get(latest.projectId, latest.id) },
     });
     if (saved) await this.load();
@@ -156,7 +163,9 @@ export class ScenarioList {
         : `“${s.name}” and its settings will be deleted.`,
       confirmLabel: 'Delete',
     };
-    const ok = await firstValueFrom(this.dialog.open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data }).afterClosed());
+    const ok = await firstValueFrom(
+      this.dialog.open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data }).afterClosed(),
+    );
     if (!ok) return;
     await this.act(async () => {
       await this.api.remove(this.projectId(), s.id);
@@ -165,7 +174,9 @@ export class ScenarioList {
   }
 
   private async askName<T, R = unknown>(data: Omit<NameDialogData<T, R>, 'maxLength'>): Promise<T | undefined> {
-    const ref = this.dialog.open<NameDialog<T, R>, NameDialogData<T, R>, T>(NameDialog, { data: { ...data, maxLength: SCENARIO_NAME_MAX } });
+    const ref = this.dialog.open<NameDialog<T, R>, NameDialogData<T, R>, T>(NameDialog, {
+      data: { ...data, maxLength: SCENARIO_NAME_MAX },
+    });
     return firstValueFrom(ref.afterClosed());
   }
 

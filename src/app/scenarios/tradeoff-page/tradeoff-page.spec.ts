@@ -31,8 +31,14 @@ describe('TradeoffPage', () => {
 
   /** Answers the settings panel's own loads (sites, lists, the list's options) with empty lists. */
   function flushSettingsLoads(): void {
-    for (const req of http.match((r) => r.method === 'GET' && r.url.startsWith('/api/v1/') && !r.url.includes('/scenarios/'))) {
-      req.flush(req.request.url.includes('/equipment-lists/') ? { id: 'x', name: 'x', optionCount: 0, version: 1, updatedAt: '', options: [] } : []);
+    for (const req of http.match(
+      (r) => r.method === 'GET' && r.url.startsWith('/api/v1/') && !r.url.includes('/scenarios/'),
+    )) {
+      req.flush(
+        req.request.url.includes('/equipment-lists/')
+          ? { id: 'x', name: 'x', optionCount: 0, version: 1, updatedAt: '', options: [] }
+          : [],
+      );
     }
   }
 
@@ -54,7 +60,8 @@ describe('TradeoffPage', () => {
     await settle();
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;
-    const byId = (id: string) => el.querySelector(`[data-testid="${id}"]`)?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
+    const byId = (id: string) =>
+      el.querySelector(`[data-testid="${id}"]`)?.textContent?.replace(/\s+/g, ' ').trim() ?? '';
     return { fixture, el, byId };
   }
 
@@ -64,11 +71,15 @@ describe('TradeoffPage', () => {
     expect(byId('tradeoff-sentence')).toContain('instead of −32.0 °C (50-year return period)');
     expect(byId('chosen-unmet')).toBe('12');
     // Every figure has its explanation behind a button that the keyboard reaches.
-    const infos = el.querySelectorAll<HTMLButtonElement>('[data-testid="chosen-figures"] button[data-testid="term-info"]');
+    const infos = el.querySelectorAll<HTMLButtonElement>(
+      '[data-testid="chosen-figures"] button[data-testid="term-info"]',
+    );
     expect(infos.length).toBe(12);
     expect(infos[0]!.getAttribute('aria-label')).toBe('About Design temperature');
     // Grid rows are hidden until asked for: three named rows.
-    const rows = Array.from(el.querySelectorAll<HTMLButtonElement>('[data-testid="design-temps-table"] tbody .row-button'));
+    const rows = Array.from(
+      el.querySelectorAll<HTMLButtonElement>('[data-testid="design-temps-table"] tbody .row-button'),
+    );
     expect(rows.length).toBe(3);
     rows[2]!.click();
     fixture.detectChanges();
@@ -144,7 +155,11 @@ describe('TradeoffPage', () => {
   });
 
   it('says a frozen copy is frozen and offers a copy instead of freezing or saving', async () => {
-    const { el, byId } = await render('owner', aScenario({ frozenAt: '2026-11-30T10:00:00.000Z' }), aSweepAnswer({ frozen: true, cached: true }));
+    const { el, byId } = await render(
+      'owner',
+      aScenario({ frozenAt: '2026-11-30T10:00:00.000Z' }),
+      aSweepAnswer({ frozen: true, cached: true }),
+    );
     expect(byId('frozen-note')).toContain('no longer change');
     const buttons = Array.from(el.querySelectorAll('button')).map((b) => b.textContent?.trim() ?? '');
     expect(buttons.some((b) => b.includes('Freeze for a bid'))).toBeFalse();

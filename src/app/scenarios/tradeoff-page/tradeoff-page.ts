@@ -19,7 +19,13 @@ import type { FieldIssue } from '@shared/api/api-error';
 import { SCENARIO_NAME_MAX, type Scenario, type SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { formatMoney } from '@shared/money/money';
 import { applyDesignRule } from '@shared/sweep/design-rule';
-import { bandSentence, comfortSentence, oddsBasisSentence, oddsSentence, type OddsContext } from '@shared/sweep/odds-words';
+import {
+  bandSentence,
+  comfortSentence,
+  oddsBasisSentence,
+  oddsSentence,
+  type OddsContext,
+} from '@shared/sweep/odds-words';
 import { designValueName, explain, gridStepText, term, type TermKey } from '@shared/glossary/glossary';
 import { GRID_STEP_C } from '@shared/sweep/sweep';
 import { formatQuantity } from '@shared/units/units';
@@ -116,7 +122,9 @@ export class TradeoffPage {
   });
   private readonly oddsContext = computed((): OddsContext | null => {
     const s = this.sweep();
-    return s ? { rows: s.rows, currency: s.currency, unitSystem: this.unitSystem(), odds: s.odds, uncertainty: s.uncertainty } : null;
+    return s
+      ? { rows: s.rows, currency: s.currency, unitSystem: this.unitSystem(), odds: s.odds, uncertainty: s.uncertainty }
+      : null;
   });
   protected readonly oddsText = computed(() => {
     const ctx = this.oddsContext();
@@ -222,12 +230,18 @@ export class TradeoffPage {
       f('lifeCycleCost', c.lifeCycleCost, { note: this.lifeCycleNote(), testId: 'chosen-lcc' }),
       f('runHours', c.runHours),
       ...(heatPump
-        ? [f('backupHours', c.backupHours, { testId: 'chosen-backup-hours' }), f('backupEnergy', c.backupEnergy, { testId: 'chosen-backup-energy' })]
+        ? [
+            f('backupHours', c.backupHours, { testId: 'chosen-backup-hours' }),
+            f('backupEnergy', c.backupEnergy, { testId: 'chosen-backup-energy' }),
+          ]
         : []),
       f('unmetHours', c.unmetHours, { testId: 'chosen-unmet' }),
       f('unmetHoursWorstYear', c.unmetWorst),
       f('unmetDegreeHours', c.degreeHours),
-      f('lowestIndoor', c.lowestIndoor, { testId: 'chosen-lowest-indoor', note: c.drop === '—' ? '' : `${c.drop} below the set-point` }),
+      f('lowestIndoor', c.lowestIndoor, {
+        testId: 'chosen-lowest-indoor',
+        note: c.drop === '—' ? '' : `${c.drop} below the set-point`,
+      }),
     ];
   });
   protected readonly optionLabel = computed(() => {
@@ -390,10 +404,17 @@ export class TradeoffPage {
         return this.api.freeze(s.projectId, s.id, name);
       },
     };
-    const frozen = await firstValueFrom(this.dialog.open<NameDialog<Scenario>, NameDialogData<Scenario>, Scenario>(NameDialog, { data }).afterClosed());
+    const frozen = await firstValueFrom(
+      this.dialog.open<NameDialog<Scenario>, NameDialogData<Scenario>, Scenario>(NameDialog, { data }).afterClosed(),
+    );
     if (frozen) {
       await this.router.navigate(['/projects', s.projectId, 'scenarios', frozen.id]);
-      this.snack.open(`Frozen as “${frozen.name}”. This is the frozen copy; the live scenario stays editable.`, 'Back to the live one', { duration: 8000 })
+      this.snack
+        .open(
+          `Frozen as “${frozen.name}”. This is the frozen copy; the live scenario stays editable.`,
+          'Back to the live one',
+          { duration: 8000 },
+        )
         .onAction()
         .subscribe(() => void this.router.navigate(['/projects', s.projectId, 'scenarios', s.id]));
     }
@@ -421,7 +442,9 @@ export class TradeoffPage {
         version: copy.version,
         settings: { ...copy.settings, climateBasisYears: other.years },
       });
-      await this.router.navigate(['/projects', s.projectId, 'compare'], { queryParams: { ids: `${s.id},${changed.id}` } });
+      await this.router.navigate(['/projects', s.projectId, 'compare'], {
+        queryParams: { ids: `${s.id},${changed.id}` },
+      });
     } catch (err) {
       this.snack.open(apiErrorMessage(err), 'Dismiss', { duration: 8000 });
     }
@@ -445,6 +468,8 @@ export class TradeoffPage {
    */
   protected readonly designPointText = (i: number): string => {
     const r = this.sweep()?.rows[i];
-    return r ? `${formatQuantity('temperature', r.designC, this.unitSystem())}${r.isGrid ? '' : ` (${designValueName(r.label)})`}` : '';
+    return r
+      ? `${formatQuantity('temperature', r.designC, this.unitSystem())}${r.isGrid ? '' : ` (${designValueName(r.label)})`}`
+      : '';
   };
 }

@@ -25,7 +25,14 @@ describe('NameDialog', () => {
         { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
         {
           provide: MAT_DIALOG_DATA,
-          useValue: { title: 'Rename project', label: 'Project name', initial: 'Old name', submitLabel: 'Rename', maxLength: 20, ...data },
+          useValue: {
+            title: 'Rename project',
+            label: 'Project name',
+            initial: 'Old name',
+            submitLabel: 'Rename',
+            maxLength: 20,
+            ...data,
+          },
         },
       ],
     });
@@ -84,7 +91,9 @@ describe('NameDialog', () => {
   });
 
   it('offers Reload when someone saved first, then saves the typed name over the latest version', async () => {
-    const save = jasmine.createSpy('save').and.rejectWith(failure(409, 'stale_update', 'Ann saved this project after you opened it'));
+    const save = jasmine
+      .createSpy('save')
+      .and.rejectWith(failure(409, 'stale_update', 'Ann saved this project after you opened it'));
     const load = jasmine.createSpy('load').and.callFake(() => {
       // After the reload, a save made from the latest version (5) goes through.
       save.and.callFake((name: string, _choice: string, current: Saved | null) =>
@@ -113,7 +122,9 @@ describe('NameDialog', () => {
   it('shows a field error from the server on the field, without Reload when there is nothing to reload', async () => {
     const save = jasmine
       .createSpy('save')
-      .and.rejectWith(failure(400, 'invalid_input', 'Check the name', [{ path: 'name', message: 'That name is taken here' }]));
+      .and.rejectWith(
+        failure(400, 'invalid_input', 'Check the name', [{ path: 'name', message: 'That name is taken here' }]),
+      );
     const { type, click, el, buttons } = await render({ save });
     await type('Taken');
     await click('Rename');

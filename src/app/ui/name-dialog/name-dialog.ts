@@ -73,7 +73,9 @@ export interface NameDialogData<T, R = unknown> {
           @if (data.fieldHint) {
             <mat-hint>{{ data.fieldHint }}</mat-hint>
           }
-          <mat-error>{{ fieldError(form.controls.name, { required: data.requiredMessage ?? 'Enter a name' }) }}</mat-error>
+          <mat-error>{{
+            fieldError(form.controls.name, { required: data.requiredMessage ?? 'Enter a name' })
+          }}</mat-error>
         </mat-form-field>
         @if (data.choice; as c) {
           <fieldset class="choice">
