@@ -88,7 +88,7 @@ describe('a site with published values only, estimated from a demo record', () =
     // A copy of a demo bid, moved to the new site.
     await page.goto(e2e.baseUrl + '/projects');
     await page.getByRole('link', { name: /Fernbrook Lane/ }).click();
-    await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)' }).click();
+    await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)', exact: true }).click();
     await page.waitForURL(/\/scenarios\//);
     const demoUrl = new URL(page.url()).pathname;
     const copy = await page.request.post(`${e2e.baseUrl}/api/v1${demoUrl}/duplicate`, {

@@ -30,7 +30,7 @@ describe('a heat-pump scenario in a real browser', () => {
     await signInAsDemo(page, e2e.baseUrl, 'designer');
 
     await page.getByRole('link', { name: /Fernbrook Lane/ }).click();
-    await page.getByTestId('scenario-list').getByRole('link', { name: 'Heat pump bid (demo)' }).click();
+    await page.getByTestId('scenario-list').getByRole('link', { name: 'Heat pump bid (demo)', exact: true }).click();
     await page.waitForURL(/\/scenarios\//);
     await page.getByTestId('tradeoff-sentence').waitFor();
     await page.getByTestId('design-slider').focus();

@@ -47,7 +47,7 @@ describe('a client report in a real browser', () => {
 
     // The heat-pump bid of the second demo project, at its 99 % design temperature.
     await page.getByRole('link', { name: /Old Mill duplex/ }).click();
-    await page.getByTestId('scenario-list').getByRole('link', { name: 'Heat pump bid (demo)' }).click();
+    await page.getByTestId('scenario-list').getByRole('link', { name: 'Heat pump bid (demo)', exact: true }).click();
     await page.getByTestId('tradeoff-sentence').waitFor({ timeout: 120_000 }); // the first sweep of a record starts a worker and loads it
     await page.getByTestId('design-slider').focus();
     await page.keyboard.press('Home');

@@ -24,7 +24,7 @@ describe('the trade-off screen on the demo data', () => {
     await signInAsDemo(page, e2e.baseUrl, 'designer');
 
     await page.getByRole('link', { name: /Fernbrook Lane/ }).click();
-    await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)' }).click();
+    await page.getByTestId('scenario-list').getByRole('link', { name: 'Gas furnace bid (demo)', exact: true }).click();
     await page.waitForURL(/\/scenarios\//);
     const scenarioUrl = new URL(page.url()).pathname;
     /** Waits (bounded) until the scenario, as stored, holds this chosen design point. */
