@@ -62,6 +62,18 @@ export async function checkA11y(page: Page, name: string): Promise<void> {
       if (width !== page.viewportSize()?.width) {
         await page.setViewportSize({ width, height: width < 600 ? 844 : 900 });
       }
+      // Colours are judged at rest: a snack bar or dialog fading in has not reached its own colours yet
+      // (endless animations, such as a progress bar's, are not waited for).
+      await page.waitForFunction(
+        () =>
+          document
+            .getAnimations()
+            .every((a) => a.playState !== 'running' || a.effect?.getComputedTiming().endTime === Infinity),
+        undefined,
+        {
+          timeout: 10_000,
+        },
+      );
       const violations = await axeViolations(page);
       if (violations.length) found[String(width)] = violations;
     }
