@@ -245,6 +245,9 @@ interface ColumnPlan {
   windToMs: (v: number) => number;
   pressure: number;
   names: string[];
+  /** Where each field of the row being read quickly starts and ends (one pair per column). */
+  starts: Int32Array;
+  ends: Int32Array;
 }
 
 /** Creates an incremental parser for the generic hourly CSV. */
@@ -311,6 +314,8 @@ export function createCsvParser(options: CsvParserOptions = {}): LineParser {
       windToMs: wind === 'wind_speed_mph' ? mphToMs : wind === 'wind_speed_kn' ? knotsToMs : (v: number) => v,
       pressure: found.station_pressure_kpa,
       names: fields,
+      starts: new Int32Array(names.length),
+      ends: new Int32Array(names.length),
     };
   };
 
@@ -359,13 +364,7 @@ export function createCsvParser(options: CsvParserOptions = {}): LineParser {
    */
   const readRowQuick = (p: ColumnPlan, line: string): boolean => {
     if (line.includes('"')) return false;
-    const starts = bounds.starts;
-    const ends = bounds.ends;
-    if (starts.length < p.width) {
-      bounds.starts = new Int32Array(p.width);
-      bounds.ends = new Int32Array(p.width);
-      return readRowQuick(p, line);
-    }
+    const { starts, ends } = p;
     let start = 0;
     for (let k = 0; k < p.width; k++) {
       const next = line.indexOf(p.delimiter, start);
@@ -385,7 +384,6 @@ export function createCsvParser(options: CsvParserOptions = {}): LineParser {
     accept(p, time, db, dp, ws, pressure);
     return true;
   };
-  const bounds = { starts: new Int32Array(0), ends: new Int32Array(0) };
 
   return {
     push(rawLine: string, lineNumber?: number): void {
