@@ -12,6 +12,7 @@ import { DEMO_SITES, generateDemoSeries } from '../../shared/climate/demo-weathe
 import { sweep } from '../../shared/sweep/sweep';
 import { buildSweepIndex, packSweepIndex, sweepIndexKey, unpackSweepIndex } from '../../shared/sweep/sweep-index';
 import { createDb } from '../../server/db';
+import { copyOutFirstRow, firstRowOfBinaryCopy } from '../../server/db-copy';
 import { migrationConfig } from '../../server/migrate';
 import { loadRecord, loadRecordForSweep, packRecord, unpackRecord } from '../../server/modules/climate/climate-repo';
 import { storeRecord } from '../../server/modules/climate/climate-service';
@@ -165,6 +166,10 @@ describe('moving hourly records into columns', () => {
     ).conditions.period.qualifyingYears;
     const stored = await loadRecordForSweep(db, siteId, sweepIndexKey(years));
     assert.ok(stored && 'index' in stored, 'the index built at upload is read back');
+    const asText = await db('climate_records')
+      .where({ climate_site_id: siteId })
+      .first<{ sweep_index: Buffer }>('sweep_index');
+    assert.ok(stored.index.equals(asText.sweep_index), 'the binary COPY gives the bytes the ordinary query gives');
     const other = await loadRecordForSweep(db, siteId, sweepIndexKey([1901]));
     assert.ok(other && 'series' in other, 'an index for other years is not used: the columns come instead');
     assert.deepEqual(other.series, await loadRecord(db, siteId));
@@ -216,5 +221,34 @@ describe('packing a record into columns', () => {
     const bytes = packSweepIndex(index);
     bytes.set(new TextEncoder().encode('"format":"sweep-index-0"'), 5);
     assert.throws(() => unpackSweepIndex(bytes));
+  });
+});
+
+describe('reading bytes with a binary COPY (server/db-copy.ts)', () => {
+  it('keeps bytes, NULLs and integers as PostgreSQL sends them', async () => {
+    const bytes = randomBytes(70_000); // spans several chunks of the stream
+    const row = await copyOutFirstRow(db, "SELECT decode($1, 'hex'), NULL::bytea, 1234567::int4", [
+      bytes.toString('hex'),
+    ]);
+    assert.ok(row);
+    assert.ok(row[0]?.equals(bytes));
+    assert.equal(row[1], null);
+    assert.equal(row[2]?.readInt32BE(0), 1_234_567);
+  });
+
+  it('answers undefined for no row, and quotes values so that none can change the query', async () => {
+    assert.equal(await copyOutFirstRow(db, 'SELECT 1 WHERE false', []), undefined);
+    const hostile = "x'); DROP TABLE climate_records; --";
+    const row = await copyOutFirstRow(db, 'SELECT $1::text', [hostile]);
+    assert.equal(row?.[0]?.toString('utf8'), hostile);
+    assert.ok(await db.schema.hasTable('climate_records'));
+  });
+
+  it('refuses a stream that is not a binary COPY or is cut short', () => {
+    assert.throws(() => firstRowOfBinaryCopy(Buffer.from('not a copy stream at all')), /not a binary COPY/);
+    const header = Buffer.concat([Buffer.from('PGCOPY\n\xff\r\n\0', 'latin1'), Buffer.alloc(8)]);
+    const cut = Buffer.concat([header, Buffer.from([0, 1, 0, 0, 0, 10, 1, 2])]);
+    assert.throws(() => firstRowOfBinaryCopy(cut), /cut short/);
+    assert.equal(firstRowOfBinaryCopy(Buffer.concat([header, Buffer.from([0xff, 0xff])])), undefined);
   });
 });

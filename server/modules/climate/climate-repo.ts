@@ -3,6 +3,7 @@ import type { ClimateSite, ClimateSiteSummary, SiteEstimate, SourceKind } from '
 import type { DesignConditions, PublishedDesignValues } from '@shared/climate/design-conditions-schema';
 import type { HourlySeries } from '@shared/climate/hourly-series';
 import type { DistributionBin, MonthlyStatistics } from '@shared/climate/quality-report';
+import { copyOutFirstRow } from '../../db-copy';
 
 interface SiteRow {
   id: string;
@@ -194,19 +195,6 @@ export function packRecord(series: HourlySeries): PackedRecord {
     if (h <= last) sorted = false;
     last = h;
   }
-  let order: number[] | Int32Array;
-  if (sorted && valid === n) {
-    order = Int32Array.from({ length: n }, (_, i) => i);
-  } else {
-    // Stable sort by hour keeps the first of a repeated hour in front; later repeats are dropped.
-    const idx: number[] = [];
-    for (let i = 0; i < n; i++) if (!Number.isNaN(hourOf[i] ?? NaN)) idx.push(i);
-    idx.sort((a, b) => (hourOf[a] ?? 0) - (hourOf[b] ?? 0));
-    order = idx.filter((i, k) => k === 0 || hourOf[i] !== hourOf[idx[k - 1] ?? 0]);
-  }
-  const m = order.length;
-  const hours = new Int32Array(m);
-  for (let k = 0; k < m; k++) hours[k] = hourOf[order[k] ?? 0] ?? 0;
   const sources: Record<ValueColumn, Float64Array> = {
     dry_bulb_c: series.dryBulbC,
     dew_point_c: series.dewPointC,
@@ -214,6 +202,19 @@ export function packRecord(series: HourlySeries): PackedRecord {
     station_pressure_kpa: series.stationPressureKpa,
   };
   const values = {} as Record<ValueColumn, Buffer>;
+  if (sorted && valid === n) {
+    // Already in time order, every hour once (as every record read from a file is): no reordering.
+    for (const column of VALUE_COLUMNS) values[column] = bytesOf(Float32Array.from(sources[column]));
+    return { hourCount: n, hours: bytesOf(Int32Array.from(hourOf)), values };
+  }
+  // Stable sort by hour keeps the first of a repeated hour in front; later repeats are dropped.
+  const idx: number[] = [];
+  for (let i = 0; i < n; i++) if (!Number.isNaN(hourOf[i] ?? NaN)) idx.push(i);
+  idx.sort((a, b) => (hourOf[a] ?? 0) - (hourOf[b] ?? 0));
+  const order = idx.filter((i, k) => k === 0 || hourOf[i] !== hourOf[idx[k - 1] ?? 0]);
+  const m = order.length;
+  const hours = new Int32Array(m);
+  for (let k = 0; k < m; k++) hours[k] = hourOf[order[k] ?? 0] ?? 0;
   for (const column of VALUE_COLUMNS) {
     const from = sources[column];
     const to = new Float32Array(m);
@@ -277,53 +278,52 @@ export async function writeRecord(
   return packed.hourCount;
 }
 
-type RecordRow = { hour_count: number; hours: Buffer } & Record<ValueColumn, Buffer>;
+/** A site's record as stored, read with a binary COPY (server/db-copy.ts); undefined when it has none. */
+async function loadRecordColumns(db: Knex, siteId: string): Promise<HourlySeries | undefined> {
+  const row = await copyOutFirstRow(
+    db,
+    `SELECT hour_count, hours, ${VALUE_COLUMNS.join(', ')} FROM climate_records WHERE climate_site_id = $1`,
+    [siteId],
+  );
+  if (!row) return undefined;
+  const [hourCount, hours, dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa] = row;
+  if (!hourCount || !hours || !dry_bulb_c || !dew_point_c || !wind_speed_ms || !station_pressure_kpa)
+    throw new Error('climate record without columns');
+  // hour_count is an integer, in the binary format a 4-byte big-endian number.
+  return unpackRecord(hourCount.readInt32BE(0), hours, {
+    dry_bulb_c,
+    dew_point_c,
+    wind_speed_ms,
+    station_pressure_kpa,
+  });
+}
 
 /** A site's stored hourly record, in time order (an empty series when it has none). */
 export async function loadRecord(db: Knex, siteId: string): Promise<HourlySeries> {
-  const row = await db('climate_records')
-    .where({ climate_site_id: siteId })
-    .first<RecordRow | undefined>('hour_count', 'hours', ...VALUE_COLUMNS);
-  if (!row)
-    return unpackRecord(0, Buffer.alloc(0), {
+  return (
+    (await loadRecordColumns(db, siteId)) ??
+    unpackRecord(0, Buffer.alloc(0), {
       dry_bulb_c: Buffer.alloc(0),
       dew_point_c: Buffer.alloc(0),
       wind_speed_ms: Buffer.alloc(0),
       station_pressure_kpa: Buffer.alloc(0),
-    });
-  return unpackRecord(row.hour_count, row.hours, row);
+    })
+  );
 }
 
-/**
- * A record's stored sweep index when it is of the given key, read in PostgreSQL's binary format: the
- * bytes come as they are stored, not as hex text twice their size to be decoded (most of the time of
- * the first sweep of a record is this read).
- */
+/** A record's stored sweep index when it is of the given key, read with a binary COPY (server/db-copy.ts). */
 async function loadSweepIndexBytes(db: Knex, siteId: string, indexKey: string): Promise<Buffer | undefined> {
-  interface PgConnection {
-    query(q: { text: string; values: unknown[]; binary: boolean }): Promise<{ rows: { sweep_index: unknown }[] }>;
-  }
-  const client = db.client as {
-    acquireConnection(): Promise<PgConnection>;
-    releaseConnection(c: PgConnection): Promise<void>;
-  };
-  const connection = await client.acquireConnection();
-  try {
-    const { rows } = await connection.query({
-      text: 'SELECT sweep_index FROM climate_records WHERE climate_site_id = $1 AND sweep_index_key = $2 AND sweep_index IS NOT NULL',
-      values: [siteId, indexKey],
-      binary: true,
-    });
-    const bytes = rows[0]?.sweep_index;
-    return Buffer.isBuffer(bytes) ? bytes : undefined;
-  } finally {
-    await client.releaseConnection(connection);
-  }
+  const row = await copyOutFirstRow(
+    db,
+    'SELECT sweep_index FROM climate_records WHERE climate_site_id = $1 AND sweep_index_key = $2 AND sweep_index IS NOT NULL',
+    [siteId, indexKey],
+  );
+  return row?.[0] ?? undefined;
 }
 
 /**
- * What a sweep needs of a site's record, in one query: the stored sweep index when it was built
- * for `indexKey`, otherwise the record's columns (to index them again).
+ * What a sweep needs of a site's record: the stored sweep index when it was built for `indexKey`
+ * (one query), otherwise the record's columns (to index them again; a second query).
  */
 export async function loadRecordForSweep(
   db: Knex,
@@ -332,27 +332,8 @@ export async function loadRecordForSweep(
 ): Promise<{ index: Buffer } | { series: HourlySeries } | undefined> {
   const index = await loadSweepIndexBytes(db, siteId, indexKey);
   if (index) return { index };
-  const fresh = 'sweep_index IS NOT NULL AND sweep_index_key = ?';
-  const row = await db('climate_records')
-    .where({ climate_site_id: siteId })
-    .first<
-      | ({ index: Buffer | null; hour_count: number; hours: Buffer | null } & Record<ValueColumn, Buffer | null>)
-      | undefined
-    >(
-      db.raw(`CASE WHEN ${fresh} THEN sweep_index END AS index`, [indexKey]),
-      'hour_count',
-      ...['hours', ...VALUE_COLUMNS].map((c) =>
-        db.raw(`CASE WHEN ${fresh} THEN NULL ELSE ?? END AS ??`, [indexKey, c, c]),
-      ),
-    );
-  if (!row) return undefined;
-  if (row.index) return { index: row.index };
-  const { hours, dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa } = row;
-  if (!hours || !dry_bulb_c || !dew_point_c || !wind_speed_ms || !station_pressure_kpa)
-    throw new Error('climate record without columns');
-  return {
-    series: unpackRecord(row.hour_count, hours, { dry_bulb_c, dew_point_c, wind_speed_ms, station_pressure_kpa }),
-  };
+  const series = await loadRecordColumns(db, siteId);
+  return series ? { series } : undefined;
 }
 
 export interface StoredComputation {
