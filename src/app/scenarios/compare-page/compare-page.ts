@@ -94,7 +94,7 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
             </mat-select>
           </mat-form-field>
         </div>
-        <div class="table-wrap" tabindex="0" role="region" aria-label="Comparison table, scrolls sideways">
+        <div class="tr-table-wrap" tabindex="0" role="region" aria-label="Comparison table, scrolls sideways">
           <table class="compare-table" data-testid="compare-table">
             <thead>
               <tr>
@@ -169,10 +169,7 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
       /* Wide enough for "The point chosen in each scenario" without an ellipsis, never wider than a phone. */
       min-width: min(22rem, 100%);
     }
-    .table-wrap {
-      overflow-x: auto;
-      border: 1px solid var(--tr-rule);
-      border-radius: 8px;
+    .tr-table-wrap {
       margin-top: 1rem;
     }
     .compare-table {
