@@ -1,5 +1,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
+import { projectListSchema } from '../../shared/projects/project-schemas';
+import { parseBody } from '../support/parse-body';
 import { signUp, useTestApp, inviteMember, setPlan } from '../support/test-app';
 
 const t = useTestApp();
@@ -49,12 +51,12 @@ describe('projects', () => {
     await agent.patch(`/api/v1/projects/${copy.body.id}`).send({ version: 1, archived: true }).expect(200);
     const active = await agent.get('/api/v1/projects').expect(200);
     assert.deepEqual(
-      active.body.map((p: { name: string }) => p.name),
+      parseBody(projectListSchema, active).map((p) => p.name),
       ['Hollow Lane cottage'],
     );
     const archived = await agent.get('/api/v1/projects?archived=true').expect(200);
     assert.deepEqual(
-      archived.body.map((p: { id: string }) => p.id),
+      parseBody(projectListSchema, archived).map((p) => p.id),
       [copy.body.id],
     );
     await agent.get('/api/v1/projects?archived=maybe').expect(400);
