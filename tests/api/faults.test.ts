@@ -186,7 +186,8 @@ describe('faults', () => {
       stdio: 'ignore',
     });
     const exited = new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
-    for (let i = 0; i < 100; i++) {
+    // Up to a minute to start: on a busy machine compiling and starting the server takes well over 10 s.
+    for (let i = 0; i < 600; i++) {
       try {
         if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) break;
       } catch {
