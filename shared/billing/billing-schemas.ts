@@ -45,6 +45,14 @@ export const checkoutInputSchema = z.strictObject({
   interval: z.enum(billingIntervals, { error: 'Choose monthly or yearly billing' }),
 });
 
+/** POST /api/v1/billing/checkout and /billing/portal: the provider's page to go to. */
+export const providerPageSchema = z.object({ url: z.string() });
+export type ProviderPage = z.infer<typeof providerPageSchema>;
+
+/** POST /api/v1/billing/webhook: the answer to the payment provider, with what the event did. */
+export const webhookAnswerSchema = z.object({ received: z.literal(true), outcome: z.string() });
+export type WebhookAnswer = z.infer<typeof webhookAnswerSchema>;
+
 export const usageSchema = z.object({
   plan: z.enum(planIds),
   planName: z.string(),

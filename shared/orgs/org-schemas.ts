@@ -68,3 +68,15 @@ export const outboxMessageSchema = z.object({
 });
 export type OutboxMessage = z.infer<typeof outboxMessageSchema>;
 export const outboxMessageListSchema = z.array(outboxMessageSchema);
+
+/** GET /api/v1/audit (owners): the organisation's security log, latest first. */
+export const auditEntrySchema = z.object({
+  id: z.string(),
+  type: z.string(),
+  detail: z.unknown(),
+  ip: z.string().nullable(),
+  at: z.string(),
+  who: z.string(),
+});
+export type AuditEntry = z.infer<typeof auditEntrySchema>;
+export const auditLogSchema = z.array(auditEntrySchema);

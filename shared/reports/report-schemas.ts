@@ -3,6 +3,7 @@
  * by an expiring, revocable link (the token is stored only as a hash) and by e-mail, with a PDF.
  */
 import { z } from 'zod';
+import { apiErrorSchema } from '../api/api-error';
 import { unitSystemSchema } from '../auth/auth-schemas';
 import { term } from '../glossary/glossary';
 
@@ -146,6 +147,10 @@ export const reportListSchema = z.array(reportSchema);
 
 /** 201 of POST …/links: the only time the link's address (with its token) is shown. */
 export const linkCreatedSchema = z.object({ link: linkSchema, url: z.string() });
+
+/** 502 `send_failed` of POST …/send and …/retry: the refusal, with the report holding the failed send (retry by `sendId`). */
+export const sendFailedSchema = apiErrorSchema.extend({ report: reportSchema, sendId: z.string() });
+export type SendFailed = z.infer<typeof sendFailedSchema>;
 
 // ---------------------------------------------------------------------------------------------
 // What the client sees (GET /api/v1/public/reports/:token, and the signed-in preview)

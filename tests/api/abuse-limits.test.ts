@@ -10,10 +10,12 @@ import { createServer, request as httpRequest } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { describe, it } from 'node:test';
 import request from 'supertest';
+import { auditLogSchema, outboxMessageListSchema } from '../../shared/orgs/org-schemas';
 import { reportSchema } from '../../shared/reports/report-schemas';
-import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
+import { scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { FAKE_STRIPE_WEBHOOK_SECRET, parseConfig } from '../../server/config';
 import { headerText } from '../../server/mail/header-text';
+import { parseBody, parseError } from '../support/parse-body';
 import { fixture, type Fixture } from '../support/scenario-fixture';
 import {
   createTestApp,
@@ -37,8 +39,10 @@ async function reportOf(f: Fixture): Promise<string> {
         .expect(201)
     ).body,
   );
-  const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200))
-    .body as { rows: { designC: number }[] };
+  const sweep = parseBody(
+    sweepAnswerSchema,
+    await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200),
+  );
   const report = reportSchema.parse(
     (
       await f.agent
@@ -67,9 +71,9 @@ describe('report e-mails', () => {
       await owner.post(`${base}/send`).send({ to: 'same@example.test' }).expect(201);
       await owner.post(`${base}/send`).send({ to: 'Same@Example.test' }).expect(201);
       const perRecipient = await owner.post(`${base}/send`).send({ to: 'same@example.test' }).expect(429);
-      const body = perRecipient.body as { error: { code: string; message: string } };
-      assert.equal(body.error.code, 'rate_limited');
-      assert.match(body.error.message, /Too many report e-mails to this address today; try again in \d+ hours/);
+      const error = parseError(perRecipient);
+      assert.equal(error.code, 'rate_limited');
+      assert.match(error.message, /Too many report e-mails to this address today; try again in \d+ hours/);
       const retryAfter = Number(perRecipient.headers['retry-after']);
       assert.ok(
         retryAfter > 23 * 3600 && retryAfter <= 24 * 3600,
@@ -79,16 +83,13 @@ describe('report e-mails', () => {
       // The organisation's hourly limit (4): the refused send above counted, so one more goes out.
       await owner.post(`${base}/send`).send({ to: 'other@example.test' }).expect(201);
       const perOrg = await owner.post(`${base}/send`).send({ to: 'third@example.test' }).expect(429);
-      assert.match(
-        (perOrg.body as { error: { message: string } }).error.message,
-        /from this organisation this hour; try again in \d+ minutes/,
-      );
+      assert.match(parseError(perOrg).message, /from this organisation this hour; try again in \d+ minutes/);
       assert.ok(Number(perOrg.headers['retry-after']) <= 3600);
 
       // Nothing was sent past a limit; every send that went out is in the audit log.
       const sends = await t.db('report_sends').count<{ n: string }[]>('id as n');
       assert.equal(Number(sends[0]?.n), 3);
-      const log = (await f.agent.get('/api/v1/audit').expect(200)).body as { type: string }[];
+      const log = parseBody(auditLogSchema, await f.agent.get('/api/v1/audit').expect(200));
       assert.equal(log.filter((e) => e.type === 'report_sent').length, 3);
 
       // Another organisation is not held up by this one's limit, but the recipient's limit is everyone's.
@@ -141,10 +142,7 @@ describe('sign-in from one network address', () => {
         .post('/api/v1/auth/sign-in')
         .send({ email: uniqueEmail('spray'), password: 'Winter2026!' })
         .expect(429);
-      assert.match(
-        (limited.body as { error: { message: string } }).error.message,
-        /failed sign-ins from this network address/,
-      );
+      assert.match(parseError(limited).message, /failed sign-ins from this network address/);
       assert.ok(Number(limited.headers['retry-after']) > 0);
     } finally {
       await own.close();
@@ -199,8 +197,8 @@ describe('request edges', () => {
     const b = await signUp(t);
     await inviteMember(t, a, 'viewer');
     const ids = [
-      ...((await a.agent.get('/api/v1/audit').expect(200)).body as { id: string }[]),
-      ...((await b.agent.get('/api/v1/audit').expect(200)).body as { id: string }[]),
+      ...parseBody(auditLogSchema, await a.agent.get('/api/v1/audit').expect(200)),
+      ...parseBody(auditLogSchema, await b.agent.get('/api/v1/audit').expect(200)),
     ].map((e) => e.id);
     assert.ok(ids.length >= 3);
     for (const id of ids) assert.match(id, /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/);
@@ -213,7 +211,7 @@ describe('development surfaces', () => {
     const dev = await createTestApp({ NODE_ENV: 'development' });
     try {
       const refused = await request(dev.app).get('/api/health').set('Host', 'attacker.example:3000').expect(421);
-      assert.equal((refused.body as { error: { code: string } }).error.code, 'unknown_host');
+      assert.equal(parseError(refused).code, 'unknown_host');
       await request(dev.app).get('/api/v1/dev/outbox').set('Host', 'rebound.example').expect(421);
       await request(dev.app).get('/api/health').set('Host', '127.0.0.1:3000').expect(200);
       await request(dev.app).get('/api/health').set('Host', 'localhost:4200').expect(200);
@@ -232,26 +230,28 @@ describe('development surfaces', () => {
     const stranger = await signUp(t);
 
     const anonymous = await request(t.app).get('/api/v1/dev/outbox').expect(401);
-    assert.equal((anonymous.body as { error: { code: string } }).error.code, 'unauthenticated');
+    assert.equal(parseError(anonymous).code, 'unauthenticated');
     await request(t.app)
       .get('/api/v1/dev/outbox')
       .set('X-Dev-Outbox-Token', 'a-wrong-token-of-some-length')
       .expect(401);
 
-    const all = (
-      await request(t.app).get('/api/v1/dev/outbox').set('X-Dev-Outbox-Token', t.config.devOutboxToken).expect(200)
-    ).body as { to: string[] }[];
+    const all = parseBody(
+      outboxMessageListSchema,
+      await request(t.app).get('/api/v1/dev/outbox').set('X-Dev-Outbox-Token', t.config.devOutboxToken).expect(200),
+    );
     assert.ok(all.some((m) => m.to.includes(invitee)));
-    const viaQuery = (
+    const viaQuery = parseBody(
+      outboxMessageListSchema,
       await request(t.app)
         .get(`/api/v1/dev/outbox?token=${encodeURIComponent(t.config.devOutboxToken)}`)
-        .expect(200)
-    ).body as unknown[];
+        .expect(200),
+    );
     assert.equal(viaQuery.length, all.length);
 
-    const own = (await owner.agent.get('/api/v1/dev/outbox').expect(200)).body as { to: string[] }[];
+    const own = parseBody(outboxMessageListSchema, await owner.agent.get('/api/v1/dev/outbox').expect(200));
     assert.ok(own.some((m) => m.to.includes(invitee)));
-    const theirs = (await stranger.agent.get('/api/v1/dev/outbox').expect(200)).body as { to: string[] }[];
+    const theirs = parseBody(outboxMessageListSchema, await stranger.agent.get('/api/v1/dev/outbox').expect(200));
     assert.ok(!theirs.some((m) => m.to.includes(invitee)), 'another organisation does not see the invitation');
     assert.ok(theirs.every((m) => m.to.includes(stranger.email)));
   });

@@ -1,6 +1,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
+import { parseError } from '../support/parse-body';
 import {
   inviteMember,
   linkPath,
@@ -103,7 +104,7 @@ describe('create account', () => {
         .send({ email: uniqueEmail(), name: 'X', returnUrl })
         .expect(400);
       assert.deepEqual(
-        res.body.error.details.map((d: { path: string }) => d.path),
+        (parseError(res).details ?? []).map((d) => d.path),
         ['returnUrl'],
         returnUrl,
       );
@@ -127,7 +128,7 @@ describe('create account', () => {
       .expect(400);
     assert.equal(res.body.error.code, 'invalid_input');
     assert.deepEqual(
-      res.body.error.details.map((d: { path: string }) => d.path),
+      (parseError(res).details ?? []).map((d) => d.path),
       ['password'],
     );
     assert.equal(await t.db('users').where({ email }).first(), undefined);

@@ -10,9 +10,15 @@ import type { AddressInfo } from 'node:net';
 import { after, before, beforeEach, describe, it } from 'node:test';
 import request from 'supertest';
 import Stripe from 'stripe';
-import { type Billing, billingSchema } from '../../shared/billing/billing-schemas';
+import {
+  billingSchema,
+  providerPageSchema,
+  usageSchema,
+  webhookAnswerSchema,
+} from '../../shared/billing/billing-schemas';
 import { FAKE_STRIPE_SECRET_KEY, FAKE_STRIPE_WEBHOOK_SECRET } from '../../server/config';
 import { startPaymentFake, TEST_CARDS, type PaymentFake } from '../../server/fakes/payment-fake';
+import { parseBody, parseError } from '../support/parse-body';
 import { createTestApp, inviteMember, resetDb, signUp, uniqueEmail, type TestApp } from '../support/test-app';
 
 let t: TestApp;
@@ -64,7 +70,7 @@ async function pay(
 
 async function upgrade(owner: Awaited<ReturnType<typeof signUp>>, card: string = TEST_CARDS.success) {
   const res = await owner.agent.post('/api/v1/billing/checkout').send({ plan: 'crew', interval: 'month' }).expect(201);
-  const { url } = res.body as { url: string };
+  const { url } = parseBody(providerPageSchema, res);
   assert.ok(url.startsWith(fake.url + '/pay/'));
   const page = await fetch(url);
   assert.match(await page.text(), /Card number/);
@@ -87,13 +93,10 @@ describe('billing', () => {
     const from = fake.deliveries().length;
     for (const name of ['One', 'Two', 'Three']) await owner.agent.post('/api/v1/projects').send({ name }).expect(201);
     const refused = await owner.agent.post('/api/v1/projects').send({ name: 'Four' }).expect(402);
-    assert.equal((refused.body as { error: { code: string } }).error.code, 'plan_limit');
-    assert.match(
-      (refused.body as { error: { message: string } }).error.message,
-      /Starter plan holds 3 active projects/,
-    );
+    assert.equal(parseError(refused).code, 'plan_limit');
+    assert.match(parseError(refused).message, /Starter plan holds 3 active projects/);
     assert.equal((await t.db('projects').count<{ n: number }[]>('id as n'))[0]?.n, 3);
-    const usage = (await owner.agent.get('/api/v1/billing/usage').expect(200)).body as Billing['usage'];
+    const usage = parseBody(usageSchema, await owner.agent.get('/api/v1/billing/usage').expect(200));
     assert.deepEqual(usage.projects, { used: 3, limit: 3 });
 
     const paid = await upgrade(owner);
@@ -142,7 +145,7 @@ describe('billing', () => {
       .set('stripe-signature', header)
       .send(body)
       .expect(400);
-    assert.equal((res.body as { error: { code: string } }).error.code, 'bad_signature');
+    assert.equal(parseError(res).code, 'bad_signature');
     await request(t.app).post('/api/v1/billing/webhook').set('content-type', 'application/json').send(body).expect(400);
     assert.equal((await t.db('billing_events').count<{ n: number }[]>('id as n'))[0]?.n, 0);
   });
@@ -198,8 +201,8 @@ describe('billing', () => {
       .set('stripe-signature', header)
       .send(body)
       .expect(200);
-    assert.match((first.body as { outcome: string }).outcome, /^applied: crew canceled/);
-    assert.match((again.body as { outcome: string }).outcome, /^duplicate/);
+    assert.match(parseBody(webhookAnswerSchema, first).outcome, /^applied: crew canceled/);
+    assert.match(parseBody(webhookAnswerSchema, again).outcome, /^duplicate/);
     assert.equal(
       (await t.db('billing_events').where({ id: 'evt_late_active' }).count<{ n: number }[]>('id as n'))[0]?.n,
       1,
@@ -214,7 +217,7 @@ describe('billing', () => {
     const from = fake.deliveries().length;
     fake.setWebhookUrl('http://127.0.0.1:9/api/v1/billing/webhook');
     const res = await owner.agent.post('/api/v1/billing/checkout').send({ plan: 'firm', interval: 'year' }).expect(201);
-    await pay((res.body as { url: string }).url, TEST_CARDS.success);
+    await pay(parseBody(providerPageSchema, res).url, TEST_CARDS.success);
     await new Promise((r) => setTimeout(r, 200));
     const waiting = fake.deliveries().slice(from);
     assert.equal(waiting.length, 2);
@@ -241,7 +244,7 @@ describe('billing', () => {
     assert.equal(b.status, 'active');
     assert.equal(b.usage.plan, 'crew');
     const portal = await owner.agent.post('/api/v1/billing/portal').send({}).expect(201);
-    assert.match((portal.body as { url: string }).url, /\/portal\/bps_/);
+    assert.match(parseBody(providerPageSchema, portal).url, /\/portal\/bps_/);
   });
 
   it('holds three members on the free plan, counting open invitations', async () => {
@@ -258,7 +261,7 @@ describe('billing', () => {
       .post('/api/v1/invitations')
       .send({ email: uniqueEmail('third'), role: 'viewer' })
       .expect(402);
-    assert.match((refused.body as { error: { message: string } }).error.message, /Starter plan holds 3 members/);
+    assert.match(parseError(refused).message, /Starter plan holds 3 members/);
   });
 
   it('is for owners only', async () => {

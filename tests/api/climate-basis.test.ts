@@ -13,6 +13,7 @@ import { scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenar
 import { insertSite } from '../../server/modules/climate/climate-repo';
 import { storeRecord } from '../../server/modules/climate/climate-service';
 import { atStoragePrecision } from '../../server/modules/climate/series-codec';
+import { parseError } from '../support/parse-body';
 import { fixture, type Fixture } from '../support/scenario-fixture';
 import { useTestApp } from '../support/test-app';
 import { assertClose } from '../engine/close-to';
@@ -95,10 +96,10 @@ describe('an hourly record estimated from published values', () => {
       .post(`/api/v1/climate-sites/${targetId}/estimate`)
       .send({ referenceSiteId: f.siteId })
       .expect(422);
-    const error = (refused.body as { error: { code: string; details: { path: string; message: string }[] } }).error;
+    const error = parseError(refused);
     assert.equal(error.code, 'estimate_refused');
-    assert.equal(error.details[0]?.path, 'referenceSiteId');
-    assert.match(error.details[0]?.message ?? '', /only 4 qualifying year/);
+    assert.equal(error.details?.[0]?.path, 'referenceSiteId');
+    assert.match(error.details?.[0]?.message ?? '', /only 4 qualifying year/);
     const after = climateSiteSchema.parse((await f.agent.get(`/api/v1/climate-sites/${targetId}`).expect(200)).body);
     assert.equal(after.computed, null);
     assert.equal(after.estimate, null);
@@ -106,7 +107,7 @@ describe('an hourly record estimated from published values', () => {
       .post(`/api/v1/climate-sites/${targetId}/estimate`)
       .send({ referenceSiteId: 'nope' })
       .expect(400);
-    assert.equal((bad.body as { error: { details: { path: string }[] } }).error.details[0]?.path, 'referenceSiteId');
+    assert.equal(parseError(bad).details?.[0]?.path, 'referenceSiteId');
     await f.agent.post(`/api/v1/climate-sites/${targetId}/estimate`).send({ referenceSiteId: targetId }).expect(422);
   });
 
@@ -210,10 +211,7 @@ describe('recent years of a record', () => {
       .post(`/api/v1/projects/${f.projectId}/scenarios`)
       .send({ name: 'Too few', settings: { climateBasisYears: 5 } })
       .expect(400);
-    assert.equal(
-      (refused.body as { error: { details: { path: string }[] } }).error.details[0]?.path,
-      'settings.climateBasisYears',
-    );
+    assert.equal(parseError(refused).details?.[0]?.path, 'settings.climateBasisYears');
   });
 });
 

@@ -2,9 +2,11 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { gzipSync } from 'node:zlib';
 import request from 'supertest';
+import { climateSiteListSchema, climateSiteSchema, climateUploadSchema } from '../../shared/climate/climate-schemas';
 import { DEMO_SITES, generateDemoSeries, seriesToCsv, seriesToIsdLite } from '../../shared/climate/demo-weather';
 import { computeDesignConditions } from '../../shared/climate/design-conditions';
 import { parseWeatherText } from '../../shared/climate/readers';
+import { parseBody, parseError } from '../support/parse-body';
 import { signUp, useTestApp, inviteMember } from '../support/test-app';
 
 const t = useTestApp();
@@ -24,7 +26,7 @@ async function hourlySite(agent: request.Agent, elevationM: number | null = site
     .post('/api/v1/climate-sites')
     .send({ name: 'Upload test', sourceKind: 'hourly', elevationM })
     .expect(201);
-  return res.body.id as string;
+  return parseBody(climateSiteSchema, res).id;
 }
 
 const count = async (table: string) => (await t.db(table).count<{ n: number }[]>('* as n'))[0]?.n;
@@ -44,7 +46,7 @@ describe('climate sites with published values', () => {
     assert.equal(res.body.computed, null);
     const list = await agent.get('/api/v1/climate-sites').expect(200);
     assert.deepEqual(
-      list.body.map((s: { name: string }) => s.name),
+      parseBody(climateSiteListSchema, list).map((s) => s.name),
       ['Published site'],
     );
   });
@@ -59,7 +61,7 @@ describe('climate sites with published values', () => {
         publishedValues: { ...published, heating: { db99_6: -10, db99: -20 } },
       })
       .expect(400);
-    assert.ok(res.body.error.details.some((d: { path: string }) => d.path === 'publishedValues.heating.db99_6'));
+    assert.ok(parseError(res).details?.some((d) => d.path === 'publishedValues.heating.db99_6'));
     const missing = await agent
       .post('/api/v1/climate-sites')
       .send({ name: 'No values', sourceKind: 'published' })
@@ -103,7 +105,7 @@ describe('hourly records: upload, check, confirm', () => {
     assert.deepEqual(up.body.quality.yearsFound, [2021, 2022, 2023]);
     assert.ok(up.body.preview.heating.db99_6 <= up.body.preview.heating.db99);
     assert.ok(
-      up.body.warnings.some((w: string) => w.includes('8')),
+      parseBody(climateUploadSchema, up).warnings.some((w) => w.includes('8')),
       'a short record is pointed out',
     );
     assert.equal(await storedHours(), 0, 'nothing stored before confirmation');

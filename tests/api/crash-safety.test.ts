@@ -9,20 +9,18 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import { PNG } from 'pngjs';
-import { type ReportView, reportSchema } from '../../shared/reports/report-schemas';
-import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
+import { climateSiteSchema } from '../../shared/climate/climate-schemas';
+import { projectSchema } from '../../shared/projects/project-schemas';
+import { linkCreatedSchema, type ReportView, reportSchema } from '../../shared/reports/report-schemas';
+import { scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { createPdfPool } from '../../server/modules/reports/pdf-pool';
 import { printable } from '../../server/modules/reports/pdf-worker';
+import { bodyBytes, parseBody, parseError } from '../support/parse-body';
 import { corruptPng, hugePng, hugeSvg, junkJpeg, realJpeg, realPng } from '../support/hostile-images';
 import { BUILDING, fixture, type Fixture } from '../support/scenario-fixture';
 import { newAgent, signUp, useTestApp } from '../support/test-app';
 
 const t = useTestApp();
-
-interface ErrorBody {
-  error: { code: string; message: string; details?: { path: string; message: string }[] };
-}
-const errorOf = (res: request.Response) => (res.body as ErrorBody).error;
 
 async function pdfText(buffer: Buffer): Promise<string> {
   const { getDocument } = await import('pdfjs-dist/legacy/build/pdf.mjs');
@@ -51,8 +49,10 @@ async function sharedReport(
         .expect(201)
     ).body,
   );
-  const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200))
-    .body as { rows: { designC: number }[] };
+  const sweep = parseBody(
+    sweepAnswerSchema,
+    await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200),
+  );
   const report = reportSchema.parse(
     (
       await f.agent
@@ -66,12 +66,13 @@ async function sharedReport(
         .expect(201)
     ).body,
   );
-  const { url } = (
+  const { url } = parseBody(
+    linkCreatedSchema,
     await f.agent
       .post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`)
       .send({ expiresInDays: 10 })
-      .expect(201)
-  ).body as { url: string };
+      .expect(201),
+  );
   return { scenario, report, token: url.split('/r/')[1] ?? '' };
 }
 
@@ -112,9 +113,9 @@ describe('logos that only look like images', () => {
     for (const h of hostile) {
       const res = await f.agent.put('/api/v1/organization/logo').attach('logo', h.content, h.file);
       assert.equal(res.status, 400, h.name);
-      assert.equal(errorOf(res).code, 'invalid_file', h.name);
-      assert.equal(errorOf(res).details?.[0]?.path, 'logo', h.name);
-      assert.match(errorOf(res).details?.[0]?.message ?? '', h.reason, h.name);
+      assert.equal(parseError(res).code, 'invalid_file', h.name);
+      assert.equal(parseError(res).details?.[0]?.path, 'logo', h.name);
+      assert.match(parseError(res).details?.[0]?.message ?? '', h.reason, h.name);
     }
     const after = (await t.db('organization_logos').first<{ content: Buffer }>('content')).content;
     assert.ok(after.equals(before), 'the earlier logo is kept');
@@ -150,8 +151,8 @@ describe('logos that only look like images', () => {
       await storedLogo(f.organizationId, type, content);
       const pub = await request(t.app).get(`/api/v1/public/reports/${token}/pdf`);
       assert.equal(pub.status, 422, type);
-      assert.equal(errorOf(pub).code, 'logo_unreadable', type);
-      assert.match(errorOf(pub).message, /logo could not be read.*upload the logo again/, type);
+      assert.equal(parseError(pub).code, 'logo_unreadable', type);
+      assert.match(parseError(pub).message, /logo could not be read.*upload the logo again/, type);
       const preview = await f.agent.get(`/api/v1/projects/${f.projectId}/reports/${report.id}/pdf`);
       assert.equal(preview.status, 422, type);
       await request(t.app).get('/api/health').expect(200);
@@ -159,7 +160,7 @@ describe('logos that only look like images', () => {
     // With the logo removed the same report prints again.
     await f.agent.delete('/api/v1/organization/logo').expect(204);
     const ok = await request(t.app).get(`/api/v1/public/reports/${token}/pdf`).expect(200);
-    assert.match(await pdfText(ok.body as Buffer), /Your heating options/);
+    assert.match(await pdfText(bodyBytes(ok)), /Your heating options/);
   });
 });
 
@@ -247,7 +248,7 @@ describe('characters a font has no glyph for', () => {
     });
     const f = await fixture(t);
     // The fixture's own organisation is used for the scenario; rename the project and its fields there.
-    const project = (await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(200)).body as { version: number };
+    const project = parseBody(projectSchema, await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(200));
     await f.agent
       .patch(`/api/v1/projects/${f.projectId}`)
       .send({
@@ -263,7 +264,7 @@ describe('characters a font has no glyph for', () => {
       note: `Call${ZW} me${BOM} with\u2009questions.`,
     });
     const pdf = await request(t.app).get(`/api/v1/public/reports/${token}/pdf`).expect(200);
-    const text = await pdfText(pdf.body as Buffer);
+    const text = await pdfText(bodyBytes(pdf));
     // The project's name is not printed (the report has its own title); the client and the address are.
     for (const expected of ['Heating options for you', 'Robin Client', '12 Example Lane', 'Call me with questions.']) {
       assert.ok(text.includes(expected), `the PDF shows “${expected}”`);
@@ -299,7 +300,7 @@ describe('NUL and lone surrogates', () => {
   it('are refused with the field named in every text field that reaches a PDF, a CSV or an e-mail, and nothing is stored', async () => {
     const f = await fixture(t);
     const { scenario, report } = await sharedReport(f);
-    const project = (await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(200)).body as { version: number };
+    const project = parseBody(projectSchema, await f.agent.get(`/api/v1/projects/${f.projectId}`).expect(200));
     const fresh = scenarioSchema.parse(
       (await f.agent.get(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}`).expect(200)).body,
     );
@@ -422,9 +423,9 @@ describe('NUL and lone surrogates', () => {
         const res = await (c.agent ?? f.agent)[c.method](c.url).send(c.body(bad.text));
         const label = `${c.method.toUpperCase()} ${c.url} ${c.path} with ${bad.name}`;
         assert.equal(res.status, 400, label);
-        assert.equal(errorOf(res).code, 'invalid_input', label);
+        assert.equal(parseError(res).code, 'invalid_input', label);
         assert.deepEqual(
-          errorOf(res).details?.map((d) => d.path),
+          parseError(res).details?.map((d) => d.path),
           [c.path],
           label,
         );
@@ -460,7 +461,11 @@ describe('numbers, headers and file names', () => {
       for (const version of [2 ** 31, 2 ** 53 + 10]) {
         const res = await f.agent[c.method](c.url).send({ ...c.body, version });
         assert.equal(res.status, 400, `${c.method} ${c.url} ${version}`);
-        assert.deepEqual([...new Set(errorOf(res).details?.map((d) => d.path))], ['version'], `${c.method} ${c.url}`);
+        assert.deepEqual(
+          [...new Set(parseError(res).details?.map((d) => d.path))],
+          ['version'],
+          `${c.method} ${c.url}`,
+        );
       }
       // The largest version the database holds is a plain stale update, not a failure.
       const stale = await f.agent[c.method](c.url).send({ ...c.body, version: 2 ** 31 - 1 });
@@ -476,7 +481,7 @@ describe('numbers, headers and file names', () => {
         .set('Origin', origin)
         .send({ email: 'a@example.test', password: 'whatever it is' });
       assert.equal(res.status, 403, origin);
-      assert.equal(errorOf(res).code, 'csrf');
+      assert.equal(parseError(res).code, 'csrf');
     }
   });
 
@@ -486,14 +491,14 @@ describe('numbers, headers and file names', () => {
     for (const name of ['fi\u0001rm\u0007\u001f.png', 'no\u0000te.png']) {
       const res = await f.agent.put('/api/v1/organization/logo').attach('logo', realJpeg(), name);
       assert.equal(res.status, 400, JSON.stringify(name));
-      assert.equal(errorOf(res).code, 'invalid_upload');
+      assert.equal(parseError(res).code, 'invalid_upload');
     }
     const site = await f.agent
       .post('/api/v1/climate-sites')
       .send({ name: 'Control characters', sourceKind: 'hourly' })
       .expect(201);
     const upload = await f.agent
-      .post(`/api/v1/climate-sites/${(site.body as { id: string }).id}/uploads`)
+      .post(`/api/v1/climate-sites/${parseBody(climateSiteSchema, site).id}/uploads`)
       .attach('files', Buffer.from('time,temp\n'), 'we\u0002ather.csv');
     assert.equal(upload.status, 400);
     assert.equal(

@@ -1,7 +1,11 @@
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import request from 'supertest';
+import { usageSchema } from '../../shared/billing/billing-schemas';
+import { projectListSchema } from '../../shared/projects/project-schemas';
+import { scenarioListSchema, type SweepAnswer, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, seedDemo } from '../../server/seed/demo-seed';
+import { parseBody } from '../support/parse-body';
 import { createTestApp, resetDb, type TestApp, newAgent } from '../support/test-app';
 
 let t: TestApp;
@@ -37,10 +41,7 @@ describe('demo data', () => {
       .post('/api/v1/auth/sign-in')
       .send({ email: DEMO_ACCOUNTS[0].email, password: DEMO_PASSWORD })
       .expect(200);
-    const usage = (await agent.get('/api/v1/billing/usage').expect(200)).body as {
-      members: { used: number; limit: number };
-      projects: { used: number; limit: number | null };
-    };
+    const usage = parseBody(usageSchema, await agent.get('/api/v1/billing/usage').expect(200));
     assert.equal(usage.members.used, DEMO_ACCOUNTS.length);
     assert.ok(usage.members.used <= usage.members.limit, `${usage.members.used} of ${usage.members.limit} members`);
     assert.ok(usage.projects.limit === null || usage.projects.used <= usage.projects.limit);
@@ -68,25 +69,20 @@ describe('demo data', () => {
       .post('/api/v1/auth/sign-in')
       .send({ email: DEMO_ACCOUNTS[2].email, password: DEMO_PASSWORD })
       .expect(200);
-    const projects = (await agent.get('/api/v1/projects').expect(200)).body as { id: string }[];
+    const projects = parseBody(projectListSchema, await agent.get('/api/v1/projects').expect(200));
     assert.equal(projects.length, 2);
     const project = projects[0];
     assert.ok(project);
-    const scenarios = (await agent.get(`/api/v1/projects/${project.id}/scenarios`).expect(200)).body as {
-      id: string;
-      name: string;
-    }[];
+    const scenarios = parseBody(
+      scenarioListSchema,
+      await agent.get(`/api/v1/projects/${project.id}/scenarios`).expect(200),
+    );
     assert.deepEqual(scenarios.map((x) => x.name).sort(), ['Gas furnace bid (demo)', 'Heat pump bid (demo)']);
     for (const sc of scenarios) {
-      const sweep = (await agent.post(`/api/v1/projects/${project.id}/scenarios/${sc.id}/sweep`).expect(200)).body as {
-        rows: {
-          isGrid: boolean;
-          selectedOptionId: string | null;
-          unmetHoursPerYear: number | null;
-          backupHoursPerYear: number | null;
-        }[];
-        years: number[];
-      };
+      const sweep: SweepAnswer = parseBody(
+        sweepAnswerSchema,
+        await agent.post(`/api/v1/projects/${project.id}/scenarios/${sc.id}/sweep`).expect(200),
+      );
       assert.equal(sweep.years.length, 30);
       const named = sweep.rows.filter((r) => !r.isGrid);
       assert.ok(

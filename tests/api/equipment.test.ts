@@ -1,5 +1,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
+import { equipmentListSchema } from '../../shared/equipment/equipment-schemas';
+import { parseBody } from '../support/parse-body';
 import { signUp, useTestApp, inviteMember } from '../support/test-app';
 
 const t = useTestApp();
@@ -49,7 +51,7 @@ describe('equipment lists', () => {
       .expect(200);
     assert.equal(saved.body.version, 2);
     assert.deepEqual(
-      saved.body.options.map((o: { label: string }) => o.label),
+      parseBody(equipmentListSchema, saved).options.map((o) => o.label),
       ['Condensing furnace 60k', 'Cold-climate 3 ton', 'Furnace 80k'],
     );
     // Money is stored as an exact decimal.

@@ -13,9 +13,11 @@ import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
-import { billingSchema } from '../../shared/billing/billing-schemas';
-import { reportSchema } from '../../shared/reports/report-schemas';
-import { scenarioListSchema, scenarioSchema } from '../../shared/scenarios/scenario-schemas';
+import { billingSchema, providerPageSchema } from '../../shared/billing/billing-schemas';
+import { climateSiteSchema } from '../../shared/climate/climate-schemas';
+import { projectListSchema } from '../../shared/projects/project-schemas';
+import { linkCreatedSchema, reportSchema, reportViewSchema } from '../../shared/reports/report-schemas';
+import { scenarioListSchema, scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { FAKE_STRIPE_SECRET_KEY, FAKE_STRIPE_WEBHOOK_SECRET } from '../../server/config';
 import { createDb } from '../../server/db';
 import { startPaymentFake, TEST_CARDS, type PaymentFake } from '../../server/fakes/payment-fake';
@@ -23,6 +25,7 @@ import { migrateLatest } from '../../server/migrate';
 import { loadRecord } from '../../server/modules/climate/climate-repo';
 import { backupDatabase, restoreDatabase } from '../../scripts/db-backup';
 import { ensurePostgresInstalled, PgCluster } from '../../scripts/pg-cluster';
+import { parseBody, parseError } from '../support/parse-body';
 import { fixture } from '../support/scenario-fixture';
 import { createTestApp, PASSWORD, signUp, type TestApp } from '../support/test-app';
 
@@ -97,13 +100,13 @@ describe('faults', () => {
     const down = await owner.agent.get('/api/v1/projects');
     const elapsed = performance.now() - t0;
     assert.equal(down.status, 503);
-    assert.equal((down.body as { error: { code: string } }).error.code, 'database_unavailable');
+    assert.equal(parseError(down).code, 'database_unavailable');
     assert.ok(elapsed < 8000, `answered in ${elapsed.toFixed(0)} ms`);
     const write = await owner.agent.post('/api/v1/projects').send({ name: 'During the outage' });
     assert.equal(write.status, 503);
 
     // The provider's events arrive while the database is down: refused, then retried by the provider.
-    const paid = await fetch((checkout.body as { url: string }).url, {
+    const paid = await fetch(parseBody(providerPageSchema, checkout).url, {
       method: 'POST',
       headers: { 'content-type': 'application/x-www-form-urlencoded' },
       body: new URLSearchParams({ card: TEST_CARDS.success }).toString(),
@@ -120,7 +123,7 @@ describe('faults', () => {
     await fake.idle();
     const back = await owner.agent.get('/api/v1/projects').expect(200);
     assert.deepEqual(
-      (back.body as { name: string }[]).map((p) => p.name),
+      parseBody(projectListSchema, back).map((p) => p.name),
       ['Before the outage'],
     );
     const billing = billingSchema.parse((await owner.agent.get('/api/v1/billing').expect(200)).body);
@@ -148,7 +151,7 @@ describe('faults', () => {
         host: '127.0.0.1',
         port,
         method: 'POST',
-        path: `/api/v1/climate-sites/${(site.body as { id: string }).id}/uploads`,
+        path: `/api/v1/climate-sites/${parseBody(climateSiteSchema, site).id}/uploads`,
         headers: {
           'content-type': `multipart/form-data; boundary=${boundary}`,
           'content-length': '1000000',
@@ -183,7 +186,8 @@ describe('faults', () => {
       stdio: 'ignore',
     });
     const exited = new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
-    for (let i = 0; i < 100; i++) {
+    // Up to a minute to start: on a busy machine compiling and starting the server takes well over 10 s.
+    for (let i = 0; i < 600; i++) {
       try {
         if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) break;
       } catch {
@@ -233,8 +237,10 @@ describe('faults', () => {
     const scenario = scenarioSchema.parse(
       (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios`).send({ name: 'Backed up' }).expect(201)).body,
     );
-    const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200))
-      .body as { rows: { designC: number }[] };
+    const sweep = parseBody(
+      sweepAnswerSchema,
+      await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200),
+    );
     const report = reportSchema.parse(
       (
         await f.agent
@@ -243,9 +249,10 @@ describe('faults', () => {
           .expect(201)
       ).body,
     );
-    const { url } = (
-      await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)
-    ).body as { url: string };
+    const { url } = parseBody(
+      linkCreatedSchema,
+      await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201),
+    );
     const token = url.split('/r/')[1] ?? '';
     const file = path.join(dir, 'backup.dump');
     const rowBefore: unknown = await storedRow();
@@ -266,7 +273,7 @@ describe('faults', () => {
       scenarios.map((s) => s.name),
       ['Backed up'],
     );
-    const view = (await f.agent.get(`/api/v1/public/reports/${token}`).expect(200)).body as { title: string };
+    const view = parseBody(reportViewSchema, await f.agent.get(`/api/v1/public/reports/${token}`).expect(200));
     assert.equal(view.title, 'Backed-up report');
     // The record comes back as it was stored: every hour and value, and its sweep index.
     assert.deepEqual(await storedRow(), rowBefore);

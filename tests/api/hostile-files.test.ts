@@ -12,9 +12,10 @@ import path from 'node:path';
 import { after, describe, it } from 'node:test';
 import { gzipSync } from 'node:zlib';
 import request from 'supertest';
-import { CLIMATE_UPLOAD_MAX_BYTES } from '../../shared/climate/climate-schemas';
+import { CLIMATE_UPLOAD_MAX_BYTES, climateSiteSchema } from '../../shared/climate/climate-schemas';
 import { DEMO_SITES, generateDemoSeries, seriesToCsv } from '../../shared/climate/demo-weather';
 import { baseName } from '../../server/modules/climate/uploads-service';
+import { parseBody } from '../support/parse-body';
 import { createTestApp, PASSWORD, signUp, useTestApp } from '../support/test-app';
 
 const t = useTestApp();
@@ -26,7 +27,7 @@ async function hourlySite(agent: request.Agent): Promise<string> {
     .post('/api/v1/climate-sites')
     .send({ name: 'Hostile files', sourceKind: 'hourly' })
     .expect(201);
-  return res.body.id as string;
+  return parseBody(climateSiteSchema, res).id;
 }
 
 describe('hostile uploads', () => {

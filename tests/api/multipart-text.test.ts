@@ -5,6 +5,7 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { DEMO_SITES, generateDemoSeries, seriesToCsv } from '../../shared/climate/demo-weather';
+import { parseError } from '../support/parse-body';
 import { signUp, useTestApp } from '../support/test-app';
 
 const t = useTestApp();
@@ -32,7 +33,7 @@ describe('text in multipart fields', () => {
         .field('mapping', mapping)
         .attach('files', Buffer.from(csv), 'mapped.csv')
         .expect(400);
-      const details = (res.body as { error: { details: { path: string }[] } }).error.details;
+      const details = parseError(res).details ?? [];
       assert.ok(
         details.some((d) => d.path === 'mapping' || d.path.startsWith('mapping.')),
         JSON.stringify(details),

@@ -8,6 +8,7 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import { returnPeriodMinimum } from '../../shared/climate/extremes';
 import { type Scenario, scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
+import { parseError } from '../support/parse-body';
 import { fixture, type Fixture } from '../support/scenario-fixture';
 import { useTestApp } from '../support/test-app';
 
@@ -82,7 +83,7 @@ describe('odds and uncertainty through the API', () => {
         },
       })
       .expect(400);
-    const paths = (res.body as { error: { details: { path: string }[] } }).error.details.map((d) => d.path).sort();
+    const paths = (parseError(res).details ?? []).map((d) => d.path).sort();
     assert.deepEqual(paths, [
       'settings.rule.maxLifetimeOddsPct',
       'settings.rule.maxUnmetHoursWorstYear',

@@ -2,6 +2,14 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
+import { sessionSchema } from '../../shared/auth/auth-schemas';
+import {
+  invitationListSchema,
+  invitationSchema,
+  memberListSchema,
+  outboxMessageListSchema,
+} from '../../shared/orgs/org-schemas';
+import { parseBody, parseError } from '../support/parse-body';
 import {
   createTestApp,
   linkPath,
@@ -104,7 +112,7 @@ describe('the role × action matrix', () => {
         .post('/api/v1/invitations')
         .send({ email: uniqueEmail('pending'), role: 'viewer' })
         .expect(201);
-      const ctx = { ownerId: owner.userId, invitationId: pending.body.id as string };
+      const ctx = { ownerId: owner.userId, invitationId: parseBody(invitationSchema, pending).id };
       for (const row of matrix) {
         const res = await row.send(member.agent, ctx);
         if (row[role] === 'forbidden') {
@@ -168,7 +176,9 @@ describe('invitations', () => {
     const joined = await inviteMember(t, owner, 'designer', email);
     const members = await owner.agent.get('/api/v1/members').expect(200);
     assert.deepEqual(
-      members.body.map((m: { email: string; role: string }) => [m.email, m.role]).sort(),
+      parseBody(memberListSchema, members)
+        .map((m) => [m.email, m.role])
+        .sort(),
       [
         [email, 'designer'],
         [owner.email, 'owner'],
@@ -195,7 +205,7 @@ describe('invitations', () => {
       .post(`/api/v1/invitation-links/${token}/account`)
       .send({ name: '', password: 'short' })
       .expect(400);
-    assert.deepEqual(bad.body.error.details.map((d: { path: string }) => d.path).sort(), ['name', 'password']);
+    assert.deepEqual((parseError(bad).details ?? []).map((d) => d.path).sort(), ['name', 'password']);
   });
 
   it('refuses the link to another signed-in account', async () => {
@@ -238,7 +248,7 @@ describe('invitations', () => {
 
     const statusesNow = async () => {
       const list = await owner.agent.get('/api/v1/invitations').expect(200);
-      return Object.fromEntries(list.body.map((i: { id: string; status: string }) => [i.id, i.status]));
+      return Object.fromEntries(parseBody(invitationListSchema, list).map((i) => [i.id, i.status]));
     };
     assert.equal((await statusesNow())[created.body.id], 'expired');
 
@@ -272,7 +282,7 @@ describe('owners and members', () => {
     await owner.agent.patch(`/api/v1/members/${member.userId}`).send({ role: 'owner' }).expect(200);
     await owner.agent.patch(`/api/v1/members/${owner.userId}`).send({ role: 'viewer' }).expect(200);
     const members = await member.agent.get('/api/v1/members').expect(200);
-    const roles = Object.fromEntries(members.body.map((m: { userId: string; role: string }) => [m.userId, m.role]));
+    const roles = Object.fromEntries(parseBody(memberListSchema, members).map((m) => [m.userId, m.role]));
     assert.deepEqual(roles, { [owner.userId]: 'viewer', [member.userId]: 'owner' });
     await member.agent.patch(`/api/v1/members/${member.userId}`).send({ role: 'designer' }).expect(409);
   });
@@ -309,7 +319,7 @@ describe("another organisation's data answers 404", () => {
     await outsider.agent.delete(`/api/v1/invitations/${pending.body.id}`).expect(404);
     const mine = await outsider.agent.get('/api/v1/members').expect(200);
     assert.deepEqual(
-      mine.body.map((m: { userId: string }) => m.userId),
+      parseBody(memberListSchema, mine).map((m) => m.userId),
       [outsider.userId],
     );
     const theirs = await a.owner.agent.get('/api/v1/members').expect(200);
@@ -319,12 +329,13 @@ describe("another organisation's data answers 404", () => {
   it('creates a further organisation and switches to it', async () => {
     const { agent } = await signUp(t, { organizationName: 'First' });
     const res = await agent.post('/api/v1/organizations').send({ name: 'Second' }).expect(201);
+    const session = parseBody(sessionSchema, res);
     assert.deepEqual(
-      res.body.organizations.map((o: { name: string }) => o.name),
+      session.organizations.map((o) => o.name),
       ['First', 'Second'],
     );
-    const second = res.body.organizations.find((o: { name: string }) => o.name === 'Second');
-    assert.equal(res.body.currentOrganizationId, second.id);
+    const second = session.organizations.find((o) => o.name === 'Second');
+    assert.equal(session.currentOrganizationId, second?.id);
   });
 });
 
@@ -339,10 +350,10 @@ describe('dev outbox', () => {
       .get('/api/v1/dev/outbox')
       .set('X-Dev-Outbox-Token', t.config.devOutboxToken)
       .expect(200);
-    const message = res.body.find((m: { to: string[] }) => m.to.includes(email));
+    const message = parseBody(outboxMessageListSchema, res).find((m) => m.to.includes(email));
     assert.ok(message);
     assert.equal(message.links.length, 1);
-    assert.match(message.links[0], /^http:\/\/tailroom\.test\/invitations\/[A-Za-z0-9_-]{43}$/);
+    assert.match(message.links[0] ?? '', /^http:\/\/tailroom\.test\/invitations\/[A-Za-z0-9_-]{43}$/);
   });
 
   it('does not exist without a configured sink', async () => {

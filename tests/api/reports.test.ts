@@ -6,10 +6,17 @@
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
-import { type Report, reportSchema, reportViewSchema } from '../../shared/reports/report-schemas';
-import { type Scenario, scenarioSchema } from '../../shared/scenarios/scenario-schemas';
+import {
+  linkCreatedSchema,
+  type Report,
+  reportSchema,
+  reportViewSchema,
+  sendFailedSchema,
+} from '../../shared/reports/report-schemas';
+import { type Scenario, scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { newReportToken, verifyReportToken, hashReportToken } from '../../server/modules/reports/report-tokens';
 import { sanitizeSvg, sniffImage } from '../../server/modules/orgs/logo-service';
+import { bodyBytes, parseBody, parseError } from '../support/parse-body';
 import { fixture, type Fixture } from '../support/scenario-fixture';
 import { createTestApp, inviteMember, newAgent, PASSWORD, signUp, useTestApp } from '../support/test-app';
 
@@ -39,8 +46,10 @@ async function reportOf(
         .expect(201)
     ).body,
   );
-  const sweep = (await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200))
-    .body as { rows: { label: string; designC: number }[] };
+  const sweep = parseBody(
+    sweepAnswerSchema,
+    await f.agent.post(`/api/v1/projects/${f.projectId}/scenarios/${scenario.id}/sweep`).expect(200),
+  );
   const at = (label: string) => sweep.rows.find((r) => r.label === label)?.designC ?? 0;
   const res = await f.agent
     .post(`/api/v1/projects/${f.projectId}/reports`)
@@ -82,7 +91,7 @@ describe('reports API', () => {
       .post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`)
       .send({ expiresInDays: 10 })
       .expect(201);
-    const { url } = made.body as { url: string };
+    const { url } = parseBody(linkCreatedSchema, made);
     assert.match(url, /^http:\/\/tailroom\.test\/r\/[\w-]{43}\.[\w-]{22}$/);
     const stored = await t.db('report_links').select('token_hash');
     assert.deepEqual(
@@ -164,14 +173,14 @@ describe('reports API', () => {
     const f = await fixture(t);
     const { report } = await reportOf(f);
     const base = `/api/v1/projects/${f.projectId}/reports/${report.id}`;
-    const a = (await f.agent.post(`${base}/links`).send({}).expect(201)).body as { url: string; link: { id: string } };
-    const b = (await f.agent.post(`${base}/links`).send({}).expect(201)).body as { url: string; link: { id: string } };
+    const a = parseBody(linkCreatedSchema, await f.agent.post(`${base}/links`).send({}).expect(201));
+    const b = parseBody(linkCreatedSchema, await f.agent.post(`${base}/links`).send({}).expect(201));
     const revoked = reportSchema.parse((await f.agent.delete(`${base}/links/${a.link.id}`).expect(200)).body);
     assert.equal(revoked.links.find((l) => l.id === a.link.id)?.status, 'revoked');
     const gone = await request(t.app)
       .get(`/api/v1/public/reports/${tokenOf(a.url)}`)
       .expect(410);
-    assert.equal((gone.body as { error: { code: string } }).error.code, 'link_revoked');
+    assert.equal(parseError(gone).code, 'link_revoked');
     assert.doesNotMatch(JSON.stringify(gone.body), /heating options|F 9 kW/);
     await request(t.app)
       .get(`/api/v1/public/reports/${tokenOf(a.url)}/pdf`)
@@ -184,7 +193,7 @@ describe('reports API', () => {
     const expired = await request(t.app)
       .get(`/api/v1/public/reports/${tokenOf(b.url)}`)
       .expect(410);
-    assert.equal((expired.body as { error: { code: string } }).error.code, 'link_expired');
+    assert.equal(parseError(expired).code, 'link_expired');
 
     const forged = newReportToken('not-the-server-secret-but-long-enough').token;
     await request(t.app).get(`/api/v1/public/reports/${forged}`).expect(404);
@@ -194,9 +203,10 @@ describe('reports API', () => {
   it('produces a PDF whose text holds the report’s key figures', async () => {
     const f = await fixture(t);
     const { report } = await reportOf(f, { unitSystem: 'IP' });
-    const { url } = (
-      await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201)
-    ).body as { url: string };
+    const { url } = parseBody(
+      linkCreatedSchema,
+      await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201),
+    );
     const view = reportViewSchema.parse(
       (
         await request(t.app)
@@ -214,7 +224,7 @@ describe('reports API', () => {
       })
       .expect(200);
     assert.match(res.headers['content-type'] ?? '', /application\/pdf/);
-    const text = (await pdfText(res.body as Buffer)).replace(/\s+/g, ' ');
+    const text = (await pdfText(bodyBytes(res))).replace(/\s+/g, ' ');
     assert.ok(text.includes('Your heating options'));
     for (const o of view.options) {
       assert.ok(text.includes(o.unit), `unit ${o.unit}`);
@@ -259,7 +269,7 @@ describe('reports API', () => {
         .post(`/api/v1/projects/${g.projectId}/reports/${r2.id}/send`)
         .send({ to: 'client@example.test' })
         .expect(502);
-      const body = res.body as { error: { code: string }; report: Report };
+      const body = parseBody(sendFailedSchema, res);
       assert.equal(body.error.code, 'send_failed');
       assert.equal(body.report.sends[0]?.status, 'failed');
       assert.equal(body.report.links[0]?.status, 'revoked');
@@ -296,7 +306,7 @@ describe('reports API', () => {
       .post(`/api/v1/projects/${f.projectId}/reports`)
       .send({ scenarioId: report.scenarioId, title: '', points: [], figures: ['nope'] })
       .expect(400);
-    const paths = (bad.body as { error: { details: { path: string }[] } }).error.details.map((d) => d.path).sort();
+    const paths = (parseError(bad).details ?? []).map((d) => d.path).sort();
     assert.deepEqual(paths, ['figures.0', 'points', 'title']);
   });
 
@@ -313,7 +323,7 @@ describe('reports API', () => {
       .put('/api/v1/organization/logo')
       .attach('logo', Buffer.from('MZ not an image'), 'logo.png')
       .expect(400);
-    assert.equal((fake.body as { error: { code: string } }).error.code, 'invalid_file');
+    assert.equal(parseError(fake).code, 'invalid_file');
     const svg =
       '<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10" onload="alert(1)"><script>alert(2)</script><rect width="10" height="10" fill="#1D4E5F"/><a href="javascript:alert(3)"><circle r="2"/></a></svg>';
     await f.agent.put('/api/v1/organization/logo').attach('logo', Buffer.from(svg), 'firm.svg').expect(200);

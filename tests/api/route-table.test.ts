@@ -8,8 +8,10 @@ import { randomUUID } from 'node:crypto';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import { can, roles, type Role } from '../../shared/auth/roles';
-import { reportSchema } from '../../shared/reports/report-schemas';
+import { invitationSchema } from '../../shared/orgs/org-schemas';
+import { linkCreatedSchema, reportSchema } from '../../shared/reports/report-schemas';
 import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
+import { parseBody, parseError } from '../support/parse-body';
 import { fixture } from '../support/scenario-fixture';
 import { inviteMember, setPlan, signUp, uniqueEmail, useTestApp } from '../support/test-app';
 
@@ -63,14 +65,17 @@ describe('the route table', () => {
           .expect(201)
       ).body,
     );
-    const link = (await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201))
-      .body as { link: { id: string } };
-    const invitation = (
+    const link = parseBody(
+      linkCreatedSchema,
+      await f.agent.post(`/api/v1/projects/${f.projectId}/reports/${report.id}/links`).send({}).expect(201),
+    );
+    const invitation = parseBody(
+      invitationSchema,
       await f.agent
         .post('/api/v1/invitations')
         .send({ email: uniqueEmail('pending'), role: 'viewer' })
-        .expect(201)
-    ).body as { id: string };
+        .expect(201),
+    );
     const members: Record<Role, { agent: request.Agent; userId: string }> = {
       owner: { agent: f.agent, userId: '' },
       designer: await inviteMember(t, { agent: f.agent }, 'designer'),
@@ -126,7 +131,7 @@ describe('the route table', () => {
         const allowed = r.guard?.kind === 'user' || (r.guard?.kind === 'action' && can(role, r.guard.action));
         if (res.status >= 500) problems.push(`${key(r)} as ${role}: ${res.status}`);
         if (!allowed && res.status !== 403) problems.push(`${key(r)} as ${role}: ${res.status}, expected 403`);
-        if (allowed && res.status === 403 && (res.body as { error?: { code?: string } }).error?.code === 'forbidden')
+        if (allowed && res.status === 403 && parseError(res).code === 'forbidden')
           problems.push(`${key(r)} as ${role}: forbidden`);
       }
       // Another organisation's owner, with A's ids: never A's data.

@@ -19,6 +19,7 @@ import {
 } from '../../shared/scenarios/scenario-schemas';
 import { sweepNaive, type SweepOption } from '../../shared/sweep/sweep';
 import { loadRecord } from '../../server/modules/climate/climate-repo';
+import { parseBody, parseError } from '../support/parse-body';
 import { BUILDING, OPTIONS, PRICES, fixture, type Fixture } from '../support/scenario-fixture';
 import { inviteMember, signUp, useTestApp } from '../support/test-app';
 
@@ -52,7 +53,7 @@ describe('scenarios API', () => {
       .patch(`${base(f)}/${s.id}`)
       .send({ version: s.version, name: 'Again' })
       .expect(409);
-    assert.equal((stale.body as { error: { code: string } }).error.code, 'stale_update');
+    assert.equal(parseError(stale).code, 'stale_update');
     const copy = await f.agent
       .post(`${base(f)}/${s.id}/duplicate`)
       .send({})
@@ -73,18 +74,18 @@ describe('scenarios API', () => {
       .post(base(f))
       .send({ name: ' ', settings: { discountRatePct: -1, extraDesignC: [-90], optionLabels: [] } })
       .expect(400);
-    const paths = (res.body as { error: { details: { path: string }[] } }).error.details.map((d) => d.path).sort();
+    const paths = (parseError(res).details ?? []).map((d) => d.path).sort();
     assert.deepEqual(paths, ['name', 'settings.discountRatePct', 'settings.extraDesignC.0', 'settings.optionLabels']);
-    assert.equal(((await f.agent.get(base(f)).expect(200)).body as unknown[]).length, 0);
+    assert.equal(parseBody(scenarioListSchema, await f.agent.get(base(f)).expect(200)).length, 0);
   });
 
   it('answers 422 with what is missing when a scenario cannot be swept', async () => {
     const f = await fixture(t, false);
     const s = await createScenario(f, { equipmentListId: null });
     const res = await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(422);
-    const body = res.body as { error: { code: string; details: { path: string }[] } };
-    assert.equal(body.error.code, 'scenario_incomplete');
-    assert.deepEqual(body.error.details.map((d) => d.path).sort(), ['building', 'equipmentListId']);
+    const error = parseError(res);
+    assert.equal(error.code, 'scenario_incomplete');
+    assert.deepEqual((error.details ?? []).map((d) => d.path).sort(), ['building', 'equipmentListId']);
   });
 
   it('sweeps in the worker pool, agrees with the naive reference over the stored record, and caches by input', async () => {
@@ -246,7 +247,7 @@ describe('scenarios API', () => {
       .patch(`${base(f)}/${frozen.id}`)
       .send({ version: frozen.version, settings: { ...frozen.settings, discountRatePct: 9 } })
       .expect(409);
-    assert.equal((refused.body as { error: { code: string } }).error.code, 'frozen');
+    assert.equal(parseError(refused).code, 'frozen');
     await f.agent
       .patch(`${base(f)}/${frozen.id}`)
       .send({ version: frozen.version, name: 'Bid sent' })
@@ -289,7 +290,7 @@ describe('scenarios API', () => {
       .send({ version: s.version, chosenDesignC: 'cold' })
       .expect(400);
     assert.deepEqual(
-      (bad.body as { error: { details: { path: string }[] } }).error.details.map((d) => d.path),
+      (parseError(bad).details ?? []).map((d) => d.path),
       ['chosenDesignC'],
     );
     await f.agent
@@ -335,7 +336,7 @@ describe('scenarios API', () => {
       .patch(`${base(f)}/${frozen.id}`)
       .send({ version: frozen.version, chosenDesignC: -30 })
       .expect(409);
-    assert.equal((refused.body as { error: { code: string } }).error.code, 'frozen');
+    assert.equal(parseError(refused).code, 'frozen');
 
     // Both CSVs mark the chosen row, under the glossary's column names.
     const one = (await f.agent.get(`${base(f)}/${frozen.id}/sweep.csv`).expect(200)).text.trim().split('\r\n');

@@ -7,6 +7,8 @@ import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
 import request from 'supertest';
 import { CSRF_HEADER } from '../../shared/api/csrf';
+import { auditLogSchema } from '../../shared/orgs/org-schemas';
+import { parseBody, parseError } from '../support/parse-body';
 import { createTestApp, inviteMember, newAgent, PASSWORD, signUp, uniqueEmail, useTestApp } from '../support/test-app';
 
 const t = useTestApp();
@@ -28,7 +30,7 @@ describe('security', () => {
     const cookie = (await t.db('session').count<{ n: number }[]>('sid as n'))[0]?.n;
     assert.ok(cookie);
     const bare = await owner.agent.post('/api/v1/projects').unset(CSRF_HEADER).send({ name: 'No header' }).expect(403);
-    assert.equal((bare.body as { error: { code: string } }).error.code, 'csrf');
+    assert.equal(parseError(bare).code, 'csrf');
     await owner.agent
       .post('/api/v1/projects')
       .set('Origin', 'https://evil.example')
@@ -46,8 +48,8 @@ describe('security', () => {
       await request(t.app).post('/api/v1/auth/sign-in').send({ email, password: 'wrong password here' }).expect(401);
     }
     const limited = await request(t.app).post('/api/v1/auth/sign-in').send({ email, password: PASSWORD }).expect(429);
-    assert.equal((limited.body as { error: { code: string } }).error.code, 'rate_limited');
-    assert.match((limited.body as { error: { message: string } }).error.message, /Too many failed sign-ins/);
+    assert.equal(parseError(limited).code, 'rate_limited');
+    assert.match(parseError(limited).message, /Too many failed sign-ins/);
     assert.ok(limited.headers['ratelimit'] ?? limited.headers['ratelimit-policy'], 'rate-limit headers');
     // Another address is not held up by it.
     const other = await signUp(t);
@@ -65,10 +67,7 @@ describe('security', () => {
         .post('/api/v1/auth/sign-up')
         .send({ email: target, name: 'Again' })
         .expect(429);
-      assert.match(
-        (sameAddress.body as { error: { message: string } }).error.message,
-        /Too many sign-up requests for this e-mail address/,
-      );
+      assert.match(parseError(sameAddress).message, /Too many sign-up requests for this e-mail address/);
       // Refused requests count too: 6 so far from this network address; two more, then the limit.
       for (let i = 0; i < 2; i++) {
         await request(own.app).post('/api/v1/auth/sign-up').send({ email: uniqueEmail(), name: 'Other' }).expect(202);
@@ -77,8 +76,8 @@ describe('security', () => {
         .post('/api/v1/auth/sign-up')
         .send({ email: uniqueEmail(), name: 'Other' })
         .expect(429);
-      assert.equal((tooMany.body as { error: { code: string } }).error.code, 'rate_limited');
-      assert.match((tooMany.body as { error: { message: string } }).error.message, /Too many sign-up requests;/);
+      assert.equal(parseError(tooMany).code, 'rate_limited');
+      assert.match(parseError(tooMany).message, /Too many sign-up requests;/);
       const stored = await own.db('sign_up_requests').count<{ count: number }[]>('* as count');
       assert.equal(stored[0]?.count, 7, 'a refused request stores nothing');
     } finally {
@@ -106,7 +105,7 @@ describe('security', () => {
     await newAgent(t.app).post('/api/v1/auth/sign-in').send({ email: owner.email, password: PASSWORD }).expect(200);
     const designer = await inviteMember(t, owner, 'designer');
     await owner.agent.patch(`/api/v1/members/${designer.userId}`).send({ role: 'viewer' }).expect(200);
-    const log = (await owner.agent.get('/api/v1/audit').expect(200)).body as { type: string; who: string }[];
+    const log = parseBody(auditLogSchema, await owner.agent.get('/api/v1/audit').expect(200));
     const types = log.map((e) => e.type);
     for (const ty of [
       'account_created',

@@ -10,8 +10,10 @@ import type { AddressInfo } from 'node:net';
 import { after, before, describe, it } from 'node:test';
 import request from 'supertest';
 import { CSRF_HEADER, CSRF_HEADER_VALUE } from '../../shared/api/csrf';
+import { projectListSchema } from '../../shared/projects/project-schemas';
 import { startSmtpSink, type SmtpSink } from '../../server/fakes/smtp-sink';
 import { supervise } from '../../scripts/supervise';
+import { parseBody } from '../support/parse-body';
 import { linkToken, PASSWORD, uniqueEmail } from '../support/test-app';
 
 const freePort = () =>
@@ -131,7 +133,7 @@ describe('the supervisor', () => {
       );
 
       // The same session, the committed project, and nothing of the cut-off one.
-      const projects = (await agent.get('/api/v1/projects').expect(200)).body as { name: string }[];
+      const projects = parseBody(projectListSchema, await agent.get('/api/v1/projects').expect(200));
       assert.deepEqual(
         projects.map((p) => p.name),
         ['Kept house'],

@@ -4,17 +4,22 @@
  */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import { type Scenario, scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
+import { projectBuildingAnswerSchema } from '../../shared/building/building-schemas';
+import { equipmentListSchema } from '../../shared/equipment/equipment-schemas';
+import {
+  type Scenario,
+  scenarioListSchema,
+  scenarioSchema,
+  sweepAnswerSchema,
+} from '../../shared/scenarios/scenario-schemas';
+import { type AnswerLike, parseBody, parseError } from '../support/parse-body';
 import { BUILDING, OPTIONS, fixture, type Fixture } from '../support/scenario-fixture';
 import { useTestApp } from '../support/test-app';
 
 const t = useTestApp();
 
 const base = (f: Fixture) => `/api/v1/projects/${f.projectId}/scenarios`;
-interface ErrorBody {
-  error: { code: string; details?: { path: string; message: string }[] };
-}
-const details = (body: unknown) => (body as ErrorBody).error.details ?? [];
+const details = (res: AnswerLike) => parseError(res).details ?? [];
 
 async function createScenario(f: Fixture, settings: Record<string, unknown> = {}): Promise<Scenario> {
   return scenarioSchema.parse((await f.agent.post(base(f)).send({ name: 'Bid', settings }).expect(201)).body);
@@ -36,11 +41,11 @@ describe('bad scenarios through the API', () => {
     ];
     for (const [settings, path, message] of cases) {
       const res = await f.agent.post(base(f)).send({ name: 'Bid', settings }).expect(400);
-      const d = details(res.body).find((x) => x.path === path);
-      assert.ok(d, `${JSON.stringify(settings)} → ${JSON.stringify(details(res.body))}`);
+      const d = details(res).find((x) => x.path === path);
+      assert.ok(d, `${JSON.stringify(settings)} → ${JSON.stringify(details(res))}`);
       assert.match(d.message, message);
     }
-    assert.equal(((await f.agent.get(base(f)).expect(200)).body as unknown[]).length, 0);
+    assert.equal(parseBody(scenarioListSchema, await f.agent.get(base(f)).expect(200)).length, 0);
   });
 
   it('refuses a COP below 1 and a UA of 0 with the field named; the list and the building stay as they were', async () => {
@@ -52,28 +57,29 @@ describe('bad scenarios through the API', () => {
       .send({ version: 2, options: [...OPTIONS.slice(0, 3), { ...hp, copM8_3: 0.8 }] })
       .expect(400);
     assert.ok(
-      details(bad.body).some((d) => d.path === 'options.3.copM8_3' && d.message.includes('at least 1')),
-      JSON.stringify(details(bad.body)),
+      details(bad).some((d) => d.path === 'options.3.copM8_3' && d.message.includes('at least 1')),
+      JSON.stringify(details(bad)),
     );
-    const list = (await f.agent.get(`/api/v1/equipment-lists/${f.listId}`).expect(200)).body as {
-      options: { copM8_3?: number }[];
-    };
-    assert.equal(list.options[3]?.copM8_3, 2.5);
+    const list = parseBody(equipmentListSchema, await f.agent.get(`/api/v1/equipment-lists/${f.listId}`).expect(200));
+    const storedHp = list.options[3];
+    assert.ok(storedHp?.kind === 'heat-pump', 'the fourth option is still the heat pump');
+    assert.equal(storedHp.copM8_3, 2.5);
 
     const ua = await f.agent
       .put(`/api/v1/projects/${f.projectId}/building`)
       .send({ version: 2, building: { ...BUILDING, conduction: { mode: 'ua', uaWPerK: 0 } } })
       .expect(400);
     assert.ok(
-      details(ua.body).some(
-        (d) => d.path === 'building.conduction.uaWPerK' && d.message.includes('greater than 0 W/K'),
-      ),
-      JSON.stringify(details(ua.body)),
+      details(ua).some((d) => d.path === 'building.conduction.uaWPerK' && d.message.includes('greater than 0 W/K')),
+      JSON.stringify(details(ua)),
     );
-    const stored = (await f.agent.get(`/api/v1/projects/${f.projectId}/building`).expect(200)).body as {
-      building: { conduction: { uaWPerK: number } };
-    };
-    assert.equal(stored.building.conduction.uaWPerK, 150);
+    const stored = parseBody(
+      projectBuildingAnswerSchema,
+      await f.agent.get(`/api/v1/projects/${f.projectId}/building`).expect(200),
+    );
+    const conduction = stored.building?.conduction;
+    assert.ok(conduction?.mode === 'ua', 'the building keeps its UA');
+    assert.equal(conduction.uaWPerK, 150);
   });
 
   it('a fuel without a price and an extra design temperature above the indoor one answer 422 and store no sweep', async () => {
@@ -90,8 +96,8 @@ describe('bad scenarios through the API', () => {
       .expect(200);
     const s = await createScenario(f, { extraDesignC: [17.5] });
     const res = await f.agent.post(`${base(f)}/${s.id}/sweep`).expect(422);
-    assert.equal((res.body as ErrorBody).error.code, 'scenario_incomplete');
-    const d = details(res.body);
+    assert.equal(parseError(res).code, 'scenario_incomplete');
+    const d = details(res);
     assert.ok(
       d.some(
         (x) =>

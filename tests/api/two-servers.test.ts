@@ -10,10 +10,13 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { after, before, describe, it } from 'node:test';
-import { billingSchema } from '../../shared/billing/billing-schemas';
-import { scenarioSchema } from '../../shared/scenarios/scenario-schemas';
+import { sessionSchema } from '../../shared/auth/auth-schemas';
+import { billingSchema, providerPageSchema } from '../../shared/billing/billing-schemas';
+import { projectListSchema } from '../../shared/projects/project-schemas';
+import { scenarioSchema, sweepAnswerSchema } from '../../shared/scenarios/scenario-schemas';
 import { FAKE_STRIPE_SECRET_KEY, FAKE_STRIPE_WEBHOOK_SECRET } from '../../server/config';
 import { startPaymentFake, TEST_CARDS, type PaymentFake } from '../../server/fakes/payment-fake';
+import { parseBody } from '../support/parse-body';
 import { fixture } from '../support/scenario-fixture';
 import { inviteMember, PASSWORD, signUp, useTestApp } from '../support/test-app';
 
@@ -126,7 +129,8 @@ function client(cookie: string) {
       body: body === undefined ? undefined : JSON.stringify(body),
     });
     const text = await res.text();
-    return { status: res.status, body: (text ? JSON.parse(text) : null) as unknown };
+    const json: unknown = text ? JSON.parse(text) : null;
+    return { status: res.status, body: json };
   };
 }
 
@@ -155,10 +159,10 @@ describe('two server processes on one database', () => {
     const created = await call(portA(), 'POST', '/api/v1/projects', { name: 'Made on A' });
     assert.equal(created.status, 201);
     const session = await call(portB(), 'GET', '/api/v1/session');
-    assert.equal((session.body as { user: { email: string } | null }).user?.email, owner.email);
+    assert.equal(parseBody(sessionSchema, session).user?.email, owner.email);
     const list = await call(portB(), 'GET', '/api/v1/projects');
     assert.deepEqual(
-      (list.body as { name: string }[]).map((p) => p.name),
+      parseBody(projectListSchema, list).map((p) => p.name),
       ['Made on A'],
     );
     // Signing out on B ends the session on A too.
@@ -183,7 +187,7 @@ describe('two server processes on one database', () => {
     const call = client(cookie);
     const checkout = await call(portA(), 'POST', '/api/v1/billing/checkout', { plan: 'crew', interval: 'month' });
     assert.equal(checkout.status, 201);
-    const paid = await fetch((checkout.body as { url: string }).url, {
+    const paid = await fetch(parseBody(providerPageSchema, checkout).url, {
       method: 'POST',
       headers: { 'content-type': 'application/x-www-form-urlencoded' },
       body: new URLSearchParams({ card: TEST_CARDS.success }).toString(),
@@ -228,10 +232,11 @@ describe('two server processes on one database', () => {
     );
     const first = await call(portA(), 'POST', `${base}/${scenario.id}/sweep`);
     assert.equal(first.status, 200);
-    assert.equal((first.body as { cached: boolean }).cached, false);
-    const onB = await call(portB(), 'POST', `${base}/${scenario.id}/sweep`);
-    assert.equal((onB.body as { cached: boolean }).cached, true);
-    assert.equal((onB.body as { inputHash: string }).inputHash, (first.body as { inputHash: string }).inputHash);
+    const firstSweep = parseBody(sweepAnswerSchema, first);
+    assert.equal(firstSweep.cached, false);
+    const onB = parseBody(sweepAnswerSchema, await call(portB(), 'POST', `${base}/${scenario.id}/sweep`));
+    assert.equal(onB.cached, true);
+    assert.equal(onB.inputHash, firstSweep.inputHash);
     assert.equal(Number((await t.db('sweep_results').count<{ n: string }[]>('input_hash as n'))[0]?.n), 1);
 
     // A change made through B: A must not answer from what it remembers.
@@ -242,9 +247,9 @@ describe('two server processes on one database', () => {
     assert.equal(patched.status, 200, JSON.stringify(patched.body));
     const afterChange = await call(portA(), 'GET', `${base}/${scenario.id}/sweep`);
     assert.equal(afterChange.status, 404, 'the changed scenario has no cached sweep yet');
-    const again = await call(portA(), 'POST', `${base}/${scenario.id}/sweep`);
-    assert.equal((again.body as { cached: boolean }).cached, false);
-    assert.notEqual((again.body as { inputHash: string }).inputHash, (first.body as { inputHash: string }).inputHash);
+    const again = parseBody(sweepAnswerSchema, await call(portA(), 'POST', `${base}/${scenario.id}/sweep`));
+    assert.equal(again.cached, false);
+    assert.notEqual(again.inputHash, firstSweep.inputHash);
   });
 
   it('refuses a removed member on both servers at once', async () => {

@@ -1,16 +1,14 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { firstValueFrom } from 'rxjs';
-import { z } from 'zod';
 import {
   billingSchema,
+  providerPageSchema,
   usageSchema,
   type Billing,
   type BillingInterval,
   type Usage,
 } from '@shared/billing/billing-schemas';
-
-const urlSchema = z.object({ url: z.string() });
 
 /** The organisation's plan, usage and billing through the payment provider. */
 @Injectable({ providedIn: 'root' })
@@ -27,13 +25,13 @@ export class BillingApi {
 
   /** The provider's checkout page for a paid plan. */
   async checkout(plan: 'crew' | 'firm', interval: BillingInterval): Promise<string> {
-    return urlSchema.parse(
+    return providerPageSchema.parse(
       await firstValueFrom(this.http.post<unknown>('/api/v1/billing/checkout', { plan, interval })),
     ).url;
   }
 
   async portal(): Promise<string> {
-    return urlSchema.parse(await firstValueFrom(this.http.post<unknown>('/api/v1/billing/portal', {}))).url;
+    return providerPageSchema.parse(await firstValueFrom(this.http.post<unknown>('/api/v1/billing/portal', {}))).url;
   }
 
   async cancel(): Promise<void> {

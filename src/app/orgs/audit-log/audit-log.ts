@@ -1,17 +1,7 @@
 import { httpResource } from '@angular/common/http';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed } from '@angular/core';
-import { z } from 'zod';
-
-const entrySchema = z.object({
-  id: z.string(),
-  type: z.string(),
-  detail: z.unknown(),
-  ip: z.string().nullable(),
-  at: z.string(),
-  who: z.string(),
-});
-const listSchema = z.array(entrySchema);
+import { auditLogSchema } from '@shared/orgs/org-schemas';
 
 const LABELS: Record<string, string> = {
   account_created: 'Created the organisation’s account',
@@ -87,7 +77,7 @@ const LABELS: Record<string, string> = {
   changeDetection: ChangeDetectionStrategy.OnPush,
 })
 export class AuditLog {
-  private readonly log = httpResource(() => '/api/v1/audit', { parse: listSchema.parse });
+  private readonly log = httpResource(() => '/api/v1/audit', { parse: auditLogSchema.parse });
   protected readonly entries = computed(() => (this.log.hasValue() ? this.log.value() : []));
   /** Reads the log again (after a change on the page that it records). */
   reload(): void {
