@@ -1,9 +1,13 @@
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
+import { MatButtonToggleHarness } from '@angular/material/button-toggle/testing';
 import { provideRouter } from '@angular/router';
 import { App } from './app';
-import { settle, signedInSession, signedOutSession } from './testing/test-sessions';
+import { AuthStore } from './auth/auth-store';
+import { signedInSession, signedOutSession } from './testing/test-sessions';
+import { until } from './testing/until';
 
 describe('App shell', () => {
   let http: HttpTestingController;
@@ -21,7 +25,7 @@ describe('App shell', () => {
     const fixture = TestBed.createComponent(App);
     fixture.detectChanges();
     http.expectOne('/api/v1/session').flush(session);
-    await settle();
+    await until(() => TestBed.inject(AuthStore).loaded(), 'the session to be read');
     await fixture.whenStable();
     return { fixture, el: fixture.nativeElement as HTMLElement };
   }
@@ -41,19 +45,16 @@ describe('App shell', () => {
   });
 
   it('saves the unit choice through PATCH /api/v1/me', async () => {
-    const { el, fixture } = await render();
-    const ip = Array.from(el.querySelectorAll<HTMLButtonElement>('mat-button-toggle button')).find(
-      (b) => b.textContent?.trim() === 'IP',
-    );
-    ip?.click();
-    await fixture.whenStable();
+    const { fixture } = await render();
+    const loader = TestbedHarnessEnvironment.loader(fixture);
+    const ip = await loader.getHarness(MatButtonToggleHarness.with({ text: 'IP' }));
+    await ip.check();
     const req = http.expectOne({ method: 'PATCH', url: '/api/v1/me' });
     expect(req.request.body).toEqual({ unitSystem: 'IP' });
     const session = signedInSession('owner');
     req.flush({ ...session, user: session.user && { ...session.user, unitSystem: 'IP' } });
-    await settle();
-    await fixture.whenStable();
-    const checked = el.querySelector('mat-button-toggle.mat-button-toggle-checked');
-    expect(checked?.textContent?.trim()).toBe('IP');
+    await until(() => TestBed.inject(AuthStore).unitSystem() === 'IP', 'the session in IP units');
+    const checked = await loader.getAllHarnesses(MatButtonToggleHarness.with({ checked: true }));
+    expect(await Promise.all(checked.map((t) => t.getText()))).toEqual(['IP']);
   });
 });

@@ -4,11 +4,16 @@ type RequestMatch = Parameters<HttpTestingController['match']>[0];
 
 /**
  * Waits (a task at a time, at most `timeoutMs`) until `condition` holds, instead of a fixed number
- * of ticks; fails with `what` when it never does.
+ * of ticks; fails with `what` when it never does. The condition may be asynchronous, as component
+ * harness reads are.
  */
-export async function until(condition: () => boolean, what = 'the condition', timeoutMs = 3000): Promise<void> {
+export async function until(
+  condition: () => boolean | Promise<boolean>,
+  what = 'the condition',
+  timeoutMs = 3000,
+): Promise<void> {
   const start = Date.now();
-  while (!condition()) {
+  while (!(await condition())) {
     if (Date.now() - start > timeoutMs) throw new Error(`Waited ${timeoutMs} ms for ${what}`);
     await new Promise((resolve) => setTimeout(resolve, 0));
   }

@@ -2,8 +2,8 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
-import { settle } from '../../testing/test-sessions';
 import { ResetPasswordPage } from './reset-password-page';
+import { until } from '../../testing/until';
 
 const TOKEN = 'abcdefghijklmnopqrstuvwxyz012345';
 
@@ -52,8 +52,7 @@ describe('ResetPasswordPage', () => {
     const req = http.expectOne({ method: 'POST', url: `/api/v1/auth/password-resets/${TOKEN}` });
     expect(req.request.body).toEqual({ password: 'a long new password' });
     req.flush(null, { status: 204, statusText: 'No Content' });
-    await settle();
-    await fixture.whenStable();
+    await until(() => (el().textContent ?? '').includes('Your password has been changed'), 'the confirmation');
     expect(el().textContent).toContain('Your password has been changed');
     expect(el().querySelector('a[href="/sign-in"]')).not.toBeNull();
   });
@@ -68,8 +67,7 @@ describe('ResetPasswordPage', () => {
         { error: { code: 'invalid_reset_link', message: 'This link has expired or was already used' } },
         { status: 400, statusText: 'Bad Request' },
       );
-    await settle();
-    await fixture.whenStable();
+    await until(() => el().querySelector('[role="alert"]') !== null, 'the error message');
     const alert = el().querySelector('[role="alert"]');
     expect(alert?.textContent).toContain('This link has expired or was already used');
     expect(alert?.querySelector('a[href="/forgot-password"]')).not.toBeNull();

@@ -2,8 +2,9 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideRouter, Router } from '@angular/router';
-import { settle, signedInSession } from '../../testing/test-sessions';
+import { signedInSession } from '../../testing/test-sessions';
 import { SignInPage } from './sign-in-page';
+import { until } from '../../testing/until';
 
 describe('SignInPage', () => {
   let fixture: ComponentFixture<SignInPage>;
@@ -59,7 +60,7 @@ describe('SignInPage', () => {
     const req = http.expectOne({ method: 'POST', url: '/api/v1/auth/sign-in' });
     expect(req.request.body).toEqual({ email: 'dana@example.com', password: 'correct horse battery' });
     req.flush(signedInSession('owner'));
-    await settle();
+    await until(() => navigateByUrl.calls.any(), 'the navigation after signing in');
     expect(navigateByUrl).toHaveBeenCalledWith('/team');
   });
 
@@ -73,8 +74,7 @@ describe('SignInPage', () => {
         { error: { code: 'invalid_credentials', message: 'That e-mail and password do not match an account' } },
         { status: 401, statusText: 'Unauthorized' },
       );
-    await settle();
-    await fixture.whenStable();
+    await until(() => el().querySelector('[role="alert"]') !== null, 'the error message');
     expect(el().querySelector('[role="alert"]')?.textContent).toContain(
       'That e-mail and password do not match an account',
     );

@@ -4,9 +4,9 @@ import { TestBed } from '@angular/core/testing';
 import type { UnitSystem } from '@shared/units/units';
 import type { ClimateSite } from '@shared/climate/climate-schemas';
 import { AuthStore } from '../../auth/auth-store';
-import { settle } from '../../testing/test-sessions';
 import { aPublishedSite, sessionWithUnits } from '../testing/climate-fixtures';
 import { ClimateSiteForm } from './climate-site-form';
+import { until } from '../../testing/until';
 
 describe('ClimateSiteForm (published values)', () => {
   let http: HttpTestingController;
@@ -40,7 +40,6 @@ describe('ClimateSiteForm (published values)', () => {
     const submit = async () => {
       el.querySelector<HTMLButtonElement>('button[type="submit"]')!.click();
       await fixture.whenStable();
-      await settle(1);
     };
     return { fixture, el, type, field, submit, saved };
   }
@@ -69,7 +68,7 @@ describe('ClimateSiteForm (published values)', () => {
   });
 
   it('sends values typed in IP units in SI', async () => {
-    const { type, field, submit, fixture, saved } = await render('IP');
+    const { type, field, submit, saved } = await render('IP');
     type('input[formcontrolname="name"]', 'Hilltop (table)');
     type('input[formcontrolname="source"]', 'Regional design table, 2020 edition');
     type(field('publishedValues.heating.db99_6'), '0');
@@ -97,13 +96,12 @@ describe('ClimateSiteForm (published values)', () => {
     expect(body.publishedValues.cooling).toBeUndefined();
 
     req.flush({ ...aPublishedSite(), name: 'Hilltop (table)' });
-    await settle();
-    await fixture.whenStable();
+    await until(() => saved.length > 0, 'the saved site to be passed on');
     expect(saved.map((s) => s.name)).toEqual(['Hilltop (table)']);
   });
 
   it('puts a server field error on its field', async () => {
-    const { type, field, submit, fixture, el, saved } = await render('SI');
+    const { type, field, submit, el, saved } = await render('SI');
     type('input[formcontrolname="name"]', 'Hilltop (table)');
     type('input[formcontrolname="source"]', 'Regional table');
     type(field('publishedValues.heating.db99_6'), '-10');
@@ -125,8 +123,7 @@ describe('ClimateSiteForm (published values)', () => {
       },
       { status: 400, statusText: 'Bad Request' },
     );
-    await settle();
-    await fixture.whenStable();
+    await until(() => el.querySelector('[role="alert"]') !== null, 'the form-level error message');
 
     const input = el.querySelector(field('publishedValues.heating.db99_6'))!;
     const formField = input.closest('mat-form-field')!;
@@ -148,7 +145,7 @@ describe('ClimateSiteForm (published values)', () => {
   });
 
   it('shows a published site’s stored values in °F for editing and saves with PATCH', async () => {
-    const { el, field, submit } = await render('IP', aPublishedSite());
+    const { el, field, submit, saved } = await render('IP', aPublishedSite());
     // −20 °C = −4 °F; −17.5 °C = 0.5 °F.
     expect(el.querySelector<HTMLInputElement>(field('publishedValues.heating.db99_6'))!.value).toBe('-4');
     expect(el.querySelector<HTMLInputElement>(field('publishedValues.heating.db99'))!.value).toBe('0.5');
@@ -157,6 +154,6 @@ describe('ClimateSiteForm (published values)', () => {
     expect(req.request.body.publishedValues.heating.db99_6).toBeCloseTo(-20, 6);
     expect(req.request.body.sourceKind).toBeUndefined();
     req.flush(aPublishedSite());
-    await settle();
+    await until(() => saved.length > 0, 'the saved site to be passed on');
   });
 });

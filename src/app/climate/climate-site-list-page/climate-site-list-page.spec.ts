@@ -6,9 +6,9 @@ import type { Role } from '@shared/auth/roles';
 import type { UnitSystem } from '@shared/units/units';
 import type { ClimateSiteSummary } from '@shared/climate/climate-schemas';
 import { AuthStore } from '../../auth/auth-store';
-import { settle } from '../../testing/test-sessions';
 import { aSummary, sessionWithUnits } from '../testing/climate-fixtures';
 import { ClimateSiteListPage } from './climate-site-list-page';
+import { nextRequest } from '../../testing/until';
 
 const threeSites: ClimateSiteSummary[] = [
   aSummary({ id: '5a1b2c3d-4e5f-4a6b-8c7d-9e0f1a2b3c41', name: 'Maple Ridge airport' }),
@@ -39,9 +39,7 @@ describe('ClimateSiteListPage', () => {
     TestBed.inject(AuthStore).setSession(sessionWithUnits(role, units));
     const fixture = TestBed.createComponent(ClimateSiteListPage);
     fixture.detectChanges();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: '/api/v1/climate-sites' }).flush(sites);
-    await settle();
+    (await nextRequest(http, { method: 'GET', url: '/api/v1/climate-sites' })).flush(sites);
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;
     const actions = Array.from(el.querySelectorAll('a, button'), (b) => b.textContent?.trim() ?? '');

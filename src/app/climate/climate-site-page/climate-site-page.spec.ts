@@ -6,7 +6,6 @@ import type { Role } from '@shared/auth/roles';
 import type { UnitSystem } from '@shared/units/units';
 import type { ClimateSite } from '@shared/climate/climate-schemas';
 import { AuthStore } from '../../auth/auth-store';
-import { settle } from '../../testing/test-sessions';
 import {
   SITE_ID,
   aPublishedSite,
@@ -16,6 +15,7 @@ import {
   someRecentYears,
 } from '../testing/climate-fixtures';
 import { ClimateSitePage } from './climate-site-page';
+import { nextRequest } from '../../testing/until';
 
 const SITE_URL = `/api/v1/climate-sites/${SITE_ID}`;
 
@@ -36,14 +36,11 @@ describe('ClimateSitePage', () => {
     const fixture = TestBed.createComponent(ClimateSitePage);
     fixture.componentRef.setInput('id', SITE_ID);
     fixture.detectChanges();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: SITE_URL }).flush(site);
-    await settle();
+    (await nextRequest(http, { method: 'GET', url: SITE_URL })).flush(site);
     // An open request keeps the fixture unstable: answer the chart data first when the site has a record.
     if (site.computed) {
-      http.expectOne({ method: 'GET', url: `${SITE_URL}/chart-data` }).flush(someChartData());
-      http.expectOne({ method: 'GET', url: `${SITE_URL}/recent-years` }).flush(someRecentYears());
-      await settle();
+      (await nextRequest(http, { method: 'GET', url: `${SITE_URL}/chart-data` })).flush(someChartData());
+      (await nextRequest(http, { method: 'GET', url: `${SITE_URL}/recent-years` })).flush(someRecentYears());
     }
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;

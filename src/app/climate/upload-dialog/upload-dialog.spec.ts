@@ -3,20 +3,12 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { AuthStore } from '../../auth/auth-store';
-import { settle } from '../../testing/test-sessions';
 import { SITE_ID, UPLOAD_ID, anHourlySite, anUpload, sessionWithUnits } from '../testing/climate-fixtures';
 import { UploadDialog, type UploadDialogData } from './upload-dialog';
+import { settle } from '../../testing/test-sessions';
+import { until } from '../../testing/until';
 
 const UPLOAD_URL = `/api/v1/climate-sites/${SITE_ID}/uploads`;
-
-/** Waits until `check` holds (file reads and lazily loaded modules take a few turns). */
-async function until(check: () => boolean, what: string): Promise<void> {
-  for (let i = 0; i < 100; i++) {
-    if (check()) return;
-    await new Promise((resolve) => setTimeout(resolve, 10));
-  }
-  throw new Error(`Timed out waiting for ${what}`);
-}
 
 describe('UploadDialog', () => {
   let http: HttpTestingController;

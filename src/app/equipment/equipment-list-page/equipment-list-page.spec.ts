@@ -7,9 +7,10 @@ import type { UnitSystem } from '@shared/units/units';
 import type { Role } from '@shared/auth/roles';
 import type { EquipmentList, EnergyPricesAnswer } from '@shared/equipment/equipment-schemas';
 import { AuthStore } from '../../auth/auth-store';
-import { settle } from '../../testing/test-sessions';
 import { LIST_ID, aFurnace, aHeatPump, aList, sessionIn } from '../testing/equipment-fixtures';
 import { EquipmentListPage } from './equipment-list-page';
+import { settle } from '../../testing/test-sessions';
+import { nextRequest, until } from '../../testing/until';
 
 const LIST_URL = `/api/v1/equipment-lists/${LIST_ID}`;
 const PRICES_URL = '/api/v1/energy-prices';
@@ -45,8 +46,7 @@ describe('EquipmentListPage', () => {
     const fixture = TestBed.createComponent(EquipmentListPage);
     fixture.componentRef.setInput('id', LIST_ID);
     fixture.detectChanges();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: LIST_URL }).flush(list);
+    (await nextRequest(http, { method: 'GET', url: LIST_URL })).flush(list);
     http.expectOne({ method: 'GET', url: PRICES_URL }).flush(prices);
     await stable(fixture);
     const el = fixture.nativeElement as HTMLElement;
@@ -154,7 +154,7 @@ describe('EquipmentListPage', () => {
       },
       { status: 400, statusText: 'Bad Request' },
     );
-    await settle();
+    await until(() => cellError('option-1-cop8_3') !== '', 'the error under the COP cell');
     expect(cellError('option-1-cop8_3')).toBe('The COP at 8.3 °C is not plausible for this unit');
     expect(cellError('option-1-copM8_3')).toBe('');
     expect(cellError('option-0-outputW')).toBe('');

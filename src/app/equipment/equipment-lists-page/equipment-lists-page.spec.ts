@@ -9,6 +9,7 @@ import { AuthStore } from '../../auth/auth-store';
 import { settle, signedInSession } from '../../testing/test-sessions';
 import { aList, aSummary, listId } from '../testing/equipment-fixtures';
 import { EquipmentListsPage } from './equipment-lists-page';
+import { nextRequest } from '../../testing/until';
 
 const LISTS_URL = '/api/v1/equipment-lists';
 const PRICES_URL = '/api/v1/energy-prices';
@@ -48,8 +49,7 @@ describe('EquipmentListsPage', () => {
     TestBed.inject(AuthStore).setSession(signedInSession(role));
     const fixture = TestBed.createComponent(EquipmentListsPage);
     fixture.detectChanges();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: LISTS_URL }).flush(lists);
+    (await nextRequest(http, { method: 'GET', url: LISTS_URL })).flush(lists);
     http.expectOne({ method: 'GET', url: PRICES_URL }).flush(prices);
     await stable(fixture);
     const el = fixture.nativeElement as HTMLElement;
@@ -147,8 +147,7 @@ describe('EquipmentListsPage', () => {
     const patch = http.expectOne({ method: 'PATCH', url: `${LISTS_URL}/${listId(1)}` });
     expect(patch.request.body).toEqual({ version: 2, name: 'Gas furnaces 2027' });
     patch.flush(aList([], { id: listId(1), name: 'Gas furnaces 2027', version: 3 }));
-    await settle();
-    http.expectOne({ method: 'GET', url: LISTS_URL }).flush(twoLists);
+    (await nextRequest(http, { method: 'GET', url: LISTS_URL })).flush(twoLists);
     await stable(fixture);
     expect(dialog().container).toBeNull();
   });
@@ -168,8 +167,7 @@ describe('EquipmentListsPage', () => {
     http
       .expectOne({ method: 'DELETE', url: `${LISTS_URL}/${listId(2)}` })
       .flush(null, { status: 204, statusText: 'No Content' });
-    await settle();
-    http.expectOne({ method: 'GET', url: LISTS_URL }).flush(twoLists.slice(0, 1));
+    (await nextRequest(http, { method: 'GET', url: LISTS_URL })).flush(twoLists.slice(0, 1));
     await stable(fixture);
     expect((fixture.nativeElement as HTMLElement).textContent).not.toContain('Cold-climate heat pumps');
   });

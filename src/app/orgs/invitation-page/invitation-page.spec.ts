@@ -6,6 +6,7 @@ import type { InvitationPreview } from '@shared/orgs/org-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { settle, signedInSession, signedOutSession } from '../../testing/test-sessions';
 import { InvitationPage } from './invitation-page';
+import { nextRequest } from '../../testing/until';
 
 const TOKEN = 'abcdefghijklmnopqrstuvwxyz012345';
 
@@ -44,8 +45,7 @@ describe('InvitationPage', () => {
     fixture = TestBed.createComponent(InvitationPage);
     fixture.componentRef.setInput('token', TOKEN);
     await fixture.whenStable();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: `/api/v1/invitation-links/${TOKEN}` }).flush(preview);
+    (await nextRequest(http, { method: 'GET', url: `/api/v1/invitation-links/${TOKEN}` })).flush(preview);
     await stable();
   }
 

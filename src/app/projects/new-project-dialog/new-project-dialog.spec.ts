@@ -8,6 +8,7 @@ import { AuthStore } from '../../auth/auth-store';
 import { settle, signedInSession } from '../../testing/test-sessions';
 import { aProject, someClimateSites } from '../testing/project-fixtures';
 import { NewProjectDialog } from './new-project-dialog';
+import { nextRequest } from '../../testing/until';
 
 describe('NewProjectDialog', () => {
   let http: HttpTestingController;
@@ -33,8 +34,7 @@ describe('NewProjectDialog', () => {
     TestBed.inject(AuthStore).setSession(signedInSession(role));
     const fixture = TestBed.createComponent(NewProjectDialog);
     fixture.detectChanges();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: '/api/v1/climate-sites' }).flush(someClimateSites());
+    (await nextRequest(http, { method: 'GET', url: '/api/v1/climate-sites' })).flush(someClimateSites());
     http.expectOne({ method: 'GET', url: '/api/v1/billing/usage' }).flush({
       plan: 'starter',
       planName: 'Starter',

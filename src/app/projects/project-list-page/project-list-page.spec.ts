@@ -9,6 +9,7 @@ import { AuthStore } from '../../auth/auth-store';
 import { settle, signedInSession } from '../../testing/test-sessions';
 import { aProject, projectId } from '../testing/project-fixtures';
 import { ProjectListPage } from './project-list-page';
+import { nextRequest } from '../../testing/until';
 
 const LIST_URL = '/api/v1/projects';
 
@@ -63,8 +64,7 @@ describe('ProjectListPage', () => {
     TestBed.inject(AuthStore).setSession(signedInSession(role));
     const fixture = TestBed.createComponent(ProjectListPage);
     fixture.detectChanges();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: LIST_URL }).flush(projects);
+    (await nextRequest(http, { method: 'GET', url: LIST_URL })).flush(projects);
     await stable(fixture);
     const el = fixture.nativeElement as HTMLElement;
     const buttons = () => Array.from(el.querySelectorAll('button'), (b) => b.textContent?.trim() ?? '');
@@ -171,16 +171,14 @@ describe('ProjectListPage', () => {
     const toggle = el.querySelector<HTMLButtonElement>('mat-slide-toggle button')!;
     expect(toggle.closest('mat-slide-toggle')?.textContent).toContain('Show archived');
     toggle.click();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: `${LIST_URL}?archived=true` }).flush([]);
+    (await nextRequest(http, { method: 'GET', url: `${LIST_URL}?archived=true` })).flush([]);
     await stable(fixture);
     expect(el.textContent).toContain('No archived projects');
     expect(el.textContent).not.toContain('No projects yet');
     expect(el.querySelector('table')).toBeNull();
 
     toggle.click();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: LIST_URL }).flush([]);
+    (await nextRequest(http, { method: 'GET', url: LIST_URL })).flush([]);
     await stable(fixture);
     expect(el.textContent).toContain('No projects yet');
   });
@@ -188,17 +186,15 @@ describe('ProjectListPage', () => {
   it('offers "Restore" instead of "Archive" for an archived project', async () => {
     const { fixture, el, rowAction } = await render('designer', []);
     el.querySelector<HTMLButtonElement>('mat-slide-toggle button')!.click();
-    await settle(1);
-    http
-      .expectOne(`${LIST_URL}?archived=true`)
-      .flush([aProject('Old barn', { id: projectId(7), archived: true, version: 5 })]);
+    (await nextRequest(http, `${LIST_URL}?archived=true`)).flush([
+      aProject('Old barn', { id: projectId(7), archived: true, version: 5 }),
+    ]);
     await stable(fixture);
     await rowAction('Old barn', 'Restore');
     const patch = http.expectOne({ method: 'PATCH', url: `${LIST_URL}/${projectId(7)}` });
     expect(patch.request.body).toEqual({ version: 5, archived: false });
     patch.flush(aProject('Old barn', { id: projectId(7), version: 6 }));
-    await settle();
-    http.expectOne(`${LIST_URL}?archived=true`).flush([]);
+    (await nextRequest(http, `${LIST_URL}?archived=true`)).flush([]);
     await stable(fixture);
     expect(el.textContent).toContain('No archived projects');
   });
@@ -242,8 +238,7 @@ describe('ProjectListPage', () => {
     http
       .expectOne({ method: 'DELETE', url: `${LIST_URL}/${projectId(3)}` })
       .flush(null, { status: 204, statusText: 'No Content' });
-    await settle();
-    http.expectOne({ method: 'GET', url: LIST_URL }).flush(threeProjects.slice(0, 2));
+    (await nextRequest(http, { method: 'GET', url: LIST_URL })).flush(threeProjects.slice(0, 2));
     await stable(fixture);
     expect(rowNames()).toEqual(['Maple Street duplex', 'Alder Court school']);
   });
@@ -254,10 +249,10 @@ describe('ProjectListPage', () => {
     http
       .expectOne({ method: 'POST', url: `${LIST_URL}/${projectId(2)}/duplicate` })
       .flush(aProject('Alder Court school (copy)', { id: projectId(4) }), { status: 201, statusText: 'Created' });
-    await settle();
-    http
-      .expectOne({ method: 'GET', url: LIST_URL })
-      .flush([aProject('Alder Court school (copy)', { id: projectId(4) }), threeProjects[1]!]);
+    (await nextRequest(http, { method: 'GET', url: LIST_URL })).flush([
+      aProject('Alder Court school (copy)', { id: projectId(4) }),
+      threeProjects[1]!,
+    ]);
     await stable(fixture);
     expect(rowNames()).toEqual(['Alder Court school (copy)', 'Alder Court school']);
   });
@@ -268,8 +263,7 @@ describe('ProjectListPage', () => {
     const patch = http.expectOne({ method: 'PATCH', url: `${LIST_URL}/${projectId(1)}` });
     expect(patch.request.body).toEqual({ version: 4, archived: true });
     patch.flush({ ...threeProjects[0]!, archived: true, version: 5 });
-    await settle();
-    http.expectOne({ method: 'GET', url: LIST_URL }).flush([]);
+    (await nextRequest(http, { method: 'GET', url: LIST_URL })).flush([]);
     await stable(fixture);
     expect((fixture.nativeElement as HTMLElement).textContent).toContain('No projects yet');
   });
@@ -288,8 +282,9 @@ describe('ProjectListPage', () => {
     const patch = http.expectOne({ method: 'PATCH', url: `${LIST_URL}/${projectId(1)}` });
     expect(patch.request.body).toEqual({ version: 4, name: 'Maple Street triplex' });
     patch.flush({ ...threeProjects[0]!, name: 'Maple Street triplex', version: 5 });
-    await settle();
-    http.expectOne({ method: 'GET', url: LIST_URL }).flush([{ ...threeProjects[0]!, name: 'Maple Street triplex' }]);
+    (await nextRequest(http, { method: 'GET', url: LIST_URL })).flush([
+      { ...threeProjects[0]!, name: 'Maple Street triplex' },
+    ]);
     await stable(fixture);
     expect(dialog().container).toBeNull();
   });
@@ -323,8 +318,7 @@ describe('ProjectListPage', () => {
     const patch = http.expectOne({ method: 'PATCH', url: `${LIST_URL}/${projectId(1)}` });
     expect(patch.request.body).toEqual({ version: 6, name: 'Maple Street triplex' });
     patch.flush({ ...threeProjects[0]!, name: 'Maple Street triplex', version: 7 });
-    await settle();
-    http.expectOne({ method: 'GET', url: LIST_URL }).flush([]);
+    (await nextRequest(http, { method: 'GET', url: LIST_URL })).flush([]);
     await stable(fixture);
     expect(dialog().container).toBeNull();
   });

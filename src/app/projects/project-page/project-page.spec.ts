@@ -68,10 +68,9 @@ describe('ProjectPage', () => {
     };
     if ('status' in project) await stable();
     else {
-      await settle();
       // The equipment select and the building section load their own parts.
-      http.expectOne({ method: 'GET', url: '/api/v1/equipment-lists' }).flush(someEquipmentListSummaries());
-      http.expectOne({ method: 'GET', url: `${PROJECT_URL}/building` }).flush({
+      (await nextRequest(http, { method: 'GET', url: '/api/v1/equipment-lists' })).flush(someEquipmentListSummaries());
+      (await nextRequest(http, { method: 'GET', url: `${PROJECT_URL}/building` })).flush({
         version: project.version,
         building: aBuilding(),
       });

@@ -2,9 +2,9 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import { settle } from '../../testing/test-sessions';
 import { aReportView } from '../testing/report-fixtures';
 import { PublicReportPage } from './public-report-page';
+import { nextRequest, until } from '../../testing/until';
 
 describe('PublicReportPage', () => {
   let http: HttpTestingController;
@@ -26,12 +26,10 @@ describe('PublicReportPage', () => {
     const fixture = TestBed.createComponent(PublicReportPage);
     fixture.componentRef.setInput('token', 'tok.en');
     fixture.detectChanges();
-    await settle(1);
-    const req = http.expectOne('/api/v1/public/reports/tok.en');
+    const req = await nextRequest(http, '/api/v1/public/reports/tok.en');
     if (status === 200) req.flush(answer);
     else req.flush(answer, { status, statusText: 'Gone' });
-    await settle();
-    fixture.detectChanges();
+    await until(() => !fixture.componentInstance['loading'](), 'the report to be read');
     await fixture.whenStable();
     return fixture.nativeElement as HTMLElement;
   }

@@ -7,9 +7,10 @@ import type { Role } from '@shared/auth/roles';
 import type { Scenario, SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { PROJECT_ID } from '../../projects/testing/project-fixtures';
-import { settle, signedInSession } from '../../testing/test-sessions';
+import { signedInSession } from '../../testing/test-sessions';
 import { SCENARIO_A, aScenario, aSweepAnswer } from '../testing/scenario-fixtures';
 import { TradeoffPage } from './tradeoff-page';
+import { nextRequest, until } from '../../testing/until';
 
 const URL = `/api/v1/projects/${PROJECT_ID}/scenarios/${SCENARIO_A}`;
 
@@ -29,17 +30,25 @@ describe('TradeoffPage', () => {
     http = TestBed.inject(HttpTestingController);
   });
 
-  /** Answers the settings panel's own loads (sites, lists, the list's options) with empty lists. */
-  function flushSettingsLoads(): void {
-    for (const req of http.match(
-      (r) => r.method === 'GET' && r.url.startsWith('/api/v1/') && !r.url.includes('/scenarios/'),
-    )) {
-      req.flush(
-        req.request.url.includes('/equipment-lists/')
-          ? { id: 'x', name: 'x', optionCount: 0, version: 1, updatedAt: '', options: [] }
-          : [],
-      );
-    }
+  /**
+   * Answers the settings panel's own loads (sites, lists, the list's options) with empty lists, as
+   * they are sent, until the sites and the lists have both been asked for.
+   */
+  async function flushSettingsLoads(): Promise<void> {
+    const answered = new Set<string>();
+    await until(() => {
+      for (const req of http.match(
+        (r) => r.method === 'GET' && r.url.startsWith('/api/v1/') && !r.url.includes('/scenarios/'),
+      )) {
+        req.flush(
+          req.request.url.includes('/equipment-lists/')
+            ? { id: 'x', name: 'x', optionCount: 0, version: 1, updatedAt: '', options: [] }
+            : [],
+        );
+        answered.add(req.request.url);
+      }
+      return answered.has('/api/v1/climate-sites') && answered.has('/api/v1/equipment-lists');
+    }, "the settings panel's loads of sites and equipment lists");
   }
 
   async function render(role: Role, scenario: Scenario, sweep: SweepAnswer | { status: number; body: object }) {
@@ -48,16 +57,11 @@ describe('TradeoffPage', () => {
     fixture.componentRef.setInput('id', PROJECT_ID);
     fixture.componentRef.setInput('scenarioId', SCENARIO_A);
     fixture.detectChanges();
-    await settle(1);
-    http.expectOne({ method: 'GET', url: URL }).flush(scenario);
-    await settle();
-    const post = http.expectOne({ method: 'POST', url: `${URL}/sweep` });
+    (await nextRequest(http, { method: 'GET', url: URL })).flush(scenario);
+    const post = await nextRequest(http, { method: 'POST', url: `${URL}/sweep` });
     if ('status' in sweep) post.flush(sweep.body, { status: sweep.status, statusText: 'Error' });
     else post.flush(sweep);
-    await settle();
-    fixture.detectChanges();
-    flushSettingsLoads();
-    await settle();
+    await flushSettingsLoads();
     await fixture.whenStable();
     const el = fixture.nativeElement as HTMLElement;
     const byId = (id: string) =>
@@ -89,15 +93,12 @@ describe('TradeoffPage', () => {
     expect(byId('tradeoff-sentence')).toContain('the coldest of the design temperatures');
     expect(el.querySelector('[data-testid="tradeoff-cautions"]')).not.toBeNull();
     // The choice is saved with the scenario's version once the user pauses.
-    await new Promise((r) => setTimeout(r, 700));
-    const patch = http.expectOne({ method: 'PATCH', url: URL });
+    const patch = await nextRequest(http, { method: 'PATCH', url: URL });
     expect(patch.request.body).toEqual({ version: 1, chosenDesignC: -32 });
     patch.flush(aScenario({ chosenDesignC: -32, version: 2 }));
-    await settle();
-    fixture.detectChanges();
-    // The settings panel reads its lists again for the newer version; nothing is swept again.
-    flushSettingsLoads();
-    await settle();
+    // The page keeps the newer version; nothing is swept again.
+    await until(() => fixture.componentInstance['scenario']()?.version === 2, 'the saved version to be kept');
+    await fixture.whenStable();
     expect(http.match({ method: 'POST', url: `${URL}/sweep` }).length).toBe(0);
     http.verify();
   });
@@ -114,23 +115,19 @@ describe('TradeoffPage', () => {
     expect(byId('chosen-unit')).toBe('Furnace 9 kW');
     const page = fixture.componentInstance as unknown as { settingsSaved(s: Scenario): void };
     page.settingsSaved(aScenario());
-    await settle();
-    fixture.detectChanges();
-    await fixture.whenStable();
+    await until(() => byId('sweep-updating') !== '', 'the note that a new sweep runs');
     expect(byId('chosen-unit')).toBe('Furnace 9 kW');
     expect(byId('sweep-updating')).toContain('previous result');
     expect(el.querySelector('[data-testid="chosen-point"]')?.getAttribute('aria-busy')).toBe('true');
 
     const next = aSweepAnswer();
     next.rows = next.rows.map((r) => ({ ...r, selectedOptionId: '2', capacityAtDesignW: 12000 }));
-    http.expectOne({ method: 'POST', url: `${URL}/sweep` }).flush(next);
-    await settle();
-    fixture.detectChanges();
+    (await nextRequest(http, { method: 'POST', url: `${URL}/sweep` })).flush(next);
+    await until(() => el.querySelector('[data-testid="sweep-updating"]') === null, 'the new sweep to be shown');
     await fixture.whenStable();
     expect(byId('chosen-unit')).toBe('Furnace 12 kW');
     expect(el.querySelector('[data-testid="sweep-updating"]')).toBeNull();
     expect(el.querySelector('[data-testid="chosen-point"]')?.getAttribute('aria-busy')).toBe('false');
-    flushSettingsLoads();
     http.verify();
   });
 

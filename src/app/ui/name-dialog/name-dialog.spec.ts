@@ -2,8 +2,8 @@ import { HttpErrorResponse } from '@angular/common/http';
 import { TestBed } from '@angular/core/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
-import { settle } from '../../testing/test-sessions';
 import { NameDialog, type NameDialogData } from './name-dialog';
+import { until } from '../../testing/until';
 
 interface Saved {
   name: string;
@@ -50,8 +50,7 @@ describe('NameDialog', () => {
       Array.from(el.querySelectorAll<HTMLButtonElement>('button'))
         .find((b) => b.textContent?.trim() === label)!
         .click();
-      await settle();
-      fixture.detectChanges();
+      await until(() => !fixture.componentInstance['edit'].isPending(), 'the save or reload to finish');
       await fixture.whenStable();
     };
     const buttons = () => Array.from(el.querySelectorAll('button'), (b) => b.textContent?.trim());
