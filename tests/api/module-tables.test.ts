@@ -56,14 +56,6 @@ const ALLOWED: readonly { file: string; table: string; reason: string }[] = [
     table: 'design_conditions',
     reason: 'the computation time, part of the sweep inputs key',
   },
-  { file: 'equipment/equipment-repo.ts', table: 'users', reason: 'the name of who last changed a list or the prices' },
-  { file: 'orgs/orgs-repo.ts', table: 'users', reason: 'members are listed with their names and addresses' },
-  { file: 'orgs/invitations-repo.ts', table: 'users', reason: 'the name of who sent an invitation' },
-  {
-    file: 'auth/users-repo.ts',
-    table: 'memberships',
-    reason: 'the user and the role in the session’s organisation, in one query per request',
-  },
 ];
 
 function filesOf(dir: string): string[] {
