@@ -3,13 +3,6 @@
  * load-duration chart and the chart of compared scenarios, drawn in the one chart theme.
  */
 import type { LineSeriesOption, BarSeriesOption } from 'echarts/charts';
-import type {
-  GridComponentOption,
-  LegendComponentOption,
-  MarkLineComponentOption,
-  TooltipComponentOption,
-} from 'echarts/components';
-import type { ComposeOption } from 'echarts/core';
 import type { UnitSystem } from '@shared/units/units';
 import { designValueTag, term } from '@shared/glossary/glossary';
 import { formatMoneyWhole } from '@shared/money/money';
@@ -35,15 +28,7 @@ import {
   SPLIT_LINE,
   TEXT,
 } from '../charts/chart-theme';
-
-export type ChartOption = ComposeOption<
-  | LineSeriesOption
-  | BarSeriesOption
-  | GridComponentOption
-  | TooltipComponentOption
-  | LegendComponentOption
-  | MarkLineComponentOption
->;
+import { type ChartOption } from '../charts/chart-option';
 
 const moneyNumber = (v: string | null) => (v === null ? null : Number(v));
 

@@ -4,6 +4,7 @@ import { aScenario } from './testing/scenario-fixtures';
 import { comparisonTable, differenceRows } from './compare-rows';
 import { loadDurationChart, tradeoffChart } from './tradeoff-charts';
 import {
+  backupEnergy,
   capacityAtC,
   defaultIndex,
   designRows,
@@ -41,6 +42,14 @@ describe('trade-off model', () => {
     );
     expect(none[0]?.unit).toBe('None large enough');
     expect(none[0]?.installedPrice).toBe('—');
+  });
+
+  it('writes backup energy like hours: a little is never shown as none, one decimal below 10 kWh', () => {
+    expect(backupEnergy(0)).toBe('0 kWh');
+    expect(backupEnergy(0.02)).toBe('< 0.1 kWh');
+    expect(backupEnergy(0.4)).toBe('0.4 kWh');
+    expect(backupEnergy(9.94)).toBe('9.9 kWh');
+    expect(backupEnergy(1234.4)).toBe('1,234 kWh');
   });
 
   it('reads the load-duration chart out as a table: load at 1, 10, 50 … hours a year against the chosen unit', () => {

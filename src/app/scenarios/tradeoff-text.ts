@@ -57,6 +57,13 @@ export function optionLabelOf(answer: SweepAnswer): (id: string) => string {
 export const hours = (h: number | null): string =>
   h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h);
 
+/**
+ * Backup energy a year, as hours are written: one decimal below 10 kWh, whole kWh from 10 up, and
+ * "< 0.1 kWh" for a little that would round to nothing (a few minutes of backup are not none).
+ */
+export const backupEnergy = (kWh: number): string =>
+  kWh > 0 && kWh < 0.05 ? '< 0.1 kWh' : `${kWh > 0 && kWh < 10 ? groupDigits(kWh, 1) : groupDigits(kWh)} kWh`;
+
 /** The design temperatures as the table shows them (money to whole units: a summary). */
 export function designRows(answer: SweepAnswer, system: UnitSystem): DesignRowText[] {
   const label = optionLabelOf(answer);
@@ -79,8 +86,7 @@ export function designRows(answer: SweepAnswer, system: UnitSystem): DesignRowTe
     unmetWorst: hours(r.unmetHoursWorstYear),
     degreeHours: formatQuantity('degreeHours', r.unmetDegreeHoursPerYear, system),
     backupHours: r.compressorAtDesignW === null ? '—' : hours(r.backupHoursPerYear),
-    backupEnergy:
-      r.compressorAtDesignW === null || r.backupEnergyKWh === null ? '—' : `${groupDigits(r.backupEnergyKWh)} kWh`,
+    backupEnergy: r.compressorAtDesignW === null || r.backupEnergyKWh === null ? '—' : backupEnergy(r.backupEnergyKWh),
     lowestIndoor: formatQuantity('temperature', r.lowestIndoorC ?? lowestIndoorC(r, answer.indoorDesignC), system),
     drop: r.worstDropK === null ? '—' : formatQuantity('temperatureDifference', r.worstDropK, system),
     reliability: r.reliabilityNote ?? '',

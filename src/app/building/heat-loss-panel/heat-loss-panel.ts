@@ -1,30 +1,12 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
-import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
-import type { BarSeriesOption, LineSeriesOption } from 'echarts/charts';
-import type {
-  GridComponentOption,
-  LegendComponentOption,
-  MarkLineComponentOption,
-  TooltipComponentOption,
-} from 'echarts/components';
-import type { ComposeOption } from 'echarts/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import type { LineSeriesOption } from 'echarts/charts';
 import { NgxEchartsDirective } from 'ngx-echarts';
-import { map } from 'rxjs';
 import { formatQuantity, unitLabel as temperatureUnitLabel, type UnitSystem } from '@shared/units/units';
 import { provideCharts } from '../../charts/provide-charts';
 import { groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building-units';
 import { CHART_TEXT, COLD, EMBER, INK, SPLIT_LINE, TEXT, WHITE } from '../../charts/chart-theme';
 import { equipmentSummary, type HeatLossModel } from './heat-loss-model';
-
-type ChartOption = ComposeOption<
-  | LineSeriesOption
-  | BarSeriesOption
-  | GridComponentOption
-  | TooltipComponentOption
-  | LegendComponentOption
-  | MarkLineComponentOption
->;
+import { type ChartOption, compactScreen } from '../../charts/chart-option';
 
 /**
  * The building's heat loss as it stands in the form: the breakdown at the design temperature, and the
@@ -46,12 +28,7 @@ export class HeatLossPanel {
   /** Time constant of the building, h (null when the thermal mass is not complete). */
   readonly timeConstantH = input<number | null>(null);
 
-  protected readonly compact = toSignal(
-    inject(BreakpointObserver)
-      .observe('(max-width: 599.98px)')
-      .pipe(map((state) => state.matches)),
-    { initialValue: false },
-  );
+  protected readonly compact = compactScreen();
 
   protected readonly powerUnit = computed(() => powerChartUnit(this.unitSystem()));
   private readonly temperatureUnit = computed(() => temperatureUnitLabel('temperature', this.unitSystem()));

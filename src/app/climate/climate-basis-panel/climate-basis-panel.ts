@@ -6,9 +6,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
-import type { LineSeriesOption } from 'echarts/charts';
-import type { GridComponentOption, LegendComponentOption, TooltipComponentOption } from 'echarts/components';
-import type { ComposeOption } from 'echarts/core';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import type { ClimateSite, RecentYears } from '@shared/climate/climate-schemas';
 import { formatQuantity, fromSi, unitLabel, type UnitSystem } from '@shared/units/units';
@@ -16,10 +13,7 @@ import { CHART_TEXT, COLD, EMBER, INK } from '../../charts/chart-theme';
 import { provideCharts } from '../../charts/provide-charts';
 import { apiErrorMessage } from '../../core/api-errors';
 import { ClimateSitesApi } from '../climate-sites-api';
-
-type ChartOption = ComposeOption<
-  LineSeriesOption | GridComponentOption | TooltipComponentOption | LegendComponentOption
->;
+import { type ChartOption } from '../../charts/chart-option';
 
 /**
  * A site's climate basis: for a site with published values, an hour-by-hour record estimated from a

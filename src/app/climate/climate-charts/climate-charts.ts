@@ -1,17 +1,6 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
-import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
-import type { BarSeriesOption, LineSeriesOption } from 'echarts/charts';
-import type {
-  GridComponentOption,
-  LegendComponentOption,
-  MarkLineComponentOption,
-  TitleComponentOption,
-  TooltipComponentOption,
-} from 'echarts/components';
-import type { ComposeOption } from 'echarts/core';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import type { MarkLineComponentOption } from 'echarts/components';
 import { NgxEchartsDirective } from 'ngx-echarts';
-import { map } from 'rxjs';
 import type { DesignConditions } from '@shared/climate/design-conditions-schema';
 import type { ClimateChartData } from '@shared/climate/climate-schemas';
 import { designValueName } from '@shared/glossary/glossary';
@@ -19,16 +8,8 @@ import { fromSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import { CHART_TEXT, COLD, COLD_TEXT, EMBER, INK, INK_BARS, SLATE, SPLIT_LINE, TEXT } from '../../charts/chart-theme';
 import { provideCharts } from '../../charts/provide-charts';
 import { HOURS_PER_YEAR, MONTH_NAMES, MONTH_SHORT_NAMES, formatNumber } from '../climate-format';
+import { type ChartOption, compactScreen } from '../../charts/chart-option';
 
-type ChartOption = ComposeOption<
-  | LineSeriesOption
-  | BarSeriesOption
-  | GridComponentOption
-  | TooltipComponentOption
-  | LegendComponentOption
-  | MarkLineComponentOption
-  | TitleComponentOption
->;
 type MarkLineData = NonNullable<MarkLineComponentOption['data']>[number];
 
 /** The lowest share of hours the log axis shows, % (about one hour in 1.1 years). */
@@ -58,12 +39,7 @@ export class ClimateCharts {
   readonly conditions = input.required<DesignConditions>();
   readonly unitSystem = input.required<UnitSystem>();
 
-  protected readonly compact = toSignal(
-    inject(BreakpointObserver)
-      .observe('(max-width: 599.98px)')
-      .pipe(map((state) => state.matches)),
-    { initialValue: false },
-  );
+  protected readonly compact = compactScreen();
 
   protected readonly temperatureUnit = computed(() => unitLabel('temperature', this.unitSystem()));
 

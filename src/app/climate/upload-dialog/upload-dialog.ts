@@ -17,6 +17,7 @@ import {
   type UploadQueue,
 } from '@shared/climate/climate-schemas';
 import type { Subscription } from 'rxjs';
+import { unitLabel } from '@shared/units/units';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage, readApiError } from '../../core/api-errors';
 import { ClimateSitesApi, type UploadFormat } from '../climate-sites-api';
@@ -49,6 +50,11 @@ function extensionOf(name: string): string {
  * header uses other names), send with progress, show the data-quality report, then store or discard.
  * Closes with the updated site when the record is stored.
  */
+const TEMPERATURE_UNITS = [
+  { value: 'c', label: unitLabel('temperature', 'SI') },
+  { value: 'f', label: unitLabel('temperature', 'IP') },
+] as const;
+
 @Component({
   selector: 'app-upload-dialog',
   imports: [
@@ -73,6 +79,28 @@ export class UploadDialog {
   protected readonly data = inject<UploadDialogData>(MAT_DIALOG_DATA);
   private readonly fb = inject(NonNullableFormBuilder);
 
+  /** The columns read with a unit beside them; `required` is the message when one must be chosen. */
+  protected readonly pairedColumns = [
+    {
+      column: 'dryBulb',
+      unit: 'dryBulbUnit',
+      label: 'Dry-bulb temperature',
+      required: 'Choose the dry-bulb column',
+      units: TEMPERATURE_UNITS,
+    },
+    { column: 'dewPoint', unit: 'dewPointUnit', label: 'Dew point', required: null, units: TEMPERATURE_UNITS },
+    {
+      column: 'windSpeed',
+      unit: 'windSpeedUnit',
+      label: 'Wind speed',
+      required: null,
+      units: [
+        { value: 'ms', label: 'm/s' },
+        { value: 'mph', label: 'mph' },
+        { value: 'kn', label: 'knots' },
+      ],
+    },
+  ] as const;
   protected readonly stage = signal<Stage>('choose');
   protected readonly files = signal<readonly File[]>([]);
   protected readonly progress = signal(0);

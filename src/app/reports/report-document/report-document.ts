@@ -1,13 +1,11 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
-import { map } from 'rxjs';
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import type { EChartsCoreOption } from 'echarts/core';
 import { optionMarks, reportChartOption } from '@shared/reports/report-chart';
 import type { ReportView } from '@shared/reports/report-schemas';
 import { provideCharts } from '../../charts/provide-charts';
+import { compactScreen } from '../../charts/chart-option';
 
 /** The report as the homeowner sees it (the public page and the designer's preview show this same component). */
 @Component({
@@ -21,12 +19,7 @@ import { provideCharts } from '../../charts/provide-charts';
 export class ReportDocument {
   readonly view = input.required<ReportView>();
   /** Phone width: fewer axis labels and smaller type, so that a 390 px chart stays readable. */
-  private readonly compact = toSignal(
-    inject(BreakpointObserver)
-      .observe('(max-width: 599.98px)')
-      .pipe(map((s) => s.matches)),
-    { initialValue: false },
-  );
+  private readonly compact = compactScreen();
   protected readonly chart = computed(
     () => reportChartOption(this.view(), { compact: this.compact() }) as EChartsCoreOption,
   );

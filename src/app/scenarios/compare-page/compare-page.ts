@@ -1,6 +1,4 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
 import { ChangeDetectionStrategy, Component, computed, inject, input, resource, signal } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -8,7 +6,6 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
 import { NgxEchartsDirective } from 'ngx-echarts';
-import { map } from 'rxjs';
 import type { Comparison } from '@shared/scenarios/scenario-schemas';
 import { AuthStore } from '../../auth/auth-store';
 import { apiErrorMessage } from '../../core/api-errors';
@@ -18,6 +15,7 @@ import { TermInfo } from '../../ui/term-info/term-info';
 import { comparePointChoices, comparisonTable, differenceRows, type ComparePoint } from '../compare-rows';
 import { comparisonChart } from '../tradeoff-charts';
 import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
+import { compactScreen } from '../../charts/chart-option';
 
 /** `/projects/:id/compare?ids=a,b…`: two to five scenarios side by side, in one table and one chart. */
 @Component({
@@ -94,7 +92,7 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
             </mat-select>
           </mat-form-field>
         </div>
-        <div class="table-wrap" tabindex="0" role="region" aria-label="Comparison table, scrolls sideways">
+        <div class="tr-table-wrap" tabindex="0" role="region" aria-label="Comparison table, scrolls sideways">
           <table class="compare-table" data-testid="compare-table">
             <thead>
               <tr>
@@ -169,10 +167,7 @@ import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
       /* Wide enough for "The point chosen in each scenario" without an ellipsis, never wider than a phone. */
       min-width: min(22rem, 100%);
     }
-    .table-wrap {
-      overflow-x: auto;
-      border: 1px solid var(--tr-rule);
-      border-radius: 8px;
+    .tr-table-wrap {
       margin-top: 1rem;
     }
     .compare-table {
@@ -227,12 +222,7 @@ export class ComparePage {
 
   private readonly api = inject(ScenariosApi);
   private readonly auth = inject(AuthStore);
-  private readonly compact = toSignal(
-    inject(BreakpointObserver)
-      .observe('(max-width: 599.98px)')
-      .pipe(map((s) => s.matches)),
-    { initialValue: false },
-  );
+  private readonly compact = compactScreen();
 
   protected readonly idList = computed(() =>
     this.ids()

@@ -88,6 +88,9 @@ export class ScenarioSettingsPanel {
   private readonly equipment = inject(EquipmentApi);
   private readonly cdr = inject(ChangeDetectorRef);
   private readonly fb = inject(NonNullableFormBuilder);
+  /** A ± tolerance of the uncertainty band, in percent. */
+  private readonly tolerance = (pct: number) =>
+    this.fb.control(pct, [Validators.required, Validators.min(0), Validators.max(90)]);
   protected readonly sites = inject(ProjectsApi).climateSiteChoicesResource();
   protected readonly lists = this.equipment.listsResource();
 
@@ -116,9 +119,9 @@ export class ScenarioSettingsPanel {
     gasPrice: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
     oilPerLitre: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
     propanePerLitre: this.fb.control('', Validators.pattern(PRICE_PATTERN)),
-    uaPct: this.fb.control(10, [Validators.required, Validators.min(0), Validators.max(90)]),
-    airLeakagePct: this.fb.control(25, [Validators.required, Validators.min(0), Validators.max(90)]),
-    pricesPct: this.fb.control(15, [Validators.required, Validators.min(0), Validators.max(90)]),
+    uaPct: this.tolerance(10),
+    airLeakagePct: this.tolerance(25),
+    pricesPct: this.tolerance(15),
     draws: this.fb.control(300, [
       Validators.required,
       Validators.min(0),
@@ -145,6 +148,12 @@ export class ScenarioSettingsPanel {
   protected readonly extraMax = EXTRA_DESIGN_TEMPERATURES_MAX;
   protected readonly maxDraws = MAX_DRAWS;
   protected readonly fieldError = fieldError;
+  /** The tolerances of the uncertainty band, drawn alike. */
+  protected readonly tolerances = [
+    { control: 'uaPct', label: 'UA tolerance' },
+    { control: 'airLeakagePct', label: 'Air leakage tolerance' },
+    { control: 'pricesPct', label: 'Energy price tolerance' },
+  ] as const;
 
   constructor() {
     effect(() => {

@@ -1,7 +1,5 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
 import { DatePipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, effect, inject, input, signal, untracked } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatChipsModule } from '@angular/material/chips';
 import { MatDialog } from '@angular/material/dialog';
@@ -14,7 +12,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, RouterLink } from '@angular/router';
 import type { ECElementEvent, ECharts } from 'echarts/core';
 import { NgxEchartsDirective } from 'ngx-echarts';
-import { firstValueFrom, map } from 'rxjs';
+import { firstValueFrom } from 'rxjs';
 import type { FieldIssue } from '@shared/api/api-error';
 import { SCENARIO_NAME_MAX, type Scenario, type SweepAnswer } from '@shared/scenarios/scenario-schemas';
 import { formatMoney } from '@shared/money/money';
@@ -51,6 +49,7 @@ import {
 import { ReportList } from '../../reports/report-list/report-list';
 import { TermInfo } from '../../ui/term-info/term-info';
 import { TradeoffCautions } from './tradeoff-cautions';
+import { compactScreen } from '../../charts/chart-option';
 
 /** `/projects/:id/scenarios/:scenarioId`: one scenario's sweep, the chosen design point, and its settings. */
 @Component({
@@ -87,12 +86,7 @@ export class TradeoffPage {
   private readonly snack = inject(MatSnackBar);
   private readonly router = inject(Router);
 
-  protected readonly compact = toSignal(
-    inject(BreakpointObserver)
-      .observe('(max-width: 599.98px)')
-      .pipe(map((s) => s.matches)),
-    { initialValue: false },
-  );
+  protected readonly compact = compactScreen();
   protected readonly unitSystem = this.auth.unitSystem;
   protected readonly canWrite = computed(() => this.auth.can('project:write'));
 
