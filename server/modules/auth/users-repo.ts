@@ -3,6 +3,7 @@ import type { UnitSystem } from '@shared/units/units';
 import type { Role } from '@shared/auth/roles';
 import { prepared } from '../../db';
 import { HttpError } from '../../http/http-error';
+import { membershipsView } from '../orgs/orgs-repo';
 
 export const TABLES = ['users'] as const;
 
@@ -24,6 +25,14 @@ interface UserRow {
 const toUser = (r: UserRow): UserRecord => ({ id: r.id, email: r.email, name: r.name, unitSystem: r.unit_system });
 
 /**
+ * Read-only fragment for other areas (docs/architecture.md#read-only-views-of-another-areas-tables):
+ * every account as a subquery with the columns `id`, `name` and `email`, to be joined under an alias of
+ * the caller's choosing, e.g. `leftJoin(peopleView(db).as('uu'), 'uu.id', 'p.updated_by')` for the name of
+ * who last changed a row. PostgreSQL folds it into the caller's statement, which stays one query.
+ */
+export const peopleView = (db: Knex) => db('users').select('id', 'name', 'email');
+
+/**
  * The user and, in the same query, the user's role in `organizationId` (null when the user is not a
  * member, or no organisation is chosen): what every signed-in request needs, in one round trip.
  */
@@ -34,7 +43,7 @@ export async function findWithRole(
 ): Promise<{ user: UserRecord; role: Role | null } | undefined> {
   const row = await prepared(
     db('users as u')
-      .leftJoin('memberships as m', (j) => {
+      .leftJoin(membershipsView(db).as('m'), (j) => {
         j.on('m.user_id', 'u.id').andOnVal('m.organization_id', organizationId ?? null);
       })
       .where('u.id', id)

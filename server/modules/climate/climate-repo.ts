@@ -397,3 +397,16 @@ export function computationSource(
 
 /** The tables this area owns: no other area names them (tests/api/module-tables.test.ts). */
 export const TABLES = ['climate_sites', 'climate_records', 'design_conditions'] as const;
+
+/**
+ * Read-only view for other areas (docs/architecture.md#read-only-views-of-another-areas-tables):
+ * every site as a subquery with the columns `id`, `name`, `updated_at` and `computed_at` (when its design
+ * conditions were last computed; null before), to be joined under an alias of the caller's choosing: the
+ * name is shown beside a project or scenario, and the two times move whenever the site's record or design
+ * values change. PostgreSQL folds it into the caller's statement (and drops the design conditions'
+ * join when `computed_at` is not read).
+ */
+export const sitesView = (db: Knex) =>
+  db('climate_sites as cs')
+    .leftJoin('design_conditions as dc', 'dc.climate_site_id', 'cs.id')
+    .select('cs.id', 'cs.name', 'cs.updated_at', 'dc.computed_at');

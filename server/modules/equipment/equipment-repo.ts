@@ -3,8 +3,23 @@ import type { Knex } from 'knex';
 import type { EquipmentOption } from '@shared/equipment/equipment-schemas';
 import type { EquipmentListSummary } from '@shared/equipment/equipment-schemas';
 import type { EnergyPrices } from '@shared/money/energy-prices';
+import { peopleView } from '../auth/users-repo';
 
 export const TABLES = ['equipment_lists', 'equipment_options', 'energy_prices'] as const;
+
+/**
+ * Read-only view for other areas (docs/architecture.md#read-only-views-of-another-areas-tables):
+ * every equipment list as a subquery with the columns `id`, `name` and `version` (which moves with every
+ * change of the list or its options), to be joined under an alias of the caller's choosing. PostgreSQL
+ * folds it into the caller's statement.
+ */
+export const listsView = (db: Knex) => db('equipment_lists').select('id', 'name', 'version');
+
+/**
+ * Read-only view for other areas: each organisation's energy prices as a subquery with the columns
+ * `organization_id` and `version` (which moves with every change of the prices).
+ */
+export const pricesView = (db: Knex) => db('energy_prices').select('organization_id', 'version');
 
 export interface ListRow {
   id: string;
@@ -25,7 +40,7 @@ export const toSummary = (r: ListRow): EquipmentListSummary => ({
 
 function listQuery(db: Knex, organizationId: string) {
   return db('equipment_lists as l')
-    .leftJoin('users as u', 'u.id', 'l.updated_by')
+    .leftJoin(peopleView(db).as('u'), 'u.id', 'l.updated_by')
     .where('l.organization_id', organizationId)
     .select<ListRow[]>(
       'l.id',
@@ -132,7 +147,7 @@ export function findPrices(
 /** Who last changed the organisation's prices (null when that person has no account any more). */
 export async function pricesUpdatedByName(db: Knex, organizationId: string): Promise<string | null> {
   const by = await db('energy_prices as e')
-    .leftJoin('users as u', 'u.id', 'e.updated_by')
+    .leftJoin(peopleView(db).as('u'), 'u.id', 'e.updated_by')
     .where('e.organization_id', organizationId)
     .first<{ name: string | null } | undefined>('u.name');
   return by?.name ?? null;

@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import type { Role } from '@shared/auth/roles';
 import type { Invitation } from '@shared/orgs/org-schemas';
+import { peopleView } from '../auth/users-repo';
 
 export const TABLES = ['invitations'] as const;
 
@@ -53,7 +54,7 @@ export async function findByTokenHash(
 
 export async function listForOrganization(db: Knex, organizationId: string): Promise<Invitation[]> {
   const rows = await db('invitations as i')
-    .leftJoin('users as u', 'u.id', 'i.invited_by')
+    .leftJoin(peopleView(db).as('u'), 'u.id', 'i.invited_by')
     .where('i.organization_id', organizationId)
     .orderBy('i.created_at', 'desc')
     .select<(InvitationRow & { invited_by_name: string | null })[]>('i.*', 'u.name as invited_by_name');
@@ -114,7 +115,7 @@ export function invitationDetails(
 ): Promise<{ organization_name: string; invited_by_name: string | null } | undefined> {
   return db('invitations as i')
     .join('organizations as o', 'o.id', 'i.organization_id')
-    .leftJoin('users as u', 'u.id', 'i.invited_by')
+    .leftJoin(peopleView(db).as('u'), 'u.id', 'i.invited_by')
     .where('i.id', id)
     .first<{ organization_name: string; invited_by_name: string | null } | undefined>(
       'o.name as organization_name',

@@ -2,8 +2,17 @@ import type { Knex } from 'knex';
 import type { MembershipSummary } from '@shared/auth/auth-schemas';
 import type { Role } from '@shared/auth/roles';
 import type { Member } from '@shared/orgs/org-schemas';
+import { peopleView } from '../auth/users-repo';
 
 export const TABLES = ['organizations', 'memberships'] as const;
+
+/**
+ * Read-only fragment for other areas (docs/architecture.md#read-only-views-of-another-areas-tables):
+ * every membership as a subquery with the columns `organization_id`, `user_id` and `role`, to be joined
+ * under an alias of the caller's choosing (the session's user is read with their role this way, in one
+ * query). PostgreSQL folds it into the caller's statement.
+ */
+export const membershipsView = (db: Knex) => db('memberships').select('organization_id', 'user_id', 'role');
 
 export async function createOrganization(db: Knex, name: string, ownerId: string): Promise<string> {
   const [org] = await db('organizations').insert({ name }).returning<{ id: string }[]>('id');
@@ -53,7 +62,7 @@ const toMember = (r: MemberRow): Member => ({
 
 function memberQuery(db: Knex, organizationId: string) {
   return db('memberships as m')
-    .join('users as u', 'u.id', 'm.user_id')
+    .join(peopleView(db).as('u'), 'u.id', 'm.user_id')
     .where('m.organization_id', organizationId)
     .select<MemberRow[]>('m.user_id', 'u.email', 'u.name', 'm.role', 'm.created_at');
 }
@@ -97,7 +106,7 @@ export async function removeMember(db: Knex, organizationId: string, userId: str
 /** Whether a member of the organisation has this e-mail address. */
 export async function isMemberByEmail(db: Knex, organizationId: string, email: string): Promise<boolean> {
   const row: unknown = await db('memberships as m')
-    .join('users as u', 'u.id', 'm.user_id')
+    .join(peopleView(db).as('u'), 'u.id', 'm.user_id')
     .where({ 'm.organization_id': organizationId, 'u.email': email })
     .first('m.user_id');
   return Boolean(row);
@@ -133,7 +142,7 @@ export async function memberUserIds(db: Knex, organizationId: string): Promise<s
 /** The e-mail addresses of the organisation's members, in lower case. */
 export async function memberAddresses(db: Knex, organizationId: string): Promise<string[]> {
   const rows = await db('memberships as m')
-    .join('users as u', 'u.id', 'm.user_id')
+    .join(peopleView(db).as('u'), 'u.id', 'm.user_id')
     .where('m.organization_id', organizationId)
     .select<{ address: string }[]>(db.raw('lower(u.email) as address'));
   return rows.map((r) => r.address);

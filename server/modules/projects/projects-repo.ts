@@ -3,6 +3,9 @@ import type { Knex } from 'knex';
 import type { Building } from '@shared/building/building-schemas';
 import type { Project } from '@shared/projects/project-schemas';
 import { prepared } from '../../db';
+import { peopleView } from '../auth/users-repo';
+import { sitesView } from '../climate/climate-repo';
+import { listsView } from '../equipment/equipment-repo';
 
 export const TABLES = ['projects'] as const;
 
@@ -26,6 +29,14 @@ interface ProjectRow {
 
 const FORMER = 'A former member';
 
+/**
+ * Read-only view for other areas (docs/architecture.md#read-only-views-of-another-areas-tables):
+ * every project as a subquery with the columns `id` and `version` (which moves with every change of the
+ * project or its building), to be joined under an alias of the caller's choosing. PostgreSQL folds it
+ * into the caller's statement.
+ */
+export const projectsView = (db: Knex) => db('projects').select('id', 'version');
+
 const toProject = (r: ProjectRow): Project => ({
   id: r.id,
   name: r.name,
@@ -47,10 +58,10 @@ const toProject = (r: ProjectRow): Project => ({
 /** Projects with the names shown beside them (people, climate site, equipment list), read in the same query. */
 function projectQuery(db: Knex, organizationId: string) {
   return db('projects as p')
-    .leftJoin('users as cu', 'cu.id', 'p.created_by')
-    .leftJoin('users as uu', 'uu.id', 'p.updated_by')
-    .leftJoin('climate_sites as cs', 'cs.id', 'p.climate_site_id')
-    .leftJoin('equipment_lists as el', 'el.id', 'p.equipment_list_id')
+    .leftJoin(peopleView(db).as('cu'), 'cu.id', 'p.created_by')
+    .leftJoin(peopleView(db).as('uu'), 'uu.id', 'p.updated_by')
+    .leftJoin(sitesView(db).as('cs'), 'cs.id', 'p.climate_site_id')
+    .leftJoin(listsView(db).as('el'), 'el.id', 'p.equipment_list_id')
     .where('p.organization_id', organizationId)
     .select<ProjectRow[]>(
       'p.id',

@@ -7,6 +7,10 @@ import {
   type SweepAnswer,
 } from '@shared/scenarios/scenario-schemas';
 import { prepared } from '../../db';
+import { peopleView } from '../auth/users-repo';
+import { sitesView } from '../climate/climate-repo';
+import { listsView, pricesView } from '../equipment/equipment-repo';
+import { projectsView } from '../projects/projects-repo';
 
 export const TABLES = ['scenarios', 'sweep_results'] as const;
 
@@ -67,39 +71,40 @@ export function toScenario(r: ListedRow): Scenario {
 /**
  * Everything that can change a scenario's sweep inputs moves one of these: the scenario's, project's,
  * list's and prices' versions, the site's last update and computation, and the references themselves.
- * `joinInputsKey` adds it as `inputs_key` to a query of `scenarios as s` that left-joins
- * `climate_sites as cs` and `equipment_lists as el`, so that it comes with the scenario row. It reads
- * the version columns of the other areas' tables in the same query on purpose: one round trip tells
- * whether a prepared sweep can be reused.
+ * `joinInputsKey` adds it as `inputs_key` to a query of `scenarios as s` that left-joins the climate
+ * area's `sitesView` as `cs` and the equipment area's `listsView` as `el`, so that it comes with the
+ * scenario row. It reads the other areas' versions through their read-only views in the same statement
+ * on purpose: one round trip tells whether a prepared sweep can be reused.
  */
 export function joinInputsKey<Q extends Knex.QueryBuilder>(db: Knex, query: Q): Q {
   return query
-    .join('projects as p', 'p.id', 's.project_id')
-    .leftJoin('energy_prices as ep', 'ep.organization_id', 's.organization_id')
-    .leftJoin('design_conditions as dc', 'dc.climate_site_id', 's.climate_site_id')
+    .join(projectsView(db).as('p'), 'p.id', 's.project_id')
+    .leftJoin(pricesView(db).as('ep'), 'ep.organization_id', 's.organization_id')
     .select(
       db.raw(
-        'json_build_array(s.version, s.climate_site_id, s.equipment_list_id, p.version, el.version, ep.version, cs.updated_at, dc.computed_at)::text as inputs_key',
+        'json_build_array(s.version, s.climate_site_id, s.equipment_list_id, p.version, el.version, ep.version, cs.updated_at, cs.computed_at)::text as inputs_key',
       ),
     ) as Q;
 }
 
 /** The sweep inputs' key of one scenario ('gone' when it no longer exists). */
 export async function inputsKeyOf(db: Knex, scenarioId: string): Promise<string> {
-  const query = db('scenarios as s')
-    .leftJoin('climate_sites as cs', 'cs.id', 's.climate_site_id')
-    .leftJoin('equipment_lists as el', 'el.id', 's.equipment_list_id')
-    .where('s.id', scenarioId);
+  const query = withReferences(db, db('scenarios as s')).where('s.id', scenarioId);
   const r = await joinInputsKey(db, query).first<{ inputs_key: string } | undefined>();
   return r?.inputs_key ?? 'gone';
 }
 
+/** Left-joins the scenario's climate site as `cs` and equipment list as `el` (the other areas' views). */
+function withReferences<Q extends Knex.QueryBuilder>(db: Knex, query: Q): Q {
+  return query
+    .leftJoin(sitesView(db).as('cs'), 'cs.id', 's.climate_site_id')
+    .leftJoin(listsView(db).as('el'), 'el.id', 's.equipment_list_id') as Q;
+}
+
 /** A project's scenarios, with the names shown beside them and the key that tells whether their sweep inputs changed. */
 function scenarioQuery(db: Knex, organizationId: string, projectId: string) {
-  const query = db('scenarios as s')
-    .leftJoin('climate_sites as cs', 'cs.id', 's.climate_site_id')
-    .leftJoin('equipment_lists as el', 'el.id', 's.equipment_list_id')
-    .leftJoin('users as uu', 'uu.id', 's.updated_by')
+  const query = withReferences(db, db('scenarios as s'))
+    .leftJoin(peopleView(db).as('uu'), 'uu.id', 's.updated_by')
     .where({ 's.organization_id': organizationId, 's.project_id': projectId })
     .select<ListedRow[]>(
       's.*',
