@@ -65,7 +65,12 @@ describe('a heat-pump scenario in a real browser', () => {
     );
     assert.equal(
       await page.getByTestId('chosen-backup-energy').innerText(),
-      `${Math.round(r99.backupEnergyKWh).toLocaleString('en-US')} kWh`,
+      // Written like hours: one decimal below 10 kWh, "< 0.1 kWh" for a little that would round to none.
+      r99.backupEnergyKWh > 0 && r99.backupEnergyKWh < 0.05
+        ? '< 0.1 kWh'
+        : r99.backupEnergyKWh > 0 && r99.backupEnergyKWh < 10
+          ? `${r99.backupEnergyKWh.toFixed(1)} kWh`
+          : `${Math.round(r99.backupEnergyKWh).toLocaleString('en-US')} kWh`,
     );
     assert.match(
       await page.getByTestId('chosen-lcc').innerText(),
