@@ -1,6 +1,3 @@
-import { BreakpointObserver } from '@angular/cdk/layout';
-import { inject, type Signal } from '@angular/core';
-import { toSignal } from '@angular/core/rxjs-interop';
 import type { BarSeriesOption, LineSeriesOption } from 'echarts/charts';
 import type {
   GridComponentOption,
@@ -10,7 +7,6 @@ import type {
   TooltipComponentOption,
 } from 'echarts/components';
 import type { ComposeOption } from 'echarts/core';
-import { map } from 'rxjs';
 
 /** The options of every chart on the screens: the series and components registered in echarts-setup.ts. */
 export type ChartOption = ComposeOption<
@@ -22,19 +18,3 @@ export type ChartOption = ComposeOption<
   | MarkLineComponentOption
   | TitleComponentOption
 >;
-
-/** The phone-width breakpoint the charts and tables adapt to. */
-export const COMPACT_SCREEN = '(max-width: 599.98px)';
-
-/**
- * Whether the screen is phone-width, as a signal (fewer axis labels, smaller type, stacked rows).
- * Call it in an injection context (a field initialiser of a component).
- */
-export function compactScreen(): Signal<boolean> {
-  return toSignal(
-    inject(BreakpointObserver)
-      .observe(COMPACT_SCREEN)
-      .pipe(map((s) => s.matches)),
-    { initialValue: false },
-  );
-}

@@ -53,16 +53,18 @@ export function optionLabelOf(answer: SweepAnswer): (id: string) => string {
   return (id) => labels.get(id) ?? `Option ${id}`;
 }
 
+/** A yearly amount: one decimal below 10, whole numbers from 10 up. */
+const tenthsBelowTen = (v: number): string => (v < 10 && v > 0 ? groupDigits(v, 1) : groupDigits(v));
+
 /** Unmet hours in one format everywhere: one decimal below 10, whole hours from 10 up. */
-export const hours = (h: number | null): string =>
-  h === null ? '—' : h < 10 && h > 0 ? groupDigits(h, 1) : groupDigits(h);
+export const hours = (h: number | null): string => (h === null ? '—' : tenthsBelowTen(h));
 
 /**
- * Backup energy a year, as hours are written: one decimal below 10 kWh, whole kWh from 10 up, and
- * "< 0.1 kWh" for a little that would round to nothing (a few minutes of backup are not none).
+ * Backup energy a year, as hours are written, and "< 0.1 kWh" for a little that would round to
+ * nothing (a few minutes of backup are not none).
  */
 export const backupEnergy = (kWh: number): string =>
-  kWh > 0 && kWh < 0.05 ? '< 0.1 kWh' : `${kWh > 0 && kWh < 10 ? groupDigits(kWh, 1) : groupDigits(kWh)} kWh`;
+  kWh > 0 && kWh < 0.05 ? '< 0.1 kWh' : `${tenthsBelowTen(kWh)} kWh`;
 
 /** The design temperatures as the table shows them (money to whole units: a summary). */
 export function designRows(answer: SweepAnswer, system: UnitSystem): DesignRowText[] {

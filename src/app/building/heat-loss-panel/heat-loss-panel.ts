@@ -6,7 +6,8 @@ import { provideCharts } from '../../charts/provide-charts';
 import { groupDigits, powerChartUnit, powerInChartUnit, temperatureForChart } from '../building-units';
 import { CHART_TEXT, COLD, EMBER, INK, SPLIT_LINE, TEXT, WHITE } from '../../charts/chart-theme';
 import { equipmentSummary, type HeatLossModel } from './heat-loss-model';
-import { type ChartOption, compactScreen } from '../../charts/chart-option';
+import { type ChartOption } from '../../charts/chart-option';
+import { compactScreen } from '../../core/compact-screen';
 
 /**
  * The building's heat loss as it stands in the form: the breakdown at the design temperature, and the

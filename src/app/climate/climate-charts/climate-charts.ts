@@ -8,7 +8,8 @@ import { fromSi, unitLabel, type UnitSystem } from '@shared/units/units';
 import { CHART_TEXT, COLD, COLD_TEXT, EMBER, INK, INK_BARS, SLATE, SPLIT_LINE, TEXT } from '../../charts/chart-theme';
 import { provideCharts } from '../../charts/provide-charts';
 import { HOURS_PER_YEAR, MONTH_NAMES, MONTH_SHORT_NAMES, formatNumber } from '../climate-format';
-import { type ChartOption, compactScreen } from '../../charts/chart-option';
+import { type ChartOption } from '../../charts/chart-option';
+import { compactScreen } from '../../core/compact-screen';
 
 type MarkLineData = NonNullable<MarkLineComponentOption['data']>[number];
 

@@ -5,7 +5,7 @@ import type { EChartsCoreOption } from 'echarts/core';
 import { optionMarks, reportChartOption } from '@shared/reports/report-chart';
 import type { ReportView } from '@shared/reports/report-schemas';
 import { provideCharts } from '../../charts/provide-charts';
-import { compactScreen } from '../../charts/chart-option';
+import { compactScreen } from '../../core/compact-screen';
 
 /** The report as the homeowner sees it (the public page and the designer's preview show this same component). */
 @Component({

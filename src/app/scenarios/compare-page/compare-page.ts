@@ -15,7 +15,7 @@ import { TermInfo } from '../../ui/term-info/term-info';
 import { comparePointChoices, comparisonTable, differenceRows, type ComparePoint } from '../compare-rows';
 import { comparisonChart } from '../tradeoff-charts';
 import { TradeoffCautions } from '../tradeoff-page/tradeoff-cautions';
-import { compactScreen } from '../../charts/chart-option';
+import { compactScreen } from '../../core/compact-screen';
 
 /** `/projects/:id/compare?ids=a,b…`: two to five scenarios side by side, in one table and one chart. */
 @Component({

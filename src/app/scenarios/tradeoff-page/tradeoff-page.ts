@@ -49,7 +49,7 @@ import {
 import { ReportList } from '../../reports/report-list/report-list';
 import { TermInfo } from '../../ui/term-info/term-info';
 import { TradeoffCautions } from './tradeoff-cautions';
-import { compactScreen } from '../../charts/chart-option';
+import { compactScreen } from '../../core/compact-screen';
 
 /** `/projects/:id/scenarios/:scenarioId`: one scenario's sweep, the chosen design point, and its settings. */
 @Component({
